@@ -1,0 +1,130 @@
+"""The shared shapes every check family uses: MemberRows in, CheckBlocks out.
+
+A row is one (design member, combination). Forces along the member are padded to a common number of
+stations S with NaN, so every check is an array operation over rows and stations, never a Python
+loop over members or combinations.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+import numpy as np
+
+from ..settings import DesignSettings
+
+PASS, FAIL, NOT_EVALUATED = "pass", "fail", "not evaluated"
+
+
+@dataclass(frozen=True)
+class MemberRows:
+    """Everything a check needs, as arrays over R rows (member, combination).
+
+    Forces (R, S), SI, member axes (x from the member's start, y-y major, z-z minor), sign
+    convention of `postproc.results`; padded stations are NaN in every force array and in x.
+
+    Attributes:
+        member: (R,) member ids (str).
+        combination: (R,) combination ids (str).
+        x: (R, S) station positions along the member, m.
+        N, Vy, Vz, T, My, Mz: (R, S) internal forces, N and N*m.
+        length: (R,) member length, m.
+        section: dict of (R,) arrays, one per column of the sections table (see
+            `postproc.sections`), e.g. section['A'], section['W_pl_y'], section['shape'].
+        f_y, f_u: (R,) yield and ultimate strength, Pa.
+        E, G: (R,) moduli, Pa.
+        lengths: dict of (R,) buckling and restraint lengths, m: 'L_cr_y', 'L_cr_z', 'L_cr_T',
+            'L_LT' (NaN where unknown: the check that needs it is then not evaluated), plus
+            anything else the graph layer provides (documented there).
+        info: dict of (R,) arrays of other per-row data (analysis path, sway flags, restraint
+            flags, member kind, net area ...); each key documented where it is produced.
+        settings: the design settings in force.
+    """
+
+    member: np.ndarray
+    combination: np.ndarray
+    x: np.ndarray
+    N: np.ndarray
+    Vy: np.ndarray
+    Vz: np.ndarray
+    T: np.ndarray
+    My: np.ndarray
+    Mz: np.ndarray
+    length: np.ndarray
+    section: dict[str, np.ndarray]
+    f_y: np.ndarray
+    f_u: np.ndarray
+    E: np.ndarray
+    G: np.ndarray
+    lengths: dict[str, np.ndarray] = field(default_factory=dict)
+    info: dict[str, np.ndarray] = field(default_factory=dict)
+    settings: DesignSettings = field(default_factory=DesignSettings)
+
+    @property
+    def n_rows(self) -> int:
+        return int(self.member.shape[0])
+
+    @property
+    def valid(self) -> np.ndarray:
+        """(R, S) True at real stations, False at padding."""
+        return ~np.isnan(self.x)
+
+
+@dataclass
+class CheckBlock:
+    """The result of one check for all rows.
+
+    Attributes:
+        check: short name of the check, plain words or symbols (e.g. 'compression',
+            'bending y-y', 'flexural buckling z-z', 'interaction 6.61').
+        clause: clause, equation or table of EN 1993-1-1 (e.g. '6.2.4', '6.3.3 (6.61)').
+        utilisation: (R,) design effect over resistance at the governing location; NaN where the
+            check could not be evaluated.
+        x: (R,) governing location along the member, m (NaN for whole-member checks).
+        applies: (R,) rows the check applies to (e.g. compression checks only where N_Ed < 0);
+            rows where it does not apply are left out of the results table.
+        reason: (R,) object array, '' where evaluated, otherwise why not evaluated. A row with a
+            NaN utilisation and no reason gets 'could not be evaluated'.
+        values: intermediate values, name -> (R,) array. Names are the standard's symbols with an
+            SI unit suffix where dimensional: 'N_Ed_N', 'N_c_Rd_N', 'M_cr_Nm', 'chi_y', 'k_yy'.
+            Text values (e.g. 'buckling_curve', 'section_class_part') may be object arrays.
+    """
+
+    check: str
+    clause: str
+    utilisation: np.ndarray
+    x: np.ndarray
+    applies: np.ndarray
+    reason: np.ndarray
+    values: dict[str, np.ndarray] = field(default_factory=dict)
+
+    def status(self, limit: float = 1.0) -> np.ndarray:
+        """(R,) 'pass', 'fail' or 'not evaluated'. NaN never passes."""
+        evaluated = ~np.isnan(self.utilisation) & (self.reason == "")
+        over = evaluated & (np.nan_to_num(self.utilisation, nan=0.0) > limit)
+        return np.where(~evaluated, NOT_EVALUATED, np.where(over, FAIL, PASS)).astype(object)
+
+
+def no_reason(n: int) -> np.ndarray:
+    """An (n,) object array of empty reasons."""
+    return np.full(n, "", dtype=object)
+
+
+def governing(utilisation: np.ndarray, x: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Governing station per row of an (R, S) utilisation array.
+
+    Returns (utilisation (R,), x (R,), station index (R,)). A row whose stations are all NaN gets
+    NaN; a NaN at a real station makes the whole row NaN (never a silent pass).
+    """
+    filled = np.where(np.isnan(utilisation), -np.inf, utilisation)
+    idx = np.argmax(filled, axis=1)
+    rows = np.arange(utilisation.shape[0])
+    util = utilisation[rows, idx]
+    nan_at_real = (np.isnan(utilisation) & ~np.isnan(x)).any(axis=1)
+    util = np.where(nan_at_real, np.nan, util)
+    return util, x[rows, idx], idx
+
+
+def at_station(values: np.ndarray, idx: np.ndarray) -> np.ndarray:
+    """Pick one station per row from an (R, S) array."""
+    return values[np.arange(values.shape[0]), idx]
