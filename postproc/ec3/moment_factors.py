@@ -1,0 +1,295 @@
+"""Equivalent uniform moment factors from the actual moment diagram (Annex B Table B.3, Annex A
+Table A.2).
+
+A moment diagram is given as stations x (R, S) and moments M (R, S), one row per (member,
+combination); padded stations are NaN in x. Stations need not be sorted and may repeat (element
+junctions). Every function works on all rows at once.
+
+Reading a diagram (`diagram_shape`):
+- End moments M_a (smallest x) and M_b (largest x). M_h is the end moment of larger magnitude and
+  psi = (other end moment) / M_h, so -1 <= psi <= 1; where both ends are zero psi is taken as 1.
+- The chord is the straight line through the end moments. A diagram whose stations stay within
+  `linear_tol` * max|M| of the chord is linear (end moments only).
+- Otherwise the span carries transverse load. Its span moment M_s is the moment at the station
+  furthest from the chord, replaced by the interior extreme of M on the same side when the
+  diagram peaks strictly inside the span (then that peak is the largest span moment).
+  |M_s| <= |M_h| gives alpha_s = M_s / M_h, otherwise alpha_h = M_h / M_s (Table B.3).
+- Distributed or concentrated span load, told apart by where the slope of the diagram (the shear)
+  changes: a concentrated load changes it at one station, or two neighbouring stations when it
+  sits between them; a distributed load changes it all along. Fewer than three interior stations
+  cannot tell the two apart: the load is then 'undetermined' and the larger (distributed-load)
+  factor of Table B.3 is used.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+LINEAR, SPAN_SMALLER, SPAN_LARGER, NO_MOMENT, INVALID = (
+    "linear", "span moment smaller than end moment", "span moment larger than end moment",
+    "no moment", "diagram not readable")
+NONE, DISTRIBUTED, CONCENTRATED, UNDETERMINED = "none", "distributed", "concentrated", "undetermined"
+
+C_M_SWAY = 0.9  # Table B.3, note: members with a sway buckling mode.
+
+
+def _compact(x: np.ndarray, M: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
+    """Sort each row by x with the real stations first; returns x, M, n (real stations), bad rows."""
+    x = np.atleast_2d(np.asarray(x, dtype=float))
+    M = np.atleast_2d(np.asarray(M, dtype=float))
+    real = ~np.isnan(x)
+    bad = (real & np.isnan(M)).any(axis=1)  # a station without a moment: diagram incomplete
+    order = np.argsort(np.where(real, x, np.inf), axis=1, kind="stable")
+    xs = np.take_along_axis(np.where(real, x, np.nan), order, axis=1)
+    Ms = np.take_along_axis(np.where(real, M, np.nan), order, axis=1)
+    n = real.sum(axis=1)
+    return xs, Ms, n, bad | (n < 2)
+
+
+def _last(values: np.ndarray, n: np.ndarray) -> np.ndarray:
+    return values[np.arange(values.shape[0]), np.maximum(n - 1, 0)]
+
+
+def diagram_shape(x: np.ndarray, M: np.ndarray, *, linear_tol: float = 1e-3,
+                  concentrated_share: float = 0.95) -> dict[str, np.ndarray]:
+    """EN 1993-1-1:2005, Annex B, Table B.3 (moment diagram: psi, M_h, M_s, alpha_s, alpha_h).
+
+    Args:
+        x: (R, S) stations along the member, m; NaN padding.
+        M: (R, S) bending moment at the stations, N*m.
+        linear_tol: largest distance from the chord, as a share of max|M|, still read as linear.
+        concentrated_share: share of the total slope change that must sit at one station (or two
+            neighbouring ones) for the span load to be read as concentrated.
+
+    Returns:
+        dict of (R,) arrays: 'M_a_Nm', 'M_b_Nm' (end moments), 'M_h_Nm', 'psi', 'M_s_Nm',
+        'alpha_s', 'alpha_h' (NaN where the other applies), 'M_max_Nm' (largest |M|), 'shape'
+        (object: linear / span moment smaller / larger / no moment / not readable), 'load'
+        (object: none / distributed / concentrated / undetermined).
+    """
+    xs, Ms, n, bad = _compact(x, M)
+    R, S = xs.shape
+    rows = np.arange(R)
+    M_a, M_b = Ms[:, 0], _last(Ms, n)
+    x_a, x_b = xs[:, 0], _last(xs, n)
+    M_max = np.nanmax(np.where(np.isnan(Ms), -np.inf, np.abs(Ms)), axis=1)
+    M_max = np.where(bad, np.nan, M_max)
+    scale = np.where(M_max > 0, M_max, 1.0)
+
+    a_is_h = np.abs(M_a) >= np.abs(M_b)
+    M_h = np.where(a_is_h, M_a, M_b)
+    M_other = np.where(a_is_h, M_b, M_a)
+    ends_zero = np.abs(M_h) <= linear_tol * scale
+    with np.errstate(invalid="ignore", divide="ignore"):
+        psi = np.where(ends_zero, 1.0, M_other / np.where(ends_zero, 1.0, M_h))
+        span = np.where(x_b > x_a, x_b - x_a, np.nan)
+        chord = M_a[:, None] + (M_b - M_a)[:, None] * (xs - x_a[:, None]) / span[:, None]
+    dev = Ms - chord
+    dev_abs = np.where(np.isnan(dev), -np.inf, np.abs(dev))
+    k_peak = np.argmax(dev_abs, axis=1)
+    dev_max = dev_abs[rows, k_peak]
+    side = np.sign(dev[rows, k_peak])  # +1: span load pushes M up, -1: down
+    linear = dev_max <= linear_tol * scale
+    no_moment = M_max == 0
+
+    # Span moment: the moment furthest from the chord, or the interior peak on that side.
+    signed = np.where(np.isnan(Ms), -np.inf, side[:, None] * Ms)
+    k_ext = np.argmax(signed, axis=1)
+    interior_peak = (k_ext > 0) & (k_ext < n - 1) & (
+        signed[rows, k_ext] > np.maximum(side * M_a, side * M_b) + linear_tol * scale)
+    M_s = np.where(interior_peak, Ms[rows, k_ext], Ms[rows, k_peak])
+
+    smaller = np.abs(M_s) <= np.abs(M_h)
+    with np.errstate(invalid="ignore", divide="ignore"):
+        alpha_s = np.where(smaller & ~linear, M_s / np.where(M_h == 0, 1.0, M_h), np.nan)
+        alpha_h = np.where(~smaller & ~linear, M_h / np.where(M_s == 0, 1.0, M_s), np.nan)
+    alpha_s = np.where(smaller & (M_h == 0) & ~linear, np.nan, alpha_s)
+
+    shape = np.where(linear, LINEAR, np.where(smaller, SPAN_SMALLER, SPAN_LARGER)).astype(object)
+    shape[no_moment] = NO_MOMENT
+    shape[bad] = INVALID
+    load = _span_load(xs, Ms, concentrated_share)
+    load[linear | no_moment | bad] = NONE
+    nan_bad = lambda v: np.where(bad, np.nan, v)  # noqa: E731
+    return {"M_a_Nm": nan_bad(M_a), "M_b_Nm": nan_bad(M_b), "M_h_Nm": nan_bad(M_h),
+            "psi": nan_bad(np.clip(psi, -1.0, 1.0)),
+            "M_s_Nm": nan_bad(np.where(linear, np.nan, M_s)),
+            "alpha_s": nan_bad(alpha_s), "alpha_h": nan_bad(alpha_h), "M_max_Nm": M_max,
+            "shape": shape, "load": load}
+
+
+def _span_load(xs: np.ndarray, Ms: np.ndarray, concentrated_share: float) -> np.ndarray:
+    """'distributed', 'concentrated' or 'undetermined' per row, from the changes of slope."""
+    R = xs.shape[0]
+    if xs.shape[1] < 2:
+        return np.full(R, UNDETERMINED, dtype=object)
+    dx = np.diff(xs, axis=1)
+    length = np.nanmax(xs, axis=1, initial=-np.inf) - np.nanmin(xs, axis=1, initial=np.inf)
+    real = ~np.isnan(dx) & (dx > 1e-9 * np.where(length > 0, length, 1.0)[:, None])
+    with np.errstate(invalid="ignore", divide="ignore"):
+        slope = np.where(real, np.diff(Ms, axis=1) / np.where(real, dx, 1.0), np.nan)
+    # Carry the last real slope over repeated stations, so a jump there counts once.
+    idx = np.where(real, np.arange(slope.shape[1])[None, :], 0)
+    idx = np.maximum.accumulate(idx, axis=1)
+    filled = np.take_along_axis(slope, idx, axis=1)
+    jump = np.abs(np.nan_to_num(np.diff(filled, axis=1), nan=0.0))
+    total = jump.sum(axis=1)
+    if jump.shape[1] >= 2:
+        pair = np.maximum(jump[:, :-1] + jump[:, 1:], jump.max(axis=1, keepdims=True)).max(axis=1)
+    else:
+        pair = jump.max(axis=1, initial=0.0)
+    n_interior = real.sum(axis=1) - 1  # distinct interior stations
+    concentrated = pair >= concentrated_share * total
+    out = np.where(concentrated, CONCENTRATED, DISTRIBUTED).astype(object)
+    out[n_interior < 3] = UNDETERMINED
+    return out
+
+
+def C_m_table_b3(psi: np.ndarray, alpha_s: np.ndarray, alpha_h: np.ndarray, shape: np.ndarray,
+                 load: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """EN 1993-1-1:2005, Annex B, Table B.3 (equivalent uniform moment factors C_my, C_mz, C_mLT).
+
+    Args:
+        psi, alpha_s, alpha_h, shape, load: as returned by `diagram_shape`.
+
+    Returns:
+        (C_m (R,), table row used (R,) object). An 'undetermined' load takes the distributed-load
+        column, the larger of the two everywhere in the table. A diagram with no moment takes
+        C_m = 1.0 (psi = 1). NaN where the diagram could not be read.
+    """
+    psi = np.asarray(psi, dtype=float)
+    a_s = np.asarray(alpha_s, dtype=float)
+    a_h = np.asarray(alpha_h, dtype=float)
+    shape = np.asarray(shape, dtype=object)
+    point = np.asarray(load, dtype=object) == CONCENTRATED
+    with np.errstate(invalid="ignore"):
+        lin = 0.6 + 0.4 * psi
+        s_pos = 0.2 + 0.8 * a_s
+        s_neg = np.where(psi >= 0,
+                         np.where(point, -0.8 * a_s, 0.1 - 0.8 * a_s),
+                         np.where(point, 0.2 * (-psi) - 0.8 * a_s, 0.1 * (1 - psi) - 0.8 * a_s))
+        h_fac = np.where((a_h < 0) & (psi < 0), a_h * (1 + 2 * psi), a_h)
+        h = np.where(point, 0.90 + 0.10 * h_fac, 0.95 + 0.05 * h_fac)
+        C = np.select([shape == LINEAR, (shape == SPAN_SMALLER) & (a_s >= 0),
+                       shape == SPAN_SMALLER, shape == SPAN_LARGER, shape == NO_MOMENT],
+                      [lin, s_pos, s_neg, h, np.ones_like(psi)], default=np.nan)
+        lower_bounded = (shape == LINEAR) | (shape == SPAN_SMALLER)
+        C = np.where(lower_bounded, np.maximum(C, 0.4), C)  # the '>= 0.4' of the table
+
+    col = np.where(point, "concentrated", "distributed").astype(object)
+    col[np.asarray(load, dtype=object) == UNDETERMINED] = "distributed (load type undetermined)"
+    sign_s = np.where(a_s >= 0, "0 <= alpha_s <= 1", "-1 <= alpha_s < 0")
+    sign_h = np.where(a_h >= 0, "0 <= alpha_h <= 1", "-1 <= alpha_h < 0")
+    psi_txt = np.where(psi >= 0, ", 0 <= psi <= 1", ", -1 <= psi < 0")
+    row = np.full(psi.shape, "not readable", dtype=object)
+    row[shape == LINEAR] = "B.3 linear, -1 <= psi <= 1"
+    row[shape == NO_MOMENT] = "no moment, C_m = 1.0"
+    sm = shape == SPAN_SMALLER
+    row[sm] = ("B.3 alpha_s = M_s/M_h, " + sign_s[sm] + np.where(a_s[sm] < 0, psi_txt[sm], "")
+               + ", " + col[sm]).astype(object)
+    lg = shape == SPAN_LARGER
+    row[lg] = ("B.3 alpha_h = M_h/M_s, " + sign_h[lg] + np.where(a_h[lg] < 0, psi_txt[lg], "")
+               + ", " + col[lg]).astype(object)
+    return C, row
+
+
+def C_m_annex_b(x: np.ndarray, M: np.ndarray, *, sway: np.ndarray | None = None,
+                **shape_options: float) -> dict[str, np.ndarray]:
+    """EN 1993-1-1:2005, Annex B, Table B.3 (C_my, C_mz or C_mLT from a sampled moment diagram).
+
+    Args:
+        x, M: (R, S) stations (m) and moments (N*m), NaN padding.
+        sway: (R,) bool, True where the member buckles about this axis in a sway mode (then
+            C_m = 0.9, Table B.3 note). None: not known; the larger of 0.9 and the non-sway
+            factor is used. Leave None and ignore 'C_m' sway entries for C_mLT (no sway rule).
+        shape_options: passed to `diagram_shape`.
+
+    Returns:
+        the `diagram_shape` dict plus 'C_m_non_sway', 'C_m' and 'C_m_row' (object).
+    """
+    shape = diagram_shape(x, M, **shape_options)
+    C, row = C_m_table_b3(shape["psi"], shape["alpha_s"], shape["alpha_h"], shape["shape"],
+                          shape["load"])
+    if sway is None:
+        C_used = np.where(np.isnan(C), np.nan, np.maximum(C, C_M_SWAY))
+        row_used = np.where(C_used > C, "sway mode not known: 0.9 (larger than table)",
+                            row + " (sway mode not known: table larger than 0.9)")
+    else:
+        sway = np.asarray(sway, dtype=bool)
+        C_used = np.where(sway & ~np.isnan(C), C_M_SWAY, C)
+        row_used = np.where(sway, "B.3 sway buckling mode, 0.9", row)
+    return {**shape, "C_m_non_sway": C, "C_m": C_used, "C_m_row": row_used.astype(object)}
+
+
+def chord_deflection(x: np.ndarray, M: np.ndarray, EI: np.ndarray) -> np.ndarray:
+    """Largest deflection |delta_x| relative to the chord, from the moment diagram (Table A.2).
+
+    Integrates the curvature M / (E I) twice along the member, taking M linear between stations
+    (exact for concentrated loads, slightly low between stations for distributed ones), with
+    zero deflection at both ends: the member as a single span between its end nodes, as it is
+    checked. Returns (R,) in m; NaN where the diagram cannot be read.
+    """
+    xs, Ms, n, bad = _compact(x, M)
+    kappa = Ms / np.asarray(EI, dtype=float)[:, None]
+    dx = np.nan_to_num(np.diff(xs, axis=1), nan=0.0)
+    k0 = np.nan_to_num(kappa[:, :-1])
+    k1 = np.nan_to_num(kappa[:, 1:])
+    # Rotation and deflection at each station, exact for curvature linear over each step.
+    d_theta = dx * (k0 + k1) / 2
+    theta = np.concatenate([np.zeros((xs.shape[0], 1)), np.cumsum(d_theta, axis=1)], axis=1)
+    d_w = theta[:, :-1] * dx + dx ** 2 * (2 * k0 + k1) / 6
+    w = np.concatenate([np.zeros((xs.shape[0], 1)), np.cumsum(d_w, axis=1)], axis=1)
+    x_a, x_b = xs[:, :1], _last(xs, n)[:, None]
+    w_b = _last(w, n)[:, None]
+    with np.errstate(invalid="ignore", divide="ignore"):
+        rel = w - w_b * (xs - x_a) / (x_b - x_a)
+    delta = np.nanmax(np.where(np.isnan(xs), -np.inf, np.abs(rel)), axis=1)
+    return np.where(bad, np.nan, delta)
+
+
+def C_mi_0_linear(psi: np.ndarray, N_Ed: np.ndarray, N_cr_i: np.ndarray) -> np.ndarray:
+    """EN 1993-1-1:2005, Annex A, Table A.2 (C_mi,0 for end moments psi M).
+
+    C_mi,0 = 0.79 + 0.21 psi_i + 0.36 (psi_i - 0.33) N_Ed / N_cr,i; N_Ed compression, positive.
+    """
+    return 0.79 + 0.21 * psi + 0.36 * (psi - 0.33) * N_Ed / N_cr_i
+
+
+def C_mi_0_general(delta_x: np.ndarray, M_i_Ed: np.ndarray, E: np.ndarray, I_i: np.ndarray,
+                   L: np.ndarray, N_Ed: np.ndarray, N_cr_i: np.ndarray) -> np.ndarray:
+    """EN 1993-1-1:2005, Annex A, Table A.2 (C_mi,0 for a span loaded member).
+
+    C_mi,0 = 1 + (pi^2 E I_i |delta_x| / (L^2 |M_i,Ed(x)|) - 1) N_Ed / N_cr,i, with |delta_x| the
+    largest deflection and |M_i,Ed(x)| the largest first-order moment along the member.
+    """
+    with np.errstate(invalid="ignore", divide="ignore"):
+        ratio = np.pi ** 2 * E * I_i * np.abs(delta_x) / (L ** 2 * np.abs(M_i_Ed))
+    return 1.0 + (ratio - 1.0) * N_Ed / N_cr_i
+
+
+def C_mi_0_annex_a(x: np.ndarray, M: np.ndarray, *, E: np.ndarray, I_i: np.ndarray,
+                   L: np.ndarray, N_Ed: np.ndarray, N_cr_i: np.ndarray,
+                   **shape_options: float) -> dict[str, np.ndarray]:
+    """EN 1993-1-1:2005, Annex A, Table A.2 (C_my,0 or C_mz,0 from a sampled moment diagram).
+
+    A linear diagram takes the end-moment row; a span loaded one the general row, with
+    |delta_x| from `chord_deflection`. A diagram with no moment takes psi = 1 (the end-moment
+    row with equal end moments).
+
+    Returns:
+        the `diagram_shape` dict plus 'C_m0', 'C_m0_row' (object) and 'delta_x_m'.
+    """
+    shape = diagram_shape(x, M, **shape_options)
+    E, I_i = np.asarray(E, dtype=float), np.asarray(I_i, dtype=float)
+    delta = chord_deflection(x, M, E * I_i)
+    lin = C_mi_0_linear(shape["psi"], N_Ed, N_cr_i)
+    gen = C_mi_0_general(delta, shape["M_max_Nm"], E, I_i, L, N_Ed, N_cr_i)
+    kind = shape["shape"]
+    use_linear = (kind == LINEAR) | (kind == NO_MOMENT)
+    C = np.where(use_linear, lin, gen)
+    C = np.where(kind == INVALID, np.nan, C)
+    row = np.where(use_linear, "A.2 end moments, psi",
+                   "A.2 span load, delta_x from the diagram (chord, double integration)")
+    row = np.where(kind == INVALID, "not readable", row).astype(object)
+    return {**shape, "C_m0": C, "C_m0_row": row,
+            "delta_x_m": np.where(use_linear, np.nan, delta)}
