@@ -1,0 +1,198 @@
+"""The checker: every member, every combination, every check, in one long results table.
+
+Stages (data flows one way):
+1. design members (graph layer), 2. frame stability per combination (alpha_cr, analysis path,
+sway amplification), 3. buckling lengths, 4. member rows (padded arrays), 5. section class per
+station, 6. member buckling values, 7. every check family, 8. the long table.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field, replace
+from typing import Callable
+
+import numpy as np
+import pandas as pd
+
+from .checks.base import FAIL, NOT_EVALUATED, PASS, CheckBlock, MemberRows
+from .checks.cross_section import cross_section_checks
+from .checks.interaction import interaction_checks
+from .checks.member_buckling import (buckling_values, flexural_buckling_checks,
+                                     lateral_torsional_checks)
+from .frame import Frame
+from .member_rows import build_member_rows
+from .members import Members, design_members
+from .results import Results
+from .sections.classification import section_class
+from .settings import DesignSettings
+from . import stability
+
+CheckFamily = Callable[[MemberRows], list[CheckBlock]]
+CHECK_FAMILIES: list[CheckFamily] = [
+    cross_section_checks,
+    flexural_buckling_checks,
+    lateral_torsional_checks,
+    interaction_checks,
+]
+KEY_COLUMNS = ["member", "combination", "check", "clause", "x_m", "utilisation", "status", "reason"]
+
+
+@dataclass(frozen=True)
+class CheckOutcome:
+    """Everything a report needs.
+
+    Attributes:
+        table: the long results table, one row per (member, combination, check): KEY_COLUMNS,
+            then the intermediate values of each check (SI, names with unit suffixes).
+        members: the design members used.
+        stability: per combination: alpha_cr, sway_mode, path, amplification, reason.
+        lengths: per (member, combination): buckling lengths and where they came from.
+        settings: the design settings used.
+        combinations: the Results combinations table (status of each analysis).
+    """
+
+    table: pd.DataFrame
+    members: Members
+    stability: pd.DataFrame
+    lengths: pd.DataFrame
+    settings: DesignSettings
+    combinations: pd.DataFrame = field(default_factory=pd.DataFrame)
+
+    @property
+    def counts(self) -> dict[str, int]:
+        status = self.table["status"]
+        return {s: int((status == s).sum()) for s in (PASS, FAIL, NOT_EVALUATED)}
+
+    @property
+    def exit_code(self) -> int:
+        """0 all pass, 1 at least one fail, 3 some not evaluated and none failed."""
+        counts = self.counts
+        if counts[FAIL]:
+            return 1
+        if counts[NOT_EVALUATED]:
+            return 3
+        return 0
+
+
+def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
+                overrides: pd.DataFrame | None = None, groups: dict[str, list[str]] | None = None,
+                restraint_nodes: pd.DataFrame | None = None,
+                families: list[CheckFamily] | None = None) -> CheckOutcome:
+    """Check every design member of `frame` for every ULS combination of `results`."""
+    members = design_members(frame, groups=groups or None, restraint_nodes=restraint_nodes)
+    combos = results.combinations
+    uls = combos.index[(combos["kind"] == "ULS") & (combos["status"] == "ok")]
+    forces = results.forces[results.forces["combination"].isin(uls)]
+    uls_results = replace(results, forces=forces, combinations=combos.loc[uls])
+
+    alpha = stability.critical_load_factors(frame, uls_results, members)
+    paths = stability.analysis_path(alpha, uls_results.combinations)
+    per_combination = alpha.join(paths, how="outer")
+    checked = stability.amplify_sway_effects(uls_results, paths)
+    lengths = stability.buckling_lengths(frame, members, checked, paths,
+                                         _length_overrides(overrides))
+
+    rows = build_member_rows(frame, checked.forces, members, settings, lengths)
+    rows = _with_member_info(rows, overrides)
+    blocks = [block for family in (families or CHECK_FAMILIES) for block in family(rows)]
+    table = results_table(rows, blocks, settings.utilisation_limit)
+    table = _mark_unusable_combinations(table, per_combination, combos, members)
+    return CheckOutcome(table=table, members=members, stability=per_combination,
+                        lengths=lengths, settings=settings, combinations=combos)
+
+
+def _length_overrides(overrides: pd.DataFrame | None) -> pd.DataFrame | None:
+    if overrides is None or overrides.empty:
+        return None
+    columns = {"L_cr_y": "L_cr_y_m", "L_cr_z": "L_cr_z_m", "L_cr_T": "L_cr_T_m", "L_LT": "L_LT_m"}
+    return overrides[["member", *columns]].rename(columns=columns)
+
+
+def _with_member_info(rows: MemberRows, overrides: pd.DataFrame | None) -> MemberRows:
+    """Add the section class per station, member overrides and the member buckling values."""
+    info = dict(rows.info)
+    section = {k: v[:, None] for k, v in rows.section.items()}
+    cls, part = section_class(section, rows.f_y[:, None], rows.N, rows.My, rows.Mz)
+    info["section_class"], info["class_part"] = cls, part
+    if overrides is not None and not overrides.empty:
+        by_member = overrides.set_index("member")
+        aligned = by_member.reindex(rows.member)
+        if "ltb_restrained" in aligned:
+            info["ltb_restrained"] = aligned["ltb_restrained"].fillna(False).to_numpy(bool)
+        for key in ("z_g", "k_LT", "k_w"):
+            values = aligned[key].to_numpy(float)
+            if not np.isnan(values).all():
+                default = 0.0 if key == "z_g" else 1.0
+                info[key] = np.where(np.isnan(values), default, values)
+        a_net = aligned["A_net_cm2"].to_numpy(float) * 1e-4
+        if not np.isnan(a_net).all():
+            info["A_net"] = a_net
+    rows = replace(rows, info=info)
+    buckling = buckling_values(rows)
+    if overrides is not None and not overrides.empty and "torsion_susceptible" in overrides:
+        given = overrides.set_index("member")["torsion_susceptible"].reindex(rows.member)
+        mask = given.notna().to_numpy()
+        if mask.any():
+            buckling["torsion_susceptible"] = np.where(
+                mask, given.fillna(False).to_numpy(bool), buckling["torsion_susceptible"])
+    info["buckling"] = buckling
+    return replace(rows, info=info)
+
+
+def results_table(rows: MemberRows, blocks: list[CheckBlock], limit: float = 1.0) -> pd.DataFrame:
+    """The long table: one row per (member, combination, check) where the check applies."""
+    parts = []
+    for block in blocks:
+        keep = np.asarray(block.applies, bool)
+        if not keep.any():
+            continue
+        reason = np.asarray(block.reason, dtype=object).copy()
+        unexplained = np.isnan(block.utilisation) & (reason == "")
+        reason[unexplained] = "could not be evaluated"
+        data = {
+            "member": rows.member[keep], "combination": rows.combination[keep],
+            "check": block.check, "clause": block.clause, "x_m": block.x[keep],
+            "utilisation": block.utilisation[keep],
+            "status": _status(block.utilisation, reason, limit)[keep], "reason": reason[keep],
+        }
+        for name, values in block.values.items():
+            data[name] = np.asarray(values)[keep]
+        parts.append(pd.DataFrame(data))
+    if not parts:
+        return pd.DataFrame(columns=KEY_COLUMNS)
+    return pd.concat(parts, ignore_index=True, sort=False)
+
+
+def _status(utilisation: np.ndarray, reason: np.ndarray, limit: float) -> np.ndarray:
+    evaluated = ~np.isnan(utilisation) & (reason == "")
+    over = evaluated & (np.nan_to_num(utilisation, nan=0.0) > limit)
+    return np.where(~evaluated, NOT_EVALUATED, np.where(over, FAIL, PASS)).astype(object)
+
+
+def _mark_unusable_combinations(table: pd.DataFrame, per_combination: pd.DataFrame,
+                                combinations: pd.DataFrame, members: Members) -> pd.DataFrame:
+    """Combinations whose forces cannot be used are reported, never skipped or passed.
+
+    - a failed analysis: one 'analysis' row per member, not evaluated, with the message;
+    - a frame path that needs a second-order analysis or is unstable: every row of that
+      combination becomes not evaluated with the reason (the first-order forces do not hold).
+    """
+    extra = []
+    failed = combinations[(combinations["kind"] == "ULS") & (combinations["status"] != "ok")]
+    for name, combo in failed.iterrows():  # a handful of combinations, not members
+        extra.append(pd.DataFrame({
+            "member": members.members.index.to_numpy(), "combination": name,
+            "check": "analysis", "clause": "5.2", "x_m": np.nan, "utilisation": np.nan,
+            "status": NOT_EVALUATED,
+            "reason": f"analysis failed: {combo.get('message', '') or 'no forces'}"}))
+    if "path" in per_combination:
+        bad = per_combination[per_combination["path"].isin(["second-order needed", "unstable",
+                                                             "not evaluated"])]
+        if len(bad):
+            hit = table["combination"].isin(bad.index)
+            reasons = table.loc[hit, "combination"].map(bad["reason"])
+            table.loc[hit, "status"] = NOT_EVALUATED
+            table.loc[hit, "reason"] = reasons.to_numpy()
+    if extra:
+        table = pd.concat([table, *extra], ignore_index=True, sort=False)
+    return table

@@ -1,0 +1,89 @@
+"""The `framesweep` command.
+
+Exit codes: 0 every check evaluated and passed; 1 at least one check over utilisation 1.0;
+2 bad input (nothing written); 3 some checks could not be evaluated and none failed.
+"""
+
+from __future__ import annotations
+
+import argparse
+import sys
+from pathlib import Path
+
+from . import CAUTION, __version__
+from .errors import FramesweepError, InputError
+
+EXIT_PASS, EXIT_FAIL, EXIT_INPUT, EXIT_NOT_EVALUATED = 0, 1, 2, 3
+
+
+def _parser() -> argparse.ArgumentParser:
+    parser = argparse.ArgumentParser(
+        prog="framesweep",
+        description="Check every member of an analysed steel frame for every load combination "
+                    "to EN 1993-1-1.",
+        epilog="Exit codes: 0 all pass, 1 some fail, 2 bad input, 3 some not evaluated. " + CAUTION)
+    parser.add_argument("--version", action="version", version=f"framesweep {__version__}")
+    commands = parser.add_subparsers(dest="command", required=True)
+    run = commands.add_parser("run", help="check a project and write the outputs")
+    run.add_argument("project", type=Path, help="project file (TOML)")
+    run.add_argument("--out", type=Path, default=Path("out"), help="output folder (default: out)")
+    run.add_argument("--quiet", action="store_true", help="print only the outcome line")
+    sections = commands.add_parser("sections", help="list catalogue sections and their properties")
+    sections.add_argument("filter", nargs="?", default=None,
+                          help="part of a designation or family, e.g. IPE or 'HEB 2'")
+    return parser
+
+
+def main(argv: list[str] | None = None) -> int:
+    args = _parser().parse_args(argv)
+    try:
+        if args.command == "sections":
+            return _sections(args.filter)
+        return _run(args.project, args.out, quiet=args.quiet)
+    except InputError as exc:
+        print(f"framesweep: bad input: {exc}", file=sys.stderr)
+        return EXIT_INPUT
+    except FramesweepError as exc:
+        print(f"framesweep: {exc}", file=sys.stderr)
+        return EXIT_INPUT
+
+
+def _sections(filter_text: str | None) -> int:
+    from .sections.listing import catalogue_listing
+
+    table = catalogue_listing(filter_text)
+    if table.empty:
+        print(f"no catalogue section matches {filter_text!r}", file=sys.stderr)
+        return EXIT_INPUT
+    print(table.to_string(index=False, float_format=lambda v: f"{v:.4g}"))
+    return EXIT_PASS
+
+
+def _run(project: Path, out: Path, *, quiet: bool) -> int:
+    from .report.summaries import member_summary
+    from .report.writer import OUTPUT_FILES, write_outputs
+    from .run import run_project
+
+    output = run_project(project)
+    outcome = output.outcome
+    write_outputs(outcome, out, title=output.project.title, source=output.frame.source)
+    counts = outcome.counts
+    if not quiet:
+        summary = member_summary(outcome.table, outcome.members.members)
+        shown = summary[["member", "section", "kind", "max_utilisation", "governing_combination",
+                         "governing_check", "status"]]
+        print(f"{output.project.title}: {len(summary)} members, "
+              f"{outcome.table['combination'].nunique()} combinations, "
+              f"{len(outcome.table)} checks")
+        print(shown.to_string(index=False, float_format=lambda v: f"{v:.3f}"))
+        print()
+        for name, what in OUTPUT_FILES.items():
+            print(f"  {out / name}: {what}")
+        print(f"\n{CAUTION}\n")
+    print(f"{counts['pass']} checks pass, {counts['fail']} fail, "
+          f"{counts['not evaluated']} not evaluated; outputs in {out}/")
+    return outcome.exit_code
+
+
+if __name__ == "__main__":
+    sys.exit(main())

@@ -1,0 +1,53 @@
+"""Views of the results table: per member, failures by combination, counts."""
+
+from __future__ import annotations
+
+import numpy as np
+import pandas as pd
+
+from ..checks.base import FAIL, NOT_EVALUATED, PASS
+
+
+def member_summary(table: pd.DataFrame, members: pd.DataFrame) -> pd.DataFrame:
+    """One row per member: largest utilisation, governing combination, check and clause, status.
+
+    A member's status is 'fail' if any check fails, else 'not evaluated' if any check could not be
+    evaluated (it is not a pass), else 'pass'.
+    """
+    evaluated = table[table["status"] != NOT_EVALUATED]
+    idx = evaluated.groupby("member")["utilisation"].idxmax()
+    governing = evaluated.loc[idx.dropna().astype(int),
+                              ["member", "utilisation", "combination", "check", "clause", "x_m"]]
+    governing = governing.set_index("member").rename(columns={
+        "utilisation": "max_utilisation", "combination": "governing_combination",
+        "check": "governing_check", "clause": "governing_clause", "x_m": "governing_x_m"})
+    counts = pd.crosstab(table["member"], table["status"])
+    for status in (PASS, FAIL, NOT_EVALUATED):
+        if status not in counts:
+            counts[status] = 0
+    summary = members[["section", "grade", "kind", "length_m"]].join(governing, how="left")
+    summary["checks"] = counts[[PASS, FAIL, NOT_EVALUATED]].sum(axis=1).reindex(summary.index)
+    summary["failed"] = counts[FAIL].reindex(summary.index).fillna(0).astype(int)
+    summary["not_evaluated"] = counts[NOT_EVALUATED].reindex(summary.index).fillna(0).astype(int)
+    summary["checks"] = summary["checks"].fillna(0).astype(int)
+    summary["status"] = np.where(summary["failed"] > 0, FAIL,
+                                 np.where((summary["not_evaluated"] > 0) | (summary["checks"] == 0),
+                                          NOT_EVALUATED, PASS))
+    first_reason = (table[table["status"] == NOT_EVALUATED].groupby("member")["reason"].first())
+    summary["not_evaluated_reason"] = first_reason.reindex(summary.index).fillna("")
+    summary.index.name = "member"
+    return summary.reset_index()
+
+
+def failures_by_combination(table: pd.DataFrame) -> pd.DataFrame:
+    """Overstressed members per combination: the worst failing check of each (combination, member)."""
+    failing = table[table["status"] == FAIL]
+    if failing.empty:
+        return pd.DataFrame(columns=["combination", "member", "utilisation", "check", "clause",
+                                     "x_m", "failing_checks"])
+    idx = failing.groupby(["combination", "member"])["utilisation"].idxmax()
+    worst = failing.loc[idx, ["combination", "member", "utilisation", "check", "clause", "x_m"]]
+    n = failing.groupby(["combination", "member"]).size().rename("failing_checks")
+    worst = worst.join(n, on=["combination", "member"])
+    return worst.sort_values(["combination", "utilisation"], ascending=[True, False],
+                             ignore_index=True)
