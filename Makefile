@@ -27,7 +27,7 @@ test: setup
 	$(PY) -m pytest -q
 
 bench: setup
-	$(PY) -m pytest -q -m benchmark -s tests/benchmarks
+	$(PY) -m postproc.benchmark
 
 clean:
 	rm -rf $(VENV) out .pytest_cache
