@@ -2,28 +2,62 @@
 
 Contract (what the checker reads):
 - `members`: index `member` (str); columns length_m, section, grade, kind ('column', 'beam',
-  'rafter', 'brace', 'member'), n_elements.
+  'rafter', 'brace', 'member'), n_elements, start_node, end_node.
 - `member_elements`: columns member, element, position (0, 1, ... along the member), x0_m (where
   the element starts along the member), flipped (True where the element runs against the member's
   direction: then Vz and Mz change sign, see `postproc.results`).
+- `restraints`: columns member, x_m (from the member's start), direction, source. Directions are
+  in the member's local axes (EN 1993-1-1 1.7): 'z' = displacement along local z is prevented
+  (governs buckling about y-y), 'y' = displacement along local y is prevented (buckling about z-z,
+  and lateral restraint for lateral-torsional buckling), 'torsion' = twist is prevented.
+
+Grouping rule (`design_members`): elements are merged through a node when exactly two elements
+meet there, both are collinear (chords within 1 degree), have the same section, grade and
+orientation, neither releases anything at that node, and the node is no support and no declared
+restraint. Everything else is a joint and splits members. `groups` from the project file overrides
+this for the elements it names.
+
+Kinds, from orientation and connectivity (tilt = angle of the chord from the vertical):
+- 'column': tilt <= 10 degrees.
+- 'beam': within 3 degrees of horizontal.
+- 'brace': any other slope, and axial-only (bending released at both ends: 'My Mz' in 3D, the
+  in-plane moment in 2D).
+- 'rafter': slope between 3 and 45 degrees, bending not released at both ends, and no column
+  continues upwards from either end node (it lies on the roof line).
+- 'member': anything else (steep rigidly connected diagonals, stair stringers below columns ...).
 """
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 
+import networkx as nx
 import numpy as np
 import pandas as pd
 
-from .frame import Frame, element_vectors
+from .errors import InputError, TopologyError
+from .frame import NODE_COLUMNS, Frame, element_vectors, local_axes, released
+
+COLLINEAR_COS = np.cos(np.radians(1.0))     # chords within 1 degree count as collinear
+COLUMN_MAX_TILT_DEG = 10.0                  # from the vertical
+BEAM_MAX_SLOPE_DEG = 3.0                    # from the horizontal
+RAFTER_MAX_SLOPE_DEG = 45.0
+FRAMING_MIN_COMPONENT = 0.5                 # |cos| of a framing member along a local axis (60 deg)
+RESTRAINT_DIRECTIONS = ("y", "z", "torsion", "all", "X", "Y", "Z")
+
+
+def _empty_restraints() -> pd.DataFrame:
+    return pd.DataFrame({"member": pd.Series(dtype=str), "x_m": pd.Series(dtype=float),
+                         "direction": pd.Series(dtype=str), "source": pd.Series(dtype=str)})
 
 
 @dataclass(frozen=True)
 class Members:
-    """Design members and which elements make them; see the module docstring."""
+    """Design members, which elements make them, and their restraint points (module docstring)."""
 
     members: pd.DataFrame
     member_elements: pd.DataFrame
+    restraints: pd.DataFrame = field(default_factory=_empty_restraints)
 
 
 def one_member_per_element(frame: Frame) -> Members:
@@ -36,9 +70,354 @@ def one_member_per_element(frame: Frame) -> Members:
         "grade": frame.elements["grade"].to_numpy(),
         "kind": "member",
         "n_elements": 1,
+        "start_node": frame.elements["node_i"].astype(str).to_numpy(),
+        "end_node": frame.elements["node_j"].astype(str).to_numpy(),
     }, index=pd.Index(ids, name="member"))
     member_elements = pd.DataFrame({
         "member": ids, "element": ids, "position": 0, "x0_m": 0.0,
         "flipped": np.zeros(len(ids), dtype=bool),
     })
     return Members(members, member_elements)
+
+
+def in_plane_moment(frame: Frame) -> np.ndarray:
+    """(n,) for 2D frames: 'My' where in-plane bending is about local y, else 'Mz'.
+
+    For 3D frames every entry is '' (both axes are bending axes of the model).
+    """
+    n = len(frame.elements)
+    if frame.ndm != 2:
+        return np.full(n, "", dtype=object)
+    axes = local_axes(frame)
+    about_y = np.abs(axes[:, 1, 2]) >= 0.5          # local y along global Z: in-plane about y
+    return np.where(about_y, "My", "Mz").astype(object)
+
+
+def moment_released(frame: Frame, end: str) -> np.ndarray:
+    """(n,) True where the element end carries no bending moment (a pin) in the modelled plane(s)."""
+    my, mz = released(frame, end, "My"), released(frame, end, "Mz")
+    if frame.ndm == 2:
+        return np.where(in_plane_moment(frame) == "My", my, mz)
+    return my & mz
+
+
+def _any_release(frame: Frame, end: str) -> np.ndarray:
+    col = frame.elements[f"release_{end}"].fillna("").astype(str).str.strip()
+    return (col != "").to_numpy(bool)
+
+
+def _declared_nodes(frame: Frame, restraint_nodes: pd.DataFrame | None) -> pd.DataFrame:
+    """Declared restraint points from the frame and from `restraint_nodes`, validated."""
+    tables = [("frame.restraints", frame.restraints)]
+    if restraint_nodes is not None:
+        tables.append(("restraint_nodes", restraint_nodes))
+    rows = []
+    for name, table in tables:
+        if table is None or len(table) == 0:
+            continue
+        for col in ("node", "direction"):
+            if col not in table.columns:
+                raise InputError(f"column '{col}' is missing; restraint tables need columns "
+                                 "node, direction", file=name, field=col)
+        for k, (node, direction) in enumerate(zip(table["node"].astype(str),
+                                                  table["direction"].astype(str))):
+            if node not in frame.nodes.index:
+                raise TopologyError(f"restraint at node '{node}', which is not a node of the "
+                                    "frame", file=name, row=k, field="node")
+            if direction.strip() not in RESTRAINT_DIRECTIONS:
+                raise InputError(f"direction '{direction}' is not one of "
+                                 f"{', '.join(RESTRAINT_DIRECTIONS)}", file=name, row=k,
+                                 field="direction")
+            rows.append((node, direction.strip(), name))
+    return pd.DataFrame(rows, columns=["node", "direction", "source"])
+
+
+def _chain_order(elements: list[str], ends: dict[str, tuple[str, str]],
+                 member: str | None) -> tuple[list[str], list[str]]:
+    """Order elements into a path. Returns (elements in order, nodes in order).
+
+    With `member` given the order is taken as listed and checked; otherwise it is found.
+    """
+    if member is not None:
+        if len(elements) == 1:
+            return list(elements), list(ends[elements[0]])
+        a, b = ends[elements[0]]
+        c, d = ends[elements[1]]
+        start = b if a in (c, d) else a
+        nodes = [start]
+        for e in elements:
+            i, j = ends[e]
+            if nodes[-1] == i:
+                nodes.append(j)
+            elif nodes[-1] == j:
+                nodes.append(i)
+            else:
+                raise TopologyError(f"member '{member}': element '{e}' does not continue the "
+                                    f"chain at node '{nodes[-1]}' (elements of a group must be "
+                                    "listed in order along one chain)", field=f"groups.{member}")
+        if len(set(nodes)) != len(nodes):
+            raise TopologyError(f"member '{member}': its elements close a loop",
+                                field=f"groups.{member}")
+        return list(elements), nodes
+    at: dict[str, list[str]] = {}
+    for e in elements:
+        for n in ends[e]:
+            at.setdefault(n, []).append(e)
+    end_nodes = sorted(n for n, es in at.items() if len(es) == 1)
+    node = end_nodes[0] if end_nodes else sorted(at)[0]
+    nodes, order, used = [node], [], set()
+    while True:
+        nxt = [e for e in at[node] if e not in used]
+        if not nxt:
+            break
+        e = nxt[0]
+        used.add(e)
+        order.append(e)
+        i, j = ends[e]
+        node = j if node == i else i
+        nodes.append(node)
+    return order, nodes
+
+
+def design_members(frame: Frame, *, groups: dict[str, list[str]] | None = None,
+                   restraint_nodes: pd.DataFrame | None = None) -> Members:
+    """Group elements into design members, classify them and find their restraint points.
+
+    Args:
+        frame: the analysed frame.
+        groups: member name -> ordered element ids (from the project file); overrides the
+            automatic grouping for those elements. Each group must be one collinear chain with a
+            single section and grade, else `TopologyError` naming the member.
+        restraint_nodes: extra restraint points, columns node, direction. Direction is member
+            local 'y', 'z', 'torsion' or 'all' (applied to every member through the node), or
+            global 'X', 'Y', 'Z' (applied to each member along whichever local axis points that
+            way). A node that does not exist raises `TopologyError`.
+
+    Returns:
+        `Members` with the members, member_elements and restraints tables (module docstring).
+    """
+    el = frame.elements
+    ids = el.index.astype(str).tolist()
+    node_i = el["node_i"].astype(str).tolist()
+    node_j = el["node_j"].astype(str).tolist()
+    ends = {e: (a, b) for e, a, b in zip(ids, node_i, node_j)}
+    chord, length = element_vectors(frame)
+    if np.any(length <= 0.0):
+        bad = ids[int(np.argmin(length))]
+        raise TopologyError(f"element '{bad}' has zero length", field=f"element {bad}")
+    axes = local_axes(frame)
+    unit = chord / length[:, None]
+    pos = {e: k for k, e in enumerate(ids)}
+    declared = _declared_nodes(frame, restraint_nodes)
+    supports = set(frame.supports.index[frame.supports.any(axis=1)].astype(str))
+    release_i, release_j = _any_release(frame, "i"), _any_release(frame, "j")
+
+    # automatic chains over the elements not named in groups
+    grouped: dict[str, str] = {}
+    for name, elist in (groups or {}).items():
+        if len(elist) == 0:
+            raise TopologyError(f"member '{name}' lists no elements", field=f"groups.{name}")
+        for e in map(str, elist):
+            if e not in pos:
+                raise TopologyError(f"member '{name}': element '{e}' is not in the model",
+                                    field=f"groups.{name}")
+            if e in grouped:
+                raise TopologyError(f"element '{e}' is listed in members '{grouped[e]}' and "
+                                    f"'{name}'", field=f"groups.{name}")
+            grouped[e] = name
+    free = [e for e in ids if e not in grouped]
+    g = nx.MultiGraph()
+    g.add_nodes_from(frame.nodes.index.astype(str))
+    for e in ids:
+        g.add_edge(node_i[pos[e]], node_j[pos[e]], element=e)
+    link = nx.Graph()
+    link.add_nodes_from(free)
+    stop_nodes = supports | set(declared["node"])
+    for n in g.nodes:
+        if g.degree(n) != 2 or n in stop_nodes:
+            continue
+        (a, b) = [d["element"] for _, _, d in g.edges(n, data=True)]
+        if a == b or a in grouped or b in grouped:
+            continue
+        ka, kb = pos[a], pos[b]
+        same = (abs(unit[ka] @ unit[kb]) >= COLLINEAR_COS
+                and el["section"].iloc[ka] == el["section"].iloc[kb]
+                and el["grade"].iloc[ka] == el["grade"].iloc[kb]
+                and abs(axes[ka, 2] @ axes[kb, 2]) >= COLLINEAR_COS)
+        rel_a = release_i[ka] if node_i[ka] == n else release_j[ka]
+        rel_b = release_i[kb] if node_i[kb] == n else release_j[kb]
+        if same and not rel_a and not rel_b:
+            link.add_edge(a, b)
+
+    chains: list[tuple[str | None, list[str]]] = [(name, list(map(str, elist)))
+                                                  for name, elist in (groups or {}).items()]
+    chains += [(None, sorted(c, key=pos.get)) for c in nx.connected_components(link)]
+    member_rows, elem_rows = [], []
+    for name, elist in chains:
+        order, nodes = _chain_order(elist, ends, name)
+        if name is not None:
+            k0 = pos[order[0]]
+            for e in order[1:]:
+                k = pos[e]
+                if abs(unit[k] @ unit[k0]) < COLLINEAR_COS:
+                    raise TopologyError(f"member '{name}': element '{e}' is not collinear with "
+                                        f"element '{order[0]}'", field=f"groups.{name}")
+                for col in ("section", "grade"):
+                    if el[col].iloc[k] != el[col].iloc[k0]:
+                        raise TopologyError(
+                            f"member '{name}': element '{e}' has {col} '{el[col].iloc[k]}' but "
+                            f"'{order[0]}' has '{el[col].iloc[k0]}'; one member needs one {col}",
+                            field=f"groups.{name}")
+        flipped = [node_i[pos[e]] != nodes[p] for p, e in enumerate(order)]
+        if name is None and sum(flipped) * 2 > len(order):
+            # run the member the way most of its elements run
+            order, nodes = order[::-1], nodes[::-1]
+            flipped = [node_i[pos[e]] != nodes[p] for p, e in enumerate(order)]
+        lengths = length[[pos[e] for e in order]]
+        x0 = np.concatenate([[0.0], np.cumsum(lengths)[:-1]])
+        if name is None:
+            name = order[0] if len(order) == 1 else f"{order[0]}-{order[-1]}"
+        member_rows.append((name, float(lengths.sum()), el["section"].iloc[pos[order[0]]],
+                            el["grade"].iloc[pos[order[0]]], len(order), nodes[0], nodes[-1]))
+        for p, e in enumerate(order):
+            elem_rows.append((name, e, p, float(x0[p]), bool(flipped[p])))
+    members = pd.DataFrame(member_rows, columns=["member", "length_m", "section", "grade",
+                                                 "n_elements", "start_node", "end_node"])
+    if members["member"].duplicated().any():
+        dup = members.loc[members["member"].duplicated(), "member"].iloc[0]
+        raise TopologyError(f"member name '{dup}' is used twice (a group name equals an "
+                            "automatic member name); rename the group", field="groups")
+    members = members.set_index("member")
+    member_elements = pd.DataFrame(elem_rows, columns=["member", "element", "position", "x0_m",
+                                                       "flipped"])
+    members.insert(3, "kind", _classify(frame, members, member_elements, g))
+    members = members[["length_m", "section", "grade", "kind", "n_elements", "start_node",
+                       "end_node"]]
+    restraints = _restraints(frame, members, member_elements, g, declared)
+    return Members(members, member_elements, restraints)
+
+
+def member_axes(frame: Frame, members: pd.DataFrame, member_elements: pd.DataFrame) -> np.ndarray:
+    """(m, 3, 3) local axes of each member (those of its first element, x along the member)."""
+    axes = local_axes(frame)
+    pos = pd.Series(np.arange(len(frame.elements)), index=frame.elements.index.astype(str))
+    first = member_elements[member_elements["position"] == 0].set_index("member")
+    first = first.loc[members.index]
+    out = axes[pos.loc[first["element"]].to_numpy()].copy()
+    flip = first["flipped"].to_numpy(bool)
+    out[flip, 0] *= -1.0          # x runs along the member; keep z, so y = z cross x flips too
+    out[flip, 1] *= -1.0
+    return out
+
+
+def _classify(frame: Frame, members: pd.DataFrame, member_elements: pd.DataFrame,
+              g: nx.MultiGraph) -> np.ndarray:
+    xyz = frame.nodes[NODE_COLUMNS].astype(float)
+    xyz.index = xyz.index.astype(str)
+    up = frame.vertical_axis
+    start = xyz.loc[members["start_node"]].to_numpy()
+    end = xyz.loc[members["end_node"]].to_numpy()
+    d = end - start
+    cos_v = np.abs(d[:, up]) / np.linalg.norm(d, axis=1)
+    tilt = np.degrees(np.arccos(np.clip(cos_v, 0.0, 1.0)))
+    slope = 90.0 - tilt
+    column = tilt <= COLUMN_MAX_TILT_DEG
+    beam = slope <= BEAM_MAX_SLOPE_DEG
+    # axial-only: bending released at the member's start and end
+    pin_i, pin_j = moment_released(frame, "i"), moment_released(frame, "j")
+    eid = frame.elements.index.astype(str)
+    pin = {e: (a, b) for e, a, b in zip(eid, pin_i, pin_j)}
+    me = member_elements.set_index("member")
+    axial_only = np.zeros(len(members), dtype=bool)
+    for k, m in enumerate(members.index):
+        rows = me.loc[[m]].sort_values("position")
+        first, last = rows.iloc[0], rows.iloc[-1]
+        at_start = pin[first["element"]][1 if first["flipped"] else 0]
+        at_end = pin[last["element"]][0 if last["flipped"] else 1]
+        axial_only[k] = at_start and at_end
+    # columns rising from a node: the node is not on the roof line
+    rises = set()
+    for m in members.index[column]:
+        lo, hi = ((members.at[m, "start_node"], members.at[m, "end_node"])
+                  if xyz.at[members.at[m, "start_node"], NODE_COLUMNS[up]]
+                  <= xyz.at[members.at[m, "end_node"], NODE_COLUMNS[up]]
+                  else (members.at[m, "end_node"], members.at[m, "start_node"]))
+        rises.add(lo)
+    on_roof = np.array([s not in rises and e not in rises
+                        for s, e in zip(members["start_node"], members["end_node"])], dtype=bool)
+    kind = np.full(len(members), "member", dtype=object)
+    inclined = ~column & ~beam
+    kind[inclined & ~axial_only & (slope <= RAFTER_MAX_SLOPE_DEG) & on_roof] = "rafter"
+    kind[inclined & axial_only] = "brace"
+    kind[beam] = "beam"
+    kind[column] = "column"
+    return kind
+
+
+def _restraints(frame: Frame, members: pd.DataFrame, member_elements: pd.DataFrame,
+                g: nx.MultiGraph, declared: pd.DataFrame) -> pd.DataFrame:
+    """Restraint points of each member from supports, framing members and declarations."""
+    xyz = frame.nodes[NODE_COLUMNS].astype(float)
+    xyz.index = xyz.index.astype(str)
+    sup = frame.supports.copy()
+    sup.index = sup.index.astype(str)
+    maxes = member_axes(frame, members, member_elements)
+    el = frame.elements
+    eids = el.index.astype(str)
+    node_i = pd.Series(el["node_i"].astype(str).to_numpy(), index=eids)
+    node_j = pd.Series(el["node_j"].astype(str).to_numpy(), index=eids)
+    elem_member = dict(zip(member_elements["element"], member_elements["member"]))
+    decl = declared.groupby("node") if len(declared) else None
+    decl_nodes = set(declared["node"]) if len(declared) else set()
+    rows = []
+    for k, m in enumerate(members.index):
+        ex, ey, ez = maxes[k]
+        origin = xyz.loc[members.at[m, "start_node"]].to_numpy()
+        mine = set(member_elements.loc[member_elements["member"] == m, "element"])
+        nodes = set(node_i[list(mine)]) | set(node_j[list(mine)])
+        for n in nodes:
+            x = float((xyz.loc[n].to_numpy() - origin) @ ex)
+            found: dict[str, str] = {}
+            if n in sup.index and bool(sup.loc[n].any()):
+                s = sup.loc[n]
+                trans = np.array([s.get("ux", False), s.get("uy", False), s.get("uz", False)],
+                                 dtype=bool)
+                rot = np.array([s.get("rx", False), s.get("ry", False), s.get("rz", False)],
+                               dtype=bool)
+                if frame.ndm == 2:
+                    # a plane model says nothing out of plane: a support node is taken to be
+                    # held out of plane and against twist (a foundation or a wall)
+                    trans[2] = True
+                    rot[:2] = True
+                for d, e in (("y", ey), ("z", ez)):
+                    if np.sum(e[~trans] ** 2) < 0.01:
+                        found[d] = f"support at node {n}"
+                if np.sum(ex[~rot] ** 2) < 0.01:
+                    found["torsion"] = f"support at node {n}"
+            for _, other, data in g.edges(n, data=True):
+                e = data["element"]
+                if e in mine:
+                    continue
+                u = xyz.loc[other].to_numpy() - xyz.loc[n].to_numpy()
+                u = u / np.linalg.norm(u)
+                for d, v in (("y", ey), ("z", ez)):
+                    if abs(u @ v) >= FRAMING_MIN_COMPONENT and d not in found:
+                        found[d] = f"member {elem_member.get(e, e)} framing in at node {n}"
+            if n in decl_nodes:
+                for _, r in decl.get_group(n).iterrows():
+                    dirs = {"all": ["y", "z", "torsion"]}.get(r["direction"], [r["direction"]])
+                    for d in dirs:
+                        if d in ("X", "Y", "Z"):
+                            gvec = np.eye(3)["XYZ".index(d)]
+                            if max(abs(gvec @ ey), abs(gvec @ ez)) < FRAMING_MIN_COMPONENT:
+                                continue        # along the member: restrains neither axis
+                            d = "y" if abs(gvec @ ey) >= abs(gvec @ ez) else "z"
+                        found.setdefault(d, f"declared at node {n} ({r['source']})")
+            if "y" in found and "z" in found and "torsion" not in found:
+                found["torsion"] = f"held in y and z at node {n} (taken as a fork)"
+            rows += [(m, x, d, src) for d, src in found.items()]
+    if not rows:
+        return _empty_restraints()
+    out = pd.DataFrame(rows, columns=["member", "x_m", "direction", "source"])
+    out["x_m"] = out["x_m"].round(9)
+    return out.sort_values(["member", "x_m", "direction"]).reset_index(drop=True)
