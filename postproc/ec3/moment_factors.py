@@ -24,6 +24,7 @@ Reading a diagram (`diagram_shape`):
 from __future__ import annotations
 
 import numpy as np
+import pandas as pd
 
 LINEAR, SPAN_SMALLER, SPAN_LARGER, NO_MOMENT, INVALID = (
     "linear", "span moment smaller than end moment", "span moment larger than end moment",
@@ -193,32 +194,47 @@ def C_m_table_b3(psi: np.ndarray, alpha_s: np.ndarray, alpha_h: np.ndarray, shap
     return C, row
 
 
+def sway_flags(sway: np.ndarray | None, n: int) -> tuple[np.ndarray, np.ndarray]:
+    """(known, sway) (n,) bool arrays from flags given as bool, 0/1, or NaN / None where unknown."""
+    if sway is None:
+        return np.zeros(n, dtype=bool), np.zeros(n, dtype=bool)
+    raw = np.asarray(sway).reshape(n)
+    if raw.dtype == bool:
+        return np.ones(n, dtype=bool), raw
+    known = ~pd.isna(raw)
+    flag = known & np.where(known, raw, False).astype(bool)
+    return known, flag
+
+
 def C_m_annex_b(x: np.ndarray, M: np.ndarray, *, sway: np.ndarray | None = None,
                 **shape_options: float) -> dict[str, np.ndarray]:
     """EN 1993-1-1:2005, Annex B, Table B.3 (C_my, C_mz or C_mLT from a sampled moment diagram).
 
     Args:
         x, M: (R, S) stations (m) and moments (N*m), NaN padding.
-        sway: (R,) bool, True where the member buckles about this axis in a sway mode (then
-            C_m = 0.9, Table B.3 note). None: not known; the larger of 0.9 and the non-sway
-            factor is used. Leave None and ignore 'C_m' sway entries for C_mLT (no sway rule).
+        sway: (R,) flags, True where the member buckles about this axis in a sway mode (then
+            C_m = 0.9, Table B.3 note); NaN or None entries (or sway=None) where not known: the
+            larger of 0.9 and the non-sway factor is used. For C_mLT (no sway rule) pass all False.
         shape_options: passed to `diagram_shape`.
 
     Returns:
-        the `diagram_shape` dict plus 'C_m_non_sway', 'C_m' and 'C_m_row' (object).
+        the `diagram_shape` dict plus 'C_m_non_sway', 'C_m', 'C_m_row' (object) and 'sway'
+        (object: 'sway', 'non-sway' or 'not known').
     """
     shape = diagram_shape(x, M, **shape_options)
     C, row = C_m_table_b3(shape["psi"], shape["alpha_s"], shape["alpha_h"], shape["shape"],
                           shape["load"])
-    if sway is None:
-        C_used = np.where(np.isnan(C), np.nan, np.maximum(C, C_M_SWAY))
-        row_used = np.where(C_used > C, "sway mode not known: 0.9 (larger than table)",
-                            row + " (sway mode not known: table larger than 0.9)")
-    else:
-        sway = np.asarray(sway, dtype=bool)
-        C_used = np.where(sway & ~np.isnan(C), C_M_SWAY, C)
-        row_used = np.where(sway, "B.3 sway buckling mode, 0.9", row)
-    return {**shape, "C_m_non_sway": C, "C_m": C_used, "C_m_row": row_used.astype(object)}
+    known, flag = sway_flags(sway, C.shape[0])
+    with np.errstate(invalid="ignore"):
+        larger = np.where(np.isnan(C), np.nan, np.maximum(C, C_M_SWAY))
+    C_used = np.where(known, np.where(flag & ~np.isnan(C), C_M_SWAY, C), larger)
+    row_unknown = np.where(C_M_SWAY > C, "sway mode not known: 0.9, larger than " + row,
+                           row + " (sway mode not known: larger than 0.9)")
+    row_used = np.where(known, np.where(flag, "B.3 sway buckling mode, 0.9", row), row_unknown)
+    row_used = np.where(np.isnan(C), row, row_used)
+    mode = np.where(known, np.where(flag, "sway", "non-sway"), "not known").astype(object)
+    return {**shape, "C_m_non_sway": C, "C_m": C_used, "C_m_row": row_used.astype(object),
+            "sway": mode}
 
 
 def chord_deflection(x: np.ndarray, M: np.ndarray, EI: np.ndarray) -> np.ndarray:

@@ -1,0 +1,296 @@
+"""Check family 6.3.3: members in bending and axial compression, eqs. (6.61) and (6.62), with the
+interaction factors of Annex A, Annex B or both (`settings.annex`).
+
+Applies to rows with compression somewhere along the member (N < 0) together with bending
+(M_y or M_z not zero somewhere). Members in tension and bending are left to the cross-section and
+lateral-torsional buckling checks.
+
+Design values, per row: N_Ed = the largest compression along the member (as a positive number),
+M_y,Ed and M_z,Ed = the largest magnitudes along the member. The equivalent moment factors come
+from the moment diagram: C_my and C_mz (and Annex A's C_my,0, C_mz,0) from the whole member, the
+span between the member's end nodes being the one its buckling lengths refer to; C_mLT from M_y
+within the lateral-torsional buckling segment given by the buckling values (the whole member
+where that segment is unknown or holds fewer than two stations). Every choice is echoed in the
+values.
+
+Buckling quantities come from `rows.info['buckling']` when present, else from
+`postproc.checks.member_buckling.buckling_values(rows)`. Optional row data read from `rows.info`:
+'sway_y', 'sway_z' ((R,) flags, True where the member buckles about that axis in a sway mode;
+absent or NaN: the larger of the sway and non-sway factors of Annex B), 'torsion_susceptible'
+((R,) bool, overrides the buckling values' flag).
+"""
+
+from __future__ import annotations
+
+import numpy as np
+import pandas as pd
+
+from ..ec3 import interaction_annex_a as annex_a
+from ..ec3 import interaction_annex_b as annex_b
+from ..ec3 import moment_factors as mf
+from .base import CheckBlock, MemberRows, no_reason
+
+CLASS_4 = "class 4 cross-section: effective properties (Table 6.7) are not covered"
+BUCKLING_KEYS = ("chi_y", "chi_z", "chi_LT", "lambda_bar_y", "lambda_bar_z", "N_cr_y_N",
+                 "N_cr_z_N", "N_cr_T_N", "M_cr_0_Nm", "C_1", "ltb_susceptible",
+                 "torsion_susceptible", "ltb_segment_start_m", "ltb_segment_end_m",
+                 "section_class_member", "reason")
+
+
+def _buckling(rows: MemberRows) -> dict[str, np.ndarray]:
+    buckling = rows.info.get("buckling")
+    if buckling is None:
+        from .member_buckling import buckling_values  # written alongside; imported when needed
+        buckling = buckling_values(rows)
+    return buckling
+
+
+def _add(reason: np.ndarray, mask: np.ndarray, text: str | np.ndarray) -> None:
+    """Record a reason where none is recorded yet (the first reason found is kept)."""
+    where = (reason == "") & np.asarray(mask, dtype=bool)
+    reason[where] = text[where] if isinstance(text, np.ndarray) else text
+
+
+def _nan_max(values: np.ndarray) -> np.ndarray:
+    """Row-wise max ignoring NaN; NaN for an all-NaN row."""
+    filled = np.where(np.isnan(values), -np.inf, values)
+    out = filled.max(axis=1) if values.shape[1] else np.full(values.shape[0], -np.inf)
+    return np.where(np.isinf(out), np.nan, out)
+
+
+def _ltb_segment_moments(rows: MemberRows, b: dict[str, np.ndarray]
+                         ) -> tuple[np.ndarray, np.ndarray]:
+    """Stations of M_y inside the LTB segment (others NaN) and which diagram was used."""
+    start = np.asarray(b["ltb_segment_start_m"], dtype=float)[:, None]
+    end = np.asarray(b["ltb_segment_end_m"], dtype=float)[:, None]
+    tol = 1e-6 * np.maximum(rows.length, 1.0)[:, None]  # stations at a restraint node count
+    inside = (rows.x >= start - tol) & (rows.x <= end + tol)
+    distinct = np.where(inside, rows.x, np.nan)
+    span = _nan_max(distinct) - (-_nan_max(-distinct))
+    usable = (inside.sum(axis=1) >= 2) & (span > 0)
+    known = ~np.isnan(start[:, 0]) & ~np.isnan(end[:, 0])
+    use = known & usable
+    x_seg = np.where(use[:, None] & ~inside, np.nan, rows.x)
+    note = np.where(use, "LTB segment",
+                    np.where(known, "whole member (LTB segment holds fewer than 2 stations)",
+                             "whole member (LTB segment not known)")).astype(object)
+    return x_seg, note
+
+
+def _design_values(rows: MemberRows) -> dict[str, np.ndarray]:
+    N = np.where(rows.valid, rows.N, np.nan)
+    N_min = -_nan_max(-N)
+    M_y = _nan_max(np.abs(np.where(rows.valid, rows.My, np.nan)))
+    M_z = _nan_max(np.abs(np.where(rows.valid, rows.Mz, np.nan)))
+    compressed = N_min < 0
+    bending = (M_y > 0) | (M_z > 0)
+    return {"N_Ed": np.where(compressed, -N_min, 0.0), "M_y_Ed": np.nan_to_num(M_y),
+            "M_z_Ed": np.nan_to_num(M_z), "applies": compressed & bending}
+
+
+def _section_kind(shape: np.ndarray) -> np.ndarray:
+    shape = np.asarray(shape, dtype=object)
+    return np.where(shape == "I", annex_b.I_SECTION,
+                    np.where((shape == "RHS") | (shape == "CHS"), annex_b.HOLLOW,
+                             annex_b.UNKNOWN_SHAPE)).astype(object)
+
+
+def _common(rows: MemberRows) -> dict:
+    """Everything both annexes share: design values, buckling values, Table 6.7, diagrams."""
+    b = _buckling(rows)
+    missing = [k for k in BUCKLING_KEYS if k not in b]
+    if missing:
+        raise KeyError(f"buckling values lack {', '.join(missing)}")
+    d = _design_values(rows)
+    R = rows.n_rows
+    sec = {k: np.asarray(rows.section[k], dtype=float) for k in
+           ("A", "W_pl_y", "W_pl_z", "W_el_y", "W_el_z", "I_y", "I_z", "I_t")}
+    cls = np.asarray(b["section_class_member"], dtype=float)
+    twist = np.asarray(rows.info.get("torsion_susceptible", b["torsion_susceptible"]), dtype=bool)
+    ltb = np.asarray(b["ltb_susceptible"], dtype=bool)
+    chi_LT = np.where(ltb, np.asarray(b["chi_LT"], dtype=float), 1.0)
+    res = annex_b.resistances_table_6_7(cls, rows.f_y, sec["A"], sec["W_pl_y"], sec["W_pl_z"],
+                                        sec["W_el_y"], sec["W_el_z"])
+    x_seg, seg_note = _ltb_segment_moments(rows, b)
+
+    reason = no_reason(R)
+    given = np.asarray(b["reason"], dtype=object)
+    _add(reason, (given != "") & ~pd.isna(given), given)  # NaN reasons: none
+    _add(reason, cls == 4, CLASS_4)
+    _add(reason, np.isnan(cls), "section class not known")
+    for key, name in (("chi_y", "chi_y"), ("chi_z", "chi_z"), ("lambda_bar_y", "lambda_bar_y"),
+                      ("lambda_bar_z", "lambda_bar_z")):
+        _add(reason, np.isnan(np.asarray(b[key], dtype=float)),
+             f"{name} not available (buckling length or section data missing)")
+    _add(reason, np.isnan(chi_LT), "chi_LT not available (LTB length or M_cr missing)")
+    return {"b": b, "d": d, "sec": sec, "cls": cls, "twist": twist, "ltb": ltb, "chi_LT": chi_LT,
+            "res": res, "x_seg": x_seg, "seg_note": seg_note, "reason": reason}
+
+
+def _finish(rows: MemberRows, c: dict, eq: dict[str, np.ndarray], label: str, clause: str,
+            values: dict[str, np.ndarray], reason: np.ndarray) -> CheckBlock:
+    """Utilisation and the block; a NaN sum never passes."""
+    d, b = c["d"], c["b"]
+    N_cr_min = np.fmin(np.asarray(b["N_cr_y_N"], float), np.asarray(b["N_cr_z_N"], float))
+    with np.errstate(invalid="ignore", divide="ignore"):
+        beyond = d["N_Ed"] >= N_cr_min
+        # At or above the elastic critical force the member cannot carry N_Ed at all: report
+        # the failure (at least N_Ed / N_cr >= 1) rather than amplification factors of no meaning.
+        util = np.where(beyond, np.fmax(eq["total"], d["N_Ed"] / N_cr_min), eq["total"])
+    reason = reason.copy()
+    _add(reason, np.isnan(util), "interaction sum could not be evaluated")
+    util = np.where(reason == "", util, np.nan)
+    values = {"N_Ed_N": d["N_Ed"], "M_y_Ed_Nm": d["M_y_Ed"], "M_z_Ed_Nm": d["M_z_Ed"],
+              "term_N": eq["term_N"], "term_M_y": eq["term_M_y"], "term_M_z": eq["term_M_z"],
+              **values, "N_Ed_reaches_N_cr": beyond}
+    return CheckBlock(check=label, clause=clause, utilisation=util,
+                      x=np.full(rows.n_rows, np.nan), applies=d["applies"].copy(), reason=reason,
+                      values=values)
+
+
+def _equations(rows: MemberRows, c: dict, k: dict[str, np.ndarray]
+               ) -> tuple[dict[str, np.ndarray], dict[str, np.ndarray]]:
+    d, b, res = c["d"], c["b"], c["res"]
+    g = rows.settings.gamma_M1
+    common = dict(chi_LT=c["chi_LT"], N_Rk=res["N_Rk_N"], M_y_Rk=res["M_y_Rk_Nm"],
+                  M_z_Rk=res["M_z_Rk_Nm"], Delta_M_y_Ed=res["Delta_M_y_Ed_Nm"],
+                  Delta_M_z_Ed=res["Delta_M_z_Ed_Nm"], gamma_M1=g)
+    e61 = annex_b.interaction_6_61(d["N_Ed"], d["M_y_Ed"], d["M_z_Ed"],
+                                   chi_y=np.asarray(b["chi_y"], float), k_yy=k["k_yy"],
+                                   k_yz=k["k_yz"], **common)
+    e62 = annex_b.interaction_6_62(d["N_Ed"], d["M_y_Ed"], d["M_z_Ed"],
+                                   chi_z=np.asarray(b["chi_z"], float), k_zy=k["k_zy"],
+                                   k_zz=k["k_zz"], **common)
+    return e61, e62
+
+
+def _shared_values(c: dict, k: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
+    b, res = c["b"], c["res"]
+    return {"chi_y": np.asarray(b["chi_y"], float), "chi_z": np.asarray(b["chi_z"], float),
+            "chi_LT": c["chi_LT"], "lambda_bar_y": np.asarray(b["lambda_bar_y"], float),
+            "lambda_bar_z": np.asarray(b["lambda_bar_z"], float),
+            "k_yy": k["k_yy"], "k_yz": k["k_yz"], "k_zy": k["k_zy"], "k_zz": k["k_zz"],
+            "N_Rk_N": res["N_Rk_N"], "M_y_Rk_Nm": res["M_y_Rk_Nm"], "M_z_Rk_Nm": res["M_z_Rk_Nm"],
+            "section_class": c["cls"], "torsion_susceptible": c["twist"],
+            "ltb_susceptible": c["ltb"], "C_mLT_diagram": c["seg_note"]}
+
+
+def _diagram_values(tag: str, shape: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
+    return {f"psi_{tag}": shape["psi"], f"alpha_s_{tag}": shape["alpha_s"],
+            f"alpha_h_{tag}": shape["alpha_h"], f"span_load_{tag}": shape["load"]}
+
+
+def _annex_b_blocks(rows: MemberRows, c: dict, suffix: str) -> list[CheckBlock]:
+    d, b = c["d"], c["b"]
+    R = rows.n_rows
+    f_y = mf.C_m_annex_b(rows.x, rows.My, sway=rows.info.get("sway_y"))
+    f_z = mf.C_m_annex_b(rows.x, rows.Mz, sway=rows.info.get("sway_z"))
+    f_LT = mf.C_m_annex_b(c["x_seg"], rows.My, sway=np.zeros(R, dtype=bool))
+    g = rows.settings.gamma_M1
+    chi_y, chi_z = np.asarray(b["chi_y"], float), np.asarray(b["chi_z"], float)
+    n_y = annex_b.n_ratio(d["N_Ed"], chi_y, c["res"]["N_Rk_N"], gamma_M1=g)
+    n_z = annex_b.n_ratio(d["N_Ed"], chi_z, c["res"]["N_Rk_N"], gamma_M1=g)
+    k = annex_b.k_factors_annex_b(
+        C_my=f_y["C_m"], C_mz=f_z["C_m"], C_mLT=f_LT["C_m"],
+        lambda_bar_y=np.asarray(b["lambda_bar_y"], float),
+        lambda_bar_z=np.asarray(b["lambda_bar_z"], float), n_y=n_y, n_z=n_z,
+        section_class=c["cls"], section_kind=_section_kind(rows.section["shape"]),
+        torsion_susceptible=c["twist"])
+    reason = c["reason"].copy()
+    _add(reason, np.isnan(f_y["C_m"]) | np.isnan(f_z["C_m"]) | np.isnan(f_LT["C_m"]),
+         "moment diagram could not be read (missing moments at stations)")
+    values = {**_shared_values(c, k), "n_y": n_y, "n_z": n_z,
+              "C_my": f_y["C_m"], "C_mz": f_z["C_m"], "C_mLT": f_LT["C_m"],
+              "C_my_row": f_y["C_m_row"], "C_mz_row": f_z["C_m_row"], "C_mLT_row": f_LT["C_m_row"],
+              "sway_y": f_y["sway"], "sway_z": f_z["sway"], "k_table": k["table"],
+              **_diagram_values("y", f_y), **_diagram_values("z", f_z),
+              **_diagram_values("LT", f_LT), "annex": np.full(R, "B", dtype=object)}
+    e61, e62 = _equations(rows, c, k)
+    return [_finish(rows, c, e61, f"interaction 6.61{suffix}", "6.3.3 (6.61), Annex B", values,
+                    reason),
+            _finish(rows, c, e62, f"interaction 6.62{suffix}", "6.3.3 (6.62), Annex B", values,
+                    reason)]
+
+
+def _annex_a_blocks(rows: MemberRows, c: dict, suffix: str) -> list[CheckBlock]:
+    d, b, sec, cls = c["d"], c["b"], c["sec"], c["cls"]
+    R = rows.n_rows
+    N_Ed, M_y, M_z = d["N_Ed"], d["M_y_Ed"], d["M_z_Ed"]
+    N_cr_y = np.asarray(b["N_cr_y_N"], float)
+    N_cr_z = np.asarray(b["N_cr_z_N"], float)
+    N_cr_T = np.asarray(b["N_cr_T_N"], float)
+    f_y0 = mf.C_mi_0_annex_a(rows.x, rows.My, E=rows.E, I_i=sec["I_y"], L=rows.length,
+                             N_Ed=N_Ed, N_cr_i=N_cr_y)
+    f_z0 = mf.C_mi_0_annex_a(rows.x, rows.Mz, E=rows.E, I_i=sec["I_z"], L=rows.length,
+                             N_Ed=N_Ed, N_cr_i=N_cr_z)
+    plastic = (cls == 1) | (cls == 2)
+    W_y = np.where(plastic, sec["W_pl_y"], sec["W_el_y"])
+    twist = c["twist"]
+    # Not susceptible to torsional deformation: no LTB, so lambda_bar_0 = 0 (M_cr,0 unbounded).
+    lam_0 = np.where(twist, annex_a.lambda_bar_0(W_y, rows.f_y,
+                                                 np.asarray(b["M_cr_0_Nm"], float)), 0.0)
+    # N_cr,TF = N_cr,T: doubly symmetric sections (see postproc.ec3.interaction_annex_a).
+    limit = annex_a.lambda_bar_0_limit(np.asarray(b["C_1"], float), N_Ed, N_cr_z, N_cr_T)
+    limit = np.where(twist, limit, 0.0)
+    with np.errstate(invalid="ignore", divide="ignore"):
+        eps_y = M_y / N_Ed * sec["A"] / sec["W_el_y"]
+        a_LT = np.maximum(1 - sec["I_t"] / sec["I_y"], 0.0)
+    cm = annex_a.C_m_annex_a(C_my_0=f_y0["C_m0"], C_mz_0=f_z0["C_m0"], lambda_bar_0=lam_0,
+                             lambda_bar_0_limit=limit, epsilon_y=eps_y, a_LT=a_LT, N_Ed=N_Ed,
+                             N_cr_z=N_cr_z, N_cr_T=N_cr_T)
+    aux = annex_a.auxiliary_terms(
+        N_Ed=N_Ed, M_y_Ed=M_y, M_z_Ed=M_z, chi_y=np.asarray(b["chi_y"], float),
+        chi_z=np.asarray(b["chi_z"], float), chi_LT=c["chi_LT"],
+        lambda_bar_y=np.asarray(b["lambda_bar_y"], float),
+        lambda_bar_z=np.asarray(b["lambda_bar_z"], float), lambda_bar_0=lam_0, N_cr_y=N_cr_y,
+        N_cr_z=N_cr_z, C_my=cm["C_my"], C_mz=cm["C_mz"], A=sec["A"], f_y=rows.f_y,
+        W_pl_y=sec["W_pl_y"], W_pl_z=sec["W_pl_z"], W_el_y=sec["W_el_y"], W_el_z=sec["W_el_z"],
+        I_y=sec["I_y"], I_T=sec["I_t"], gamma_M0=rows.settings.gamma_M0,
+        gamma_M1=rows.settings.gamma_M1)
+    k = annex_a.k_factors_annex_a(N_Ed=N_Ed, N_cr_y=N_cr_y, N_cr_z=N_cr_z, C_my=cm["C_my"],
+                                  C_mz=cm["C_mz"], C_mLT=cm["C_mLT"], mu_y=aux["mu_y"],
+                                  mu_z=aux["mu_z"], w_y=aux["w_y"], w_z=aux["w_z"],
+                                  C_yy=aux["C_yy"], C_yz=aux["C_yz"], C_zy=aux["C_zy"],
+                                  C_zz=aux["C_zz"], section_class=cls)
+    reason = c["reason"].copy()
+    _add(reason, np.isnan(f_y0["C_m0"]) | np.isnan(f_z0["C_m0"]),
+         "moment diagram could not be read (missing moments at stations)")
+    _add(reason, twist & np.isnan(lam_0), "M_cr,0 not available for lambda_bar_0 (Annex A)")
+    _add(reason, twist & np.isnan(limit) & ~np.isnan(N_cr_T),
+         "N_Ed reaches N_cr,z or N_cr,T: the lambda_bar_0 limit of Table A.1 has no value")
+    _add(reason, twist & np.isnan(N_cr_T), "N_cr,T not available (Annex A)")
+    _add(reason, ~np.isnan(cls) & (cls < 4) & (N_Ed < np.fmin(N_cr_y, N_cr_z))
+         & (np.isnan(k["k_yy"]) | np.isnan(k["k_zz"])),
+         "Annex A factors could not be evaluated (section properties missing)")
+    values = {**_shared_values(c, k), "C_my_0": f_y0["C_m0"], "C_mz_0": f_z0["C_m0"],
+              "C_my_0_row": f_y0["C_m0_row"], "C_mz_0_row": f_z0["C_m0_row"],
+              "delta_x_y_m": f_y0["delta_x_m"], "delta_x_z_m": f_z0["delta_x_m"],
+              "C_my": cm["C_my"], "C_mz": cm["C_mz"], "C_mLT": cm["C_mLT"],
+              "lambda_bar_0": lam_0, "lambda_bar_0_limit": limit,
+              "lambda_bar_0_above_limit": cm["ltb_case"],
+              **{k_: v for k_, v in aux.items()},
+              **_diagram_values("y", f_y0), **_diagram_values("z", f_z0),
+              "annex": np.full(R, "A", dtype=object)}
+    e61, e62 = _equations(rows, c, k)
+    return [_finish(rows, c, e61, f"interaction 6.61{suffix}", "6.3.3 (6.61), Annex A", values,
+                    reason),
+            _finish(rows, c, e62, f"interaction 6.62{suffix}", "6.3.3 (6.62), Annex A", values,
+                    reason)]
+
+
+def interaction_checks(rows: MemberRows) -> list[CheckBlock]:
+    """EN 1993-1-1:2005, 6.3.3(4), eqs. (6.61) and (6.62), with Annex A and/or Annex B.
+
+    Returns two blocks ('interaction 6.61', 'interaction 6.62') for annex 'A' or 'B', four for
+    'both' (named '... Annex A' and '... Annex B').
+    """
+    if rows.n_rows == 0:
+        return []
+    annex = rows.settings.annex
+    with np.errstate(invalid="ignore", divide="ignore", over="ignore"):
+        c = _common(rows)
+        if annex == "B":
+            return _annex_b_blocks(rows, c, "")
+        if annex == "A":
+            return _annex_a_blocks(rows, c, "")
+        return _annex_a_blocks(rows, c, " Annex A") + _annex_b_blocks(rows, c, " Annex B")
