@@ -1,0 +1,377 @@
+"""Cross-section checks, EN 1993-1-1 clause 6.2: MemberRows in, one CheckBlock per check out.
+
+Every check is evaluated at every station (arrays (R, S)) and reduced to the governing station per
+row. What each block means and when it applies:
+
+- 'tension' 6.2.3 (rows with N > 0 somewhere), 'compression' 6.2.4 (N < 0 somewhere);
+- 'bending y-y', 'bending z-z' 6.2.5; 'shear z', 'shear y' 6.2.6 with V_pl,Rd;
+- 'shear buckling' 6.2.6(6): only for sections without web dimensions (GENERIC) carrying shear,
+  always "not evaluated": the web slenderness cannot be confirmed. Where the dimensions show
+  h_w/t_w > 72 eps/eta, 'shear z' (or 'shear y' of an RHS) and 'bending and shear' are themselves
+  not evaluated (the shear resistance is then EN 1993-1-5's);
+- 'bending and shear' 6.2.8 (rows with |V_Ed| > 0.5 V_pl,Rd somewhere): moment resistances with
+  (1 - rho) f_y on the shear areas (eq. (6.30) for I sections about y-y);
+- 'bending and axial force' 6.2.9 (N and a moment at the same station): class 1 and 2 by the
+  M_N formulas of the shape and (6.41), class 3 by (6.42); where |V_Ed| > 0.5 V_pl,Rd at a station
+  the shear-reduced linear sum (6.2.10 with 6.2.1(7)) is used there instead, a conservative form;
+- 'linear sum' 6.2.1(7) eq. (6.2), with the class's resistances reduced for shear (any N or M);
+- 'torsion' 6.2.7 (rows whose St Venant shear stress exceeds TORSION_NEGLIGIBLE of the shear
+  yield stress): always "not evaluated", the tool does not design for torsion.
+
+Inputs beyond MemberRows' own: rows.info['section_class'] ((R, S) or (R,) integers, 1 to 4, 0
+unknown), rows.info['class_part'] (same shape, text naming the governing plate part),
+rows.info['A_net'] ((R,) m2, NaN where there are no holes; optional). Forces smaller than
+NOISE times the section's own capacity are taken as exactly 0 (numerical noise of the analysis).
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+from ..ec3 import cross_section as cs
+from ..errors import InputError
+from .base import CheckBlock, MemberRows, at_station, governing
+
+NOISE = 1e-6
+"""Forces below NOISE x (A f_y, W f_y, ...) are numerical noise and count as 0."""
+TORSION_NEGLIGIBLE = 0.01
+"""T_Ed is negligible where tau_t,Ed <= this fraction of f_y / (sqrt(3) gamma_M0)."""
+
+NAN_FORCE = "internal force missing (NaN)"
+CLASS_4 = "class 4: effective properties (EN 1993-1-5) not covered"
+CLASS_UNKNOWN = "section class unknown"
+SHEAR_BUCKLING = "h_w/t_w > 72 eps/eta: shear buckling resistance (EN 1993-1-5) not covered"
+WEB_UNKNOWN = ("no web dimensions (GENERIC section): h_w/t_w <= 72 eps/eta of 6.2.6(6) cannot be "
+               "confirmed, shear buckling not verified")
+NM_NEEDS_GEOMETRY = ("no section dimensions (GENERIC section): the N-M formulas of 6.2.9.1 need "
+                     "the geometry")
+SHEAR_UNKNOWN = "shear resistance unknown (A_v or f_y missing): shear reduction of 6.2.8 unknown"
+TORSION = "torsion T_Ed not negligible: torsional resistance (6.2.7) not covered by this tool"
+TEXT_COLUMNS = ("shape", "fabrication")
+
+
+class _Rows:
+    """The arrays every check uses, shaped to broadcast over (R, S)."""
+
+    def __init__(self, rows: MemberRows) -> None:
+        R = rows.n_rows
+        S = rows.x.shape[1]
+        self.rows, self.R, self.S = rows, R, S
+        self.valid = rows.valid
+        st = rows.settings
+        self.gM0, self.gM2, self.eta = st.gamma_M0, st.gamma_M2, st.eta
+        self.shape = np.asarray(rows.section.get("shape", np.full(R, "", object)),
+                                dtype=object)[:, None]
+        self.f_y = np.asarray(rows.f_y, dtype=float)[:, None]
+        self.f_u = np.asarray(rows.f_u, dtype=float)[:, None]
+        cls = np.asarray(rows.info.get("section_class", np.zeros((R, S))), dtype=float)
+        part = np.asarray(rows.info.get("class_part", np.full((R, S), "", object)), dtype=object)
+        self.cls = np.nan_to_num(np.broadcast_to(cls.reshape(R, -1), (R, S)), nan=0.0)
+        self.part = np.broadcast_to(part.reshape(R, -1), (R, S))
+        self.plastic, self.elastic = cs.is_plastic(self.cls), cs.is_elastic(self.cls)
+        A_net = np.asarray(rows.info.get("A_net", np.full(R, np.nan)), dtype=float)
+        self._check_A_net(A_net)
+        self.A_net = A_net[:, None]
+
+        F0 = np.nan_to_num(self.p("A") * self.f_y)
+        My0 = np.nan_to_num(np.fmax(self.p("W_el_y"), self.p("W_pl_y")) * self.f_y)
+        Mz0 = np.nan_to_num(np.fmax(self.p("W_el_z"), self.p("W_pl_z")) * self.f_y)
+        T0 = F0 * np.sqrt(np.nan_to_num(self.p("A")))
+        self.N = self._clean(rows.N, F0)
+        self.Vy, self.Vz = self._clean(rows.Vy, F0), self._clean(rows.Vz, F0)
+        self.My, self.Mz = self._clean(rows.My, My0), self._clean(rows.Mz, Mz0)
+        self.T = self._clean(rows.T, T0)
+
+    def p(self, name: str) -> np.ndarray:
+        """Section property `name` as (R, 1) floats; NaN where the table lacks the column."""
+        col = self.rows.section.get(name)
+        if col is None:
+            return np.full((self.R, 1), np.nan)
+        return np.asarray(col, dtype=float)[:, None]
+
+    def _clean(self, F: np.ndarray, scale: np.ndarray) -> np.ndarray:
+        F = np.asarray(F, dtype=float)
+        return np.where(np.abs(F) <= NOISE * scale, 0.0, F)
+
+    def _check_A_net(self, A_net: np.ndarray) -> None:
+        A = np.asarray(self.rows.section.get("A", np.full(self.R, np.nan)), dtype=float)
+        bad = ~np.isnan(A_net) & ~((A_net > 0.0) & ~(A_net > A * (1.0 + 1e-9)))
+        if bad.any():
+            i = int(np.argmax(bad))
+            raise InputError(f"member {self.rows.member[i]}: net area A_net = {A_net[i]:.6g} m2 "
+                             f"is not allowed; it must satisfy 0 < A_net <= A = {A[i]:.6g} m2 "
+                             "(NaN where the member has no holes)", row=i, field="A_net")
+
+    def nan_at(self, *forces: np.ndarray) -> np.ndarray:
+        """(R, S) True at real stations where any of `forces` is NaN."""
+        out = np.zeros((self.R, self.S), bool)
+        for F in forces:
+            out |= np.isnan(F)
+        return out & self.valid
+
+    def any_(self, mask: np.ndarray) -> np.ndarray:
+        return (np.broadcast_to(mask, (self.R, self.S)) & self.valid).any(axis=1)
+
+    def class_cases(self) -> list[tuple[np.ndarray, str]]:
+        return [(self.cls == 4, CLASS_4), (~(self.plastic | self.elastic | (self.cls == 4)),
+                                           CLASS_UNKNOWN)]
+
+    def common(self) -> dict[str, np.ndarray]:
+        return {"section_class": self.cls, "class_part": self.part, "f_y_Pa": self.f_y,
+                "gamma_M0": np.full((self.R, 1), self.gM0)}
+
+
+def _reasons(util: np.ndarray, cases: list[tuple[np.ndarray, str]]) -> np.ndarray:
+    """(R, S) reason at each NaN station: the first case that holds there."""
+    nan = np.isnan(util)
+    conds = [nan & np.broadcast_to(m, util.shape) for m, _ in cases]
+    out = np.select(conds, [t for _, t in cases], default="") if conds else np.full(util.shape, "")
+    out = out.astype(object)
+    return np.where(nan & (out == ""), "could not be evaluated", out)
+
+
+def _block(c: _Rows, check: str, clause: str, util: np.ndarray, reason: np.ndarray,
+           applies: np.ndarray, values: dict[str, np.ndarray],
+           nan_station: np.ndarray | None = None) -> CheckBlock:
+    """Reduce (R, S) results to the governing station per row; a NaN at a real station makes the
+    row not evaluated, reported at that station (or at `nan_station`)."""
+    x = c.rows.x
+    util = np.broadcast_to(util, (c.R, c.S))
+    u, _, idx = governing(util, x)
+    nan_real = np.isnan(util) & c.valid
+    has_nan = nan_real.any(axis=1)
+    first = np.argmax(nan_real, axis=1) if nan_station is None else nan_station
+    idx = np.where(has_nan, first, idx)
+    reason_row = np.where(has_nan, at_station(np.broadcast_to(reason, (c.R, c.S)), idx), "")
+    vals = {k: at_station(np.broadcast_to(np.asarray(v), (c.R, c.S)), idx)
+            for k, v in values.items()}
+    return CheckBlock(check=check, clause=clause, utilisation=np.where(has_nan, np.nan, u),
+                      x=at_station(x, idx), applies=np.asarray(applies, bool),
+                      reason=reason_row.astype(object), values=vals)
+
+
+def _util(demand: np.ndarray, resistance: np.ndarray) -> np.ndarray:
+    return cs.linear_sum(demand, resistance, 0.0, 1.0, 0.0, 1.0)
+
+
+def _missing(names: str) -> tuple[np.ndarray, str]:
+    return (np.array(True), f"section property or strength missing ({names})")
+
+
+def _tension(c: _Rows) -> CheckBlock:
+    A = c.p("A")
+    N_pl = cs.N_pl_Rd(A, c.f_y, gamma_M0=c.gM0)
+    N_u = cs.N_u_Rd(c.A_net, c.f_u, gamma_M2=c.gM2)
+    N_t = cs.N_t_Rd(A, c.f_y, c.A_net, c.f_u, gamma_M0=c.gM0, gamma_M2=c.gM2)
+    util = _util(np.maximum(c.N, 0.0), N_t)
+    reason = _reasons(util, [(c.nan_at(c.N), NAN_FORCE), _missing("A, f_y or f_u")])
+    applies = c.any_(c.N > 0.0) | c.any_(c.nan_at(c.N))
+    values = {"N_Ed_N": c.N, "A_m2": A, "A_net_m2": c.A_net, "N_pl_Rd_N": N_pl, "N_u_Rd_N": N_u,
+              "N_t_Rd_N": N_t, "f_u_Pa": c.f_u, "gamma_M2": np.full((c.R, 1), c.gM2),
+              **c.common()}
+    return _block(c, "tension", "6.2.3", util, reason, applies, values)
+
+
+def _compression(c: _Rows) -> CheckBlock:
+    A = c.p("A")
+    N_c = cs.N_c_Rd(A, c.f_y, c.cls, gamma_M0=c.gM0)
+    util = _util(np.maximum(-c.N, 0.0), N_c)
+    reason = _reasons(util, [(c.nan_at(c.N), NAN_FORCE), *c.class_cases(), _missing("A or f_y")])
+    applies = c.any_(c.N < 0.0) | c.any_(c.nan_at(c.N))
+    values = {"N_Ed_N": c.N, "A_m2": A, "N_c_Rd_N": N_c, **c.common()}
+    return _block(c, "compression", "6.2.4", util, reason, applies, values)
+
+
+def _bending(c: _Rows, axis: str) -> CheckBlock:
+    M = c.My if axis == "y" else c.Mz
+    W_pl, W_el = c.p(f"W_pl_{axis}"), c.p(f"W_el_{axis}")
+    M_c = cs.M_c_Rd(W_pl, W_el, c.f_y, c.cls, gamma_M0=c.gM0)
+    util = _util(np.abs(M), M_c)
+    reason = _reasons(util, [(c.nan_at(M), NAN_FORCE), *c.class_cases(),
+                             _missing(f"W_pl_{axis}, W_el_{axis} or f_y")])
+    applies = c.any_(M != 0.0) | c.any_(c.nan_at(M))
+    values = {f"M_{axis}_Ed_Nm": M, f"W_pl_{axis}_m3": W_pl, f"W_el_{axis}_m3": W_el,
+              f"M_c_{axis}_Rd_Nm": M_c, **c.common()}
+    return _block(c, f"bending {axis}-{axis}", "6.2.5", util, reason, applies, values)
+
+
+def _shear_parts(c: _Rows, axis: str) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """Shear area, V_pl,Rd and web slenderness ratio (6.22) for V along `axis`."""
+    shape, h, b = c.shape, c.p("h"), c.p("b")
+    t_w, t_f, t = c.p("t_w"), c.p("t_f"), c.p("t")
+    if axis == "z":
+        h_w_I = h - 2.0 * t_f
+        A_v = np.where(shape == "I", cs.A_v_z_I(c.p("Av_z"), h_w_I, t_w, eta=c.eta), c.p("Av_z"))
+        ratio = np.where(shape == "I", cs.web_slenderness_ratio(h_w_I, t_w, c.f_y, eta=c.eta),
+                         np.where(shape == "RHS", cs.web_slenderness_ratio(
+                             h - 2.0 * t, t, c.f_y, eta=c.eta), np.nan))
+    else:
+        # the flanges of an RHS act as webs for V_y; the flanges of an I are outstands, not webs
+        A_v = c.p("Av_y")
+        ratio = np.where(shape == "RHS", cs.web_slenderness_ratio(b - 2.0 * t, t, c.f_y,
+                                                                  eta=c.eta), np.nan)
+    return A_v, cs.V_pl_Rd(A_v, c.f_y, gamma_M0=c.gM0), ratio
+
+
+def _shear(c: _Rows, axis: str) -> CheckBlock:
+    V = c.Vz if axis == "z" else c.Vy
+    A_v, V_pl, ratio = _shear_parts(c, axis)
+    slender = (ratio > 1.0) & (V != 0.0)
+    util = np.where(slender, np.nan, _util(np.abs(V), V_pl))
+    reason = _reasons(util, [(c.nan_at(V), NAN_FORCE), (slender, SHEAR_BUCKLING),
+                             _missing(f"Av_{axis} or f_y")])
+    applies = c.any_(V != 0.0) | c.any_(c.nan_at(V))
+    values = {f"V_{axis}_Ed_N": V, f"A_v_{axis}_m2": A_v, f"V_pl_{axis}_Rd_N": V_pl,
+              "web_slenderness_ratio": ratio, "eta": np.full((c.R, 1), c.eta), **c.common()}
+    return _block(c, f"shear {axis}", "6.2.6", util, reason, applies, values)
+
+
+def _shear_buckling_unknown(c: _Rows) -> CheckBlock:
+    _, _, ratio_z = _shear_parts(c, "z")
+    unknown = (c.shape != "CHS") & np.isnan(ratio_z)
+    loaded = (c.Vz != 0.0) | (c.Vy != 0.0)
+    util = np.where(unknown & loaded, np.nan, 0.0) + 0.0 * c.Vz * c.Vy
+    reason = _reasons(util, [(c.nan_at(c.Vz, c.Vy), NAN_FORCE), (unknown, WEB_UNKNOWN)])
+    applies = unknown[:, 0] & (c.any_(loaded) | c.any_(c.nan_at(c.Vz, c.Vy)))
+    values = {"V_z_Ed_N": c.Vz, "V_y_Ed_N": c.Vy, **c.common()}
+    return _block(c, "shear buckling", "6.2.6(6)", util, reason, applies, values)
+
+
+def _shear_reduction(c: _Rows) -> dict[str, np.ndarray]:
+    """rho for both directions and the shear-reduced resistances of the class at every station."""
+    out: dict[str, np.ndarray] = {}
+    slender = np.zeros((c.R, c.S), bool)
+    for axis, V in (("z", c.Vz), ("y", c.Vy)):
+        _, V_pl, ratio = _shear_parts(c, axis)
+        out[f"V_pl_{axis}_Rd_N"] = V_pl
+        out[f"rho_{axis}"] = np.where(V == 0.0, 0.0, cs.rho_shear(V, V_pl))
+        slender |= (ratio > 1.0) & (V != 0.0)
+    W_y = np.where(c.plastic, c.p("W_pl_y"), np.where(c.elastic, c.p("W_el_y"), np.nan))
+    W_z = np.where(c.plastic, c.p("W_pl_z"), np.where(c.elastic, c.p("W_el_z"), np.nan))
+    A_w, W_w_y, W_w_z = cs.web_part(c.shape, c.p("h"), c.p("b"), c.p("t_w"), c.p("t_f"),
+                                    c.p("t"), c.plastic)
+    N_V, M_y_V, M_z_V = cs.reduced_for_shear(c.p("A"), W_y, W_z, A_w, W_w_y, W_w_z,
+                                             out["rho_z"], out["rho_y"], c.f_y, gamma_M0=c.gM0)
+    out.update(N_V_Rd_N=N_V, M_y_V_Rd_Nm=M_y_V, M_z_V_Rd_Nm=M_z_V, slender=slender,
+               rho=np.fmax(out["rho_z"], out["rho_y"]),
+               reduced=(out["rho_z"] > 0.0) | (out["rho_y"] > 0.0),
+               rho_unknown=np.isnan(out["rho_z"]) | np.isnan(out["rho_y"]))
+    return out
+
+
+def _bending_and_shear(c: _Rows, sv: dict[str, np.ndarray]) -> CheckBlock:
+    util = np.maximum(_util(np.abs(c.My), sv["M_y_V_Rd_Nm"]),
+                      _util(np.abs(c.Mz), sv["M_z_V_Rd_Nm"]))
+    util = np.where(sv["slender"] | sv["rho_unknown"], np.nan, util)
+    nan_f = c.nan_at(c.My, c.Mz, c.Vy, c.Vz)
+    reason = _reasons(util, [(nan_f, NAN_FORCE), (sv["slender"], SHEAR_BUCKLING),
+                             (sv["rho_unknown"], SHEAR_UNKNOWN), *c.class_cases(),
+                             _missing("W, A or dimensions")])
+    applies = c.any_(sv["reduced"] | sv["slender"] | sv["rho_unknown"]) | c.any_(nan_f)
+    keep = ("V_pl_z_Rd_N", "V_pl_y_Rd_N", "rho_z", "rho_y", "rho", "M_y_V_Rd_Nm", "M_z_V_Rd_Nm")
+    values = {"V_z_Ed_N": c.Vz, "V_y_Ed_N": c.Vy, "M_y_Ed_Nm": c.My, "M_z_Ed_Nm": c.Mz,
+              **{k: sv[k] for k in keep}, **c.common()}
+    return _block(c, "bending and shear", "6.2.8", util, reason, applies, values)
+
+
+def _bending_and_axial(c: _Rows, sv: dict[str, np.ndarray]) -> CheckBlock:
+    A, h, b, t_w, t_f, t = (c.p(k) for k in ("A", "h", "b", "t_w", "t_f", "t"))
+    shape, N, My, Mz = c.shape, c.N, c.My, c.Mz
+    N_pl = cs.N_pl_Rd(A, c.f_y, gamma_M0=c.gM0)
+    n = np.abs(N) / N_pl
+    M_pl_y = c.p("W_pl_y") * c.f_y / c.gM0
+    M_pl_z = c.p("W_pl_z") * c.f_y / c.gM0
+    is_I, is_RHS, is_CHS = shape == "I", shape == "RHS", shape == "CHS"
+    h_w = h - 2.0 * t_f
+    a = np.where(is_I, cs.a_I(A, b, t_f), np.nan)
+    a_w = np.where(is_RHS, cs.a_w_RHS(A, b, t), np.nan)
+    a_f = np.where(is_RHS, cs.a_f_RHS(A, h, t), np.nan)
+    M_N_y_I = np.where(cs.no_reduction_y_I(N, N_pl, h_w, t_w, c.f_y, gamma_M0=c.gM0), M_pl_y,
+                       cs.M_N_y_Rd_I(M_pl_y, n, a))
+    M_N_z_I = np.where(cs.no_reduction_z_I(N, h_w, t_w, c.f_y, gamma_M0=c.gM0), M_pl_z,
+                       cs.M_N_z_Rd_I(M_pl_z, n, a))
+    # without geometry only the single-action cases are open: with N = 0, M_N = M_pl and
+    # (6.41) with alpha = beta = 1; with N and M together the formulas are needed
+    other = np.where(N == 0.0, 1.0, np.nan)
+    M_N_y = np.select([is_I, is_RHS, is_CHS], [M_N_y_I, cs.M_N_y_Rd_RHS(M_pl_y, n, a_w),
+                                               cs.M_N_Rd_CHS(M_pl_y, n)], M_pl_y * other)
+    M_N_z = np.select([is_I, is_RHS, is_CHS], [M_N_z_I, cs.M_N_z_Rd_RHS(M_pl_z, n, a_f),
+                                               cs.M_N_Rd_CHS(M_pl_z, n)], M_pl_z * other)
+    alpha, beta = cs.alpha_beta(shape, n)
+    u_pl = cs.utilisation_N_M(n, My, M_N_y, Mz, M_N_z, alpha, beta, M_pl_y, M_pl_z)
+    sigma = cs.sigma_x_Ed(N, My, Mz, A, c.p("W_el_y"), c.p("W_el_z"), circular=is_CHS)
+    u_el = sigma / (c.f_y / c.gM0)
+    u_V = cs.linear_sum(N, np.where(c.plastic | c.elastic, sv["N_V_Rd_N"], np.nan),
+                        My, sv["M_y_V_Rd_Nm"], Mz, sv["M_z_V_Rd_Nm"])
+    util = np.where(c.plastic, u_pl, np.where(c.elastic, u_el, np.nan))
+    util = np.where(sv["reduced"] | sv["rho_unknown"], u_V, util)
+    idle = (N == 0.0) & (My == 0.0) & (Mz == 0.0)
+    util = np.where(idle, 0.0, util)
+    no_geometry = c.plastic & ~(is_I | is_RHS | is_CHS) & (N != 0.0)
+    reason = _reasons(util, [(c.nan_at(N, My, Mz, c.Vy, c.Vz), NAN_FORCE),
+                             (sv["rho_unknown"], SHEAR_UNKNOWN), *c.class_cases(),
+                             (no_geometry, NM_NEEDS_GEOMETRY), _missing("A, W, dimensions or f_y")])
+    both = (N != 0.0) & ((My != 0.0) | (Mz != 0.0))
+    applies = c.any_(both) | c.any_(c.nan_at(N, My, Mz))
+    method = np.select(
+        [sv["reduced"], c.elastic, c.plastic & is_I, c.plastic & is_RHS, c.plastic & is_CHS,
+         c.plastic],
+        ["shear-reduced linear sum (6.2.10, 6.2)", "elastic (6.42)", "I (6.33)-(6.38), (6.41)",
+         "RHS (6.39)-(6.41)", "CHS M_pl (1 - n^1.7), (6.41)", "single action, (6.41) with 1, 1"],
+        default="").astype(object)
+    pl = np.where(c.plastic, 1.0, np.nan)  # plastic quantities only where they were used
+    values = {"N_Ed_N": N, "N_pl_Rd_N": N_pl, "n": n, "a": a, "a_w": a_w, "a_f": a_f,
+              "M_y_Ed_Nm": My, "M_pl_y_Rd_Nm": M_pl_y, "M_N_y_Rd_Nm": M_N_y * pl,
+              "M_z_Ed_Nm": Mz, "M_pl_z_Rd_Nm": M_pl_z, "M_N_z_Rd_Nm": M_N_z * pl,
+              "alpha": alpha * pl, "beta": beta * pl,
+              "sigma_x_Ed_Pa": np.where(c.elastic, sigma, np.nan), "rho": sv["rho"],
+              "method": method, **c.common()}
+    return _block(c, "bending and axial force", "6.2.9", util, reason, applies, values)
+
+
+def _linear_sum(c: _Rows, sv: dict[str, np.ndarray]) -> CheckBlock:
+    N_t = cs.N_t_Rd(c.p("A"), c.f_y, c.A_net, c.f_u, gamma_M0=c.gM0, gamma_M2=c.gM2)
+    covered = c.plastic | c.elastic
+    N_Rd = np.where(c.N > 0.0, np.minimum(N_t, sv["N_V_Rd_N"]),
+                    np.where(covered, sv["N_V_Rd_N"], np.nan))
+    util = cs.linear_sum(c.N, N_Rd, c.My, sv["M_y_V_Rd_Nm"], c.Mz, sv["M_z_V_Rd_Nm"])
+    nan_f = c.nan_at(c.N, c.My, c.Mz, c.Vy, c.Vz)
+    reason = _reasons(util, [(nan_f, NAN_FORCE), (sv["rho_unknown"], SHEAR_UNKNOWN),
+                             *c.class_cases(), _missing("A, W or f_y")])
+    loaded = (c.N != 0.0) | (c.My != 0.0) | (c.Mz != 0.0)
+    applies = c.any_(loaded) | c.any_(c.nan_at(c.N, c.My, c.Mz))
+    values = {"N_Ed_N": c.N, "N_Rd_N": N_Rd, "M_y_Ed_Nm": c.My, "M_y_Rd_Nm": sv["M_y_V_Rd_Nm"],
+              "M_z_Ed_Nm": c.Mz, "M_z_Rd_Nm": sv["M_z_V_Rd_Nm"], "rho": sv["rho"], **c.common()}
+    return _block(c, "linear sum", "6.2.1(7) (6.2)", util, reason, applies, values)
+
+
+def _torsion(c: _Rows) -> CheckBlock:
+    tau = cs.tau_t_Ed(c.T, c.shape, c.p("I_t"), c.p("t_max"), c.p("h"), c.p("b"), c.p("t"))
+    tau_ratio = tau / (c.f_y / (np.sqrt(3.0) * c.gM0))
+    # an unknown stress (missing I_t) with a real T counts as not negligible
+    felt = (c.T != 0.0) & ~(tau_ratio <= TORSION_NEGLIGIBLE)
+    nan_T = c.nan_at(c.T)
+    util = np.where(felt | np.isnan(c.T), np.nan, 0.0)
+    reason = _reasons(util, [(nan_T, NAN_FORCE), (felt, TORSION)])
+    applies = c.any_(felt) | c.any_(nan_T)
+    worst = np.argmax(np.where(c.valid, np.nan_to_num(np.abs(c.T), nan=np.inf), -1.0), axis=1)
+    values = {"T_Ed_Nm": c.T, "tau_t_Ed_Pa": tau, "tau_t_ratio": tau_ratio,
+              "I_t_m4": c.p("I_t"), **c.common()}
+    return _block(c, "torsion", "6.2.7", util, reason, applies, values, nan_station=worst)
+
+
+def cross_section_checks(rows: MemberRows) -> list[CheckBlock]:
+    """EN 1993-1-1:2005, 6.2: every cross-section check of every row, at every station.
+
+    Returns one CheckBlock per check, in the order tension, compression, bending y-y,
+    bending z-z, shear z, shear y, shear buckling, bending and shear, bending and axial force,
+    linear sum, torsion (see the module docstring for what each means and when it applies).
+
+    Raises:
+        InputError: a net area outside 0 < A_net <= A.
+    """
+    c = _Rows(rows)
+    sv = _shear_reduction(c)
+    return [_tension(c), _compression(c), _bending(c, "y"), _bending(c, "z"), _shear(c, "z"),
+            _shear(c, "y"), _shear_buckling_unknown(c), _bending_and_shear(c, sv),
+            _bending_and_axial(c, sv), _linear_sum(c, sv), _torsion(c)]
