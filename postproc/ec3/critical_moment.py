@@ -1,0 +1,302 @@
+"""Elastic critical moment M_cr of a segment between lateral restraints, for its actual diagram.
+
+EN 1993-1-1 6.3.2.2(2) asks for M_cr "based on gross cross-sectional properties and taking into
+account the loading conditions, the real moment distribution and the lateral restraints" and gives
+no formula. This module solves the classical lateral-torsional buckling problem of a doubly symmetric
+member numerically (Rayleigh-Ritz), vectorised over rows:
+
+- lateral deflection u(x) = sum a_i sin(i pi x / L), twist phi(x) = sum b_j sin(j pi x / L), i.e.
+  fork supports at the segment ends (u = phi = 0, free warping);
+- strain energy U = 1/2 int(EI_z/k^2 u''^2 + G I_t phi'^2 + EI_w/k_w^2 phi''^2) dx: the
+  effective-length factors k (lateral bending) and k_w (warping) enter as scaled stiffnesses, which
+  reproduces the closed form for uniform moment exactly and is an approximation otherwise, as the
+  three-factor formula is;
+- work of the moment V = lambda int(M(x) u'' phi) dx and of the load height
+  -lambda/2 int(q_z z_g phi^2) dx with q_z = -M''(x) (see `postproc.results`: dMy/dx = Vz and
+  dVz/dx = -q_z). A load pointing from its point of application towards the shear centre
+  (q_z z_g < 0, e.g. gravity on the top flange with z up) destabilises.
+
+The moment diagram is given at stations and is linear between them, so M'' is a set of point loads
+at the interior stations (exact for point loads; a distributed load is lumped at the stations).
+The work integrals are linear in the station moments: the weights depend only on where the stations
+lie within the segment, so rows sharing a station pattern (the usual case) cost one matrix product.
+Eliminating u leaves a symmetric n x n eigenproblem per row (2n x 2n with a load height), solved
+batched with numpy.linalg.eigvalsh.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+N_TERMS = 6  # sine terms per field; see tests/ec3/test_critical_moment.py for the convergence
+_FINE = 400  # Simpson intervals for the precomputed work integrals (kinks at stations: error ~1e-6)
+_MAX_GROUPS = 64  # beyond this many station patterns, resample each row onto a grid instead
+_GRID = 96  # Simpson intervals of that per-row grid
+_BLOCK = 16384  # rows per block of the power iteration (fits in cache)
+
+
+def M_cr_0(L: np.ndarray, E: np.ndarray, G: np.ndarray, I_z: np.ndarray, I_t: np.ndarray,
+           I_w: np.ndarray, *, k: np.ndarray | float = 1.0,
+           k_w: np.ndarray | float = 1.0) -> np.ndarray:
+    """EN 1993-1-1:2005, 6.3.2.2(2), M_cr for uniform moment (closed form, doubly symmetric I).
+
+    M_cr,0 = sqrt(pi^2 E I_z / (k L)^2 * (G I_t + pi^2 E I_w / (k_w L)^2)), in N*m; the value of
+    the classical theory of lateral-torsional buckling with the load at the shear centre.
+    """
+    L = np.asarray(L, float)
+    P_z = np.pi**2 * E * I_z / (k * L) ** 2
+    return np.sqrt(P_z * (G * I_t + np.pi**2 * E * I_w / (k_w * L) ** 2))
+
+
+def peak_moment(xi: np.ndarray, M: np.ndarray) -> np.ndarray:
+    """EN 1993-1-1:2005, 6.3.2.1(1), largest |M| within the segment 0 <= xi <= 1 (N*m).
+
+    xi (R, S) are station positions as fractions of the segment (ascending, NaN padding, may lie
+    outside [0, 1] when the segment is part of a longer member); M (R, S) is linear between them.
+    """
+    inside = (xi >= 0.0) & (xi <= 1.0)
+    peak = np.max(np.where(inside, np.abs(np.nan_to_num(M)), 0.0), axis=1)
+    ends = np.abs(_interp_rows(xi, M, np.array([0.0, 1.0])))
+    return np.maximum(peak, ends.max(axis=1))
+
+
+def M_cr(xi: np.ndarray, M: np.ndarray, L: np.ndarray, E: np.ndarray, G: np.ndarray,
+         I_z: np.ndarray, I_t: np.ndarray, I_w: np.ndarray, *, k: np.ndarray | float = 1.0,
+         k_w: np.ndarray | float = 1.0, z_g: np.ndarray | None = None,
+         n_terms: int = N_TERMS) -> np.ndarray:
+    """EN 1993-1-1:2005, 6.3.2.2(2), M_cr of a segment for its actual moment diagram (Rayleigh-Ritz).
+
+    Args:
+        xi: (R, S) station positions as fractions of the segment length, ascending, NaN padding.
+            Stations outside [0, 1] only serve to interpolate the moment at the segment ends.
+        M: (R, S) bending moment about the major axis at the stations, N*m (linear between).
+        L: (R,) segment length between lateral restraints, m.
+        E, G: (R,) moduli, Pa. I_z, I_t, I_w: (R,) m^4, m^4, m^6.
+        k, k_w: effective-length factors for lateral bending and warping (1.0: fork supports).
+        z_g: (R,) height of the load above the shear centre along +z, m (None or 0: at the centre).
+        n_terms: sine terms per field.
+
+    Returns:
+        (R,) M_cr in N*m, referred to the largest |M| in the segment: the diagram scaled by
+        M_cr / max|M| buckles. inf where the segment carries no moment, NaN where the input is NaN.
+    """
+    xi = np.asarray(xi, float)
+    M = np.asarray(M, float)
+    R = xi.shape[0]
+    bcast = lambda v: np.broadcast_to(np.asarray(v, float), (R,))  # noqa: E731
+    L, E, G, I_z, I_t, I_w, k, k_w = (bcast(v) for v in (L, E, G, I_z, I_t, I_w, k, k_w))
+    n = int(n_terms)
+    j = np.arange(1, n + 1)
+    # diagonal stiffnesses of the sine modes (int_0^L sin^2 = L/2); K_u,i = EI_z/k^2 beta_i^4 L/2
+    beta = j[None, :] * np.pi / L[:, None]  # (R, n), 1/m
+    K_phi = ((G * I_t)[:, None] * beta**2 + (E * I_w / k_w**2)[:, None] * beta**4) * (L[:, None] / 2)
+
+    peak = peak_moment(xi, M)
+    scale = np.where(peak > 0, peak, 1.0)  # work with M / max|M|: the eigenvalue is then M_cr
+    m = np.nan_to_num(M) / scale[:, None]
+    has_height = z_g is not None and np.any(np.asarray(z_g, float) != 0.0)
+    I_mm, I_sq, F_ss = _work_integrals(xi, m, n, with_point_loads=has_height,
+                                       with_square=not has_height)
+    # G_ij = int M u_i'' phi_j dx = -(i pi/L)^2 L int_0^1 m s_i s_j dxi. Scaled by K^-1/2 on both
+    # sides, (i pi/L)^2 cancels against sqrt(K_u,i): B = K_u^-1/2 G K_phi^-1/2 = I_mm diag(d).
+    d = -L[:, None] / (np.sqrt(E * I_z * L / (2.0 * k**2))[:, None] * np.sqrt(K_phi))
+    if not has_height:
+        # eliminating u: K_phi b = lambda^2 G^T K_u^-1 G b, i.e. 1/lambda^2 = largest eigenvalue
+        # of B^T B = diag(d) I_mm^2 diag(d) (symmetric, positive semi-definite)
+        A = I_sq * (d[:, :, None] * d[:, None, :])
+        mu = largest_eigenvalue_psd(A)
+        with np.errstate(divide="ignore"):
+            lam = 1.0 / np.sqrt(mu)
+    else:
+        # with a load height the reduced problem is quadratic in lambda: solve the linear 2n x 2n
+        # one, K x = lambda K_g x, as K^-1/2 K_g K^-1/2 y = (1/lambda) y
+        # Q_jl = int q_z z_g s_j s_l dx with q_z = -M'': point loads F at the interior stations
+        Q = (bcast(z_g) / L)[:, None, None] * F_ss
+        Q_t = Q / np.sqrt(K_phi[:, :, None] * K_phi[:, None, :])
+        B = I_mm * d[:, None, :]
+        C = np.zeros((R, 2 * n, 2 * n))
+        C[:, :n, n:] = -B
+        C[:, n:, :n] = -np.swapaxes(B, 1, 2)
+        C[:, n:, n:] = -Q_t
+        nu = np.linalg.eigvalsh(C)[:, -1] if R else np.zeros(0)
+        with np.errstate(divide="ignore"):
+            lam = np.where(nu > 0, 1.0 / nu, np.inf)
+    out = np.where(peak > 0, lam, np.inf)
+    bad = (np.isnan(M) & ~np.isnan(xi)).any(axis=1) | np.isnan(L + E + G + I_z + I_t + I_w + k + k_w)
+    if z_g is not None:
+        bad |= np.isnan(bcast(z_g))
+    return np.where(bad, np.nan, out)
+
+
+def largest_eigenvalue_psd(A: np.ndarray, *, iterations: int = 8,
+                           tol: float = 1e-4) -> np.ndarray:
+    """Largest eigenvalue of each symmetric positive semi-definite matrix in A (R, n, n).
+
+    Power iteration vectorised over rows (the matrices are small and many, where a LAPACK call per
+    matrix costs more than the arithmetic), then a certificate per row: a residual r = |A x - rho x|
+    puts an eigenvalue within r of the Rayleigh quotient rho, and if the Frobenius norm leaves room
+    for no other eigenvalue above it (|A|_F^2 - (rho - r)^2 < (rho - r)^2) it is the largest.
+    The result is rho + r (an upper bound of that eigenvalue, so M_cr errs low by at most about
+    tol * n / 2). Rows that fail the certificate (close leading eigenvalues, slow convergence) are
+    solved by numpy.linalg.eigvalsh. The iteration runs in float32 on blocks of rows that stay in
+    cache; tol (relative to the trace) is far above float32 rounding.
+    """
+    R, n, _ = A.shape
+    mu = np.zeros(R)
+    if R == 0:
+        return mu
+    trace = np.einsum("rii->r", A)
+    ok = np.zeros(R, dtype=bool)
+    for start in range(0, R, _BLOCK):  # blocks of rows, for the cache
+        stop = min(start + _BLOCK, R)
+        t = trace[start:stop]
+        safe = np.where(t > 0, t, 1.0)
+        flat = (A[start:stop] / safe[:, None, None]).reshape(stop - start, n * n).T.astype(np.float32)
+        x = np.ones((n, stop - start), dtype=np.float32)
+        for _ in range(iterations):
+            x = _matvec(flat, x, n)
+            x /= np.sqrt((x * x).sum(axis=0))  # eigenvalues of A / trace lie in [0, 1]
+        y = _matvec(flat, x, n)
+        rho = (x * y).sum(axis=0)
+        r = np.sqrt(((y - rho * x) ** 2).sum(axis=0))
+        low = rho - r
+        frob2 = (flat * flat).sum(axis=0)
+        ok[start:stop] = (r <= tol) & (frob2 - low**2 < low**2) & (low > 0)
+        mu[start:stop] = (rho.astype(float) + r) * t
+    mu = np.where(trace > 0, mu, 0.0)
+    redo = ~ok & (trace > 0) & np.isfinite(trace)
+    if redo.any():
+        mu[redo] = np.linalg.eigvalsh(A[redo])[:, -1]
+    return np.where(np.isfinite(trace), mu, np.nan)
+
+
+def _matvec(flat: np.ndarray, x: np.ndarray, n: int) -> np.ndarray:
+    """y_i = sum_j A_ij x_j for a block of rows at once, A stored entry-major as (n*n, rows)."""
+    y = np.empty_like(x)
+    for i in range(n):  # over matrix entries (n is a handful), not over rows
+        acc = flat[i * n] * x[0]
+        for jj in range(1, n):
+            acc += flat[i * n + jj] * x[jj]
+        y[i] = acc
+    return y
+
+
+def _interp_rows(xi: np.ndarray, M: np.ndarray, at: np.ndarray) -> np.ndarray:
+    """Linear interpolation of each row's (xi, M) at the points `at` (P,), flat beyond the ends."""
+    xs = np.where(np.isnan(xi), np.inf, xi)
+    count = (~np.isnan(xi)).sum(axis=1)
+    idx = (xs[:, None, :] <= at[None, :, None]).sum(axis=2) - 1  # (R, P)
+    idx = np.clip(idx, 0, np.maximum(count - 2, 0)[:, None])
+    x0 = np.take_along_axis(xs, idx, axis=1)
+    x1 = np.take_along_axis(xs, np.minimum(idx + 1, xs.shape[1] - 1), axis=1)
+    m0 = np.take_along_axis(M, idx, axis=1)
+    m1 = np.take_along_axis(M, np.minimum(idx + 1, xs.shape[1] - 1), axis=1)
+    with np.errstate(invalid="ignore", divide="ignore"):
+        t = np.clip((at[None, :] - x0) / (x1 - x0), 0.0, 1.0)
+    t = np.where(np.isfinite(t), t, 0.0)
+    return m0 + t * (m1 - m0)
+
+
+def _simpson(n_intervals: int) -> tuple[np.ndarray, np.ndarray]:
+    grid = np.linspace(0.0, 1.0, n_intervals + 1)
+    w = np.ones(n_intervals + 1)
+    w[1:-1:2], w[2:-1:2] = 4.0, 2.0
+    return grid, w / (3.0 * n_intervals)
+
+
+def _hat_matrix(xi: np.ndarray, grid: np.ndarray) -> np.ndarray:
+    """(S, P) weights that interpolate station values linearly at the grid points (one pattern)."""
+    S = xi.shape[0]
+    eye = np.eye(S)
+    valid = ~np.isnan(xi)
+    H = np.zeros((S, grid.shape[0]))
+    H[valid] = _interp_rows(np.broadcast_to(xi, (int(valid.sum()), S)),
+                            eye[valid], grid)
+    return H
+
+
+def _kink_matrix(xi: np.ndarray) -> np.ndarray:
+    """(S, S) D with F = m @ D the point loads q_z = -M'' at each station (one pattern, 0 at the
+    padding and at stations outside the open segment)."""
+    S = xi.shape[0]
+    D = np.zeros((S, S))
+    valid = np.flatnonzero(~np.isnan(xi))
+    for a, b, c in zip(valid[:-2], valid[1:-1], valid[2:]):  # over stations of one pattern only
+        if 0.0 < xi[b] < 1.0:
+            h1, h2 = xi[b] - xi[a], xi[c] - xi[b]
+            # F_b = -(slope right - slope left), slopes per unit xi (m is per unit of peak moment)
+            D[a, b] += -1.0 / h1
+            D[b, b] += 1.0 / h1 + 1.0 / h2
+            D[c, b] += -1.0 / h2
+    return D
+
+
+def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: bool,
+                    with_square: bool) -> tuple[np.ndarray, np.ndarray | None, np.ndarray | None]:
+    """I_ij = int_0^1 m s_i s_j dxi (R, n, n), its matrix square (I @ I, if asked) and
+    F_jl = sum_k F_k s_j(xi_k) s_l(xi_k), (R, n, n).
+
+    I is linear in the station moments, so I @ I is quadratic: for rows sharing a station pattern
+    it is (m_s m_t) @ (W_s W_t), one large matrix product instead of R small ones.
+
+    F_k = -(jump of dm/dxi at interior station k): the point loads of q_z = -M'' per unit peak
+    moment, times the segment length L (the caller divides by L).
+    """
+    R, S = xi.shape
+    j = np.arange(1, n + 1)
+    key = np.where(np.isnan(xi), np.inf, np.round(xi, 9))
+    same = np.all(key == key[:1], axis=1) if R else np.zeros(0, bool)
+    if R and same.all():
+        inverse, patterns = np.zeros(R, int), key[:1]
+    elif R:
+        patterns, inverse = np.unique(key, axis=0, return_inverse=True)
+        inverse = inverse.reshape(-1)
+    else:
+        return np.zeros((0, n, n)), np.zeros((0, n, n)), np.zeros((0, n, n))
+    I_mm = np.empty((R, n * n))
+    I_sq = np.empty((R, n * n)) if with_square else None
+    F_ss = np.empty((R, n * n)) if with_point_loads else None
+    if patterns.shape[0] <= _MAX_GROUPS:
+        grid, w = _simpson(_FINE)
+        s = np.sin(np.pi * grid[:, None] * j[None, :])  # (P, n)
+        W = (w[:, None, None] * s[:, :, None] * s[:, None, :]).reshape(-1, n * n)
+        for g, pattern in enumerate(patterns):  # over distinct station patterns, not over rows
+            rows = slice(None) if patterns.shape[0] == 1 else inverse == g
+            xi_g = np.where(np.isinf(pattern), np.nan, pattern)
+            W_g = _hat_matrix(xi_g, grid) @ W  # (S, n*n)
+            m_g = m[rows]
+            I_mm[rows] = m_g @ W_g
+            if with_square:
+                W_s = W_g.reshape(S, n, n)
+                WW = np.einsum("sij,tjl->stil", W_s, W_s).reshape(S * S, n * n)
+                I_sq[rows] = (m_g[:, :, None] * m_g[:, None, :]).reshape(-1, S * S) @ WW
+            if with_point_loads:
+                s_st = np.sin(np.pi * np.nan_to_num(xi_g)[:, None] * j[None, :])
+                Wq = (s_st[:, :, None] * s_st[:, None, :]).reshape(S, n * n)
+                F_ss[rows] = m[rows] @ (_kink_matrix(xi_g) @ Wq)
+    else:
+        grid, w = _simpson(_GRID)
+        s = np.sin(np.pi * grid[:, None] * j[None, :])
+        W = (w[:, None, None] * s[:, :, None] * s[:, None, :]).reshape(-1, n * n)
+        I_mm[:] = _interp_rows(xi, m, grid) @ W
+        if with_point_loads:
+            F_ss[:] = _point_load_integrals_rows(xi, m, j)
+    I_mm = I_mm.reshape(R, n, n)
+    if with_square:
+        I_sq = (I_sq.reshape(R, n, n) if patterns.shape[0] <= _MAX_GROUPS else I_mm @ I_mm)
+    return I_mm, I_sq, (F_ss.reshape(R, n, n) if with_point_loads else None)
+
+
+def _point_load_integrals_rows(xi: np.ndarray, m: np.ndarray, j: np.ndarray) -> np.ndarray:
+    """Per-row version of the point-load integrals for rows that share no station pattern."""
+    R, S = xi.shape
+    n = j.shape[0]
+    xs = np.nan_to_num(xi)
+    with np.errstate(invalid="ignore", divide="ignore"):
+        slope = np.diff(np.nan_to_num(m), axis=1) / np.diff(xi, axis=1)  # (R, S-1)
+    slope = np.where(np.isfinite(slope), slope, np.nan)
+    F = np.zeros((R, S))
+    F[:, 1:-1] = np.nan_to_num(-(slope[:, 1:] - slope[:, :-1]))  # at stations 1 .. S-2
+    F = np.where((xs > 0.0) & (xs < 1.0) & ~np.isnan(xi), F, 0.0)
+    s_st = np.sin(np.pi * xs[:, :, None] * j[None, None, :])  # (R, S, n)
+    return np.einsum("rk,rkj,rkl->rjl", F, s_st, s_st).reshape(R, n * n)
