@@ -403,6 +403,18 @@ def _restraints(frame: Frame, members: pd.DataFrame, member_elements: pd.DataFra
                 for d, v in (("y", ey), ("z", ez)):
                     if abs(u @ v) >= FRAMING_MIN_COMPONENT and d not in found:
                         found[d] = f"member {elem_member.get(e, e)} framing in at node {n}"
+            if frame.ndm == 3 and n in (members.at[m, "start_node"], members.at[m, "end_node"]):
+                # a joint at a member end: its translation belongs to the frame's own (sway)
+                # behaviour, which the global analysis carries; for the member it is a node
+                for _, other, data in g.edges(n, data=True):
+                    if data["element"] in mine:
+                        continue
+                    u = xyz.loc[other].to_numpy() - xyz.loc[n].to_numpy()
+                    if abs(u @ ex) < COLLINEAR_COS * np.linalg.norm(u):
+                        for d in ("y", "z"):
+                            found.setdefault(d, f"joint with member "
+                                                f"{elem_member.get(data['element'])} at node {n}")
+                        break
             if n in decl_nodes:
                 for _, r in decl.get_group(n).iterrows():
                     dirs = {"all": ["y", "z", "torsion"]}.get(r["direction"], [r["direction"]])

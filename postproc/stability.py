@@ -1,0 +1,483 @@
+"""Frame stability: alpha_cr, the analysis path, sway amplification and frame imperfections.
+
+- `critical_load_factors`: alpha_cr per ULS combination by linear eigenvalue buckling of the whole
+  frame (`postproc.stability_eigen`), and by the storey method of 5.2.1(4)B where displacements
+  are given.
+- `analysis_path`: 5.2.1(3) and 5.2.2: first-order, amplified, second-order in forces, second-order
+  needed, unstable.
+- `amplify_sway_effects`: 5.2.2(5B).
+- `sway_imperfection`, `equivalent_horizontal_forces`, `bow_imperfections_needed`: 5.3.2.
+- `buckling_lengths` lives in `postproc.stability_lengths` and is re-exported here.
+"""
+
+from __future__ import annotations
+
+import dataclasses
+
+import numpy as np
+import pandas as pd
+
+from .errors import InputError, TopologyError
+from .frame import NODE_COLUMNS, Frame, local_axes
+from .members import Members, member_axes, moment_released
+from .results import Results
+from .stability_eigen import (E_STEEL, SUB_PER_MEMBER, Mesh, build_mesh, lowest_mode,
+                              section_columns, translations)
+from .stability_lengths import buckling_lengths, effective_length_ratio  # noqa: F401 re-export
+
+ALPHA_FIRST_ORDER = 10.0    # 5.2.1(3), eq. (5.1), elastic analysis
+ALPHA_AMPLIFY_MIN = 3.0     # 5.2.2(5B)
+LEVEL_TOL_M = 0.01          # column ends within 10 mm count as one level
+COLUMN_TILT_COS = np.cos(np.radians(10.0))
+PATHS = ("first-order", "amplified", "second-order in forces", "second-order needed", "unstable",
+         "not evaluated")
+
+
+def _uls(results: Results) -> pd.DataFrame:
+    comb = results.combinations
+    return comb[comb["kind"].astype(str).str.upper() == "ULS"]
+
+
+def axial_at(frame: Frame, results: Results, combos: list[str], parent: np.ndarray,
+             frac: np.ndarray) -> np.ndarray:
+    """(C, s) axial force N (tension > 0) at fraction `frac` along element `parent`, by linear
+    interpolation between the force stations; NaN where an element has no forces."""
+    f = results.forces
+    f = f[f["combination"].astype(str).isin(combos)]
+    eid = frame.elements.index.astype(str)
+    e_code = pd.Categorical(f["element"].astype(str), categories=eid).codes
+    c_code = pd.Categorical(f["combination"].astype(str), categories=combos).codes
+    keep = e_code >= 0
+    f, e_code, c_code = f[keep], e_code[keep], c_code[keep]
+    length = np.linalg.norm(frame.nodes.loc[frame.elements["node_j"], NODE_COLUMNS].to_numpy(float)
+                            - frame.nodes.loc[frame.elements["node_i"], NODE_COLUMNS]
+                            .to_numpy(float), axis=1)
+    order = np.lexsort((f["x_m"].to_numpy(float), e_code, c_code))
+    f, e_code, c_code = f.iloc[order], e_code[order], c_code[order]
+    rank = pd.Series(np.zeros(len(f))).groupby([c_code, e_code]).cumcount().to_numpy()
+    S = int(rank.max()) + 1 if len(f) else 1
+    X = np.full((len(combos), len(eid), S), np.inf)
+    N = np.full((len(combos), len(eid), S), np.nan)
+    X[c_code, e_code, rank] = f["x_m"].to_numpy(float) / length[e_code]
+    N[c_code, e_code, rank] = f["N_N"].to_numpy(float)
+    count = np.isfinite(X).sum(axis=2)                         # (C, e)
+    Xs, Ns = X[:, parent, :], N[:, parent, :]                  # (C, s, S)
+    cnt = count[:, parent]
+    below = (Xs <= frac[None, :, None]).sum(axis=2) - 1
+    lo = np.clip(below, 0, np.maximum(cnt - 2, 0))
+    hi = np.minimum(lo + 1, np.maximum(cnt - 1, 0))
+    take = lambda a, i: np.take_along_axis(a, i[..., None], axis=2)[..., 0]  # noqa: E731
+    x0, x1, n0, n1 = take(Xs, lo), take(Xs, hi), take(Ns, lo), take(Ns, hi)
+    with np.errstate(invalid="ignore", divide="ignore"):
+        w = np.where(np.isfinite(x1) & (x1 > x0), (frac[None, :] - x0) / (x1 - x0), 0.0)
+    w = np.clip(w, 0.0, 1.0)
+    out = n0 + w * (n1 - n0)
+    return np.where(cnt > 0, out, np.nan)
+
+
+def sub_elements(frame: Frame, members: Members) -> np.ndarray:
+    """(e,) sub-elements per frame element so each member has at least SUB_PER_MEMBER."""
+    count = members.members["n_elements"]
+    per = members.member_elements.assign(n=lambda d: count.loc[d["member"]].to_numpy())
+    per = per.set_index("element")["n"]
+    n = per.reindex(frame.elements.index.astype(str)).fillna(1).to_numpy(int)
+    return np.maximum(1, -(-SUB_PER_MEMBER // n))
+
+
+def _mode_shape_measures(mesh: Mesh, frame: Frame, members: Members, phi: np.ndarray
+                         ) -> tuple[float, float]:
+    """(largest column drift, largest member bow) of a mode, both relative to its largest
+    translation. Drift: horizontal displacement of a column's top relative to its bottom. Bow:
+    largest displacement of a point of a member off the straight line between its ends."""
+    u = translations(mesh, phi)
+    where = {n: k for k, n in enumerate(mesh.node_ids)}
+    horiz = [0] if frame.ndm == 2 else [0, 1]
+    mm = members.members
+    cols = mm[mm["kind"] == "column"]
+    drift = 0.0
+    if len(cols):
+        a = np.array([where[n] for n in cols["start_node"]])
+        b = np.array([where[n] for n in cols["end_node"]])
+        drift = float(np.linalg.norm((u[b] - u[a])[:, horiz], axis=1).max())
+    # bow: each sub-element end point against the chord of its member
+    me = members.member_elements.set_index("element")
+    eid = frame.elements.index.astype(str)
+    mem_of = me.loc[eid[mesh.parent], "member"].to_numpy()
+    start = np.array([where[n] for n in mm.loc[mem_of, "start_node"]])
+    end = np.array([where[n] for n in mm.loc[mem_of, "end_node"]])
+    p0, p1 = mesh.xyz[start], mesh.xyz[end]
+    span = p1 - p0
+    t = np.einsum("ij,ij->i", mesh.xyz[mesh.end_j] - p0, span) / np.einsum("ij,ij->i", span, span)
+    chord = u[start] + t[:, None] * (u[end] - u[start])
+    bow = float(np.linalg.norm(u[mesh.end_j] - chord, axis=1).max()) if len(t) else 0.0
+    return drift, bow
+
+
+def critical_load_factors(frame: Frame, results: Results, members: Members) -> pd.DataFrame:
+    """Elastic critical load factor alpha_cr of every ULS combination (5.2.1).
+
+    alpha_cr: lowest positive eigenvalue of (K + alpha K_G) phi = 0, K the elastic stiffness
+    assembled from the frame (each member cut into at least four beam-column elements, releases
+    and supports as modelled), K_G the geometric stiffness of the combination's axial forces
+    (results.forces, interpolated along each element). inf when nothing is in compression.
+
+    sway_mode: True when the mode's largest horizontal drift of a column (top relative to bottom)
+    is at least as large as the largest bow of any member off its chord; a frame with no columns
+    reports False with a note.
+
+    alpha_cr_storey: 5.2.1(4)B, eq. (5.2), alpha_cr = (H_Ed / V_Ed) (h / delta_H,Ed), lowest over
+    the storeys (columns grouped by the levels of their ends) and horizontal directions; the
+    storey shear H_Ed and vertical load V_Ed are summed from the column forces at the bottom of the
+    storey (at the base these equal the reactions). NaN with a note where displacements are
+    missing or a combination has no horizontal load. Its conditions (beams and rafters with small
+    axial force, roof slopes up to 1:2) are for the user to confirm.
+
+    Returns:
+        index `combination` (ULS only); columns alpha_cr, alpha_cr_storey, sway_mode, mode_note.
+
+    Raises:
+        TopologyError: the model is disconnected or a mechanism.
+    """
+    uls = _uls(results)
+    combos = uls.index.astype(str).tolist()
+    mesh = build_mesh(frame, sub_elements(frame, members))
+    tension = axial_at(frame, results, combos, mesh.parent, mesh.frac_mid)
+    eid = frame.elements.index.astype(str)
+    out = []
+    for c, comb in enumerate(combos):
+        status = str(uls["status"].iloc[c]) if "status" in uls.columns else "ok"
+        if status != "ok":
+            out.append((comb, np.nan, False, f"analysis of this combination failed: "
+                        f"{uls['message'].iloc[c] if 'message' in uls.columns else ''}"))
+            continue
+        missing = np.isnan(tension[c])
+        if missing.any():
+            e = eid[mesh.parent[np.argmax(missing)]]
+            out.append((comb, np.nan, False, f"no forces for element {e}: alpha_cr not found"))
+            continue
+        alpha, phi = lowest_mode(mesh, tension[c])
+        if phi is None:
+            out.append((comb, np.inf, False, "no member in compression: no buckling mode"))
+            continue
+        drift, bow = _mode_shape_measures(mesh, frame, members, phi)
+        if not (members.members["kind"] == "column").any():
+            note, sway = "no columns to judge sway from; taken as non-sway", False
+        else:
+            sway = drift >= bow
+            note = (f"{'sway' if sway else 'member (non-sway)'} mode: largest column drift "
+                    f"{drift:.2f}, largest member bow {bow:.2f} (relative to the largest "
+                    "displacement)")
+        out.append((comb, alpha, bool(sway), note))
+    table = pd.DataFrame(out, columns=["combination", "alpha_cr", "sway_mode", "mode_note"])
+    table = table.set_index("combination")
+    storey, storey_note = storey_alpha(frame, results, members, combos)
+    table.insert(1, "alpha_cr_storey", storey)
+    table["mode_note"] = table["mode_note"] + "; storey method: " + storey_note
+    return table
+
+
+def storey_alpha(frame: Frame, results: Results, members: Members, combos: list[str]
+                 ) -> tuple[np.ndarray, np.ndarray]:
+    """5.2.1(4)B eq. (5.2) per combination: (alpha_cr_storey (C,), note (C,))."""
+    n = len(combos)
+    notes = np.full(n, "", dtype=object)
+    disp = results.displacements
+    mm = members.members
+    cols = mm[mm["kind"] == "column"]
+    if disp is None or len(disp) == 0 or len(cols) == 0:
+        notes[:] = "not used (no displacements)" if len(cols) else "not used (no columns)"
+        return np.full(n, np.nan), notes
+    up = frame.vertical_axis
+    horiz = [0] if frame.ndm == 2 else [0, 1]
+    xyz = frame.nodes[NODE_COLUMNS].astype(float)
+    xyz.index = xyz.index.astype(str)
+    z0 = xyz.loc[cols["start_node"]].to_numpy()[:, up]
+    z1 = xyz.loc[cols["end_node"]].to_numpy()[:, up]
+    bottom = np.where(z0 <= z1, cols["start_node"], cols["end_node"])
+    top = np.where(z0 <= z1, cols["end_node"], cols["start_node"])
+    h = np.abs(z1 - z0)
+    level = np.round(np.minimum(z0, z1) / LEVEL_TOL_M).astype(int)
+    level_top = np.round(np.maximum(z0, z1) / LEVEL_TOL_M).astype(int)
+    storey = pd.Series(list(zip(level, level_top))).factorize()[0]
+    # force at the bottom station of each column, as the force from above on the part below
+    me = members.member_elements.set_index("member")
+    axes = local_axes(frame)
+    epos = {e: k for k, e in enumerate(frame.elements.index.astype(str))}
+    low_elem, low_x, sign = [], [], []
+    for m, b in zip(cols.index, bottom):
+        rows = me.loc[[m]].sort_values("position")
+        first = b == mm.at[m, "start_node"]
+        r = rows.iloc[0] if first else rows.iloc[-1]
+        e = r["element"]
+        at_i = (not r["flipped"]) if first else bool(r["flipped"])
+        ex_up = axes[epos[e], 0, up] > 0
+        low_elem.append(e)
+        low_x.append(0.0 if at_i else np.inf)
+        sign.append(1.0 if ex_up else -1.0)
+    f = results.forces.copy()
+    f["element"] = f["element"].astype(str)
+    f["combination"] = f["combination"].astype(str)
+    f = f[f["element"].isin(low_elem) & f["combination"].isin(combos)]
+    first_station = f.groupby(["combination", "element"])["x_m"].transform("min")
+    last_station = f.groupby(["combination", "element"])["x_m"].transform("max")
+    d = (f.set_index(["combination", "element"]) if len(f) else f)
+    u = disp.copy()
+    u["combination"], u["node"] = u["combination"].astype(str), u["node"].astype(str)
+    u = u.set_index(["combination", "node"])
+    ucols = ["ux_m", "uy_m", "uz_m"]
+    alpha = np.full(n, np.nan)
+    for c, comb in enumerate(combos):
+        F = np.full((len(cols), 3), np.nan)
+        for k, e in enumerate(low_elem):
+            sel = f[(f["combination"] == comb) & (f["element"] == e)]
+            if not len(sel):
+                continue
+            pick = sel["x_m"] == (sel["x_m"].min() if low_x[k] == 0.0 else sel["x_m"].max())
+            row = sel[pick].iloc[0]
+            ax = axes[epos[e]]
+            F[k] = sign[k] * (row["N_N"] * ax[0] + row["Vy_N"] * ax[1] + row["Vz_N"] * ax[2])
+        try:
+            dt = u.loc[[(comb, t) for t in top], ucols].to_numpy(float)
+            db = u.loc[[(comb, b) for b in bottom], ucols].to_numpy(float)
+        except KeyError:
+            notes[c] = "not used (displacements missing for a column end)"
+            continue
+        if np.isnan(F).any():
+            notes[c] = "not used (column forces missing)"
+            continue
+        drift = dt - db
+        best = np.inf
+        for s in np.unique(storey):
+            k = storey == s
+            V = -F[k, up].sum()
+            for a in horiz:
+                H = abs(F[k, a].sum())
+                delta = np.abs(drift[k, a]).max()
+                if V > 0 and H > 1e-6 * V and delta > 0:
+                    best = min(best, H / V * h[k][0] / delta)
+        if np.isfinite(best):
+            alpha[c] = best
+            notes[c] = f"lowest of {len(np.unique(storey))} storey(s); confirm 5.2.1(4)B applies"
+        else:
+            notes[c] = "not used (no horizontal load or no storey drift)"
+    del d, first_station, last_station
+    return alpha, notes
+
+
+def analysis_path(alpha: pd.DataFrame, combinations: pd.DataFrame) -> pd.DataFrame:
+    """EN 1993-1-1:2005, 5.2.1(3) and 5.2.2(5B), analysis path per combination.
+
+    alpha_cr (from the eigen analysis; the storey value where that is missing) decides:
+    >= 10 'first-order'; 3..10 'amplified' with 1 / (1 - 1/alpha_cr), or 'second-order in
+    forces' where combinations.analysis is 'second-order'; < 3 with first-order forces
+    'second-order needed' (not to be checked); < 1 'unstable' (never checked as fine); no alpha_cr
+    at all 'not evaluated'.
+
+    Returns:
+        index `combination`; columns path, amplification (1 where forces are used as they are,
+        NaN where they cannot be used), alpha_cr (the value used), sway_mode, reason.
+    """
+    rows = []
+    for comb, r in alpha.iterrows():
+        if comb not in combinations.index:
+            raise InputError(f"combination '{comb}' is not in the combinations table",
+                             field="combination")
+        analysis = str(combinations.at[comb, "analysis"]).strip()
+        if analysis not in ("first-order", "second-order"):
+            raise InputError(f"analysis '{analysis}' of combination '{comb}' must be "
+                             "'first-order' or 'second-order'", field="analysis")
+        a = r["alpha_cr"]
+        source = "alpha_cr"
+        if not np.isfinite(a) and not (np.isinf(a) and a > 0):
+            a, source = r.get("alpha_cr_storey", np.nan), "alpha_cr (storey method)"
+        sway = bool(r.get("sway_mode", False))
+        second = analysis == "second-order"
+        if np.isnan(a):
+            path, amp = "not evaluated", np.nan
+            reason = f"alpha_cr unknown ({r.get('mode_note', '')}): analysis path not decided"
+        elif a < 1.0:
+            path, amp = "unstable", np.nan
+            reason = f"{source} = {a:.2f} < 1: the frame buckles under this combination"
+        elif second:
+            path, amp = "second-order in forces", 1.0
+            reason = (f"{source} = {a:.2f}; forces from a second-order analysis carry the sway "
+                      "effects (5.2.2(3))")
+        elif a >= ALPHA_FIRST_ORDER:
+            path, amp = "first-order", 1.0
+            reason = f"{source} = {a:.2f} >= 10: first-order analysis is enough (5.2.1(3))"
+        elif a >= ALPHA_AMPLIFY_MIN:
+            path, amp = "amplified", 1.0 / (1.0 - 1.0 / a)
+            reason = (f"{source} = {a:.2f} in 3..10: sway effects amplified by "
+                      f"1/(1 - 1/alpha_cr) = {amp:.3f} (5.2.2(5B))")
+        else:
+            path, amp = "second-order needed", np.nan
+            reason = (f"{source} = {a:.2f} < 3 with first-order forces: a second-order "
+                      "analysis is needed (5.2.2(5B))")
+        rows.append((comb, path, amp, a, sway, reason))
+    out = pd.DataFrame(rows, columns=["combination", "path", "amplification", "alpha_cr",
+                                      "sway_mode", "reason"])
+    return out.set_index("combination")
+
+
+def amplify_sway_effects(results: Results, paths: pd.DataFrame) -> Results:
+    """EN 1993-1-1:2005, 5.2.2(5B), amplification 1 / (1 - 1/alpha_cr) of sway effects.
+
+    Applied to the combinations whose path is 'amplified'. Forces from a CSV or a plain
+    first-order analysis do not separate sway from non-sway effects, so the bending moments and
+    shear forces of those combinations are amplified as a whole: conservative, because the
+    non-sway part is amplified too. Axial forces and torsion are left as they are. Other
+    combinations are returned unchanged.
+    """
+    amp = paths.loc[paths["path"] == "amplified", "amplification"]
+    f = results.forces.copy()
+    factor = f["combination"].astype(str).map(amp.rename(index=str)).fillna(1.0).to_numpy(float)
+    for col in ("Vy_N", "Vz_N", "My_Nm", "Mz_Nm"):
+        f[col] = f[col].to_numpy(float) * factor
+    return dataclasses.replace(results, forces=f)
+
+
+def _column_elements(frame: Frame) -> np.ndarray:
+    axes = local_axes(frame)
+    return np.abs(axes[:, 0, frame.vertical_axis]) >= COLUMN_TILT_COS
+
+
+def sway_imperfection(frame: Frame, *, m: int | None = None, h: float | None = None) -> dict:
+    """EN 1993-1-1:2005, 5.3.2(3), eq. (5.5): global initial sway imperfection phi.
+
+    phi = phi_0 alpha_h alpha_m, phi_0 = 1/200, alpha_h = 2 / sqrt(h) with 2/3 <= alpha_h <= 1,
+    alpha_m = sqrt(0.5 (1 + 1/m)).
+
+    Args:
+        frame: the frame.
+        m: number of columns in a row carrying at least 50 % of the average column load. When
+            not given it is counted from the geometry: the column lines (distinct plan positions
+            of near-vertical elements) of a plane frame; for a space frame the fewest column
+            lines found in any row along X or along Y (the larger phi). Counting from geometry
+            includes lightly loaded columns, which lowers phi: give m where some columns carry
+            little load.
+        h: height of the structure, m; default the height range of the frame's nodes.
+
+    Returns:
+        dict with phi, phi_0, alpha_h, alpha_m, h_m, m, and note (how m and h were found).
+    """
+    notes = []
+    if h is None:
+        used = pd.unique(frame.elements[["node_i", "node_j"]].to_numpy().ravel())
+        zv = frame.nodes.loc[used, NODE_COLUMNS[frame.vertical_axis]].to_numpy(float)
+        h = float(zv.max() - zv.min())
+        notes.append(f"h = {h:.3f} m from the node levels")
+    if not h > 0:
+        raise InputError(f"frame height h = {h} m must be positive", field="h")
+    if m is None:
+        col = _column_elements(frame)
+        if not col.any():
+            raise InputError("no columns found to count m; give m", field="m")
+        ends = frame.nodes.loc[frame.elements["node_i"][col], NODE_COLUMNS].to_numpy(float)
+        plan = [0] if frame.ndm == 2 else [0, 1]
+        pos = np.round(ends[:, plan] / LEVEL_TOL_M).astype(int)
+        lines = np.unique(pos, axis=0)
+        if frame.ndm == 2:
+            m = len(lines)
+        else:
+            rows_x = np.unique(lines[:, 1], return_counts=True)[1]   # rows along X
+            rows_y = np.unique(lines[:, 0], return_counts=True)[1]
+            m = int(min(rows_x.min(), rows_y.min()))
+        notes.append(f"m = {m} counted from the column lines")
+    if m < 1:
+        raise InputError(f"m = {m} must be at least 1", field="m")
+    phi_0 = 1.0 / 200.0
+    alpha_h = float(np.clip(2.0 / np.sqrt(h), 2.0 / 3.0, 1.0))
+    alpha_m = float(np.sqrt(0.5 * (1.0 + 1.0 / m)))
+    return {"phi": phi_0 * alpha_h * alpha_m, "phi_0": phi_0, "alpha_h": alpha_h,
+            "alpha_m": alpha_m, "h_m": float(h), "m": int(m), "note": "; ".join(notes)}
+
+
+def equivalent_horizontal_forces(frame: Frame, vertical_node_loads: pd.DataFrame, phi: float,
+                                 direction: str) -> pd.DataFrame:
+    """EN 1993-1-1:2005, 5.3.2(7), Figure 5.4: sway imperfection as horizontal forces phi V.
+
+    Args:
+        frame: the frame.
+        vertical_node_loads: columns node, V_N (vertical load at the node, N, downward positive).
+        phi: the sway imperfection (see `sway_imperfection`).
+        direction: '+X' or '-X'; for space frames also '+Y' or '-Y'.
+
+    Returns:
+        columns node, FX_N, FY_N, FZ_N (global axes), one row per loaded node.
+    """
+    allowed = ("+X", "-X") if frame.ndm == 2 else ("+X", "-X", "+Y", "-Y")
+    if direction not in allowed:
+        raise InputError(f"direction '{direction}' is not allowed for a {frame.ndm}D frame; use "
+                         f"one of {', '.join(allowed)}", field="direction")
+    for col in ("node", "V_N"):
+        if col not in vertical_node_loads.columns:
+            raise InputError(f"column '{col}' is missing (columns node, V_N)", field=col)
+    nodes = vertical_node_loads["node"].astype(str)
+    V = pd.to_numeric(vertical_node_loads["V_N"], errors="coerce").to_numpy(float)
+    known = set(frame.nodes.index.astype(str))
+    for k, (n, v) in enumerate(zip(nodes, V)):
+        if n not in known:
+            raise TopologyError(f"node '{n}' is not a node of the frame", row=k, field="node")
+        if not np.isfinite(v):
+            raise InputError(f"V_N = {vertical_node_loads['V_N'].iloc[k]!r} is not a number",
+                             row=k, field="V_N")
+    if not (np.isfinite(phi) and phi >= 0):
+        raise InputError(f"phi = {phi} must be a non-negative number", field="phi")
+    H = (1.0 if direction[0] == "+" else -1.0) * phi * V
+    zero = np.zeros(len(V))
+    # in a plane frame the horizontal axis is X; in a space frame X or Y, Z being vertical
+    fx = H if direction[1] == "X" else zero
+    fy = H if direction[1] == "Y" else zero
+    return pd.DataFrame({"node": nodes.to_numpy(), "FX_N": fx, "FY_N": fy, "FZ_N": zero})
+
+
+def bow_imperfections_needed(frame: Frame, members: Members, results: Results,
+                             alpha: pd.DataFrame) -> pd.DataFrame:
+    """EN 1993-1-1:2005, 5.3.2(6), where member bow imperfections belong in a sway analysis.
+
+    Needed where the frame's mode is a sway mode, the member has at least one moment-resisting
+    end, and lambda_bar > 0.5 sqrt(A f_y / N_Ed), which is N_Ed > 0.25 N_cr with N_cr of the member
+    pinned at its ends over its length (the in-plane axis of a plane frame, the weaker of both
+    axes of a space frame).
+
+    Returns:
+        columns member, combination, N_Ed_N (compression as a positive number), N_cr_N,
+        moment_end, sway_mode, bow_needed.
+    """
+    mm = members.members
+    props = section_columns(frame, ("I_y", "I_z"))
+    eid = frame.elements.index.astype(str)
+    first = members.member_elements[members.member_elements["position"] == 0]
+    first = first.set_index("member").loc[mm.index, "element"]
+    k = pd.Series(np.arange(len(eid)), index=eid).loc[first].to_numpy()
+    if frame.ndm == 2:
+        maxes = member_axes(frame, mm, members.member_elements)
+        about_y = np.abs(maxes[:, 1, 2]) >= 0.5
+        I = np.where(about_y, props["I_y"][k], props["I_z"][k])
+    else:
+        I = np.minimum(props["I_y"][k], props["I_z"][k])
+    N_cr = np.pi ** 2 * E_STEEL * I / mm["length_m"].to_numpy(float) ** 2
+    pin = {"i": dict(zip(eid, moment_released(frame, "i"))),
+           "j": dict(zip(eid, moment_released(frame, "j")))}
+    me = members.member_elements.sort_values(["member", "position"])
+    firsts, lasts = me.groupby("member").head(1), me.groupby("member").tail(1)
+    start_pin = {r.member: pin["j" if r.flipped else "i"][r.element]
+                 for r in firsts.itertuples()}
+    end_pin = {r.member: pin["i" if r.flipped else "j"][r.element] for r in lasts.itertuples()}
+    moment_end = np.array([not (start_pin[m] and end_pin[m]) for m in mm.index])
+    f = results.forces.merge(members.member_elements[["member", "element"]]
+                             .astype({"element": str}),
+                             left_on=results.forces["element"].astype(str), right_on="element",
+                             suffixes=("", "_m"))
+    N_min = f.groupby(["member", "combination"])["N_N"].min()
+    table = N_min.rename("N").reset_index()
+    table = table[table["combination"].isin(alpha.index)]
+    idx = mm.index.get_indexer(table["member"])
+    N_Ed = np.maximum(-table["N"].to_numpy(float), 0.0)
+    sway = alpha["sway_mode"].reindex(table["combination"]).fillna(False).to_numpy(bool)
+    out = pd.DataFrame({"member": table["member"].to_numpy(),
+                        "combination": table["combination"].to_numpy(),
+                        "N_Ed_N": N_Ed, "N_cr_N": N_cr[idx], "moment_end": moment_end[idx],
+                        "sway_mode": sway})
+    out["bow_needed"] = out["sway_mode"] & out["moment_end"] & (out["N_Ed_N"] > 0.25 * out["N_cr_N"])
+    return out.reset_index(drop=True)

@@ -1,0 +1,297 @@
+"""Linear eigenvalue buckling of the frame: elastic plus geometric stiffness, numpy and scipy only.
+
+Model: every element is cut into a few Euler-Bernoulli beam-column sub-elements (so member modes
+between joints are caught), 6 degrees of freedom per node. Plane frames (ndm = 2) use the same
+elements with the out-of-plane freedoms (uz, rx, ry) held, so only in-plane buckling is found;
+out-of-plane buckling of a plane model is left to the member checks.
+
+The geometric stiffness carries the flexural terms of the axial force only (consistent cubic
+shape functions); the torsional (Wagner) term is left out on purpose, because these elements have
+no warping stiffness and would show torsional modes far below the real ones. alpha_cr is thus the
+load factor of flexural (sway or member) buckling; torsional and lateral-torsional buckling are
+checked member by member (6.3.2).
+
+End releases give the released end action its own freedom, which is exact for the eigenproblem
+(no static condensation, which would be valid for the elastic stiffness alone).
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+import networkx as nx
+import numpy as np
+import pandas as pd
+import scipy.linalg as sla
+import scipy.sparse as sp
+import scipy.sparse.linalg as spla
+
+from .errors import InputError, TopologyError
+from .frame import NODE_COLUMNS, RELEASABLE, Frame, element_vectors, local_axes, released
+
+E_STEEL = 210e9     # Pa, EN 1993-1-1 3.2.6(1)
+G_STEEL = 81e9      # Pa, EN 1993-1-1 3.2.6(1), G = E / (2 (1 + 0.3)) rounded as the standard does
+SUB_PER_MEMBER = 4  # at least this many sub-elements per design member
+PIVOT_RATIO_MIN = 1e-10   # scaled Cholesky pivot below this: the stiffness is singular
+DENSE_MAX = 400     # free freedoms up to which the eigenproblem is solved densely
+
+# local freedom index of each releasable end action: u, v, w, theta_x, theta_y, theta_z
+ACTION_DOF = {"N": 0, "Vy": 1, "Vz": 2, "T": 3, "My": 4, "Mz": 5}
+DOF_NAMES = ("ux", "uy", "uz", "rx", "ry", "rz")
+
+
+@dataclass
+class Mesh:
+    """The sub-divided frame ready for eigen analysis (internal to the stability modules)."""
+
+    xyz: np.ndarray            # (P, 3) node coordinates; the frame's nodes first
+    node_ids: list[str]        # ids of the first len(frame.nodes) points
+    parent: np.ndarray         # (s,) index of the frame element each sub-element comes from
+    n_sub: np.ndarray          # (e,) sub-elements per frame element
+    end_i: np.ndarray          # (s,) point index at sub-element start
+    end_j: np.ndarray          # (s,) point index at sub-element end
+    frac_mid: np.ndarray       # (s,) position of the sub-element middle along its element, 0..1
+    free: np.ndarray           # (F,) global freedom numbers kept in the analysis
+    n_dof: int                 # all freedoms, extra release freedoms included
+    K: np.ndarray              # (F, F) elastic stiffness on the kept freedoms, scaled
+    scale: np.ndarray          # (F,) 1/sqrt(diag K): K_scaled = S K S
+    chol: np.ndarray           # (F, F) lower Cholesky factor of the scaled K
+    g_index: np.ndarray        # (s, 24) global freedom of each column of the element matrices
+    g_unit: np.ndarray         # (s, 24, 24) geometric stiffness per unit tension, global axes
+
+
+def _local_stiffness(E: float, G: float, A: np.ndarray, I_y: np.ndarray, I_z: np.ndarray,
+                     I_t: np.ndarray, L: np.ndarray) -> np.ndarray:
+    """(s, 12, 12) elastic stiffness in local axes, freedoms u v w tx ty tz at i then j."""
+    k = np.zeros((len(L), 12, 12))
+    ea, gj = E * A / L, G * I_t / L
+    for a, b, val in ((0, 0, ea), (6, 6, ea), (0, 6, -ea), (3, 3, gj), (9, 9, gj), (3, 9, -gj)):
+        k[:, a, b] = val
+        k[:, b, a] = val
+    for idx, inertia, s in (([1, 5, 7, 11], I_z, 1.0), ([2, 4, 8, 10], I_y, -1.0)):
+        # bending in x-y (v, theta_z, I_z) and in x-z (w, theta_y, I_y; theta_y = -dw/dx)
+        ei = E * inertia
+        blk = np.stack([
+            [12 * ei / L**3, s * 6 * ei / L**2, -12 * ei / L**3, s * 6 * ei / L**2],
+            [s * 6 * ei / L**2, 4 * ei / L, -s * 6 * ei / L**2, 2 * ei / L],
+            [-12 * ei / L**3, -s * 6 * ei / L**2, 12 * ei / L**3, -s * 6 * ei / L**2],
+            [s * 6 * ei / L**2, 2 * ei / L, -s * 6 * ei / L**2, 4 * ei / L]]).transpose(2, 0, 1)
+        k[:, np.ix_(idx, idx)[0], np.ix_(idx, idx)[1]] = blk
+    return k
+
+
+def _local_geometric(L: np.ndarray) -> np.ndarray:
+    """(s, 12, 12) consistent geometric stiffness for unit tension, local axes."""
+    g = np.zeros((len(L), 12, 12))
+    c = 1.0 / (30.0 * L)
+    for idx, s in (([1, 5, 7, 11], 1.0), ([2, 4, 8, 10], -1.0)):
+        blk = np.stack([
+            [36 * c, s * 3 * L * c, -36 * c, s * 3 * L * c],
+            [s * 3 * L * c, 4 * L**2 * c, -s * 3 * L * c, -L**2 * c],
+            [-36 * c, -s * 3 * L * c, 36 * c, -s * 3 * L * c],
+            [s * 3 * L * c, -L**2 * c, -s * 3 * L * c, 4 * L**2 * c]]).transpose(2, 0, 1)
+        g[:, np.ix_(idx, idx)[0], np.ix_(idx, idx)[1]] = blk
+    return g
+
+
+def section_columns(frame: Frame, names: tuple[str, ...] = ("A", "I_y", "I_z", "I_t")
+                    ) -> dict[str, np.ndarray]:
+    """Per-element section properties; a missing section or property raises InputError."""
+    secs = frame.sections
+    used = frame.elements["section"].astype(str)
+    missing = sorted(set(used) - set(secs.index.astype(str)))
+    if missing:
+        bad = frame.elements.index[used == missing[0]][0]
+        raise InputError(f"section '{missing[0]}' is not in the sections table",
+                         field=f"element {bad}: section")
+    out = {}
+    table = secs.copy()
+    table.index = table.index.astype(str)
+    for name in names:
+        if name not in table.columns:
+            raise InputError(f"the sections table has no column '{name}' (needed for the "
+                             "buckling analysis)", field=name)
+        vals = table.loc[used, name].to_numpy(float)
+        bad = ~(vals > 0.0)
+        if bad.any():
+            k = int(np.argmax(bad))
+            raise InputError(f"{name} = {vals[k]} of section '{used.iloc[k]}' must be a positive "
+                             "number for the buckling analysis", field=f"section {used.iloc[k]}")
+        out[name] = vals
+    return out
+
+
+def check_connected(frame: Frame) -> None:
+    """Raise TopologyError if the elements form more than one connected piece."""
+    g = nx.Graph()
+    g.add_edges_from(zip(frame.elements["node_i"].astype(str), frame.elements["node_j"].astype(str)))
+    parts = sorted(nx.connected_components(g), key=len, reverse=True)
+    if len(parts) > 1:
+        lone = sorted(parts[1])[:5]
+        raise TopologyError(f"the model falls into {len(parts)} unconnected parts; nodes "
+                            f"{', '.join(lone)} are not connected to the main frame")
+
+
+def build_mesh(frame: Frame, elements_per_member: np.ndarray) -> Mesh:
+    """Sub-divide, assemble the elastic stiffness, apply supports, factorise; detect mechanisms.
+
+    Args:
+        frame: the frame.
+        elements_per_member: (e,) number of sub-elements for each frame element.
+    """
+    check_connected(frame)
+    props = section_columns(frame)
+    chord, length = element_vectors(frame)
+    axes = local_axes(frame)
+    xyz0 = frame.nodes[NODE_COLUMNS].to_numpy(float)
+    node_ids = frame.nodes.index.astype(str).tolist()
+    where = {n: k for k, n in enumerate(node_ids)}
+    ni = np.array([where[str(n)] for n in frame.elements["node_i"]])
+    nj = np.array([where[str(n)] for n in frame.elements["node_j"]])
+    n_sub = np.asarray(elements_per_member, dtype=int)
+    parent = np.repeat(np.arange(len(length)), n_sub)
+    local = np.concatenate([np.arange(n) for n in n_sub])
+    # interior points of each element
+    inner_count = n_sub - 1
+    inner_parent = np.repeat(np.arange(len(length)), inner_count)
+    inner_local = np.concatenate([np.arange(1, n) for n in n_sub]) if inner_count.sum() else \
+        np.zeros(0, dtype=int)
+    t = inner_local / n_sub[inner_parent]
+    inner_xyz = xyz0[ni[inner_parent]] + t[:, None] * chord[inner_parent]
+    first_inner = len(xyz0) + np.concatenate([[0], np.cumsum(inner_count)[:-1]])
+    xyz = np.vstack([xyz0, inner_xyz])
+
+    def point(elem: np.ndarray, k: np.ndarray) -> np.ndarray:
+        n = n_sub[elem]
+        return np.where(k == 0, ni[elem], np.where(k == n, nj[elem], first_inner[elem] + k - 1))
+
+    end_i, end_j = point(parent, local), point(parent, local + 1)
+    L = length[parent] / n_sub[parent]
+    k_loc = _local_stiffness(E_STEEL, G_STEEL, props["A"][parent], props["I_y"][parent],
+                             props["I_z"][parent], props["I_t"][parent], L)
+    g_loc = _local_geometric(L)
+    # transformation 12 x 24: columns 0..11 node freedoms, 12..23 release freedoms
+    R = axes[parent]                                   # (s, 3, 3) rows = local axes
+    s = len(parent)
+    T = np.zeros((s, 12, 24))
+    for b in range(4):
+        T[:, 3 * b:3 * b + 3, 3 * b:3 * b + 3] = R
+    g_index = np.full((s, 24), -1, dtype=int)
+    for b, (pt, off) in enumerate(((end_i, 0), (end_i, 3), (end_j, 0), (end_j, 3))):
+        g_index[:, 3 * b:3 * b + 3] = 6 * pt[:, None] + off + np.arange(3)
+    n_dof = 6 * len(xyz)
+    vertical_normal = np.array([0.0, 0.0, 1.0])         # plane frames lie in X-Y
+    for end, k_end, base in (("i", 0, 0), ("j", None, 6)):
+        at_end = local == 0 if end == "i" else local == n_sub[parent] - 1
+        for action in RELEASABLE:
+            rel = released(frame, end, action)[parent] & at_end
+            if not rel.any():
+                continue
+            d = ACTION_DOF[action]
+            if frame.ndm == 2:
+                vec = R[:, d % 3]                       # direction of that local freedom
+                in_plane = (np.abs(vec @ vertical_normal) < 0.5) if d < 3 else \
+                    (np.abs(vec @ vertical_normal) >= 0.5)
+                rel &= in_plane                          # out-of-plane actions are not modelled
+            rows = np.nonzero(rel)[0]
+            r = base + d
+            T[rows, r, :] = 0.0
+            T[rows, r, 12 + r] = 1.0
+            g_index[rows, 12 + r] = n_dof + np.arange(len(rows))
+            n_dof += len(rows)
+    k_glob = np.einsum("sai,sab,sbj->sij", T, k_loc, T)
+    g_unit = np.einsum("sai,sab,sbj->sij", T, g_loc, T)
+    fixed = np.zeros(n_dof, dtype=bool)
+    sup = frame.supports.reindex(columns=list(DOF_NAMES), fill_value=False)
+    sup.index = sup.index.astype(str)
+    for n, row in sup.iterrows():
+        if n not in where:
+            raise TopologyError(f"support at node '{n}', which is not a node of the frame",
+                                field="supports")
+        fixed[6 * where[n] + np.nonzero(row.to_numpy(bool))[0]] = True
+    if frame.ndm == 2:
+        pts = np.arange(len(xyz))
+        for off in (2, 3, 4):
+            fixed[6 * pts + off] = True
+    K = _assemble(k_glob, g_index, n_dof)
+    diag = np.abs(K.diagonal())
+    # freedoms nothing is attached to (e.g. node rotation where every element is pinned)
+    loose = diag <= 1e-9 * diag.max()
+    free = np.nonzero(~fixed & ~loose)[0]
+    Kf = K[free][:, free].toarray()
+    scale = 1.0 / np.sqrt(Kf.diagonal())
+    Ks = Kf * scale[:, None] * scale[None, :]
+    chol = _factorise(Ks, free, node_ids, len(xyz0))
+    return Mesh(xyz, node_ids, parent, n_sub, end_i, end_j,
+                (local + 0.5) / n_sub[parent], free, n_dof, Ks, scale, chol, g_index, g_unit)
+
+
+def _assemble(mats: np.ndarray, index: np.ndarray, n: int) -> sp.csr_matrix:
+    rows = np.broadcast_to(index[:, :, None], mats.shape)
+    cols = np.broadcast_to(index[:, None, :], mats.shape)
+    keep = (rows >= 0) & (cols >= 0) & (mats != 0.0)
+    return sp.coo_matrix((mats[keep], (rows[keep], cols[keep])), shape=(n, n)).tocsr()
+
+
+def _describe_dof(g: int, node_ids: list[str], n_frame_nodes: int) -> str:
+    point, off = divmod(g, 6)
+    if point < n_frame_nodes:
+        return f"node {node_ids[point]} ({DOF_NAMES[off]})"
+    return "a point inside an element or a released element end"
+
+
+def _factorise(Ks: np.ndarray, free: np.ndarray, node_ids: list[str], n_nodes: int) -> np.ndarray:
+    """Cholesky of the scaled stiffness; a mechanism raises TopologyError naming a freedom."""
+    try:
+        chol = sla.cholesky(Ks, lower=True)
+        pivots = chol.diagonal() ** 2
+        if pivots.min() >= PIVOT_RATIO_MIN:
+            return chol
+    except sla.LinAlgError:
+        pass
+    w, v = sla.eigh(Ks, subset_by_index=[0, 0])
+    g = int(free[np.argmax(np.abs(v[:, 0]))])
+    raise TopologyError("the frame is a mechanism (its stiffness matrix is singular): check "
+                        "supports and end releases; the free motion is largest at "
+                        f"{_describe_dof(g, node_ids, n_nodes)}")
+
+
+def lowest_mode(mesh: Mesh, tension: np.ndarray) -> tuple[float, np.ndarray | None]:
+    """Lowest positive load factor for sub-element axial forces `tension` (N, tension > 0).
+
+    Returns (alpha_cr, mode over all freedoms) or (inf, None) when nothing is in compression.
+    """
+    Kg = _assemble(tension[:, None, None] * mesh.g_unit, mesh.g_index, mesh.n_dof)
+    Gf = -Kg[mesh.free][:, mesh.free].toarray() * mesh.scale[:, None] * mesh.scale[None, :]
+    if not np.any(tension < 0.0):
+        return np.inf, None
+    L = mesh.chol
+    n = len(mesh.free)
+
+    def apply(x: np.ndarray) -> np.ndarray:
+        y = sla.solve_triangular(L, x, lower=True, trans="T")
+        return sla.solve_triangular(L, Gf @ y, lower=True)
+
+    if n <= DENSE_MAX:
+        A = sla.solve_triangular(L, Gf, lower=True)
+        A = sla.solve_triangular(L, A.T, lower=True)
+        A = 0.5 * (A + A.T)
+        mu, vec = sla.eigh(A, subset_by_index=[n - 1, n - 1])
+        mu, y = float(mu[0]), vec[:, 0]
+    else:
+        op = spla.LinearOperator((n, n), matvec=apply, dtype=float)
+        mu_all, vecs = spla.eigsh(op, k=3, which="LA", tol=1e-10)
+        top = int(np.argmax(mu_all))
+        mu, y = float(mu_all[top]), vecs[:, top]
+    if mu <= 1e-12:
+        return np.inf, None
+    phi = np.zeros(mesh.n_dof)
+    phi[mesh.free] = mesh.scale * sla.solve_triangular(L, y, lower=True, trans="T")
+    return 1.0 / mu, phi
+
+
+def translations(mesh: Mesh, phi: np.ndarray) -> np.ndarray:
+    """(P, 3) translations of every point in a mode, scaled to a largest value of 1."""
+    u = phi[: 6 * len(mesh.xyz)].reshape(-1, 6)[:, :3]
+    top = np.abs(u).max()
+    return u / top if top > 0 else u

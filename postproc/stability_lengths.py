@@ -1,0 +1,336 @@
+"""Buckling lengths of design members: flexural (y-y, z-z), torsional and lateral-torsional.
+
+Where each length comes from (the `origin_*` columns say it row by row):
+- Modelled bending axes (the in-plane axis of a plane frame; both axes of a space frame):
+  - sway effects in the forces or negligible (paths 'first-order', 'amplified', 'second-order in
+    forces'): the non-sway length, 5.2.2(3)b and (7): with restraints inside the member the
+    longest span between them (k = 1); otherwise the non-sway effective length from the end
+    restraint of the members framing in (`effective_length_ratio`, sway=False).
+  - sway effects not in the forces (paths 'second-order needed', 'unstable', 'not evaluated')
+    and a sway mode: for a member in compression the length that gives the member's critical
+    force in the frame's buckling mode, N_cr = alpha_cr |N_Ed|, L_cr = pi sqrt(E I / N_cr)
+    (5.2.2(8)); this is a lower bound of the member's critical force about either axis, so it is
+    used for both axes of a space frame. A member not in compression gets the sway effective
+    length from its end restraint.
+  - a member end with no restraint across that axis (a cantilever tip): the sway effective
+    length with that end free.
+- The out-of-plane axis of a plane frame: the longest span between points restrained out of
+  plane (supports and declared restraints; k = 1).
+- L_LT: the longest span between lateral restraints ('y'); L_cr_T: between torsional restraints.
+- A span that runs to an end with no restraint of the kind needed gives NaN and says why: the
+  check that needs it is then not evaluated. Overrides win over everything.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+import pandas as pd
+
+from .errors import InputError
+from .frame import NODE_COLUMNS, Frame, local_axes, released
+from .members import Members, member_axes, moment_released
+from .results import Results
+
+E_STEEL = 210e9                       # Pa, EN 1993-1-1 3.2.6(1)
+COLLINEAR_COS = np.cos(np.radians(10.0))
+X_TOL_M = 1e-6
+# effective stiffness of a member framing in, times I/L, by the condition of its far end
+# (ENV 1993-1-1 Annex E, Table E.1, from memory): beams in single curvature for the non-sway
+# case and double curvature for the sway case, the usual assumptions of that method
+FAR_END_FACTOR = {False: {"fixed": 1.0, "pinned": 0.75, "continuous": 0.5},
+                  True: {"fixed": 1.0, "pinned": 0.5, "continuous": 1.5}}
+SWAY_PATHS = ("second-order needed", "unstable", "not evaluated")
+OVERRIDE_COLUMNS = ["L_cr_y_m", "L_cr_z_m", "L_LT_m", "L_cr_T_m"]
+
+
+def effective_length_ratio(eta_1: np.ndarray, eta_2: np.ndarray, *, sway: bool) -> np.ndarray:
+    """ENV 1993-1-1:1992, Annex E, eqs. (E.1) and (E.2) (from memory): L_cr / L from end restraint.
+
+    eta_1, eta_2: distribution factors at the ends, 0 (rigidly held against rotation) to 1
+    (pinned). Non-sway: (1 + 0.145 (eta_1 + eta_2) - 0.265 eta_1 eta_2) /
+    (2 - 0.364 (eta_1 + eta_2) - 0.247 eta_1 eta_2). Sway: sqrt((1 - 0.2 (eta_1 + eta_2) -
+    0.12 eta_1 eta_2) / (1 - 0.8 (eta_1 + eta_2) + 0.6 eta_1 eta_2)); inf where the denominator
+    vanishes (a sway mechanism, both ends pinned).
+    """
+    e1, e2 = np.asarray(eta_1, dtype=float), np.asarray(eta_2, dtype=float)
+    s, p = e1 + e2, e1 * e2
+    if not sway:
+        return (1.0 + 0.145 * s - 0.265 * p) / (2.0 - 0.364 * s - 0.247 * p)
+    den = 1.0 - 0.8 * s + 0.6 * p
+    with np.errstate(divide="ignore", invalid="ignore"):
+        return np.where(den > 1e-9, np.sqrt((1.0 - 0.2 * s - 0.12 * p) / np.maximum(den, 1e-300)),
+                        np.inf)
+
+
+class _Model:
+    """Geometry and stiffness look-ups shared by the per-member work."""
+
+    def __init__(self, frame: Frame, members: Members) -> None:
+        self.frame, self.members = frame, members
+        el = frame.elements
+        self.eid = el.index.astype(str).tolist()
+        self.pos = {e: k for k, e in enumerate(self.eid)}
+        self.node_i = el["node_i"].astype(str).tolist()
+        self.node_j = el["node_j"].astype(str).tolist()
+        self.axes = local_axes(frame)
+        secs = frame.sections.copy()
+        secs.index = secs.index.astype(str)
+        self.I_y = secs.loc[el["section"].astype(str), "I_y"].to_numpy(float)
+        self.I_z = secs.loc[el["section"].astype(str), "I_z"].to_numpy(float)
+        self.rel = {(end, a): released(frame, end, a) for end in "ij" for a in ("My", "Mz")}
+        self.pin = {end: moment_released(frame, end) for end in "ij"}
+        self.xyz = frame.nodes[NODE_COLUMNS].astype(float)
+        self.xyz.index = self.xyz.index.astype(str)
+        sup = frame.supports.reindex(columns=["ux", "uy", "uz", "rx", "ry", "rz"],
+                                     fill_value=False)
+        sup.index = sup.index.astype(str)
+        self.sup = sup
+        me = members.member_elements
+        self.member_of = dict(zip(me["element"].astype(str), me["member"]))
+        self.at_node: dict[str, list[int]] = {}
+        for k, (a, b) in enumerate(zip(self.node_i, self.node_j)):
+            self.at_node.setdefault(a, []).append(k)
+            self.at_node.setdefault(b, []).append(k)
+        self.maxes = member_axes(frame, members.members, me)
+        self.index = {m: k for k, m in enumerate(members.members.index)}
+        self.ends = {}
+        for m, rows in me.sort_values("position").groupby("member"):
+            first, last = rows.iloc[0], rows.iloc[-1]
+            self.ends[m] = ((self.pos[first["element"]], "j" if first["flipped"] else "i"),
+                            (self.pos[last["element"]], "i" if last["flipped"] else "j"))
+
+    def rotation_held(self, node: str, v: np.ndarray) -> bool:
+        if node not in self.sup.index:
+            return False
+        rot = self.sup.loc[node, ["rx", "ry", "rz"]].to_numpy(bool).copy()
+        if self.frame.ndm == 2:
+            rot[:2] = True
+        return float(np.sum(v[~rot] ** 2)) < 0.01
+
+    def bending_stiffness(self, k: int, end: str, v: np.ndarray, length: float) -> float:
+        """E I / L of element k's member for rotation about v at its `end` (0 where released)."""
+        ey, ez = self.axes[k, 1], self.axes[k, 2]
+        stiff = 0.0
+        if not self.rel[(end, "My")][k]:
+            stiff += self.I_y[k] * (v @ ey) ** 2
+        if not self.rel[(end, "Mz")][k]:
+            stiff += self.I_z[k] * (v @ ez) ** 2
+        return E_STEEL * stiff / length
+
+    def eta(self, m: str, which: int, axis: str, sway: bool) -> tuple[float, str]:
+        """Distribution factor at the start (0) or end (1) of member m for bending about axis."""
+        mm = self.members.members
+        node = mm.at[m, "start_node" if which == 0 else "end_node"]
+        k, end = self.ends[m][which]
+        v = self.maxes[self.index[m], 1 if axis == "y" else 2]
+        if self.rel[(end, "M" + axis)][k]:
+            return 1.0, f"pinned at {node}"
+        if self.rotation_held(node, v):
+            return 0.0, f"fixed support at {node}"
+        ex = self.maxes[self.index[m], 0]
+        I_own = self.I_y[k] if axis == "y" else self.I_z[k]
+        K_c = E_STEEL * I_own / mm.at[m, "length_m"]
+        K_1 = K_b = 0.0
+        for q in self.at_node.get(node, []):
+            other = self.member_of.get(self.eid[q])
+            if other == m:
+                continue
+            q_end = "i" if self.node_i[q] == node else "j"
+            L_o = float(mm.at[other, "length_m"]) if other in mm.index else 1.0
+            stiff = self.bending_stiffness(q, q_end, v, L_o)
+            far = self.node_j[q] if q_end == "i" else self.node_i[q]
+            u = self.xyz.loc[far].to_numpy() - self.xyz.loc[node].to_numpy()
+            if abs(u @ ex) >= COLLINEAR_COS * np.linalg.norm(u):
+                K_1 += stiff
+                continue
+            K_b += FAR_END_FACTOR[sway][self._far_end(other, node, v)] * stiff
+        eta = (K_c + K_1) / (K_c + K_1 + K_b)
+        return float(eta), f"eta = {eta:.2f} at {node}"
+
+    def _far_end(self, member: str | None, near: str, v: np.ndarray) -> str:
+        if member is None or member not in self.ends:
+            return "continuous"
+        mm = self.members.members
+        start = mm.at[member, "start_node"]
+        which = 1 if start == near else 0
+        far = mm.at[member, "start_node" if which == 0 else "end_node"]
+        k, end = self.ends[member][which]
+        if self.pin[end][k]:
+            return "pinned"
+        if self.rotation_held(far, v):
+            return "fixed"
+        return "continuous"
+
+
+def _span(xs: np.ndarray, length: float, what: str, ends: tuple[str, str]) -> tuple[float, str]:
+    """Longest span between restraint positions xs on a member of `length`, or NaN and why."""
+    xs = np.unique(np.round(xs, 6))
+    if not len(xs) or xs.min() > X_TOL_M:
+        return np.nan, f"no {what} at the member's start (node {ends[0]}): give an override"
+    if xs.max() < length - X_TOL_M:
+        return np.nan, f"no {what} at the member's end (node {ends[1]}): give an override"
+    gaps = np.diff(xs)
+    return float(gaps.max()), (f"longest span between {what}s ({len(xs)} points), k = 1"
+                               if len(xs) > 2 else f"span between {what}s, k = 1")
+
+
+def _member_candidates(model: _Model, m: str) -> dict:
+    """Per-member lengths that do not depend on the combination."""
+    mm = model.members.members
+    L = float(mm.at[m, "length_m"])
+    ends = (mm.at[m, "start_node"], mm.at[m, "end_node"])
+    r = model.members.restraints
+    r = r[r["member"] == m]
+    xs = {d: r.loc[r["direction"] == d, "x_m"].to_numpy(float) for d in ("y", "z", "torsion")}
+    axes_v = model.maxes[model.index[m]]
+    if model.frame.ndm == 2:
+        in_plane = "y" if abs(axes_v[1, 2]) >= 0.5 else "z"
+        modelled = [in_plane]
+    else:
+        modelled = ["y", "z"]
+    out: dict = {"L": L}
+    for axis in ("y", "z"):
+        across = "z" if axis == "y" else "y"         # restraint direction for this axis
+        if axis not in modelled:
+            out[axis] = (*_span(xs[across], L, f"restraint along local {across}", ends), False)
+            out[axis + "_sway"] = out[axis]
+            continue
+        x = xs[across]
+        held0 = bool(np.any(np.abs(x) <= X_TOL_M))
+        held1 = bool(np.any(np.abs(x - L) <= X_TOL_M))
+        inner = bool(np.any((x > X_TOL_M) & (x < L - X_TOL_M)))
+        e0, n0 = model.eta(m, 0, axis, sway=False)
+        e1, n1 = model.eta(m, 1, axis, sway=False)
+        s0, sn0 = model.eta(m, 0, axis, sway=True)
+        s1, sn1 = model.eta(m, 1, axis, sway=True)
+        if not held0:
+            s0, sn0 = 1.0, f"free end at {ends[0]}"
+        if not held1:
+            s1, sn1 = 1.0, f"free end at {ends[1]}"
+        ratio_s = float(effective_length_ratio(s0, s1, sway=True))
+        if np.isfinite(ratio_s):
+            sway_len = (ratio_s * L, f"sway effective length {ratio_s:.3f} L ({sn0}, {sn1}; "
+                        "ENV 1993-1-1 Annex E, from memory)", True)
+        else:
+            sway_len = (np.nan, f"no sway stiffness about {axis}-{axis} ({sn0}, {sn1}): "
+                        "mechanism; give an override", True)
+        if held0 and held1 and inner:
+            non_sway = (*_span(x, L, f"restraint along local {across}", ends), False)
+        elif held0 and held1:
+            ratio = float(effective_length_ratio(e0, e1, sway=False))
+            non_sway = (ratio * L, f"non-sway effective length {ratio:.3f} L ({n0}, {n1}; "
+                        "ENV 1993-1-1 Annex E, from memory)", False)
+        elif inner:
+            non_sway = (np.nan, f"span beyond the last restraint along local {across} ends "
+                        "free: give an override", True)
+        else:
+            non_sway = sway_len
+        out[axis] = non_sway
+        out[axis + "_sway"] = sway_len if not inner else non_sway
+        out[axis + "_modelled"] = True
+    out["LT"] = _span(xs["y"], L, "lateral restraint", ends)
+    out["T"] = _span(xs["torsion"], L, "torsional restraint", ends)
+    return out
+
+
+def member_compression(members: Members, results: Results, combos: list[str]) -> pd.DataFrame:
+    """Most compressive N_Ed (N, tension > 0) per member and combination: (members x combos)."""
+    f = results.forces[["combination", "element", "N_N"]].copy()
+    f["element"] = f["element"].astype(str)
+    f["combination"] = f["combination"].astype(str)
+    me = members.member_elements[["member", "element"]].astype({"element": str})
+    f = f.merge(me, on="element")
+    table = f.groupby(["member", "combination"])["N_N"].min().unstack("combination")
+    return table.reindex(index=members.members.index, columns=combos)
+
+
+def buckling_lengths(frame: Frame, members: Members, results: Results, paths: pd.DataFrame,
+                     overrides: pd.DataFrame | None = None) -> pd.DataFrame:
+    """Buckling lengths per (member, combination); see the module docstring for the rules.
+
+    Args:
+        frame, members, results: the model, its design members and its forces.
+        paths: from `analysis_path` (columns path, alpha_cr, sway_mode), index combination.
+        overrides: columns member, L_cr_y_m, L_cr_z_m, L_LT_m, L_cr_T_m; NaN keeps the found
+            value. A member that does not exist or a length that is not positive raises
+            InputError.
+
+    Returns:
+        columns member, combination, L_cr_y_m, L_cr_z_m, L_cr_T_m, L_LT_m, sway_y, sway_z
+        (buckling about that axis in a sway mode), origin_y, origin_z, origin_LT, origin_T.
+    """
+    model = _Model(frame, members)
+    names = members.members.index.tolist()
+    combos = paths.index.astype(str).tolist()
+    M, C = len(names), len(combos)
+    cand = [_member_candidates(model, m) for m in names]
+    N = member_compression(members, results, combos).to_numpy(float)        # (M, C)
+    path = paths["path"].astype(str).to_numpy()
+    alpha = paths["alpha_cr"].to_numpy(float)
+    sway_mode = paths["sway_mode"].fillna(False).to_numpy(bool)
+    sway_needed = np.isin(path, SWAY_PATHS) & sway_mode                         # (C,)
+    me = members.member_elements[members.member_elements["position"] == 0]
+    first = me.set_index("member").loc[names, "element"].astype(str)
+    k = np.array([model.pos[e] for e in first])
+    cols: dict[str, np.ndarray] = {}
+    for axis in ("y", "z"):
+        I = model.I_y[k] if axis == "y" else model.I_z[k]
+        base = np.array([c[axis][0] for c in cand])
+        base_o = np.array([c[axis][1] for c in cand], dtype=object)
+        base_s = np.array([c[axis][2] for c in cand], dtype=bool)
+        sw = np.array([c[axis + "_sway"][0] for c in cand])
+        sw_o = np.array([c[axis + "_sway"][1] for c in cand], dtype=object)
+        sw_s = np.array([c[axis + "_sway"][2] for c in cand], dtype=bool)
+        modelled = np.array([c.get(axis + "_modelled", False) for c in cand], dtype=bool)
+        with np.errstate(divide="ignore", invalid="ignore"):
+            frame_len = np.pi * np.sqrt(E_STEEL * I[:, None] / (alpha[None, :] * -N))
+        use_frame = (modelled[:, None] & sway_needed[None, :] & (N < 0) & np.isfinite(frame_len)
+                     & np.isfinite(alpha)[None, :])
+        use_sway = modelled[:, None] & sway_needed[None, :] & ~use_frame
+        L = np.where(use_frame, frame_len, np.where(use_sway, sw[:, None], base[:, None]))
+        origin = np.where(use_sway, sw_o[:, None], base_o[:, None]).astype(object)
+        fr_text = np.array([f"frame buckling mode: N_cr = alpha_cr |N_Ed| = {a:.2f} x |N_Ed| "
+                            "(5.2.2(8))" for a in alpha], dtype=object)
+        origin = np.where(use_frame, fr_text[None, :], origin)
+        cols[f"L_cr_{axis}_m"] = L
+        cols[f"sway_{axis}"] = use_frame | np.where(use_sway, sw_s[:, None], base_s[:, None])
+        cols[f"origin_{axis}"] = origin
+    for key, name in (("LT", "L_LT_m"), ("T", "L_cr_T_m")):
+        cols[name] = np.repeat(np.array([c[key][0] for c in cand])[:, None], C, axis=1)
+        cols[f"origin_{key}"] = np.repeat(np.array([c[key][1] for c in cand],
+                                                   dtype=object)[:, None], C, axis=1)
+    out = pd.DataFrame({"member": np.repeat(names, C), "combination": np.tile(combos, M)})
+    for name, arr in cols.items():
+        out[name] = arr.ravel()
+    if overrides is not None and len(overrides):
+        out = _apply_overrides(out, overrides, set(names))
+    return out[["member", "combination", "L_cr_y_m", "L_cr_z_m", "L_cr_T_m", "L_LT_m", "sway_y",
+                "sway_z", "origin_y", "origin_z", "origin_LT", "origin_T"]]
+
+
+def _apply_overrides(out: pd.DataFrame, overrides: pd.DataFrame, known: set[str]) -> pd.DataFrame:
+    if "member" not in overrides.columns:
+        raise InputError("column 'member' is missing from the buckling length overrides",
+                         field="member")
+    origin = {"L_cr_y_m": "origin_y", "L_cr_z_m": "origin_z", "L_LT_m": "origin_LT",
+              "L_cr_T_m": "origin_T"}
+    for row, r in enumerate(overrides.itertuples(index=False)):
+        m = str(getattr(r, "member"))
+        if m not in known:
+            raise InputError(f"member '{m}' is not a design member of this frame", row=row,
+                             field="member")
+        sel = out["member"] == m
+        for col in OVERRIDE_COLUMNS:
+            if col not in overrides.columns:
+                continue
+            v = pd.to_numeric(pd.Series([getattr(r, col)]), errors="coerce").iloc[0]
+            if pd.isna(v):
+                continue
+            if not v > 0:
+                raise InputError(f"{col} = {v} must be a positive length in m (or empty to "
+                                 "keep the found value)", row=row, field=col)
+            out.loc[sel, col] = float(v)
+            out.loc[sel, origin[col]] = "override from the project"
+            if col in ("L_cr_y_m", "L_cr_z_m"):
+                out.loc[sel, "sway_" + col[5]] = False
+    return out
