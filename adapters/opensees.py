@@ -1,0 +1,363 @@
+"""OpenSees adapter: run the user's openseespy model, analyse every combination, read the results.
+
+`load(project, project_path)` runs the user's script in this process (their code, with their
+rights), reads the model back from the OpenSees domain, builds the load combinations of
+`postproc.loads` from the load patterns, analyses them and returns a Frame and Results in SI and
+in the sign convention of `postproc.results`. The project keys are documented in docs/opensees.md.
+
+- analysis = "linear" (default): each load pattern is solved once; combinations are superposed.
+- analysis = "p-delta": one P-delta analysis per combination, 'Linear' geometric transformations
+  turned into 'PDelta', ULS combinations with the sway imperfection of EN 1993-1-1 5.3.2 applied
+  as equivalent horizontal forces; marked 'second-order'.
+"""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import numpy as np
+import pandas as pd
+
+from postproc import loads
+from postproc.errors import InputError
+from postproc.frame import Frame
+from postproc.results import DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
+
+from .opensees_model import (Captured, axis_map, import_opensees, read_domain, run_user_model,
+                             to_en)
+from .opensees_run import Job, clear_patterns, forces_along, run_jobs, station_grid
+
+MODEL_KEYS = {"source", "script", "builder", "analysis", "major_axis", "stations", "sections",
+              "element_sections", "grades", "processes", "imperfection"}
+ANALYSES = ("linear", "p-delta")
+REACTION_COLUMNS = ["FX_N", "FY_N", "FZ_N", "MX_Nm", "MY_Nm", "MZ_Nm"]
+STIFFNESS_WARNING = 0.10  # relative difference between model and catalogue I worth a warning
+
+
+def load(project: dict, project_path: Path) -> tuple[Frame, Results]:
+    """Build, analyse and read the project's openseespy model (see docs/opensees.md)."""
+    file = str(project_path)
+    model = dict(project.get("model", {}))
+    unknown = sorted(set(model) - MODEL_KEYS)
+    if unknown:
+        raise InputError(f"unknown key(s) {', '.join(unknown)} under [model]; known: "
+                         f"{', '.join(sorted(MODEL_KEYS))}", file=file, field="model")
+    if "script" not in model:
+        raise InputError("needs script = \"path/to/model.py\" (relative to the project file)",
+                         file=file, field="model.script")
+    script = (Path(project_path).parent / str(model["script"])).resolve()
+    builder = model.get("builder") or None
+    analysis = model.get("analysis", "linear")
+    if analysis not in ANALYSES:
+        raise InputError(f"analysis {analysis!r} is not known; use one of {', '.join(ANALYSES)}",
+                         file=file, field="model.analysis")
+    major_axis = model.get("major_axis", "z")
+    if major_axis not in ("z", "y"):
+        raise InputError(f"major_axis {major_axis!r}: say which OpenSees local axis (\"z\" or "
+                         "\"y\") is the section's major axis y-y", file=file,
+                         field="model.major_axis")
+    stations = model.get("stations", 5)
+    if not isinstance(stations, int) or isinstance(stations, bool) or stations < 5:
+        raise InputError(f"stations = {stations!r}: a whole number of at least 5 per element",
+                         file=file, field="model.stations")
+    pdelta = analysis == "p-delta"
+
+    ops = import_opensees()
+    watched, returned = run_user_model(ops, script, builder, pdelta=pdelta)
+    captured = read_domain(ops, watched, script=str(script), returned=returned)
+    if captured.ndm == 2 and major_axis != "z":
+        raise InputError("a plane model bends about OpenSees local z; major_axis must be \"z\"",
+                         file=file, field="model.major_axis")
+    cases = load_cases(project.get("load_cases", {}), captured.patterns, file=file)
+    factors = loads.project_combinations(cases, project.get("combinations", {}), file=file)
+    frame = build_frame(captured, model, project, watched, major_axis=major_axis, file=file,
+                        script=script)
+    clear_patterns(ops)
+
+    pattern_of = dict(zip(cases["load_case"], cases["pattern"]))
+    names = list(dict.fromkeys(factors["combination"]))
+    kinds = factors.groupby("combination", sort=False)["kind"].first()
+    matrix = _factor_matrix(factors, names, [pattern_of[c] for c in cases["load_case"]],
+                            pattern_of)
+    patterns = [pattern_of[c] for c in cases["load_case"]]
+    kw = dict(script=str(script), builder=builder, pdelta=pdelta,
+              processes=model.get("processes"))
+    if not pdelta:
+        jobs = [Job(f"load case {c}", {p: 1.0}) for c, p in zip(cases["load_case"], patterns)]
+        outcomes = run_jobs(ops, captured, jobs, **kw)
+        sets = _superpose_outcomes(outcomes, matrix, names, list(cases["load_case"]))
+        analysis_kind = ["first-order"] * len(names)
+        set_kinds = [kinds[n] for n in names]
+    else:
+        from . import opensees_sway
+
+        jobs, rows, set_names = opensees_sway.jobs(frame, captured, matrix, names,
+                                                   [kinds[n] for n in names], patterns,
+                                                   model.get("imperfection", {}), file=file)
+        outcomes = run_jobs(ops, captured, jobs, **kw)
+        sets = [(o.end_forces, o.displacements, o.reactions, o.error) for o in outcomes]
+        set_kinds = [kinds[names[r]] for r in rows]
+        matrix, names = matrix[rows], set_names
+        analysis_kind = ["second-order"] * len(names)
+    results = _results(captured, frame, matrix, patterns, names, set_kinds, analysis_kind, sets,
+                       stations=stations, major_axis=major_axis)
+    return frame, results
+
+
+def load_cases(table: dict, patterns: list[str], *, file: str) -> pd.DataFrame:
+    """[load_cases]: name = "category" or {category, pattern, group, psi_0}; every load pattern
+    of the model needs exactly one load case (else InputError)."""
+    records = []
+    for name, spec in table.items():
+        where = f"load_cases.{name}"
+        if isinstance(spec, str):
+            spec = {"category": spec}
+        if not isinstance(spec, dict) or "category" not in spec:
+            raise InputError("give the category, e.g. dead = { category = \"permanent\", "
+                             "pattern = 1 } or \"1\" = \"permanent\"", file=file, field=where)
+        unknown = sorted(set(spec) - {"category", "pattern", "group", "psi_0"})
+        if unknown:
+            raise InputError(f"unknown key(s) {', '.join(unknown)}; known: category, pattern, "
+                             "group, psi_0", file=file, field=where)
+        pattern = str(spec.get("pattern", name))
+        if pattern not in patterns:
+            raise InputError(f"load pattern {pattern} is not in the model (its patterns: "
+                             f"{', '.join(patterns) or 'none'})", file=file, field=where)
+        records.append({"load_case": str(name), "category": spec["category"], "pattern": pattern,
+                        "group": str(spec.get("group", "")),
+                        "psi_0": float(spec.get("psi_0", np.nan))})
+    cases = pd.DataFrame.from_records(
+        records, columns=["load_case", "category", "pattern", "group", "psi_0"])
+    missing = [p for p in patterns if p not in set(cases["pattern"])]
+    if missing:
+        raise InputError(f"load pattern(s) {', '.join(missing)} of the model have no category; "
+                         f"add e.g. \"{missing[0]}\" = \"permanent\" under [load_cases] (categories: "
+                         f"{', '.join(loads.CATEGORIES)})", file=file, field="load_cases")
+    twice = cases["pattern"].duplicated()
+    if twice.any():
+        raise InputError(f"load pattern {cases['pattern'][twice].iloc[0]} is named by two load "
+                         "cases", file=file, field="load_cases")
+    try:
+        return loads.check_cases(cases, file=file).assign(pattern=cases["pattern"].to_numpy())
+    except InputError:
+        raise
+
+
+def build_frame(captured: Captured, model: dict, project: dict, watched, *, major_axis: str,
+                file: str, script: Path) -> Frame:
+    """The Frame: designations from [model.sections] / [model.element_sections], grades, axes."""
+    from postproc import materials
+    from postproc.sections import build_sections
+
+    by_tag = {str(k): str(v) for k, v in model.get("sections", {}).items()}
+    by_element = {str(k): str(v) for k, v in model.get("element_sections", {}).items()}
+    grades = {str(k): str(v) for k, v in model.get("grades", {}).items()}
+    default_grade = project.get("design", {}).get("default_grade", "S355")
+    els = captured.elements
+    for key in by_element:
+        if key not in els.index:
+            raise InputError(f"element {key} is not in the model", file=file,
+                             field="model.element_sections")
+    designation, grade = [], []
+    for element, tag in zip(els.index, els["section_tag"]):
+        tag_key = "" if np.isnan(tag) else str(int(tag))
+        name = by_element.get(element) or by_tag.get(tag_key)
+        if name is None:
+            hint = (f"section tag {tag_key}: add \"{tag_key}\" = \"IPE 300\" (say) under "
+                    "[model.sections]" if tag_key else "it has no section tag")
+            raise InputError(f"element {element} has no section designation ({hint}, or "
+                             f"\"{element}\" = ... under [model.element_sections])", file=file,
+                             field="model.sections")
+        designation.append(name)
+        given = grades.get(element) or grades.get(tag_key) or grades.get("default") or default_grade
+        grade.append(materials.grade_name(given, file=file, field="model.grades"))
+    specs = pd.DataFrame({"section": sorted(set(designation))})
+    specs["designation"] = specs["section"]
+    sections = build_sections(specs, file=file)
+    axes = axis_map(captured, major_axis)
+    vz = axes[:, 1, :]
+    release_i, release_j = _releases(watched, els.index, major_axis)
+    elements = pd.DataFrame({
+        "node_i": els["node_i"].to_numpy(), "node_j": els["node_j"].to_numpy(),
+        "section": designation, "grade": grade,
+        "vz_x": vz[:, 0], "vz_y": vz[:, 1], "vz_z": vz[:, 2] if captured.ndm == 3 else 0.0,
+        "release_i": release_i, "release_j": release_j}, index=els.index.rename("element"))
+    supports = captured.supports.copy()
+    if captured.ndm == 2:  # out-of-plane freedoms of a plane frame are restrained by definition
+        supports[["uz", "rx", "ry"]] = True
+    frame = Frame(ndm=captured.ndm, nodes=captured.nodes.copy(), elements=elements,
+                  supports=supports, sections=sections, source=f"openseespy model {script.name}")
+    check_stiffness(captured, frame, major_axis, file=file)
+    return frame
+
+
+def _releases(watched, elements: pd.Index, major_axis: str) -> tuple[list[str], list[str]]:
+    """End releases from elasticBeamColumn -release / -releasez / -releasey (1 i, 2 j, 3 both)."""
+    about_z = "My" if major_axis == "z" else "Mz"
+    about_y = "Mz" if major_axis == "z" else "My"
+    out_i, out_j = [], []
+    for element in elements:
+        _, args = watched.elements.get(int(element), ("", ()))
+        ends = {"i": [], "j": []}
+        for flag, action in (("-release", about_z), ("-releasez", about_z), ("-releasey", about_y)):
+            if flag in args:
+                code = int(args[args.index(flag) + 1])
+                if code in (1, 3):
+                    ends["i"].append(action)
+                if code in (2, 3):
+                    ends["j"].append(action)
+        out_i.append(" ".join(ends["i"]))
+        out_j.append(" ".join(ends["j"]))
+    return out_i, out_j
+
+
+def check_stiffness(captured: Captured, frame: Frame, major_axis: str, *, file: str) -> None:
+    """Refuse a model whose bending stiffness shows the major axis mapped wrongly.
+
+    Where the script states I about OpenSees local y and z, the one mapped to EN y-y must be
+    nearer the catalogue I_y than I_z (for sections with I_y > 1.5 I_z); a column modelled bent
+    about its minor axis but checked about its major axis would pass wrongly.
+    """
+    import warnings
+
+    I_major = captured.elements["I_z_os" if major_axis == "z" else "I_y_os"].to_numpy(float)
+    sec = frame.sections.loc[frame.elements["section"]]
+    I_y, I_z = sec["I_y"].to_numpy(float), sec["I_z"].to_numpy(float)
+    known = np.isfinite(I_major) & np.isfinite(I_y) & np.isfinite(I_z)
+    distinct = known & (I_y > 1.5 * I_z)
+    wrong = distinct & (np.abs(I_major - I_z) < np.abs(I_major - I_y))
+    if wrong.any():
+        k = int(np.argmax(wrong))
+        element = frame.elements.index[k]
+        raise InputError(
+            f"element {element} ({frame.elements['section'].iloc[k]}): the model's I about "
+            f"OpenSees local {major_axis} is {I_major[k]:.4g} m4, close to the section's minor-axis "
+            f"I_z = {I_z[k]:.4g} m4, not its I_y = {I_y[k]:.4g} m4. Check the element's vecxz or "
+            f"set [model] major_axis (now \"{major_axis}\"); for a plane frame, bending about the "
+            "minor axis is not read.", file=file, field="model.major_axis")
+    off = known & (np.abs(I_major - I_y) > STIFFNESS_WARNING * I_y)
+    if off.any():
+        k = int(np.argmax(off))
+        warnings.warn(f"{int(off.sum())} element(s), e.g. {frame.elements.index[k]}: the model's "
+                      f"major-axis I differs from the catalogue {frame.elements['section'].iloc[k]} "
+                      f"by more than {STIFFNESS_WARNING:.0%}", stacklevel=2)
+
+
+def _factor_matrix(factors: pd.DataFrame, names: list[str], patterns: list[str],
+                   pattern_of: dict[str, str]) -> np.ndarray:
+    """(combinations, load cases) factors in the order of `names` and `patterns`."""
+    table = factors.assign(pattern=factors["load_case"].map(pattern_of))
+    wide = table.pivot_table(index="combination", columns="pattern", values="factor",
+                             aggfunc="sum", fill_value=0.0)
+    return wide.reindex(index=names, columns=patterns, fill_value=0.0).to_numpy(float)
+
+
+def _superpose_outcomes(outcomes, matrix: np.ndarray, names: list[str], cases: list[str]) -> list:
+    """Linear superposition of the load cases' end forces, displacements and reactions."""
+    failed = np.array([bool(o.error) for o in outcomes])
+    ok = next((o for o in outcomes if not o.error), None)
+    sets = []
+    if ok is None:
+        return [(None, None, None, f"load case {cases[int(np.argmax(matrix[c] != 0.0))]}: "
+                 f"{outcomes[int(np.argmax(matrix[c] != 0.0))].error}") for c in range(len(names))]
+    stack = {key: np.stack([getattr(o, key) if not o.error else np.zeros_like(getattr(ok, key))
+                            for o in outcomes])
+             for key in ("end_forces", "displacements", "reactions")}
+    combined = {key: np.einsum("cp,p...->c...", matrix, value) for key, value in stack.items()}
+    for c, _name in enumerate(names):
+        bad = failed & (matrix[c] != 0.0)
+        if bad.any():
+            p = int(np.argmax(bad))
+            sets.append((None, None, None, f"load case {cases[p]}: {outcomes[p].error}"))
+        else:
+            sets.append((combined["end_forces"][c], combined["displacements"][c],
+                         combined["reactions"][c], ""))
+    return sets
+
+
+def span_loads(captured: Captured, matrix: np.ndarray, patterns: list[str]
+               ) -> tuple[np.ndarray, pd.DataFrame]:
+    """Per load set: uniform loads (J, E, 3) wx, wy, wz and point loads (set, element_index, a,
+    px, py, pz, a in m), factored, in OpenSees local axes."""
+    E = len(captured.elements)
+    index = pd.Series(np.arange(E), index=captured.elements.index)
+    column = {p: k for k, p in enumerate(patterns)}
+    el = captured.element_loads
+    W = np.zeros((len(patterns), E, 3))
+    uni = el[el["kind"] == "uniform"]
+    np.add.at(W, (uni["pattern"].map(column).to_numpy(int), index[uni["element"]].to_numpy()),
+              uni[["px", "py", "pz"]].to_numpy(float))
+    uniform = np.einsum("jp,pec->jec", matrix, W)
+    pts = el[el["kind"] == "point"]
+    J = matrix.shape[0]
+    if len(pts) == 0:
+        return uniform, pd.DataFrame(columns=["set", "element_index", "a", "px", "py", "pz"])
+    f = matrix[:, pts["pattern"].map(column).to_numpy(int)]  # (J, K)
+    jj, kk = np.nonzero(f)
+    L = _lengths(captured)
+    e_idx = index[pts["element"]].to_numpy()[kk]
+    point = pd.DataFrame({"set": jj, "element_index": e_idx,
+                          "a": pts["a"].to_numpy(float)[kk] * L[e_idx],
+                          "px": pts["px"].to_numpy(float)[kk] * f[jj, kk],
+                          "py": pts["py"].to_numpy(float)[kk] * f[jj, kk],
+                          "pz": pts["pz"].to_numpy(float)[kk] * f[jj, kk]})
+    del J
+    return uniform, point
+
+
+def _lengths(captured: Captured) -> np.ndarray:
+    xyz = captured.nodes[["x_m", "y_m", "z_m"]]
+    els = captured.elements
+    return np.linalg.norm(xyz.loc[els["node_j"]].to_numpy() - xyz.loc[els["node_i"]].to_numpy(),
+                          axis=1)
+
+
+def _results(captured: Captured, frame: Frame, matrix: np.ndarray, patterns: list[str],
+             names: list[str], kinds: list[str], analysis: list[str], sets: list, *,
+             stations: int, major_axis: str) -> Results:
+    E = len(captured.elements)
+    L = _lengths(captured)
+    ok = [j for j, s in enumerate(sets) if not s[3]]
+    combos = pd.DataFrame({"kind": kinds, "analysis": analysis,
+                           "status": ["failed" if s[3] else "ok" for s in sets],
+                           "message": [s[3] for s in sets]},
+                          index=pd.Index(names, name="combination"))
+    if not ok:
+        empty = pd.DataFrame(columns=["combination", "element", "x_m", *FORCE_COLUMNS])
+        return Results(forces=empty, combinations=combos)
+    uniform, point = span_loads(captured, matrix, patterns)
+    pos = pd.DataFrame({"element_index": point["element_index"],
+                        "a": point["a"] / L[point["element_index"].to_numpy(int)]})
+    grid = station_grid(L, pos, stations)  # (E, S)
+    ok_arr = np.array(ok)
+    rows_j = np.repeat(ok_arr, E)
+    rows_e = np.tile(np.arange(E), len(ok))
+    end_forces = np.stack([sets[j][0] for j in ok]).reshape(len(ok) * E, 2, 6)
+    slot = {j: k for k, j in enumerate(ok)}
+    keep = point["set"].isin(slot)
+    prow = (point["set"][keep].map(slot).to_numpy(int) * E
+            + point["element_index"][keep].to_numpy(int))
+    pts = (prow, point["a"][keep].to_numpy(float), point["px"][keep].to_numpy(float),
+           point["py"][keep].to_numpy(float), point["pz"][keep].to_numpy(float))
+    X, F = forces_along(grid[rows_e], L[rows_e], end_forces, uniform[rows_j, rows_e], pts)
+    F = to_en(F, major_axis)
+    real = np.isfinite(X)
+    r_idx = np.nonzero(real)[0]
+    el_ids = captured.elements.index.to_numpy()
+    forces = pd.DataFrame({"combination": np.array(names, dtype=object)[rows_j][r_idx],
+                           "element": el_ids[rows_e][r_idx], "x_m": X[real]})
+    forces[FORCE_COLUMNS] = F[real]
+    forces = (forces.sort_values(["combination", "element", "x_m"], kind="stable")
+              .drop_duplicates(["combination", "element", "x_m"]).reset_index(drop=True))
+    displacements = _node_table(names, ok, sets, 1, captured.nodes.index, DISPLACEMENT_COLUMNS)
+    reactions = _node_table(names, ok, sets, 2, captured.supports.index, REACTION_COLUMNS)
+    return Results(forces=forces, combinations=combos, displacements=displacements,
+                   reactions=reactions)
+
+
+def _node_table(names, ok, sets, slot, nodes, columns) -> pd.DataFrame:
+    values = np.concatenate([sets[j][slot] for j in ok]) if len(nodes) else np.zeros((0, 6))
+    table = pd.DataFrame(values, columns=columns)
+    table.insert(0, "node", np.tile(np.asarray(nodes, dtype=object), len(ok)))
+    table.insert(0, "combination", np.repeat(np.array(names, dtype=object)[ok], len(nodes)))
+    return table

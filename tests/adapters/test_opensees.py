@@ -1,0 +1,277 @@
+"""OpenSees adapter against closed-form results, equilibrium and the axis mapping.
+
+Sources are named beside each expected value. Closed forms are the classical elastic beam and
+frame formulas (any structural analysis text; the portal formula is quoted from memory).
+"""
+
+import textwrap
+import tomllib
+import warnings
+from pathlib import Path
+
+import numpy as np
+import pandas as pd
+import pytest
+
+from postproc.errors import InputError
+from postproc.frame import local_axes
+
+opensees = pytest.importorskip("adapters.opensees")
+pytestmark = pytest.mark.opensees
+
+ROOT = Path(__file__).resolve().parents[2]
+E = 210e9
+# Linear elastic analysis in double precision reproduces closed forms to round-off; 1e-6 leaves
+# room for the solver's conditioning on models with a few hundred degrees of freedom.
+SOLVER = 1e-6
+
+
+def run(tmp_path: Path, script: str, project: str, **kw):
+    (tmp_path / "model.py").write_text(textwrap.dedent(script))
+    text = textwrap.dedent(project)
+    (tmp_path / "project.toml").write_text(text)
+    return opensees.load(tomllib.loads(text), tmp_path / "project.toml")
+
+
+def at(results, combination: str, element: str) -> pd.DataFrame:
+    f = results.forces
+    return f[(f["combination"] == combination) & (f["element"] == element)].reset_index(drop=True)
+
+
+BEAM_2D = """
+import openseespy.opensees as ops
+
+def build_model():
+    ops.wipe()
+    ops.model('basic', '-ndm', 2, '-ndf', 3)
+    L = 6.0
+    n = 3                       # three elements along the span
+    for k in range(n + 1):
+        ops.node(k + 1, k * L / n, 0.0)
+    ops.fix(1, 1, 1, {fix_rot})
+    ops.fix(n + 1, 0, 1, 0)
+    ops.geomTransf('Linear', 1)
+    ops.section('Elastic', 7, 2.1e11, 53.8e-4, 8356e-8)   # IPE 300 (REFERENCES.md)
+    for k in range(n):
+        ops.element('elasticBeamColumn', k + 1, k + 1, k + 2, 7, 1)
+    ops.timeSeries('Linear', 1)
+    ops.pattern('Plain', 1, 1)
+    ops.eleLoad('-ele', 1, 2, 3, '-type', '-beamUniform', -10.0e3)
+"""
+BEAM_PROJECT = """
+[model]
+source = "opensees"
+script = "model.py"
+builder = "build_model"
+[model.sections]
+7 = "IPE 300"
+[load_cases]
+dead = { category = "permanent", pattern = 1 }
+[combinations]
+method = "none"
+[combinations.extra.unit]
+kind = "ULS"
+factors = { dead = 1.0 }
+"""
+
+
+def test_simply_supported_beam_uniform_load(tmp_path):
+    frame, results = run(tmp_path, BEAM_2D.format(fix_rot=0), BEAM_PROJECT)
+    w, L = 10.0e3, 6.0
+    f = results.forces[results.forces["combination"] == "unit"].copy()
+    f["X"] = f["x_m"] + 2.0 * (f["element"].astype(int) - 1)  # position along the span
+    mid = f.loc[np.isclose(f["X"], L / 2), "My_Nm"]
+    # M = w L^2 / 8 at midspan (classical); sagging puts -z (bottom) in tension: My < 0
+    assert mid.to_numpy() == pytest.approx(-w * L**2 / 8, rel=SOLVER)
+    # the whole diagram is the parabola w X (L - X) / 2, at every station (equilibrium)
+    np.testing.assert_allclose(f["My_Nm"], -w * f["X"] * (L - f["X"]) / 2, atol=SOLVER * w * L**2)
+    # shear V = w (L/2 - X), dMy/dx = Vz (postproc.results)
+    np.testing.assert_allclose(f["Vz_N"], -w * (L / 2 - f["X"]), atol=SOLVER * w * L)
+    # reactions w L / 2 upwards at each end (equilibrium)
+    r = results.reactions.set_index("node")
+    assert r.loc["1", "FY_N"] == pytest.approx(w * L / 2, rel=SOLVER)
+    assert r.loc["4", "FY_N"] == pytest.approx(w * L / 2, rel=SOLVER)
+    assert results.combinations.loc["unit", "status"] == "ok"
+    assert results.combinations.loc["unit", "analysis"] == "first-order"
+    assert frame.sections.index.tolist() == ["IPE 300"]
+
+
+def test_propped_cantilever_span_maximum_is_caught(tmp_path):
+    frame, results = run(tmp_path, BEAM_2D.format(fix_rot=1), BEAM_PROJECT)
+    w, L = 10.0e3, 6.0
+    f = results.forces[results.forces["combination"] == "unit"].copy()
+    f["X"] = f["x_m"] + 2.0 * (f["element"].astype(int) - 1)
+    # fixed end: w L^2 / 8 hogging (top, +z, in tension: My > 0) (classical)
+    assert f.loc[np.isclose(f["X"], 0.0), "My_Nm"].iloc[0] == pytest.approx(w * L**2 / 8,
+                                                                           rel=SOLVER)
+    # span: 9 w L^2 / 128 sagging at 5L/8 from the fixed end (classical); the station of zero
+    # shear is added, so the maximum is found exactly
+    assert f["My_Nm"].min() == pytest.approx(-9 * w * L**2 / 128, rel=SOLVER)
+    assert f.loc[f["My_Nm"].idxmin(), "X"] == pytest.approx(5 * L / 8, rel=SOLVER)
+
+
+PORTAL = """
+import openseespy.opensees as ops
+
+def build_model():
+    ops.wipe()
+    ops.model('basic', '-ndm', 2, '-ndf', 3)
+    h, L = 4.0, 8.0
+    ops.node(1, 0.0, 0.0); ops.node(2, 0.0, h); ops.node(3, L, h); ops.node(4, L, 0.0)
+    ops.fix(1, 1, 1, 1); ops.fix(4, 1, 1, 1)
+    ops.geomTransf('Linear', 1)
+    # large areas: the classical formula neglects axial shortening
+    ops.element('elasticBeamColumn', 1, 1, 2, 1.0, 2.1e11, {I1}, 1)
+    ops.element('elasticBeamColumn', 2, 2, 3, 1.0, 2.1e11, {I2}, 1)
+    ops.element('elasticBeamColumn', 3, 4, 3, 1.0, 2.1e11, {I1}, 1)
+    ops.timeSeries('Linear', 1)
+    ops.pattern('Plain', 1, 1)
+    ops.load(2, 50.0e3, 0.0, 0.0)
+"""
+PORTAL_PROJECT = """
+[model]
+source = "opensees"
+script = "model.py"
+builder = "build_model"
+[model.element_sections]
+1 = "HEB 200"
+2 = "IPE 300"
+3 = "HEB 200"
+[load_cases]
+wind = { category = "wind", pattern = 1 }
+[combinations]
+method = "none"
+[combinations.extra.unit]
+factors = { wind = 1.0 }
+"""
+
+
+@pytest.mark.parametrize("I1, I2", [(5696e-8, 8356e-8), (5696e-8, 2 * 5696e-8)])
+def test_fixed_base_portal_under_horizontal_load(tmp_path, I1, I2):
+    with warnings.catch_warnings():
+        warnings.simplefilter("ignore")  # stiffness deliberately differs from the catalogue
+        frame, results = run(tmp_path, PORTAL.format(I1=I1, I2=I2), PORTAL_PROJECT)
+    H, h, L = 50.0e3, 4.0, 8.0
+    k = (I2 / I1) * (h / L)
+    # Fixed-base portal, horizontal load H at the beam (Kleinlogel-type frame formulas, from
+    # memory): base moments H h / 2 (3k + 1) / (6k + 1), knee moments H h / 2 * 3k / (6k + 1),
+    # k = (I_beam / I_column) (h / L).
+    base = H * h / 2 * (3 * k + 1) / (6 * k + 1)
+    knee = H * h / 2 * 3 * k / (6 * k + 1)
+    col = at(results, "unit", "1")
+    # axial shortening with A = 1 m2 changes the moments by far less than 1e-4 (estimate)
+    assert abs(col["My_Nm"].iloc[0]) == pytest.approx(base, rel=1e-4)
+    assert abs(col["My_Nm"].iloc[-1]) == pytest.approx(knee, rel=1e-4)
+    # the base moment and the knee moment of a column are of opposite sign (contraflexure)
+    assert col["My_Nm"].iloc[0] * col["My_Nm"].iloc[-1] < 0
+    # reactions balance the applied load (equilibrium)
+    assert results.reactions["FX_N"].sum() == pytest.approx(-H, rel=SOLVER)
+
+
+COLUMN_3D = """
+import openseespy.opensees as ops
+
+def build_model():
+    ops.wipe()
+    ops.model('basic', '-ndm', 3, '-ndf', 6)
+    ops.node(1, 0.0, 0.0, 0.0); ops.node(2, 0.0, 0.0, 3.0)
+    ops.fix(1, 1, 1, 1, 1, 1, 1)
+    ops.geomTransf('Linear', 1, *{vecxz})
+    # HEB 200, I_y (major) 5696 cm4, I_z 2003 cm4 (REFERENCES.md): A E G J Iy Iz
+    ops.element('elasticBeamColumn', 1, 1, 2, 78.1e-4, 2.1e11, 8.1e10, 59.3e-8, {Iy}, {Iz}, 1)
+    ops.timeSeries('Linear', 1)
+    ops.pattern('Plain', 1, 1)
+    ops.load(2, 10.0e3, 0.0, 0.0, 0.0, 0.0, 0.0)
+"""
+COLUMN_PROJECT = """
+[model]
+source = "opensees"
+script = "model.py"
+builder = "build_model"
+major_axis = "{major}"
+[model.element_sections]
+1 = "HEB 200"
+[load_cases]
+"1" = "wind"
+[combinations]
+method = "none"
+[combinations.extra.unit]
+factors = {{ "1" = 1.0 }}
+"""
+I_MAJOR, I_MINOR = 5696e-8, 2003e-8
+
+
+@pytest.mark.parametrize("major, vecxz, Iy, Iz, bent_about", [
+    # OpenSees local y = vecxz x x. vecxz (0,1,0) on a column along Z: y_os = +X, z_os = +Y.
+    ("z", (0, 1, 0), I_MINOR, I_MAJOR, "y-y"),   # web along X: load along the web
+    ("z", (1, 0, 0), I_MINOR, I_MAJOR, "z-z"),   # y_os = -Y: web along Y, load across it
+    ("y", (1, 0, 0), I_MAJOR, I_MINOR, "y-y"),   # z_os = +X carries the web: major about y_os
+    ("y", (0, 1, 0), I_MAJOR, I_MINOR, "z-z"),
+])
+def test_axis_mapping_column_bent_about_each_axis(tmp_path, major, vecxz, Iy, Iz, bent_about):
+    frame, results = run(tmp_path, COLUMN_3D.format(vecxz=vecxz, Iy=Iy, Iz=Iz),
+                         COLUMN_PROJECT.format(major=major))
+    H, h = 10.0e3, 3.0
+    base = at(results, "unit", "1").iloc[0]
+    ex, ey, ez = local_axes(frame)[0]
+    # cantilever: base moment H h about global Y (statics); its components on the frame's own
+    # local axes are what the adapter must report as My and Mz (postproc.frame, results)
+    moment = H * h * np.array([0.0, 1.0, 0.0])
+    assert base["My_Nm"] == pytest.approx(moment @ ey, abs=1e-6 * H * h)
+    assert base["Mz_Nm"] == pytest.approx(moment @ ez, abs=1e-6 * H * h)
+    if bent_about == "y-y":
+        assert abs(base["My_Nm"]) == pytest.approx(H * h, rel=SOLVER)
+        assert abs(base["Vz_N"]) == pytest.approx(H, rel=SOLVER)
+        # the stress sigma = My z / I_y: tension on the -X side (load pushes to +X)
+        assert base["My_Nm"] * (ez @ np.array([-1.0, 0.0, 0.0])) > 0
+    else:
+        assert abs(base["Mz_Nm"]) == pytest.approx(H * h, rel=SOLVER)
+        assert abs(base["Vy_N"]) == pytest.approx(H, rel=SOLVER)
+        # sigma = -Mz y / I_z: tension on the -X side
+        assert -base["Mz_Nm"] * (ey @ np.array([-1.0, 0.0, 0.0])) > 0
+    # top displacement H h^3 / (3 E I) about the bending axis (cantilever, classical)
+    I = I_MAJOR if bent_about == "y-y" else I_MINOR
+    d = results.displacements.set_index("node").loc["2", "ux_m"]
+    assert d == pytest.approx(H * h**3 / (3 * 2.1e11 * I), rel=1e-4)  # shear deformation: none
+
+
+def test_axis_mapping_refuses_a_column_modelled_about_its_minor_axis(tmp_path):
+    # stiffness about OpenSees z (mapped to y-y) is the minor I: the model says "minor axis"
+    script = COLUMN_3D.format(vecxz=(0, 1, 0), Iy=I_MAJOR, Iz=I_MINOR)
+    with pytest.raises(InputError, match="major_axis"):
+        run(tmp_path, script, COLUMN_PROJECT.format(major="z"))
+
+
+def test_pattern_without_category(tmp_path):
+    project = BEAM_PROJECT.replace('dead = { category = "permanent", pattern = 1 }', "")
+    project = project.replace("factors = { dead = 1.0 }", "factors = {}")
+    with pytest.raises(InputError, match=r"load pattern\(s\) 1 .*no category.*load_cases"):
+        run(tmp_path, BEAM_2D.format(fix_rot=0), project)
+
+
+def test_section_tag_without_mapping(tmp_path):
+    project = BEAM_PROJECT.replace('7 = "IPE 300"', "")
+    with pytest.raises(InputError, match=r"section tag 7.*model.sections"):
+        run(tmp_path, BEAM_2D.format(fix_rot=0), project)
+
+
+def test_script_that_raises(tmp_path):
+    script = BEAM_2D.format(fix_rot=0).replace("ops.wipe()", "ops.wipe(); 1 / 0")
+    with pytest.raises(InputError, match="ZeroDivisionError"):
+        run(tmp_path, script, BEAM_PROJECT)
+
+
+def test_element_type_not_read(tmp_path):
+    script = BEAM_2D.format(fix_rot=0).replace(
+        "ops.timeSeries", "ops.uniaxialMaterial('Elastic', 9, 2.1e11); "
+        "ops.element('Truss', 99, 1, 3, 1e-3, 9); ops.timeSeries")
+    with pytest.raises(InputError, match="Truss"):
+        run(tmp_path, script, BEAM_PROJECT)
+
+
+def test_mechanism_is_failed_not_skipped(tmp_path):
+    script = BEAM_2D.format(fix_rot=0).replace("ops.fix(n + 1, 0, 1, 0)", "")
+    frame, results = run(tmp_path, script, BEAM_PROJECT)
+    row = results.combinations.loc["unit"]
+    assert row["status"] == "failed" and "load case dead" in row["message"]
+    assert results.forces.empty
