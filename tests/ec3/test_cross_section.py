@@ -189,7 +189,7 @@ def test_M_N_z_I_6_37_6_38():
     s = HEB200
     a = cs.a_I(s["A"], s["b"], s["t_f"])
     M_pl = s["W_pl_z"] * S235
-    n = np.array([0.5 * a, a, 0.5 * (a + 1)])
+    n = np.array([0.5 * a, 0.95 * a, a, 0.5 * (a + 1)])
     # eq. (6.37) for n <= a, eq. (6.38) above
     expected = np.where(n <= a, M_pl, M_pl * (1 - ((n - a) / (1 - a)) ** 2))
     close(cs.M_N_z_Rd_I(M_pl, n, a), expected)

@@ -1,0 +1,318 @@
+"""The 6.2 check family on hand-built member rows.
+
+Section data: IPE 300 and HEB 200 handbook values (dimensions per EN 10365; from memory, as the
+project's reference page lists them). Partial factors: EN 1993-1-1 6.1 note 2B recommended values.
+Expected resistances are worked in the tests from the equation named beside them.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+import pytest
+
+from postproc.checks import cross_section as fam
+from postproc.checks.base import FAIL, NOT_EVALUATED, PASS, MemberRows
+from postproc.errors import InputError
+from postproc.settings import DesignSettings
+
+EXACT = 1e-12  # same arithmetic as the clause functions, only rounding differs
+S355, FU355 = 355e6, 490e6  # EN 1993-1-1 Table 3.1, t <= 40 mm (f_u from memory)
+MM, CM2, CM3, CM4 = 1e-3, 1e-4, 1e-6, 1e-8
+COLUMNS = ("h", "b", "t_w", "t_f", "r", "a_w", "t", "r_o", "A", "Av_z", "Av_y", "I_y", "I_z",
+           "W_el_y", "W_el_z", "W_pl_y", "W_pl_z", "i_y", "i_z", "I_t", "I_w", "t_max")
+
+
+def i_section(h, b, t_w, t_f, r, A, I_y, W_pl_y, I_z, W_pl_z, I_t, fabrication="rolled"):
+    """A sections-table row of an I section; A_v by 6.2.6(3)(a), A_v,y = 2 b t_f (common
+    practice), W_el = 2 I / depth."""
+    return dict(shape="I", fabrication=fabrication, h=h, b=b, t_w=t_w, t_f=t_f, r=r, a_w=np.nan,
+                t=np.nan, r_o=np.nan, A=A, Av_z=A - 2 * b * t_f + (t_w + 2 * r) * t_f,
+                Av_y=2 * b * t_f, I_y=I_y, I_z=I_z, W_el_y=2 * I_y / h, W_el_z=2 * I_z / b,
+                W_pl_y=W_pl_y, W_pl_z=W_pl_z, i_y=np.sqrt(I_y / A), i_z=np.sqrt(I_z / A),
+                I_t=I_t, I_w=np.nan, t_max=max(t_w, t_f))
+
+
+IPE300 = i_section(300 * MM, 150 * MM, 7.1 * MM, 10.7 * MM, 15 * MM, 53.8 * CM2, 8356 * CM4,
+                   628 * CM3, 604 * CM4, 125 * CM3, 20.1 * CM4)
+HEB200 = i_section(200 * MM, 200 * MM, 9 * MM, 15 * MM, 18 * MM, 78.1 * CM2, 5696 * CM4,
+                   643 * CM3, 2003 * CM4, 306 * CM3, 59.3 * CM4)
+
+
+def generic(base: dict) -> dict:
+    """The same properties given explicitly: shape GENERIC, no dimensions."""
+    out = dict(base, shape="GENERIC", fabrication="")
+    for k in ("h", "b", "t_w", "t_f", "r", "t", "r_o"):
+        out[k] = np.nan
+    return out
+
+
+def make_rows(sections, *, N=0.0, Vy=0.0, Vz=0.0, T=0.0, My=0.0, Mz=0.0, section_class=1,
+              class_part="web", x=(0.0, 2.5, 5.0), f_y=S355, f_u=FU355, A_net=None,
+              settings=None) -> MemberRows:
+    """Member rows by hand: one row per section; forces scalar, (S,) or (R, S)."""
+    R, S = len(sections), len(x)
+
+    def grid(v, dtype=float):
+        return np.array(np.broadcast_to(np.asarray(v, dtype=dtype), (R, S)))
+
+    section = {k: np.array([s[k] for s in sections], dtype=float) for k in COLUMNS}
+    section["shape"] = np.array([s["shape"] for s in sections], dtype=object)
+    section["fabrication"] = np.array([s["fabrication"] for s in sections], dtype=object)
+    info = {"section_class": grid(section_class).astype(np.int8),
+            "class_part": grid(class_part, dtype=object)}
+    if A_net is not None:
+        info["A_net"] = np.broadcast_to(np.asarray(A_net, float), (R,)).copy()
+    return MemberRows(
+        member=np.array([f"M{i + 1}" for i in range(R)], dtype=object),
+        combination=np.full(R, "ULS1", dtype=object), x=grid(x), N=grid(N), Vy=grid(Vy),
+        Vz=grid(Vz), T=grid(T), My=grid(My), Mz=grid(Mz), length=np.full(R, x[-1]),
+        section=section, f_y=np.full(R, f_y), f_u=np.full(R, f_u), E=np.full(R, 210e9),
+        G=np.full(R, 81e9), info=info, settings=settings or DesignSettings())
+
+
+def blocks(rows):
+    out = fam.cross_section_checks(rows)
+    return {b.check: b for b in out}
+
+
+def close(actual, expected, rel=EXACT):
+    np.testing.assert_allclose(actual, expected, rtol=rel, atol=0.0)
+
+
+def test_one_block_per_check_in_order():
+    b = fam.cross_section_checks(make_rows([IPE300], N=-100e3))
+    assert [k.check for k in b] == [
+        "tension", "compression", "bending y-y", "bending z-z", "shear z", "shear y",
+        "shear buckling", "bending and shear", "bending and axial force", "linear sum", "torsion"]
+    for k in b:
+        assert k.utilisation.shape == k.x.shape == k.applies.shape == k.reason.shape == (1,)
+
+
+def test_compression_and_bending_ipe300():
+    s = IPE300
+    b = blocks(make_rows([s], N=-500e3, My=[60e3, 150e3, 90e3], Mz=5e3))
+    c = b["compression"]
+    # eq. (6.10): N_c,Rd = A f_y / gamma_M0
+    close(c.values["N_c_Rd_N"], s["A"] * S355)
+    close(c.utilisation, 500e3 / (s["A"] * S355))
+    assert c.applies[0] and not b["tension"].applies[0]
+    m = b["bending y-y"]
+    # eq. (6.13) class 1: M_pl,y,Rd = W_pl,y f_y; governing station is the one of 150 kNm
+    close(m.values["M_c_y_Rd_Nm"], s["W_pl_y"] * S355)
+    close(m.utilisation, 150e3 / (s["W_pl_y"] * S355))
+    assert m.x[0] == 2.5 and m.values["M_y_Ed_Nm"][0] == 150e3
+    assert m.values["section_class"][0] == 1 and m.values["class_part"][0] == "web"
+    assert list(m.status()) == [PASS]
+
+
+def test_tension_only_where_tension_and_net_area():
+    s = IPE300
+    A_net = s["A"] - 4 * 22 * MM * s["t_f"]  # two 22 mm holes per flange (this test's layout)
+    b = blocks(make_rows([s, s], N=[[300e3, 300e3, 300e3], [-200e3, 0.0, 400e3]],
+                         A_net=[A_net, np.nan]))
+    t, c = b["tension"], b["compression"]
+    np.testing.assert_array_equal(t.applies, [True, True])
+    np.testing.assert_array_equal(c.applies, [False, True])  # row 2 changes sign along x
+    # 6.2.3(2): N_t,Rd = min(A f_y / gamma_M0, 0.9 A_net f_u / gamma_M2) -> net section here
+    N_u = 0.9 * A_net * FU355 / 1.25
+    close(t.values["N_t_Rd_N"], [N_u, s["A"] * S355])
+    close(t.utilisation, [300e3 / N_u, 400e3 / (s["A"] * S355)])
+    assert t.x[1] == 5.0
+
+
+def test_bad_net_area_is_an_input_error():
+    with pytest.raises(InputError, match=r"M1.*A_net = .* 0 < A_net <= A") as err:
+        fam.cross_section_checks(make_rows([IPE300], N=1e3, A_net=2 * IPE300["A"]))
+    assert err.value.field == "A_net" and err.value.row == 0
+
+
+def test_class_3_switches_to_elastic_and_class_2_plastic():
+    s = IPE300
+    b = blocks(make_rows([s, s], My=100e3, section_class=[[2, 2, 2], [3, 3, 3]]))
+    m = b["bending y-y"]
+    # eq. (6.13) for class 2, eq. (6.14) for class 3
+    close(m.values["M_c_y_Rd_Nm"], [s["W_pl_y"] * S355, s["W_el_y"] * S355])
+    assert m.utilisation[1] > m.utilisation[0]
+
+
+def test_class_4_and_unknown_not_evaluated_but_tension_and_shear_are():
+    s = IPE300
+    b = blocks(make_rows([s, s], N=[-100e3, -100e3, 50e3], My=20e3, Vz=10e3,
+                         section_class=[[4, 4, 4], [0, 0, 0]]))
+    for name in ("compression", "bending y-y", "bending and axial force", "linear sum"):
+        k = b[name]
+        assert np.all(np.isnan(k.utilisation)), name
+        assert list(k.reason) == [fam.CLASS_4, fam.CLASS_UNKNOWN], name
+        assert list(k.status()) == [NOT_EVALUATED] * 2, name
+    # gross-section tension and shear do not depend on the class
+    for name in ("tension", "shear z"):
+        assert list(b[name].status()) == [PASS, PASS], name
+
+
+def test_generic_checkable_where_no_geometry_is_needed():
+    g = generic(IPE300)
+    b = blocks(make_rows([g], N=-300e3, My=80e3, Vz=50e3))
+    for name in ("compression", "bending y-y", "shear z", "linear sum"):
+        assert list(b[name].status()) == [PASS], name
+    close(b["shear z"].values["V_pl_z_Rd_N"], g["Av_z"] * S355 / np.sqrt(3))  # eq. (6.18)
+    k = b["bending and axial force"]
+    assert np.isnan(k.utilisation[0]) and k.reason[0] == fam.NM_NEEDS_GEOMETRY
+    sb = b["shear buckling"]
+    assert sb.applies[0] and sb.reason[0] == fam.WEB_UNKNOWN and sb.status()[0] == NOT_EVALUATED
+
+
+def test_generic_class_3_uses_6_42_and_single_actions_need_no_geometry():
+    g = generic(IPE300)
+    b = blocks(make_rows([g, g], N=[[-300e3], [0.0]], My=80e3, Mz=[[0.0], [4e3]],
+                         section_class=[[3, 3, 3], [1, 1, 1]]))
+    k = b["bending and axial force"]
+    # eq. (6.42): sigma = N/A + M_y/W_el,y, utilisation sigma / (f_y / gamma_M0)
+    close(k.utilisation[0], (300e3 / g["A"] + 80e3 / g["W_el_y"]) / S355)
+    # row 2 has no N: 6.2.9 does not apply, and nothing in it needs the geometry
+    assert not k.applies[1] and k.reason[1] == ""
+    assert not b["shear buckling"].applies.any()  # no shear, nothing to verify
+
+
+def test_shear_ipe300_and_welded_slender_web():
+    s = IPE300
+    # welded plate girder: web 1000 x 8 mm, flanges 300 x 20 mm, S355 (this test's proportions):
+    # h_w / t_w = 125 > 72 eps = 58.6, eq. (6.22)
+    hw, tw, bf, tf = 1000 * MM, 8 * MM, 300 * MM, 20 * MM
+    A = hw * tw + 2 * bf * tf
+    I_y = (bf * (hw + 2 * tf) ** 3 - (bf - tw) * hw**3) / 12
+    W_pl = bf * tf * (hw + tf) + tw * hw**2 / 4
+    girder = dict(i_section(hw + 2 * tf, bf, tw, tf, 0.0, A, I_y, W_pl, 2 * tf * bf**3 / 12,
+                            tf * bf**2 / 2, np.nan, fabrication="welded"), Av_z=hw * tw)
+    b = blocks(make_rows([s, girder], Vz=[200e3, 210e3, 220e3], My=[0.0, 50e3, 100e3]))
+    v = b["shear z"]
+    Av = s["A"] - 2 * s["b"] * s["t_f"] + (s["t_w"] + 2 * s["r"]) * s["t_f"]  # 6.2.6(3)(a)
+    close(v.utilisation[0], 220e3 / (Av * S355 / np.sqrt(3)))  # eq. (6.18)
+    assert v.status()[0] == PASS
+    assert np.isnan(v.utilisation[1]) and v.reason[1] == fam.SHEAR_BUCKLING
+    close(v.values["web_slenderness_ratio"][1], (hw / tw) / (72 * np.sqrt(235 / 355)))
+    bs = b["bending and shear"]
+    assert bs.applies[1] and bs.reason[1] == fam.SHEAR_BUCKLING
+    assert not bs.applies[0]  # 220 kN < 0.5 V_pl,Rd of IPE 300 (about 263 kN)
+
+
+def test_bending_and_shear_boundary_and_6_30():
+    s = HEB200
+    f_y = 235e6
+    Av = s["A"] - 2 * s["b"] * s["t_f"] + (s["t_w"] + 2 * s["r"]) * s["t_f"]  # 6.2.6(3)(a)
+    V_pl = Av * f_y / np.sqrt(3)  # eq. (6.18)
+    V = np.array([[0.5 * V_pl] * 3, [0.75 * V_pl] * 3])
+    b = blocks(make_rows([s, s], Vz=V, My=100e3, f_y=f_y))
+    k = b["bending and shear"]
+    # 6.2.8(2): exactly 0.5 V_pl,Rd needs no reduction; 0.75 V_pl,Rd gives rho = 0.25 (6.29)
+    np.testing.assert_array_equal(k.applies, [False, True])
+    close(k.values["rho_z"], [0.0, 0.25])
+    A_w = (s["h"] - 2 * s["t_f"]) * s["t_w"]
+    M_y_V = (s["W_pl_y"] - 0.25 * A_w**2 / (4 * s["t_w"])) * f_y  # eq. (6.30)
+    close(k.values["M_y_V_Rd_Nm"][1], M_y_V)
+    close(k.utilisation[1], 100e3 / M_y_V)
+    # the linear sum uses the reduced resistance too (6.2.1(7): "including any reduction")
+    close(b["linear sum"].utilisation[1], 100e3 / M_y_V)
+
+
+def test_bending_and_axial_force_I_formulas_hand_worked():
+    s = IPE300
+    N, My, Mz = -600e3, 150e3, 10e3
+    b = blocks(make_rows([s], N=N, My=My, Mz=Mz))
+    k = b["bending and axial force"]
+    N_pl = s["A"] * S355  # eq. (6.6)
+    n = 600e3 / N_pl
+    a = (s["A"] - 2 * s["b"] * s["t_f"]) / s["A"]  # 6.2.9.1(5)
+    M_pl_y, M_pl_z = s["W_pl_y"] * S355, s["W_pl_z"] * S355
+    M_N_y = min(M_pl_y * (1 - n) / (1 - 0.5 * a), M_pl_y)  # eq. (6.36)
+    M_N_z = M_pl_z if n <= a else M_pl_z * (1 - ((n - a) / (1 - a)) ** 2)  # eq. (6.37)/(6.38)
+    beta = max(5 * n, 1.0)  # 6.2.9.1(6)
+    lhs = (My / M_N_y) ** 2 + (Mz / M_N_z) ** beta  # eq. (6.41)
+    close(k.values["n"], n)
+    close(k.values["a"], a)
+    close(k.values["M_N_y_Rd_Nm"], M_N_y)
+    close(k.values["M_N_z_Rd_Nm"], M_N_z)
+    close(k.values["alpha"], 2.0)
+    close(k.values["beta"], beta)
+    close(k.utilisation, max(n, My / M_N_y, Mz / M_N_z, lhs))
+    # the linear sum (6.2) is never less than the 6.2.9 criterion: it is the conservative one
+    assert b["linear sum"].utilisation[0] >= k.utilisation[0]
+
+
+def test_no_reduction_allowance_at_6_34_limit():
+    s = IPE300
+    N_lim = 0.5 * (s["h"] - 2 * s["t_f"]) * s["t_w"] * S355  # eq. (6.34), below 0.25 N_pl,Rd
+    b = blocks(make_rows([s, s], N=[[-N_lim] * 3, [-1.2 * N_lim] * 3], My=100e3))
+    k = b["bending and axial force"]
+    M_pl = s["W_pl_y"] * S355
+    close(k.values["M_N_y_Rd_Nm"][0], M_pl)  # 6.2.9.1(4): no allowance for N
+    a = (s["A"] - 2 * s["b"] * s["t_f"]) / s["A"]
+    n = 1.2 * N_lim / (s["A"] * S355)
+    close(k.values["M_N_y_Rd_Nm"][1], min(M_pl, M_pl * (1 - n) / (1 - 0.5 * a)))  # eq. (6.36)
+
+
+def test_torsion_reported_not_evaluated_unless_negligible():
+    s = IPE300
+    tau_y = S355 / np.sqrt(3)
+    T_small = 0.005 * tau_y * s["I_t"] / s["t_max"]  # half the negligible level
+    T_big = 0.2 * tau_y * s["I_t"] / s["t_max"]
+    b = blocks(make_rows([s, s], T=[[0.0, T_small, 0.0], [0.0, T_big, -T_big]], My=10e3))
+    k = b["torsion"]
+    np.testing.assert_array_equal(k.applies, [False, True])
+    assert np.isnan(k.utilisation[1]) and k.reason[1] == fam.TORSION
+    assert k.status()[1] == NOT_EVALUATED
+    close(k.values["tau_t_ratio"][1], 0.2, rel=1e-9)
+
+
+def test_nan_force_is_never_a_pass():
+    s = IPE300
+    My = np.array([[10e3, np.nan, 30e3]])
+    b = blocks(make_rows([s], N=-100e3, My=My))
+    for name in ("bending y-y", "bending and axial force", "linear sum"):
+        k = b[name]
+        assert k.applies[0] and np.isnan(k.utilisation[0]), name
+        assert k.reason[0] == fam.NAN_FORCE and k.x[0] == 2.5, name
+        assert k.status()[0] == NOT_EVALUATED, name
+    assert b["compression"].status()[0] == PASS  # N itself is known everywhere
+
+
+def test_padding_stations_are_ignored():
+    s = IPE300
+    x = np.array([[0.0, 2.0, 4.0], [0.0, 3.0, np.nan]])
+    My = np.array([[10e3, 20e3, 30e3], [40e3, 50e3, np.nan]])
+    rows = make_rows([s, s], My=My, x=(0.0, 1.0, 2.0))
+    rows = MemberRows(**{**rows.__dict__, "x": x})
+    m = blocks(rows)["bending y-y"]
+    close(m.utilisation, np.array([30e3, 50e3]) / (s["W_pl_y"] * S355))
+    np.testing.assert_array_equal(m.x, [4.0, 3.0])
+
+
+def test_noise_forces_count_as_zero():
+    s = IPE300
+    b = blocks(make_rows([s], N=1e-7, Vz=-1e-9, My=1e-6))  # far below 1e-6 of the capacities
+    for name in ("tension", "shear z", "bending y-y", "linear sum"):
+        assert not b[name].applies[0], name
+
+
+@pytest.mark.parametrize("cls", [1, 3])
+def test_utilisation_grows_with_load(cls):
+    s = HEB200
+    k = np.array([0.2, 0.5, 0.8, 1.1, 1.4])
+    # one row per load level: N = -k 500 kN, M_y = k 60 kNm, M_z = k 15 kNm, V_z = k 120 kN
+    rows = make_rows([s] * k.size, N=-500e3 * k[:, None], My=60e3 * k[:, None],
+                     Mz=15e3 * k[:, None], Vz=120e3 * k[:, None], section_class=cls, f_y=235e6)
+    for blk in fam.cross_section_checks(rows):
+        if not blk.applies.all():
+            continue
+        assert np.all(np.diff(blk.utilisation) > 0), blk.check
+    assert list(blocks(rows)["linear sum"].status()[[0, -1]]) == [PASS, FAIL]
+
+
+def test_settings_partial_factors_are_used():
+    s = IPE300
+    st = DesignSettings(gamma_M0=1.1, gamma_M2=1.3)
+    A_net = 0.95 * s["A"]
+    b = blocks(make_rows([s], N=100e3, My=10e3, A_net=A_net, settings=st))
+    t = b["tension"]
+    close(t.values["N_pl_Rd_N"], s["A"] * S355 / 1.1)  # eq. (6.6)
+    close(t.values["N_u_Rd_N"], 0.9 * A_net * FU355 / 1.3)  # eq. (6.7)
+    close(b["bending y-y"].values["M_c_y_Rd_Nm"], s["W_pl_y"] * S355 / 1.1)  # eq. (6.13)
