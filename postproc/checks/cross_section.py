@@ -230,7 +230,7 @@ def _shear_buckling_unknown(c: _Rows) -> CheckBlock:
     _, _, ratio_z = _shear_parts(c, "z")
     unknown = (c.shape != "CHS") & np.isnan(ratio_z)
     loaded = (c.Vz != 0.0) | (c.Vy != 0.0)
-    util = np.where(unknown & loaded, np.nan, 0.0) + 0.0 * c.Vz * c.Vy
+    util = np.where((unknown & loaded) | np.isnan(c.Vz) | np.isnan(c.Vy), np.nan, 0.0)
     reason = _reasons(util, [(c.nan_at(c.Vz, c.Vy), NAN_FORCE), (unknown, WEB_UNKNOWN)])
     applies = unknown[:, 0] & (c.any_(loaded) | c.any_(c.nan_at(c.Vz, c.Vy)))
     values = {"V_z_Ed_N": c.Vz, "V_y_Ed_N": c.Vy, **c.common()}
@@ -361,9 +361,9 @@ def _torsion(c: _Rows) -> CheckBlock:
 
 
 def cross_section_checks(rows: MemberRows) -> list[CheckBlock]:
-    """EN 1993-1-1:2005, 6.2: every cross-section check of every row, at every station.
+    """EN 1993-1-1:2005, 6.2.
 
-    Returns one CheckBlock per check, in the order tension, compression, bending y-y,
+    Every cross-section check of every row, at every station. Returns one CheckBlock per check, in the order tension, compression, bending y-y,
     bending z-z, shear z, shear y, shear buckling, bending and shear, bending and axial force,
     linear sum, torsion (see the module docstring for what each means and when it applies).
 

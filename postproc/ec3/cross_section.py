@@ -33,7 +33,9 @@ def _ratio(demand: ArrayLike, resistance: ArrayLike) -> Array:
 
 
 def epsilon(f_y: ArrayLike) -> Array:
-    """EN 1993-1-1:2005, 5.5.2, Table 5.2: epsilon = sqrt(235 N/mm2 / f_y).
+    """EN 1993-1-1:2005, 5.5.2, Table 5.2.
+
+    epsilon = sqrt(235 N/mm2 / f_y).
 
     Args:
         f_y: yield strength, Pa.
@@ -42,13 +44,19 @@ def epsilon(f_y: ArrayLike) -> Array:
 
 
 def is_plastic(section_class: ArrayLike) -> Array:
-    """EN 1993-1-1:2005, 5.5.2(1): class 1 and 2 may use plastic resistance."""
+    """EN 1993-1-1:2005, 5.5.2(1).
+
+    True for class 1 and 2, whose resistance may be plastic.
+    """
     c = np.asarray(section_class)
     return (c == 1) | (c == 2)
 
 
 def is_elastic(section_class: ArrayLike) -> Array:
-    """EN 1993-1-1:2005, 5.5.2(1): class 3 uses elastic resistance."""
+    """EN 1993-1-1:2005, 5.5.2(1).
+
+    True for class 3, whose resistance is elastic.
+    """
     return np.asarray(section_class) == 3
 
 
@@ -299,7 +307,10 @@ def reduced_for_shear(A: ArrayLike, W_y: ArrayLike, W_z: ArrayLike, A_w: ArrayLi
 # --- 6.2.9 bending and axial force ---------------------------------------------------------------
 
 def a_I(A: ArrayLike, b: ArrayLike, t_f: ArrayLike) -> Array:
-    """EN 1993-1-1:2005, 6.2.9.1(5): a = (A - 2 b t_f) / A <= 0.5 (I and H sections)."""
+    """EN 1993-1-1:2005, 6.2.9.1(5).
+
+    a = (A - 2 b t_f) / A <= 0.5 for I and H sections.
+    """
     A = _a(A)
     return np.minimum((A - 2.0 * _a(b) * _a(t_f)) / A, 0.5)
 
@@ -344,13 +355,19 @@ def M_N_z_Rd_I(M_pl_z_Rd: ArrayLike, n: ArrayLike, a: ArrayLike) -> Array:
 
 
 def a_w_RHS(A: ArrayLike, b: ArrayLike, t: ArrayLike) -> Array:
-    """EN 1993-1-1:2005, 6.2.9.1(6): a_w = (A - 2 b t) / A <= 0.5 (hollow sections)."""
+    """EN 1993-1-1:2005, 6.2.9.1(6).
+
+    a_w = (A - 2 b t) / A <= 0.5 for hollow sections.
+    """
     A = _a(A)
     return np.minimum((A - 2.0 * _a(b) * _a(t)) / A, 0.5)
 
 
 def a_f_RHS(A: ArrayLike, h: ArrayLike, t: ArrayLike) -> Array:
-    """EN 1993-1-1:2005, 6.2.9.1(6): a_f = (A - 2 h t) / A <= 0.5 (hollow sections)."""
+    """EN 1993-1-1:2005, 6.2.9.1(6).
+
+    a_f = (A - 2 h t) / A <= 0.5 for hollow sections.
+    """
     A = _a(A)
     return np.minimum((A - 2.0 * _a(h) * _a(t)) / A, 0.5)
 
@@ -374,9 +391,9 @@ def M_N_z_Rd_RHS(M_pl_z_Rd: ArrayLike, n: ArrayLike, a_f: ArrayLike) -> Array:
 
 
 def M_N_Rd_CHS(M_pl_Rd: ArrayLike, n: ArrayLike) -> Array:
-    """EN 1993-1-1:2005, 6.2.9.1(2), eq. (6.31) with M_N,Rd of a circular hollow section.
+    """EN 1993-1-1:2005, 6.2.9.1(2), eq. (6.31).
 
-    M_N,Rd = M_pl,Rd (1 - n^1.7), N*m. Not printed in EN 1993-1-1; the usual expression of
+    M_N,Rd of a circular hollow section, M_N,Rd = M_pl,Rd (1 - n^1.7), N*m. Not printed in EN 1993-1-1; the usual expression of
     European design guidance for class 1 and 2 CHS (from memory).
     """
     return _a(M_pl_Rd) * (1.0 - np.clip(_a(n), 0.0, None) ** 1.7)
@@ -454,9 +471,9 @@ def linear_sum(N_Ed: ArrayLike, N_Rd: ArrayLike, M_y_Ed: ArrayLike, M_y_Rd: Arra
 
 def tau_t_Ed(T_Ed: ArrayLike, shape: ArrayLike, I_t: ArrayLike, t_max: ArrayLike, h: ArrayLike,
              b: ArrayLike, t: ArrayLike) -> Array:
-    """EN 1993-1-1:2005, 6.2.7(5): St Venant shear stress tau_t,Ed, Pa (an estimate).
+    """EN 1993-1-1:2005, 6.2.7(5).
 
-    Used to judge whether T_Ed is negligible, not to design for it. Open sections (I, GENERIC):
+    St Venant shear stress tau_t,Ed, Pa, as an estimate. Used to judge whether T_Ed is negligible, not to design for it. Open sections (I, GENERIC):
     |T| t_max / I_t; RHS: Bredt, |T| / (2 A_m t) with A_m = (h - t)(b - t); CHS: |T| (d / 2) / I_t
     with d = h (common knowledge of elastic torsion). NaN where data is missing.
     """
