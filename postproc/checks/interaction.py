@@ -123,18 +123,20 @@ def _common(rows: MemberRows) -> dict:
         _add(reason, np.isnan(np.asarray(b[key], dtype=float)),
              f"{name} not available (buckling length or section data missing)")
     _add(reason, np.isnan(chi_LT), "chi_LT not available (LTB length or M_cr missing)")
-    return {"b": b, "d": d, "sec": sec, "cls": cls, "twist": twist, "ltb": ltb, "chi_LT": chi_LT,
+    # Lowest elastic critical force: flexural, and torsional where the member may twist.
+    N_cr_min = np.fmin(np.asarray(b["N_cr_y_N"], float), np.asarray(b["N_cr_z_N"], float))
+    N_cr_min = np.where(twist, np.fmin(N_cr_min, np.asarray(b["N_cr_T_N"], float)), N_cr_min)
+    beyond = d["N_Ed"] >= N_cr_min
+    return {"beyond": beyond, "N_cr_min": N_cr_min, "b": b, "d": d, "sec": sec, "cls": cls, "twist": twist, "ltb": ltb, "chi_LT": chi_LT,
             "res": res, "x_seg": x_seg, "seg_note": seg_note, "reason": reason}
 
 
 def _finish(rows: MemberRows, c: dict, eq: dict[str, np.ndarray], label: str, clause: str,
             values: dict[str, np.ndarray], reason: np.ndarray) -> CheckBlock:
     """Utilisation and the block; a NaN sum never passes."""
-    d, b = c["d"], c["b"]
-    N_cr_min = np.fmin(np.asarray(b["N_cr_y_N"], float), np.asarray(b["N_cr_z_N"], float))
+    d, beyond, N_cr_min = c["d"], c["beyond"], c["N_cr_min"]
     with np.errstate(invalid="ignore", divide="ignore"):
-        beyond = d["N_Ed"] >= N_cr_min
-        # At or above the elastic critical force the member cannot carry N_Ed at all: report
+        # At or above an elastic critical force the member cannot carry N_Ed at all: report
         # the failure (at least N_Ed / N_cr >= 1) rather than amplification factors of no meaning.
         util = np.where(beyond, np.fmax(eq["total"], d["N_Ed"] / N_cr_min), eq["total"])
     reason = reason.copy()
@@ -256,11 +258,10 @@ def _annex_a_blocks(rows: MemberRows, c: dict, suffix: str) -> list[CheckBlock]:
     _add(reason, np.isnan(f_y0["C_m0"]) | np.isnan(f_z0["C_m0"]),
          "moment diagram could not be read (missing moments at stations)")
     _add(reason, twist & np.isnan(lam_0), "M_cr,0 not available for lambda_bar_0 (Annex A)")
-    _add(reason, twist & np.isnan(limit) & ~np.isnan(N_cr_T),
-         "N_Ed reaches N_cr,z or N_cr,T: the lambda_bar_0 limit of Table A.1 has no value")
     _add(reason, twist & np.isnan(N_cr_T), "N_cr,T not available (Annex A)")
-    _add(reason, ~np.isnan(cls) & (cls < 4) & (N_Ed < np.fmin(N_cr_y, N_cr_z))
-         & (np.isnan(k["k_yy"]) | np.isnan(k["k_zz"])),
+    # Rows at or above N_cr fail in _finish; their Annex A factors have no meaning.
+    _add(reason, ~c["beyond"] & ~np.isnan(cls) & (cls < 4)
+         & (np.isnan(k["k_yy"]) | np.isnan(k["k_zz"]) | np.isnan(limit)),
          "Annex A factors could not be evaluated (section properties missing)")
     values = {**_shared_values(c, k), "C_my_0": f_y0["C_m0"], "C_mz_0": f_z0["C_m0"],
               "C_my_0_row": f_y0["C_m0_row"], "C_mz_0_row": f_z0["C_m0_row"],
