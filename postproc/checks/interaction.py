@@ -280,7 +280,9 @@ def _annex_a_blocks(rows: MemberRows, c: dict, suffix: str) -> list[CheckBlock]:
 
 
 def interaction_checks(rows: MemberRows) -> list[CheckBlock]:
-    """EN 1993-1-1:2005, 6.3.3(4), eqs. (6.61) and (6.62), with Annex A and/or Annex B.
+    """EN 1993-1-1:2005, 6.3.3(4), eqs. (6.61) and (6.62).
+
+    Interaction factors from Annex A, Annex B or both (`settings.annex`).
 
     Returns two blocks ('interaction 6.61', 'interaction 6.62') for annex 'A' or 'B', four for
     'both' (named '... Annex A' and '... Annex B').

@@ -15,7 +15,9 @@ import numpy as np
 
 
 def lambda_bar_0(W_y: np.ndarray, f_y: np.ndarray, M_cr_0: np.ndarray) -> np.ndarray:
-    """EN 1993-1-1:2005, Annex A, Table A.1 (lambda_bar_0, LTB slenderness for uniform moment).
+    """EN 1993-1-1:2005, Annex A, Table A.1.
+
+    lambda_bar_0, LTB slenderness for uniform moment.
 
     lambda_bar_0 = sqrt(W_y f_y / M_cr,0), M_cr,0 the elastic critical moment for uniform bending.
     """
@@ -25,8 +27,9 @@ def lambda_bar_0(W_y: np.ndarray, f_y: np.ndarray, M_cr_0: np.ndarray) -> np.nda
 
 def lambda_bar_0_limit(C_1: np.ndarray, N_Ed: np.ndarray, N_cr_z: np.ndarray,
                        N_cr_TF: np.ndarray) -> np.ndarray:
-    """EN 1993-1-1:2005, Annex A, Table A.1 (limit 0.2 sqrt(C_1) ((1 - N_Ed/N_cr,z)(1 -
-    N_Ed/N_cr,TF))^(1/4) on lambda_bar_0).
+    """EN 1993-1-1:2005, Annex A, Table A.1.
+
+    The limit on lambda_bar_0: 0.2 sqrt(C_1) ((1 - N_Ed/N_cr,z)(1 - N_Ed/N_cr,TF))^(1/4).
 
     NaN where N_Ed reaches N_cr,z or N_cr,TF (the fourth root has no real value).
     """
@@ -39,7 +42,9 @@ def C_m_annex_a(*, C_my_0: np.ndarray, C_mz_0: np.ndarray, lambda_bar_0: np.ndar
                 lambda_bar_0_limit: np.ndarray, epsilon_y: np.ndarray, a_LT: np.ndarray,
                 N_Ed: np.ndarray, N_cr_z: np.ndarray, N_cr_T: np.ndarray
                 ) -> dict[str, np.ndarray]:
-    """EN 1993-1-1:2005, Annex A, Table A.1 (C_my, C_mz, C_mLT from C_my,0 and C_mz,0).
+    """EN 1993-1-1:2005, Annex A, Table A.1.
+
+    C_my, C_mz, C_mLT from C_my,0 and C_mz,0.
 
     lambda_bar_0 <= limit: C_my = C_my,0, C_mz = C_mz,0, C_mLT = 1.0.
     lambda_bar_0 > limit: C_my = C_my,0 + (1 - C_my,0) sqrt(eps_y) a_LT / (1 + sqrt(eps_y) a_LT),
@@ -70,7 +75,9 @@ def auxiliary_terms(*, N_Ed: np.ndarray, M_y_Ed: np.ndarray, M_z_Ed: np.ndarray,
                     W_pl_y: np.ndarray, W_pl_z: np.ndarray, W_el_y: np.ndarray,
                     W_el_z: np.ndarray, I_y: np.ndarray, I_T: np.ndarray,
                     gamma_M0: float = 1.00, gamma_M1: float = 1.00) -> dict[str, np.ndarray]:
-    """EN 1993-1-1:2005, Annex A, Table A.1 (auxiliary terms mu, w, n_pl, a_LT .. e_LT, C_ij).
+    """EN 1993-1-1:2005, Annex A, Table A.1.
+
+    Auxiliary terms mu, w, n_pl, a_LT .. e_LT, C_ij.
 
     mu_i = (1 - N_Ed/N_cr,i) / (1 - chi_i N_Ed/N_cr,i); w_i = W_pl,i / W_el,i <= 1.5;
     n_pl = N_Ed / (N_Rk / gamma_M1) with N_Rk = A f_y; a_LT = 1 - I_T/I_y >= 0;
@@ -133,7 +140,9 @@ def k_factors_annex_a(*, N_Ed: np.ndarray, N_cr_y: np.ndarray, N_cr_z: np.ndarra
                       mu_z: np.ndarray, w_y: np.ndarray, w_z: np.ndarray, C_yy: np.ndarray,
                       C_yz: np.ndarray, C_zy: np.ndarray, C_zz: np.ndarray,
                       section_class: np.ndarray) -> dict[str, np.ndarray]:
-    """EN 1993-1-1:2005, Annex A, Table A.1 (k_yy, k_yz, k_zy, k_zz, class 1-2 and class 3).
+    """EN 1993-1-1:2005, Annex A, Table A.1.
+
+    k_yy, k_yz, k_zy, k_zz, class 1-2 and class 3.
 
     Elastic (class 3) values: k_yy = C_my C_mLT mu_y / (1 - N_Ed/N_cr,y),
     k_yz = C_mz mu_y / (1 - N_Ed/N_cr,z), k_zy = C_my C_mLT mu_z / (1 - N_Ed/N_cr,y),

@@ -17,7 +17,9 @@ I_SECTION, HOLLOW, UNKNOWN_SHAPE = "I", "hollow", "unknown"
 def resistances_table_6_7(section_class: np.ndarray, f_y: np.ndarray, A: np.ndarray,
                           W_pl_y: np.ndarray, W_pl_z: np.ndarray, W_el_y: np.ndarray,
                           W_el_z: np.ndarray) -> dict[str, np.ndarray]:
-    """EN 1993-1-1:2005, 6.3.3(4), Table 6.7 (N_Rk, M_i,Rk and Delta M_i,Ed by section class).
+    """EN 1993-1-1:2005, 6.3.3(4), Table 6.7.
+
+    N_Rk, M_i,Rk and Delta M_i,Ed by section class.
 
     Class 1 and 2: A f_y, W_pl f_y; class 3: A f_y, W_el f_y; Delta M_y,Ed = Delta M_z,Ed = 0 for
     classes 1 to 3. Class 4 (effective section) is not covered: NaN, as is an unknown class.
@@ -82,14 +84,19 @@ def interaction_6_62(N_Ed: np.ndarray, M_y_Ed: np.ndarray, M_z_Ed: np.ndarray, *
 
 def n_ratio(N_Ed: np.ndarray, chi: np.ndarray, N_Rk: np.ndarray, *,
             gamma_M1: float = 1.00) -> np.ndarray:
-    """EN 1993-1-1:2005, Annex B, Table B.1 (n_y or n_z = N_Ed / (chi N_Rk / gamma_M1))."""
+    """EN 1993-1-1:2005, Annex B, Table B.1.
+
+    n_y or n_z = N_Ed / (chi N_Rk / gamma_M1).
+    """
     with np.errstate(invalid="ignore", divide="ignore"):
         return N_Ed / (chi * N_Rk / gamma_M1)
 
 
 def k_yy_table_b1(C_my: np.ndarray, lambda_bar_y: np.ndarray, n_y: np.ndarray,
                   section_class: np.ndarray) -> np.ndarray:
-    """EN 1993-1-1:2005, Annex B, Table B.1 (k_yy; the same in Table B.2).
+    """EN 1993-1-1:2005, Annex B, Table B.1.
+
+    k_yy; the same in Table B.2.
 
     Class 1-2: C_my (1 + (lambda_bar_y - 0.2) n_y) <= C_my (1 + 0.8 n_y).
     Class 3: C_my (1 + 0.6 lambda_bar_y n_y) <= C_my (1 + 0.6 n_y). Other classes: NaN.
@@ -102,7 +109,9 @@ def k_yy_table_b1(C_my: np.ndarray, lambda_bar_y: np.ndarray, n_y: np.ndarray,
 
 def k_zz_table_b1(C_mz: np.ndarray, lambda_bar_z: np.ndarray, n_z: np.ndarray,
                   section_class: np.ndarray, section_kind: np.ndarray) -> np.ndarray:
-    """EN 1993-1-1:2005, Annex B, Table B.1 (k_zz; the same in Table B.2).
+    """EN 1993-1-1:2005, Annex B, Table B.1.
+
+    k_zz; the same in Table B.2.
 
     Class 1-2, I-sections: C_mz (1 + (2 lambda_bar_z - 0.6) n_z) <= C_mz (1 + 1.4 n_z);
     class 1-2, RHS: C_mz (1 + (lambda_bar_z - 0.2) n_z) <= C_mz (1 + 0.8 n_z);
@@ -121,13 +130,18 @@ def k_zz_table_b1(C_mz: np.ndarray, lambda_bar_z: np.ndarray, n_z: np.ndarray,
 
 
 def k_yz_table_b1(k_zz: np.ndarray, section_class: np.ndarray) -> np.ndarray:
-    """EN 1993-1-1:2005, Annex B, Table B.1 (k_yz = 0.6 k_zz class 1-2, k_zz class 3)."""
+    """EN 1993-1-1:2005, Annex B, Table B.1.
+
+    k_yz = 0.6 k_zz class 1-2, k_zz class 3.
+    """
     c = np.asarray(section_class, dtype=float)
     return np.select([(c == 1) | (c == 2), c == 3], [0.6 * k_zz, k_zz], default=np.nan)
 
 
 def k_zy_table_b1(k_yy: np.ndarray, section_class: np.ndarray) -> np.ndarray:
-    """EN 1993-1-1:2005, Annex B, Table B.1 (k_zy = 0.6 k_yy class 1-2, 0.8 k_yy class 3).
+    """EN 1993-1-1:2005, Annex B, Table B.1.
+
+    k_zy = 0.6 k_yy class 1-2, 0.8 k_yy class 3.
 
     The optional k_zy = 0 of the Table B.1 note (I, H and RHS under compression and uniaxial
     bending M_y) is not taken: the table value is kept, which errs on the safe side.
@@ -138,7 +152,9 @@ def k_zy_table_b1(k_yy: np.ndarray, section_class: np.ndarray) -> np.ndarray:
 
 def k_zy_table_b2(C_mLT: np.ndarray, lambda_bar_z: np.ndarray, n_z: np.ndarray,
                   section_class: np.ndarray) -> np.ndarray:
-    """EN 1993-1-1:2005, Annex B, Table B.2 (k_zy, members susceptible to torsional deformations).
+    """EN 1993-1-1:2005, Annex B, Table B.2.
+
+    k_zy, members susceptible to torsional deformations.
 
     Class 1-2: [1 - 0.1 lambda_bar_z n_z / (C_mLT - 0.25)] >= [1 - 0.1 n_z / (C_mLT - 0.25)],
     and for lambda_bar_z < 0.4: k_zy = 0.6 + lambda_bar_z <= 1 - 0.1 lambda_bar_z n_z /
@@ -159,7 +175,9 @@ def k_factors_annex_b(*, C_my: np.ndarray, C_mz: np.ndarray, C_mLT: np.ndarray,
                       lambda_bar_y: np.ndarray, lambda_bar_z: np.ndarray, n_y: np.ndarray,
                       n_z: np.ndarray, section_class: np.ndarray, section_kind: np.ndarray,
                       torsion_susceptible: np.ndarray) -> dict[str, np.ndarray]:
-    """EN 1993-1-1:2005, Annex B, Tables B.1 and B.2 (k_yy, k_yz, k_zy, k_zz).
+    """EN 1993-1-1:2005, Annex B, Tables B.1 and B.2.
+
+    k_yy, k_yz, k_zy, k_zz.
 
     Table B.2 (k_zy with C_mLT) where `torsion_susceptible`, Table B.1 elsewhere.
 

@@ -53,7 +53,9 @@ def _last(values: np.ndarray, n: np.ndarray) -> np.ndarray:
 
 def diagram_shape(x: np.ndarray, M: np.ndarray, *, linear_tol: float = 1e-3,
                   concentrated_share: float = 0.95) -> dict[str, np.ndarray]:
-    """EN 1993-1-1:2005, Annex B, Table B.3 (moment diagram: psi, M_h, M_s, alpha_s, alpha_h).
+    """EN 1993-1-1:2005, Annex B, Table B.3.
+
+    Moment diagram: psi, M_h, M_s, alpha_s, alpha_h.
 
     Args:
         x: (R, S) stations along the member, m; NaN padding.
@@ -148,7 +150,9 @@ def _span_load(xs: np.ndarray, Ms: np.ndarray, concentrated_share: float) -> np.
 
 def C_m_table_b3(psi: np.ndarray, alpha_s: np.ndarray, alpha_h: np.ndarray, shape: np.ndarray,
                  load: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
-    """EN 1993-1-1:2005, Annex B, Table B.3 (equivalent uniform moment factors C_my, C_mz, C_mLT).
+    """EN 1993-1-1:2005, Annex B, Table B.3.
+
+    Equivalent uniform moment factors C_my, C_mz, C_mLT.
 
     Args:
         psi, alpha_s, alpha_h, shape, load: as returned by `diagram_shape`.
@@ -208,7 +212,9 @@ def sway_flags(sway: np.ndarray | None, n: int) -> tuple[np.ndarray, np.ndarray]
 
 def C_m_annex_b(x: np.ndarray, M: np.ndarray, *, sway: np.ndarray | None = None,
                 **shape_options: float) -> dict[str, np.ndarray]:
-    """EN 1993-1-1:2005, Annex B, Table B.3 (C_my, C_mz or C_mLT from a sampled moment diagram).
+    """EN 1993-1-1:2005, Annex B, Table B.3.
+
+    C_my, C_mz or C_mLT from a sampled moment diagram.
 
     Args:
         x, M: (R, S) stations (m) and moments (N*m), NaN padding.
@@ -264,7 +270,9 @@ def chord_deflection(x: np.ndarray, M: np.ndarray, EI: np.ndarray) -> np.ndarray
 
 
 def C_mi_0_linear(psi: np.ndarray, N_Ed: np.ndarray, N_cr_i: np.ndarray) -> np.ndarray:
-    """EN 1993-1-1:2005, Annex A, Table A.2 (C_mi,0 for end moments psi M).
+    """EN 1993-1-1:2005, Annex A, Table A.2.
+
+    C_mi,0 for end moments psi M.
 
     C_mi,0 = 0.79 + 0.21 psi_i + 0.36 (psi_i - 0.33) N_Ed / N_cr,i; N_Ed compression, positive.
     """
@@ -273,7 +281,9 @@ def C_mi_0_linear(psi: np.ndarray, N_Ed: np.ndarray, N_cr_i: np.ndarray) -> np.n
 
 def C_mi_0_general(delta_x: np.ndarray, M_i_Ed: np.ndarray, E: np.ndarray, I_i: np.ndarray,
                    L: np.ndarray, N_Ed: np.ndarray, N_cr_i: np.ndarray) -> np.ndarray:
-    """EN 1993-1-1:2005, Annex A, Table A.2 (C_mi,0 for a span loaded member).
+    """EN 1993-1-1:2005, Annex A, Table A.2.
+
+    C_mi,0 for a span loaded member.
 
     C_mi,0 = 1 + (pi^2 E I_i |delta_x| / (L^2 |M_i,Ed(x)|) - 1) N_Ed / N_cr,i, with |delta_x| the
     largest deflection and |M_i,Ed(x)| the largest first-order moment along the member.
@@ -286,7 +296,9 @@ def C_mi_0_general(delta_x: np.ndarray, M_i_Ed: np.ndarray, E: np.ndarray, I_i: 
 def C_mi_0_annex_a(x: np.ndarray, M: np.ndarray, *, E: np.ndarray, I_i: np.ndarray,
                    L: np.ndarray, N_Ed: np.ndarray, N_cr_i: np.ndarray,
                    **shape_options: float) -> dict[str, np.ndarray]:
-    """EN 1993-1-1:2005, Annex A, Table A.2 (C_my,0 or C_mz,0 from a sampled moment diagram).
+    """EN 1993-1-1:2005, Annex A, Table A.2.
+
+    C_my,0 or C_mz,0 from a sampled moment diagram.
 
     A linear diagram takes the end-moment row; a span loaded one the general row, with
     |delta_x| from `chord_deflection`. A diagram with no moment takes psi = 1 (the end-moment
