@@ -47,7 +47,6 @@ NM_NEEDS_GEOMETRY = ("no section dimensions (GENERIC section): the N-M formulas 
                      "the geometry")
 SHEAR_UNKNOWN = "shear resistance unknown (A_v or f_y missing): shear reduction of 6.2.8 unknown"
 TORSION = "torsion T_Ed not negligible: torsional resistance (6.2.7) not covered by this tool"
-TEXT_COLUMNS = ("shape", "fabrication")
 
 
 class _Rows:
@@ -66,6 +65,10 @@ class _Rows:
         self.f_u = np.asarray(rows.f_u, dtype=float)[:, None]
         cls = np.asarray(rows.info.get("section_class", np.zeros((R, S))), dtype=float)
         part = np.asarray(rows.info.get("class_part", np.full((R, S), "", object)), dtype=object)
+        for name, arr in (("section_class", cls), ("class_part", part)):
+            if arr.shape not in ((R,), (R, 1), (R, S)):
+                raise ValueError(f"rows.info['{name}'] has shape {arr.shape}; expected ({R}, {S})"
+                                 f" (rows, stations) or ({R},)")
         self.cls = np.nan_to_num(np.broadcast_to(cls.reshape(R, -1), (R, S)), nan=0.0)
         self.part = np.broadcast_to(part.reshape(R, -1), (R, S))
         self.plastic, self.elastic = cs.is_plastic(self.cls), cs.is_elastic(self.cls)
@@ -98,7 +101,8 @@ class _Rows:
         bad = ~np.isnan(A_net) & ~((A_net > 0.0) & ~(A_net > A * (1.0 + 1e-9)))
         if bad.any():
             i = int(np.argmax(bad))
-            raise InputError(f"member {self.rows.member[i]}: net area A_net = {A_net[i]:.6g} m2 "
+            raise InputError(f"member {self.rows.member[i]}, combination "
+                             f"{self.rows.combination[i]}: net area A_net = {A_net[i]:.6g} m2 "
                              f"is not allowed; it must satisfy 0 < A_net <= A = {A[i]:.6g} m2 "
                              "(NaN where the member has no holes)", row=i, field="A_net")
 

@@ -381,3 +381,18 @@ def test_rhs_shear_both_directions():
     close(b["shear y"].utilisation, 200e3 / V_pl)
     # h_w / t of the walls: (200 - 20) / 10 = 18, far below 72 eps
     close(b["shear y"].values["web_slenderness_ratio"], 18 / (72 * np.sqrt(235 / 355)))
+
+
+def test_class_array_of_wrong_shape_is_refused():
+    rows = make_rows([IPE300], My=1e3)
+    rows.info["section_class"] = np.ones((1, 5), dtype=np.int8)
+    with pytest.raises(ValueError, match=r"section_class.*expected \(1, 3\)"):
+        fam.cross_section_checks(rows)
+
+
+def test_missing_class_is_unknown_not_a_pass():
+    rows = make_rows([IPE300], N=-10e3, My=1e3)
+    del rows.info["section_class"]
+    b = blocks(rows)
+    assert b["compression"].reason[0] == fam.CLASS_UNKNOWN
+    assert b["bending y-y"].status()[0] == NOT_EVALUATED
