@@ -367,9 +367,10 @@ def _torsion(c: _Rows) -> CheckBlock:
 def cross_section_checks(rows: MemberRows) -> list[CheckBlock]:
     """EN 1993-1-1:2005, 6.2.
 
-    Every cross-section check of every row, at every station. Returns one CheckBlock per check, in the order tension, compression, bending y-y,
-    bending z-z, shear z, shear y, shear buckling, bending and shear, bending and axial force,
-    linear sum, torsion (see the module docstring for what each means and when it applies).
+    Every cross-section check of every row, at every station. Returns one CheckBlock per check,
+    in the order tension, compression, bending y-y, bending z-z, shear z, shear y, shear
+    buckling, bending and shear, bending and axial force, linear sum, torsion (see the module
+    docstring for what each means and when it applies).
 
     Raises:
         InputError: a net area outside 0 < A_net <= A.

@@ -393,8 +393,9 @@ def M_N_z_Rd_RHS(M_pl_z_Rd: ArrayLike, n: ArrayLike, a_f: ArrayLike) -> Array:
 def M_N_Rd_CHS(M_pl_Rd: ArrayLike, n: ArrayLike) -> Array:
     """EN 1993-1-1:2005, 6.2.9.1(2), eq. (6.31).
 
-    M_N,Rd of a circular hollow section, M_N,Rd = M_pl,Rd (1 - n^1.7), N*m. Not printed in EN 1993-1-1; the usual expression of
-    European design guidance for class 1 and 2 CHS (from memory).
+    M_N,Rd of a circular hollow section, M_N,Rd = M_pl,Rd (1 - n^1.7), N*m. Not printed in
+    EN 1993-1-1; the usual expression of European design guidance for class 1 and 2 CHS (from
+    memory).
     """
     return _a(M_pl_Rd) * (1.0 - np.clip(_a(n), 0.0, None) ** 1.7)
 
@@ -473,9 +474,10 @@ def tau_t_Ed(T_Ed: ArrayLike, shape: ArrayLike, I_t: ArrayLike, t_max: ArrayLike
              b: ArrayLike, t: ArrayLike) -> Array:
     """EN 1993-1-1:2005, 6.2.7(5).
 
-    St Venant shear stress tau_t,Ed, Pa, as an estimate. Used to judge whether T_Ed is negligible, not to design for it. Open sections (I, GENERIC):
-    |T| t_max / I_t; RHS: Bredt, |T| / (2 A_m t) with A_m = (h - t)(b - t); CHS: |T| (d / 2) / I_t
-    with d = h (common knowledge of elastic torsion). NaN where data is missing.
+    St Venant shear stress tau_t,Ed, Pa, as an estimate. Used to judge whether T_Ed is
+    negligible, not to design for it. Open sections (I, GENERIC): |T| t_max / I_t; RHS: Bredt,
+    |T| / (2 A_m t) with A_m = (h - t)(b - t); CHS: |T| (d / 2) / I_t with d = h (common
+    knowledge of elastic torsion). NaN where data is missing.
     """
     shape = np.asarray(shape)
     T, I_t, t_max, h, b, t = (_a(v) for v in (T_Ed, I_t, t_max, h, b, t))

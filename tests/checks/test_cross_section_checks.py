@@ -329,7 +329,8 @@ def hollow(shape, h, b, t, A, I_y, I_z, W_pl_y, W_pl_z, Av_z, Av_y, I_t):
 # A_v = A h / (b + h), 6.2.6(3)(f)
 SHS200 = hollow("RHS", 200 * MM, 200 * MM, 10 * MM, 74.9 * CM2, 4470 * CM4, 4470 * CM4,
                 531 * CM3, 531 * CM3, 74.9 * CM2 / 2, 74.9 * CM2 / 2, 7230 * CM4)
-# CHS 168.3x8: exact ring properties (handbook: A 40.3 cm2, W_pl 206 cm3); A_v = 2 A / pi (6.2.6(3)(g))
+# CHS 168.3x8: exact ring properties (handbook: A 40.3 cm2, W_pl 206 cm3);
+# A_v = 2 A / pi, 6.2.6(3)(g)
 _d, _di = 168.3 * MM, 152.3 * MM
 _A, _I = np.pi / 4 * (_d**2 - _di**2), np.pi / 64 * (_d**4 - _di**4)
 CHS168 = hollow("CHS", _d, _d, 8 * MM, _A, _I, _I, (_d**3 - _di**3) / 6, (_d**3 - _di**3) / 6,

@@ -243,7 +243,8 @@ def test_exponents_I_and_CHS():
 
 def test_chs_from_memory():
     # M_N,Rd = M_pl,Rd (1 - n^1.7), design guidance for class 1 and 2 CHS (from memory)
-    close(cs.M_N_Rd_CHS(100e3, np.array([0.0, 0.5, 1.0])), 100e3 * (1 - np.array([0, 0.5, 1]) ** 1.7))
+    n = np.array([0.0, 0.5, 1.0])
+    close(cs.M_N_Rd_CHS(100e3, n), 100e3 * (1 - n**1.7))
 
 
 def test_utilisation_N_M_matches_criteria():
