@@ -152,9 +152,19 @@ def _ndf(ops, node: int) -> int:
     return int(value[0] if isinstance(value, (list, tuple)) else value)
 
 
+def _positional(args: tuple) -> list:
+    """Arguments before the first option flag ('-release', '-mass', ...)."""
+    out = []
+    for a in args:
+        if isinstance(a, str):
+            break
+        out.append(a)
+    return out
+
+
 def _section_tag(kind: str, args: tuple, watched: Watched, ndm: int) -> float:
     """Section tag of an element from its command arguments; NaN when it has none."""
-    numbers = [a for a in args if not isinstance(a, str)]
+    numbers = _positional(args)
     if kind == "elasticBeamColumn":
         # (i, j, secTag, transfTag) when built from a section; (i, j, A, E, ...) otherwise
         return float(numbers[2]) if len(numbers) == 4 else np.nan
@@ -173,7 +183,7 @@ def _section_tag(kind: str, args: tuple, watched: Watched, ndm: int) -> float:
 def _stiffness(kind: str, args: tuple, section_tag: float, watched: Watched, ndm: int
                ) -> tuple[float, float]:
     """(I about OpenSees local y, I about local z) where the model states them, else NaN."""
-    numbers = [a for a in args if not isinstance(a, str)]
+    numbers = _positional(args)
     if kind == "elasticBeamColumn" and np.isnan(section_tag):
         if ndm == 2 and len(numbers) >= 5:   # i j A E Iz
             return np.nan, float(numbers[4])
@@ -182,7 +192,7 @@ def _stiffness(kind: str, args: tuple, section_tag: float, watched: Watched, ndm
     if not np.isnan(section_tag):
         section = watched.sections.get(int(section_tag))
         if section and section[0] == "Elastic":
-            values = [a for a in section[1] if not isinstance(a, str)]
+            values = _positional(section[1])
             if ndm == 2 and len(values) >= 3:     # E A Iz
                 return np.nan, float(values[2])
             if ndm == 3 and len(values) >= 4:     # E A Iz Iy G J

@@ -17,6 +17,7 @@ from __future__ import annotations
 import os
 import sys
 from concurrent.futures import ProcessPoolExecutor
+from concurrent.futures.process import BrokenProcessPool
 from dataclasses import dataclass
 import multiprocessing
 
@@ -196,21 +197,32 @@ class Progress:
 
 def run_jobs(ops, captured: Captured, jobs: list[Job], *, script: str, builder: str | None,
              pdelta: bool, processes: int | None = None) -> list[Outcome]:
-    """Run every job; in two processes when there are enough jobs and cores to pay for it.
-
-    Each worker builds its own copy of the model (openseespy keeps one domain per process).
+    """Run every job. P-delta jobs run in two processes when there are enough of them and two
+    cores (linear jobs are too quick to pay for a process). Each worker builds its own copy of
+    the model (openseespy keeps one domain per process); if the pool breaks, the jobs run here.
     """
     cores = processes if processes is not None else min(2, os.cpu_count() or 1)
     progress = Progress(len(jobs), "framesweep: analyses")
-    if cores < 2 or len(jobs) < PARALLEL_FROM:
-        outcomes = []
-        for job in jobs:
-            outcomes.append(solve(ops, captured, job))
-            progress.step()
-        return outcomes
-    context = multiprocessing.get_context("spawn")
+    if cores >= 2 and pdelta and len(jobs) >= PARALLEL_FROM:
+        try:
+            return _in_pool(jobs, cores, progress, (script, builder, pdelta))
+        except (BrokenProcessPool, OSError, RuntimeError) as exc:
+            print(f"framesweep: analyses in {cores} processes failed ({type(exc).__name__}); "
+                  "running them one by one in this process", file=sys.stderr)
+            progress = Progress(len(jobs), "framesweep: analyses")
+    outcomes = []
+    for job in jobs:
+        outcomes.append(solve(ops, captured, job))
+        progress.step()
+    return outcomes
+
+
+def _in_pool(jobs: list[Job], cores: int, progress: Progress, initargs: tuple) -> list[Outcome]:
+    # fork where there is one: a spawned worker would re-import the caller's main module
+    methods = multiprocessing.get_all_start_methods()
+    context = multiprocessing.get_context("fork" if "fork" in methods else "spawn")
     with ProcessPoolExecutor(max_workers=cores, mp_context=context, initializer=_worker_start,
-                             initargs=(script, builder, pdelta)) as pool:
+                             initargs=initargs) as pool:
         outcomes = []
         for outcome in pool.map(_worker_job, jobs, chunksize=max(1, len(jobs) // (4 * cores))):
             outcomes.append(outcome)
