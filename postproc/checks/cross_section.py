@@ -69,8 +69,9 @@ class _Rows:
             if arr.shape not in ((R,), (R, 1), (R, S)):
                 raise ValueError(f"rows.info['{name}'] has shape {arr.shape}; expected ({R}, {S})"
                                  f" (rows, stations) or ({R},)")
-        self.cls = np.nan_to_num(np.broadcast_to(cls.reshape(R, -1), (R, S)), nan=0.0)
-        self.part = np.broadcast_to(part.reshape(R, -1), (R, S))
+        cls, part = (a[:, None] if a.ndim == 1 else a for a in (cls, part))
+        self.cls = np.nan_to_num(np.broadcast_to(cls, (R, S)), nan=0.0)
+        self.part = np.broadcast_to(part, (R, S))
         self.plastic, self.elastic = cs.is_plastic(self.cls), cs.is_elastic(self.cls)
         A_net = np.asarray(rows.info.get("A_net", np.full(R, np.nan)), dtype=float)
         self._check_A_net(A_net)

@@ -397,3 +397,17 @@ def test_missing_class_is_unknown_not_a_pass():
     b = blocks(rows)
     assert b["compression"].reason[0] == fam.CLASS_UNKNOWN
     assert b["bending y-y"].status()[0] == NOT_EVALUATED
+
+
+def test_no_rows_gives_empty_blocks():
+    b = fam.cross_section_checks(make_rows([]))
+    assert len(b) == 11 and all(k.utilisation.shape == (0,) for k in b)
+
+
+def test_class_per_row_broadcasts_over_stations():
+    rows = make_rows([IPE300, IPE300], My=100e3)
+    rows.info["section_class"] = np.array([2, 3], dtype=np.int8)
+    rows.info["class_part"] = np.array(["flange", "web"], dtype=object)
+    m = blocks(rows)["bending y-y"]
+    close(m.values["M_c_y_Rd_Nm"], [IPE300["W_pl_y"] * S355, IPE300["W_el_y"] * S355])
+    assert list(m.values["class_part"]) == ["flange", "web"]
