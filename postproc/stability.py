@@ -218,9 +218,6 @@ def storey_alpha(frame: Frame, results: Results, members: Members, combos: list[
     f["element"] = f["element"].astype(str)
     f["combination"] = f["combination"].astype(str)
     f = f[f["element"].isin(low_elem) & f["combination"].isin(combos)]
-    first_station = f.groupby(["combination", "element"])["x_m"].transform("min")
-    last_station = f.groupby(["combination", "element"])["x_m"].transform("max")
-    d = (f.set_index(["combination", "element"]) if len(f) else f)
     u = disp.copy()
     u["combination"], u["node"] = u["combination"].astype(str), u["node"].astype(str)
     u = u.set_index(["combination", "node"])
@@ -260,7 +257,6 @@ def storey_alpha(frame: Frame, results: Results, members: Members, combos: list[
             notes[c] = f"lowest of {len(np.unique(storey))} storey(s); confirm 5.2.1(4)B applies"
         else:
             notes[c] = "not used (no horizontal load or no storey drift)"
-    del d, first_station, last_station
     return alpha, notes
 
 
