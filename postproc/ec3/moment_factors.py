@@ -243,29 +243,44 @@ def C_m_annex_b(x: np.ndarray, M: np.ndarray, *, sway: np.ndarray | None = None,
             "sway": mode}
 
 
-def chord_deflection(x: np.ndarray, M: np.ndarray, EI: np.ndarray) -> np.ndarray:
+def chord_deflection(x: np.ndarray, M: np.ndarray, EI: np.ndarray, *,
+                     curved: np.ndarray | None = None) -> np.ndarray:
     """Largest deflection |delta_x| relative to the chord, from the moment diagram (Table A.2).
 
-    Integrates the curvature M / (E I) twice along the member, taking M linear between stations
-    (exact for concentrated loads, slightly low between stations for distributed ones), with
-    zero deflection at both ends: the member as a single span between its end nodes, as it is
-    checked. Returns (R,) in m; NaN where the diagram cannot be read.
+    Integrates the curvature M / (E I) twice along the member with zero deflection at both ends:
+    the member as a single span between its end nodes, as it is checked. Between stations M is
+    taken linear (exact for concentrated loads) and, where `curved` is True (a distributed span
+    load), a parabola whose second derivative is estimated from the neighbouring slopes (exact
+    for a uniform load). The largest value at the stations is returned, (R,) in m; NaN where the
+    diagram cannot be read.
     """
     xs, Ms, n, bad = _compact(x, M)
+    R = xs.shape[0]
     kappa = Ms / np.asarray(EI, dtype=float)[:, None]
     dx = np.nan_to_num(np.diff(xs, axis=1), nan=0.0)
     k0 = np.nan_to_num(kappa[:, :-1])
     k1 = np.nan_to_num(kappa[:, 1:])
-    # Rotation and deflection at each station, exact for curvature linear over each step.
-    d_theta = dx * (k0 + k1) / 2
-    theta = np.concatenate([np.zeros((xs.shape[0], 1)), np.cumsum(d_theta, axis=1)], axis=1)
-    d_w = theta[:, :-1] * dx + dx ** 2 * (2 * k0 + k1) / 6
-    w = np.concatenate([np.zeros((xs.shape[0], 1)), np.cumsum(d_w, axis=1)], axis=1)
+    bulge = np.zeros_like(dx)  # curvature's second derivative in each step, 1/m^3
+    if curved is not None and dx.shape[1] >= 2:
+        with np.errstate(invalid="ignore", divide="ignore"):
+            slope = np.where(dx > 0, (k1 - k0) / np.where(dx > 0, dx, 1.0), np.nan)
+            q = (slope[:, 1:] - slope[:, :-1]) / ((dx[:, 1:] + dx[:, :-1]) / 2)  # interior stations
+        pad = np.full((R, 1), np.nan)
+        left, right = np.concatenate([pad, q], axis=1), np.concatenate([q, pad], axis=1)
+        both = np.stack([left, right])
+        count = (~np.isnan(both)).sum(axis=0)
+        mean = np.where(count > 0, np.nansum(both, axis=0) / np.maximum(count, 1), 0.0)
+        bulge = np.where(np.asarray(curved, dtype=bool)[:, None], mean, 0.0)
+    # Rotation and deflection at each station: linear part plus the parabola's share.
+    d_theta = dx * (k0 + k1) / 2 - bulge * dx ** 3 / 12
+    theta = np.concatenate([np.zeros((R, 1)), np.cumsum(d_theta, axis=1)], axis=1)
+    d_w = theta[:, :-1] * dx + dx ** 2 * (2 * k0 + k1) / 6 - bulge * dx ** 4 / 24
+    w = np.concatenate([np.zeros((R, 1)), np.cumsum(d_w, axis=1)], axis=1)
     x_a, x_b = xs[:, :1], _last(xs, n)[:, None]
     w_b = _last(w, n)[:, None]
     with np.errstate(invalid="ignore", divide="ignore"):
         rel = w - w_b * (xs - x_a) / (x_b - x_a)
-    delta = np.nanmax(np.where(np.isnan(xs), -np.inf, np.abs(rel)), axis=1)
+    delta = np.max(np.where(np.isnan(xs), -np.inf, np.abs(rel)), axis=1)
     return np.where(bad, np.nan, delta)
 
 
@@ -301,7 +316,8 @@ def C_mi_0_annex_a(x: np.ndarray, M: np.ndarray, *, E: np.ndarray, I_i: np.ndarr
     C_my,0 or C_mz,0 from a sampled moment diagram.
 
     A linear diagram takes the end-moment row; a span loaded one the general row, with
-    |delta_x| from `chord_deflection`. A diagram with no moment takes psi = 1 (the end-moment
+    |delta_x| from `chord_deflection` (parabolic between stations unless the span load reads
+    as concentrated). A diagram with no moment takes psi = 1 (the end-moment
     row with equal end moments).
 
     Returns:
@@ -309,7 +325,7 @@ def C_mi_0_annex_a(x: np.ndarray, M: np.ndarray, *, E: np.ndarray, I_i: np.ndarr
     """
     shape = diagram_shape(x, M, **shape_options)
     E, I_i = np.asarray(E, dtype=float), np.asarray(I_i, dtype=float)
-    delta = chord_deflection(x, M, E * I_i)
+    delta = chord_deflection(x, M, E * I_i, curved=shape["load"] != CONCENTRATED)
     lin = C_mi_0_linear(shape["psi"], N_Ed, N_cr_i)
     gen = C_mi_0_general(delta, shape["M_max_Nm"], E, I_i, L, N_Ed, N_cr_i)
     kind = shape["shape"]

@@ -236,8 +236,8 @@ def test_table_a2_end_moments(psi: float, expected: float) -> None:
 # The printed special rows of Table A.2 (from memory): simply supported, uniform load
 # 1 + 0.03 N_Ed/N_cr; central point load 1 - 0.18 N_Ed/N_cr. Both follow from the general row with
 # delta = 5 w L^4 / 384 EI (pi^2 * 40/384 = 1.0281) and P L^3 / 48 EI (pi^2 / 12 = 0.8225).
-# Tolerance 0.002 at N_Ed/N_cr = 0.5: the printed coefficients are rounded to 0.01 (0.001 here),
-# and sampling the parabola at 41 stations loses under 0.1 % of the deflection.
+# Tolerance 0.002 at N_Ed/N_cr = 0.5: the printed coefficients are rounded to 0.01 (0.028 and
+# -0.178 before rounding: at most 0.001 here); the deflection itself is exact at the stations.
 A2_TOL = 0.002
 
 
@@ -253,14 +253,34 @@ def test_table_a2_special_rows_from_general_row(diagram, coefficient: float) -> 
     assert r["C_m0_row"][0].startswith("A.2 span load")
 
 
+def test_undetermined_load_errs_on_the_safe_side_in_table_a2() -> None:
+    # Three stations cannot tell a central point load from a UDL; the deflection is then taken
+    # as parabolic, which over-estimates the point-load deflection (5/384 * 8 = 1/9.6 against
+    # 1/12 of M L^2/EI): C_m0 comes out as for a UDL, 1 + 0.028 N/N_cr, above the point-load
+    # value 1 - 0.178 N/N_cr (Table A.2 special rows, see above).
+    x, M = with_point(0.0, 0.0, 60e3, L / 2, n=3)
+    r = mf.C_mi_0_annex_a(x, M, E=np.array([210e9]), I_i=np.array([8356e-8]), L=np.array([L]),
+                          N_Ed=np.array([500e3]), N_cr_i=np.array([1000e3]))
+    assert r["load"][0] == mf.UNDETERMINED
+    assert r["C_m0"][0] == pytest.approx(1 + (np.pi ** 2 * 5 / 48 - 1) * 0.5, rel=1e-12)
+
+
 def test_chord_deflection_closed_forms() -> None:
     EI = np.array([210e9 * 8356e-8])
-    # Simply supported UDL: M_max = w L^2 / 8, delta = 5 w L^4 / (384 EI) (beam tables, common
-    # knowledge). 81 stations: the piecewise-linear curvature loses about 0.02 %.
+    # Simply supported UDL: M_max = w L^2 / 8, delta = 5 w L^4 / (384 EI); fixed ends:
+    # w L^4 / (384 EI) (beam tables, common knowledge). Parabolic steps: exact at 11 stations.
     w = 10e3
-    x, M = with_udl(0.0, 0.0, w * L ** 2 / 8, n=81)
-    assert mf.chord_deflection(x, M, EI)[0] == pytest.approx(5 * w * L ** 4 / (384 * EI[0]),
-                                                             rel=5e-4)
+    x, M = with_udl(0.0, 0.0, w * L ** 2 / 8, n=11)
+    curved = np.array([True])
+    assert mf.chord_deflection(x, M, EI, curved=curved)[0] == pytest.approx(
+        5 * w * L ** 4 / (384 * EI[0]), rel=1e-12)
+    x, M = with_udl(-w * L ** 2 / 12, -w * L ** 2 / 12, w * L ** 2 / 8, n=11)
+    assert mf.chord_deflection(x, M, EI, curved=curved)[0] == pytest.approx(
+        w * L ** 4 / (384 * EI[0]), rel=1e-12)
+    # Straight steps only (curved not given): 11 stations lose 0.8 % of the UDL deflection.
+    x, M = with_udl(0.0, 0.0, w * L ** 2 / 8, n=11)
+    assert mf.chord_deflection(x, M, EI)[0] == pytest.approx(0.992 * 5 * w * L ** 4 / (384 * EI[0]),
+                                                             rel=1e-9)
     # Central point load: delta = P L^3 / (48 EI); linear curvature between stations is exact.
     P = 40e3
     x, M = with_point(0.0, 0.0, P * L / 4, L / 2, n=11)
