@@ -127,8 +127,9 @@ def _common(rows: MemberRows) -> dict:
     N_cr_min = np.fmin(np.asarray(b["N_cr_y_N"], float), np.asarray(b["N_cr_z_N"], float))
     N_cr_min = np.where(twist, np.fmin(N_cr_min, np.asarray(b["N_cr_T_N"], float)), N_cr_min)
     beyond = d["N_Ed"] >= N_cr_min
-    return {"beyond": beyond, "N_cr_min": N_cr_min, "b": b, "d": d, "sec": sec, "cls": cls, "twist": twist, "ltb": ltb, "chi_LT": chi_LT,
-            "res": res, "x_seg": x_seg, "seg_note": seg_note, "reason": reason}
+    return {"b": b, "d": d, "sec": sec, "cls": cls, "twist": twist, "ltb": ltb, "chi_LT": chi_LT,
+            "res": res, "x_seg": x_seg, "seg_note": seg_note, "reason": reason,
+            "beyond": beyond, "N_cr_min": N_cr_min}
 
 
 def _finish(rows: MemberRows, c: dict, eq: dict[str, np.ndarray], label: str, clause: str,

@@ -29,12 +29,14 @@ import pandas as pd
 LINEAR, SPAN_SMALLER, SPAN_LARGER, NO_MOMENT, INVALID = (
     "linear", "span moment smaller than end moment", "span moment larger than end moment",
     "no moment", "diagram not readable")
-NONE, DISTRIBUTED, CONCENTRATED, UNDETERMINED = "none", "distributed", "concentrated", "undetermined"
+NONE, DISTRIBUTED, CONCENTRATED, UNDETERMINED = (
+    "none", "distributed", "concentrated", "undetermined")
 
 C_M_SWAY = 0.9  # Table B.3, note: members with a sway buckling mode.
 
 
-def _compact(x: np.ndarray, M: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
+def _compact(x: np.ndarray, M: np.ndarray
+             ) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
     """Sort each row by x with the real stations first; returns x, M, n (real stations), bad rows."""
     x = np.atleast_2d(np.asarray(x, dtype=float))
     M = np.atleast_2d(np.asarray(M, dtype=float))

@@ -194,7 +194,8 @@ def _chi(lam: np.ndarray, alpha: float) -> np.ndarray:
 def _chi_LT(lam: np.ndarray, alpha: float = 0.34) -> np.ndarray:
     """6.3.2.3, eq. (6.57), lambda_LT,0 = 0.4, beta = 0.75, without the factor f."""
     phi = 0.5 * (1 + alpha * (lam - 0.4) + 0.75 * lam ** 2)
-    return np.minimum(np.minimum(1.0, 1 / lam ** 2), 1 / (phi + np.sqrt(phi ** 2 - 0.75 * lam ** 2)))
+    chi = 1 / (phi + np.sqrt(phi ** 2 - 0.75 * lam ** 2))
+    return np.minimum(np.minimum(1.0, 1 / lam ** 2), chi)
 
 
 def ipe300_cases(length: np.ndarray, C_1: np.ndarray) -> dict[str, np.ndarray]:
