@@ -275,3 +275,171 @@ def test_mechanism_is_failed_not_skipped(tmp_path):
     row = results.combinations.loc["unit"]
     assert row["status"] == "failed" and "load case dead" in row["message"]
     assert results.forces.empty
+
+
+# ------------------------------------------------------------------ bundled frames, equilibrium
+
+def _captured_and_factors(project_file: Path):
+    from adapters.opensees_model import import_opensees, read_domain, run_user_model
+    from postproc import loads
+
+    project = tomllib.loads(project_file.read_text())
+    script = (project_file.parent / project["model"]["script"]).resolve()
+    ops = import_opensees()
+    watched, _ = run_user_model(ops, script, "build_model", pdelta=False)
+    captured = read_domain(ops, watched, script=str(script))
+    cases = opensees.load_cases(project["load_cases"], captured.patterns, file="p")
+    factors = loads.project_combinations(cases, project.get("combinations", {}))
+    return project, captured, cases, factors
+
+
+@pytest.mark.parametrize("example", ["portal_shed", "platform_3d"])
+def test_bundled_frames_reactions_balance_applied_loads(example):
+    from adapters.opensees_sway import node_loads_global
+
+    project_file = ROOT / "examples" / example / "project.toml"
+    project, captured, cases, factors = _captured_and_factors(project_file)
+    frame, results = opensees.load(project, project_file)
+    names = list(results.combinations.index)
+    pattern_of = dict(zip(cases["load_case"], cases["pattern"]))
+    patterns = list(cases["pattern"])
+    matrix = opensees._factor_matrix(factors, names, patterns, pattern_of)
+    applied = node_loads_global(captured, matrix, patterns).sum(axis=1)  # (C, 3)
+    reaction = (results.reactions.groupby("combination", sort=False)[["FX_N", "FY_N", "FZ_N"]]
+                .sum().reindex(names).to_numpy())
+    scale = np.abs(applied).max()
+    # equilibrium, per combination (common practice): reactions + applied loads = 0
+    np.testing.assert_allclose(reaction + applied, 0.0, atol=SOLVER * scale)
+    assert (results.combinations["status"] == "ok").all()
+    assert results.combinations["analysis"].eq("first-order").all()
+    # every element has at least 5 stations in every combination (the adapter's promise)
+    counts = results.forces.groupby(["combination", "element"]).size()
+    assert counts.min() >= 5
+    assert len(counts) == len(names) * len(frame.elements)
+
+
+def test_platform_dead_load_total_by_hand():
+    project_file = ROOT / "examples" / "platform_3d" / "project.toml"
+    frame, results = opensees.load(tomllib.loads(project_file.read_text()), project_file)
+    r = results.reactions[results.reactions["combination"] == "ULS 1.35 dead"]
+    # hand sum of pattern 1 in models/platform_3d.py: main beams 2 x 12 m x 1.32 kN/m +
+    # 12 m x 2.22 kN/m, secondary beams 3 x 8 m x 0.31 kN/m = 65.76 kN; times gamma_G,sup 1.35
+    assert r["FZ_N"].sum() == pytest.approx(1.35 * 65.76e3, rel=SOLVER)
+    # biaxial bending in the columns (the scenario's purpose)
+    cols = results.forces[results.forces["element"].str.startswith("10")]
+    assert cols["My_Nm"].abs().max() > 1e3 and cols["Mz_Nm"].abs().max() > 1e3
+    # pinned braces carry no end moments
+    braces = results.forces[results.forces["element"].str.startswith("40")]
+    assert braces[["My_Nm", "Mz_Nm"]].abs().max().max() < 1e-6 * cols["My_Nm"].abs().max()
+
+
+# ------------------------------------------------------------------ P-delta
+
+CANTILEVER = """
+import openseespy.opensees as ops
+
+def build_model():
+    ops.wipe()
+    ops.model('basic', '-ndm', 2, '-ndf', 3)
+    n, L = 8, 4.0
+    for k in range(n + 1):
+        ops.node(k + 1, 0.0, k * L / n)
+    ops.fix(1, 1, 1, 1)
+    ops.geomTransf('Linear', 1)
+    ops.section('Elastic', 1, 2.1e11, 78.1e-4, 5696e-8)   # HEB 200 (REFERENCES.md)
+    for k in range(n):
+        ops.element('elasticBeamColumn', k + 1, k + 1, k + 2, 1, 1)
+    ops.timeSeries('Linear', 1)
+    ops.pattern('Plain', 1, 1)
+    ops.load(n + 1, 0.0, -{P}, 0.0)
+    ops.pattern('Plain', 2, 1)
+    ops.load(n + 1, 10.0e3, 0.0, 0.0)
+"""
+CANTILEVER_PROJECT = """
+[model]
+source = "opensees"
+script = "model.py"
+builder = "build_model"
+analysis = "p-delta"
+[model.sections]
+1 = "HEB 200"
+[load_cases]
+"1" = "permanent"
+"2" = "wind"
+[combinations]
+method = "none"
+[combinations.extra.both]
+kind = "SLS"
+factors = { "1" = 1.0, "2" = 1.0 }
+"""
+
+
+def test_pdelta_cantilever_against_the_beam_column_solution(tmp_path):
+    EI, L, H = 2.1e11 * 5696e-8, 4.0, 10.0e3
+    P = 0.5 * np.pi**2 * EI / (4 * L**2)  # half the Euler load of a cantilever (L_cr = 2L)
+    frame, results = run(tmp_path, CANTILEVER.format(P=P), CANTILEVER_PROJECT)
+    assert results.combinations.loc["both", "analysis"] == "second-order"
+    kL = np.sqrt(P / EI) * L
+    # beam-column with axial load, cantilever with end shear: M_base = H tan(kL) / k
+    # (Timoshenko & Gere, Theory of Elastic Stability, from memory). P-Delta on 8 elements leaves
+    # out P-delta inside each element: a few tenths of a percent here, so 1 %.
+    exact = H * L * np.tan(kL) / kL
+    base = abs(at(results, "both", "1")["My_Nm"].iloc[0])
+    assert base == pytest.approx(exact, rel=0.01)
+    assert base > 1.5 * H * L  # clearly amplified: first order would be H L
+
+
+PORTAL_GRAVITY = """
+import openseespy.opensees as ops
+
+def build_model():
+    ops.wipe()
+    ops.model('basic', '-ndm', 2, '-ndf', 3)
+    ops.node(1, 0.0, 0.0); ops.node(2, 0.0, 4.0); ops.node(3, 6.0, 4.0); ops.node(4, 6.0, 0.0)
+    ops.fix(1, 1, 1, 1); ops.fix(4, 1, 1, 1)
+    ops.geomTransf('Linear', 1)
+    ops.section('Elastic', 1, 2.1e11, 78.1e-4, 5696e-8)    # HEB 200
+    ops.section('Elastic', 2, 2.1e11, 53.8e-4, 8356e-8)    # IPE 300
+    ops.element('elasticBeamColumn', 1, 1, 2, 1, 1)
+    ops.element('elasticBeamColumn', 2, 2, 3, 2, 1)
+    ops.element('elasticBeamColumn', 3, 4, 3, 1, 1)
+    ops.timeSeries('Linear', 1)
+    ops.pattern('Plain', 1, 1)
+    ops.eleLoad('-ele', 2, '-type', '-beamUniform', -20.0e3)
+    ops.pattern('Plain', 2, 1)
+    ops.load(2, 5.0e3, 0.0, 0.0)
+"""
+PORTAL_GRAVITY_PROJECT = """
+[model]
+source = "opensees"
+script = "model.py"
+builder = "build_model"
+analysis = "p-delta"
+[model.sections]
+1 = "HEB 200"
+2 = "IPE 300"
+[load_cases]
+dead = { category = "permanent", pattern = 1 }
+wind = { category = "wind", pattern = 2 }
+[combinations]
+sls = false
+"""
+
+
+def test_pdelta_sway_imperfection_as_horizontal_forces(tmp_path):
+    frame, results = run(tmp_path, PORTAL_GRAVITY, PORTAL_GRAVITY_PROJECT)
+    combos = results.combinations
+    assert combos["analysis"].eq("second-order").all()
+    # gravity only: the imperfection in each direction, one combination each (our rule)
+    assert {"ULS 1.35 dead [sway +X]", "ULS 1.35 dead [sway -X]"} <= set(combos.index)
+    # with wind along +X, only +X
+    assert "ULS 1.35 dead + 1.50 wind [sway +X]" in combos.index
+    assert "ULS 1.35 dead + 1.50 wind [sway -X]" not in combos.index
+    # EN 1993-1-1 5.3.2(3): h = 4 m gives alpha_h = 2 / sqrt(4) = 1.0; m = 2 columns gives
+    # alpha_m = sqrt(0.5 (1 + 1/2)); phi = alpha_h alpha_m / 200. 5.3.2(7): H = phi V.
+    phi = np.sqrt(0.5 * 1.5) / 200
+    V = 1.35 * 20.0e3 * 6.0
+    r = results.reactions.groupby("combination")[["FX_N", "FY_N"]].sum()
+    assert r.loc["ULS 1.35 dead [sway +X]", "FX_N"] == pytest.approx(-phi * V, rel=1e-6)
+    assert r.loc["ULS 1.35 dead [sway -X]", "FX_N"] == pytest.approx(phi * V, rel=1e-6)
+    assert r.loc["ULS 1.35 dead [sway +X]", "FY_N"] == pytest.approx(V, rel=1e-9)
