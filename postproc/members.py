@@ -25,6 +25,17 @@ Kinds, from orientation and connectivity (tilt = angle of the chord from the ver
 - 'rafter': slope between 3 and 45 degrees, bending not released at both ends, and no column
   continues upwards from either end node (it lies on the roof line).
 - 'member': anything else (steep rigidly connected diagonals, stair stringers below columns ...).
+
+Restraint points, at every node of a member:
+- supports: a direction is held when the support fixes every translation it has a component
+  along; torsion when it fixes rotation about the member axis. A plane model says nothing out of
+  plane, so in a plane frame a support node is taken as held out of plane and against twist.
+- members framing in whose axis has a component of at least 0.5 along local y or z; in a space
+  frame the joint at each member end also counts both ways (the joint's own translation is the
+  frame's sway, which the global analysis carries).
+- declared points (frame.restraints and `restraint_nodes`).
+- a point held in both y and z is taken as a fork: held against twist too.
+See docs/stability.md.
 """
 
 from __future__ import annotations

@@ -181,7 +181,7 @@ def build_mesh(frame: Frame, elements_per_member: np.ndarray) -> Mesh:
         g_index[:, 3 * b:3 * b + 3] = 6 * pt[:, None] + off + np.arange(3)
     n_dof = 6 * len(xyz)
     vertical_normal = np.array([0.0, 0.0, 1.0])         # plane frames lie in X-Y
-    for end, k_end, base in (("i", 0, 0), ("j", None, 6)):
+    for end, base in (("i", 0), ("j", 6)):
         at_end = local == 0 if end == "i" else local == n_sub[parent] - 1
         for action in RELEASABLE:
             rel = released(frame, end, action)[parent] & at_end

@@ -174,6 +174,17 @@ def test_braced_frame_has_no_sway_mode():
     assert not bool(lengths.at["C1", "sway_y"])
 
 
+def test_iterative_eigen_solver_agrees_with_the_dense_one(monkeypatch):
+    # larger models use scipy's eigsh; force it on a small one and compare with the dense path
+    import postproc.stability_eigen as eig
+    f = portal(PINNED, beam="IPE 300", brace=True)
+    axial = {"U1": {"C1": -3e5, "C2": -2e5, "R1": -1e4}}
+    dense = run(f, axial)[2].at["U1", "alpha_cr"]
+    monkeypatch.setattr(eig, "DENSE_MAX", 0)
+    iterative = run(f, axial)[2].at["U1", "alpha_cr"]
+    assert iterative == pytest.approx(dense, rel=1e-8)     # same problem, solver tolerance
+
+
 def test_no_compression_gives_no_mode():
     f = portal()
     _, _, alpha = run(f, {"U1": {"C1": 1e5, "C2": 1e5}})
