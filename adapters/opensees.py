@@ -23,6 +23,7 @@ from postproc.errors import InputError
 from postproc.frame import Frame
 from postproc.results import DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
 
+from .opensees_export import export_tables
 from .opensees_model import (Captured, axis_map, import_opensees, read_domain, run_user_model,
                              to_en)
 from .opensees_run import Job, clear_patterns, forces_along, run_jobs, station_grid
@@ -31,6 +32,7 @@ MODEL_KEYS = {"source", "script", "builder", "analysis", "major_axis", "stations
               "element_sections", "grades", "processes", "imperfection"}
 ANALYSES = ("linear", "p-delta")
 REACTION_COLUMNS = ["FX_N", "FY_N", "FZ_N", "MX_Nm", "MY_Nm", "MZ_Nm"]
+__all__ = ["load", "export_tables", "load_cases", "build_frame"]
 STIFFNESS_WARNING = 0.10  # relative difference between model and catalogue I worth a warning
 
 
