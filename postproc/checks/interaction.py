@@ -114,8 +114,12 @@ def _common(rows: MemberRows) -> dict:
     x_seg, seg_note = _ltb_segment_moments(rows, b)
 
     reason = no_reason(R)
-    given = np.asarray(b["reason"], dtype=object)
-    _add(reason, (given != "") & ~pd.isna(given), given)  # NaN reasons: none
+    # The reasons of the values used here: flexural buckling about both axes and LTB where the
+    # buckling values give them separately, else their joined reason.
+    keys = [k for k in ("reason_y", "reason_z", "reason_LT") if k in b] or ["reason"]
+    for key in keys:
+        given = np.asarray(b[key], dtype=object)
+        _add(reason, (given != "") & ~pd.isna(given), given)  # NaN reasons: none
     _add(reason, cls == 4, CLASS_4)
     _add(reason, np.isnan(cls), "section class not known")
     for key, name in (("chi_y", "chi_y"), ("chi_z", "chi_z"), ("lambda_bar_y", "lambda_bar_y"),

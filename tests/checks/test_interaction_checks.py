@@ -135,6 +135,19 @@ def test_not_evaluated_rows_never_pass() -> None:
         assert "chi_z" in blk.reason[3]
 
 
+def test_only_the_reasons_of_the_values_used_count() -> None:
+    # With per-check reasons given, a reason of torsional buckling alone (not used by Annex B)
+    # does not stop the check; one of flexural buckling about z-z does.
+    b = hand_buckling(2)
+    b["reason"][:] = "chi_T: warping constant missing"
+    b["reason_y"] = np.array(["", ""], dtype=object)
+    b["reason_z"] = np.array(["", "buckling length L_cr,z not known"], dtype=object)
+    b["reason_LT"] = np.array(["", ""], dtype=object)
+    blk = interaction_checks(worked_column(2, buckling=b))[0]
+    assert blk.reason[0] == "" and blk.utilisation[0] == pytest.approx(0.5154, rel=HAND)
+    assert blk.reason[1] == "buckling length L_cr,z not known" and np.isnan(blk.utilisation[1])
+
+
 def test_sway_flags() -> None:
     rows = worked_column(3, sway_y=np.array([True, False, np.nan], dtype=object))
     v = interaction_checks(rows)[0].values
