@@ -297,7 +297,8 @@ def section_class(section: dict[str, np.ndarray], f_y: np.ndarray, N_Ed: np.ndar
     shape_arr = np.asarray(section["shape"], dtype=object)
     keys = ("A", "I_y", "I_z", "W_el_y", "W_el_z", "W_pl_y", "W_pl_z", "h", "b", "c_web",
             "t_web", "c_flange", "t_flange", "given_class")
-    s = {k: np.asarray(section[k], dtype=float) for k in keys}
+    # a column the caller left out is unknown (NaN), which classifies as 0, never as a pass
+    s = {k: np.asarray(section.get(k, np.nan), dtype=float) for k in keys}
     out_shape = np.broadcast_shapes(shape_arr.shape, f_y.shape, N_c.shape, My.shape, Mz.shape,
                                     *(v.shape for v in s.values()))
     eps = epsilon(f_y)

@@ -270,3 +270,22 @@ def test_nan_forces_are_unknown_and_broadcasting():
     assert cls.shape == (2, 3) and cls.dtype == np.int8 and part.dtype == object
     np.testing.assert_array_equal(cls, [[1, 0, 1], [3, 3, 1]])
     assert part[0, 1] == "unknown"
+
+
+@pytest.mark.parametrize("designation, f_y, N, My, expected", [
+    # catalogue sections; the classes are those printed in handbook classification tables for
+    # these sizes and grades (from memory), and follow by hand from Table 5.2:
+    # IPE 300 S355: web c/t = 248.6/7.1 = 35.0 > 42 eps = 34.2 in compression -> 4;
+    # 35.0 < 72 eps = 58.6 in bending -> 1, with the flange (5.28 of 9 eps = 7.32) nearer its limit
+    ("IPE 300", 355e6, -1e5, 0.0, (4, "web")),
+    ("IPE 300", 355e6, 0.0, 1e5, (1, "flange")),
+    # HEA 300 S355: flange c/t = 118.75/14 = 8.48, 10 eps = 8.14 < 8.48 < 14 eps = 11.4 -> 3
+    ("HEA 300", 355e6, -1e5, 0.0, (3, "flange")),
+    ("HEA 300", 355e6, 0.0, 1e5, (3, "flange")),
+    # HEB 200 S235: web 134/9 = 14.9 < 33, flange 77.5/15 = 5.2 < 9 -> 1
+    ("HEB 200", 235e6, -1e5, 0.0, (1, "flange")),
+])
+def test_catalogue_sections(designation, f_y, N, My, expected):
+    table = build_sections(pd.DataFrame({"section": ["s"], "designation": [designation]}))
+    sec = {k: np.array([v]) for k, v in table.iloc[0].items()}
+    assert classify(sec, N=N, My=My, f_y=f_y) == expected
