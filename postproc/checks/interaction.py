@@ -183,7 +183,8 @@ def _shared_values(c: dict, k: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
 
 
 def _diagram_values(tag: str, shape: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
-    return {f"psi_{tag}": shape["psi"], f"alpha_s_{tag}": shape["alpha_s"],
+    return {f"psi_{tag}": shape["psi"], f"M_h_{tag}_Nm": shape["M_h_Nm"],
+            f"M_s_{tag}_Nm": shape["M_s_Nm"], f"alpha_s_{tag}": shape["alpha_s"],
             f"alpha_h_{tag}": shape["alpha_h"], f"span_load_{tag}": shape["load"]}
 
 
