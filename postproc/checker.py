@@ -87,7 +87,9 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
 
     alpha = stability.critical_load_factors(frame, uls_results, members)
     paths = stability.analysis_path(alpha, uls_results.combinations)
-    per_combination = alpha.join(paths, how="outer")
+    per_combination = alpha.rename(columns={"alpha_cr": "alpha_cr_eigen"}).drop(
+        columns=[c for c in paths.columns if c in alpha.columns and c != "alpha_cr"]).join(
+        paths, how="outer")
     checked = stability.amplify_sway_effects(uls_results, paths)
     lengths = stability.buckling_lengths(frame, members, checked, paths,
                                          _length_overrides(overrides))
