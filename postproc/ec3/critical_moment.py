@@ -18,8 +18,10 @@ member numerically (Rayleigh-Ritz), vectorised over rows:
 
 The moment diagram is given at stations and is linear between them, so M'' is a set of point loads
 at the interior stations (exact for point loads; a distributed load is lumped at the stations).
-The work integrals are linear in the station moments: the weights depend only on where the stations
-lie within the segment, so rows sharing a station pattern (the usual case) cost one matrix product.
+The work integrals are integrated exactly for that piecewise-linear diagram. They are linear in the
+station moments, with weights that depend only on where the stations lie within the segment, so
+rows sharing a station pattern (the usual case) cost one matrix product; with many different
+patterns each row is integrated on its own (slower, same result).
 Eliminating u leaves a symmetric n x n eigenproblem per row (2n x 2n with a load height), solved
 batched with numpy.linalg.eigvalsh.
 """
@@ -29,9 +31,7 @@ from __future__ import annotations
 import numpy as np
 
 N_TERMS = 6  # sine terms per field; see tests/ec3/test_critical_moment.py for the convergence
-_FINE = 400  # Simpson intervals for the precomputed work integrals (kinks at stations: error ~1e-6)
-_MAX_GROUPS = 64  # beyond this many station patterns, resample each row onto a grid instead
-_GRID = 96  # Simpson intervals of that per-row grid
+_MAX_GROUPS = 64  # beyond this many station patterns, integrate row by row instead
 _BLOCK = 16384  # rows per block of the power iteration (fits in cache)
 
 
@@ -155,7 +155,8 @@ def largest_eigenvalue_psd(A: np.ndarray, *, iterations: int = 8,
         x = np.ones((n, stop - start), dtype=np.float32)
         for _ in range(iterations):
             x = _matvec(flat, x, n)
-            x /= np.sqrt((x * x).sum(axis=0))  # eigenvalues of A / trace lie in [0, 1]
+            norm = np.sqrt((x * x).sum(axis=0))
+        x /= np.where(norm > 0, norm, 1.0)  # eigenvalues of A / trace lie in [0, 1]
         y = _matvec(flat, x, n)
         rho = (x * y).sum(axis=0)
         r = np.sqrt(((y - rho * x) ** 2).sum(axis=0))
@@ -197,24 +198,6 @@ def _interp_rows(xi: np.ndarray, M: np.ndarray, at: np.ndarray) -> np.ndarray:
     return m0 + t * (m1 - m0)
 
 
-def _simpson(n_intervals: int) -> tuple[np.ndarray, np.ndarray]:
-    grid = np.linspace(0.0, 1.0, n_intervals + 1)
-    w = np.ones(n_intervals + 1)
-    w[1:-1:2], w[2:-1:2] = 4.0, 2.0
-    return grid, w / (3.0 * n_intervals)
-
-
-def _hat_matrix(xi: np.ndarray, grid: np.ndarray) -> np.ndarray:
-    """(S, P) weights that interpolate station values linearly at the grid points (one pattern)."""
-    S = xi.shape[0]
-    eye = np.eye(S)
-    valid = ~np.isnan(xi)
-    H = np.zeros((S, grid.shape[0]))
-    H[valid] = _interp_rows(np.broadcast_to(xi, (int(valid.sum()), S)),
-                            eye[valid], grid)
-    return H
-
-
 def _kink_matrix(xi: np.ndarray) -> np.ndarray:
     """(S, S) D with F = m @ D the point loads q_z = -M'' at each station (one pattern, 0 at the
     padding and at stations outside the open segment)."""
@@ -229,6 +212,33 @@ def _kink_matrix(xi: np.ndarray) -> np.ndarray:
             D[b, b] += 1.0 / h1 + 1.0 / h2
             D[c, b] += -1.0 / h2
     return D
+
+
+def _exact_integrals(xi: np.ndarray, m: np.ndarray, n: int) -> np.ndarray:
+    """I_ij = int_0^1 m(xi) sin(i pi xi) sin(j pi xi) dxi per row, exact for m linear between
+    stations (R, n*n). Uses sin a sin b = (cos(a - b) - cos(a + b)) / 2 and closed-form integrals
+    of (alpha + beta xi) cos(k pi xi) over each station interval clipped to [0, 1]."""
+    R = xi.shape[0]
+    a, b = xi[:, :-1], xi[:, 1:]
+    m_a, m_b = m[:, :-1], m[:, 1:]
+    with np.errstate(invalid="ignore", divide="ignore"):
+        slope = (m_b - m_a) / (b - a)
+    p, q = np.clip(a, 0.0, 1.0), np.clip(b, 0.0, 1.0)
+    use = (q > p) & np.isfinite(slope)
+    alpha = np.where(use, m_a - slope * a, 0.0)[:, :, None]
+    beta = np.where(use, slope, 0.0)[:, :, None]
+    p, q = np.where(use, p, 0.0)[:, :, None], np.where(use, q, 0.0)[:, :, None]
+    w = np.pi * np.arange(1, 2 * n + 1)[None, None, :]  # k = 1 .. 2n
+    c = np.empty((R, 2 * n + 1))
+    c[:, 0] = (alpha[:, :, 0] * (q - p)[:, :, 0] + beta[:, :, 0] * (q**2 - p**2)[:, :, 0] / 2).sum(1)
+
+    def primitive(x):  # of (alpha + beta x) cos(w x)
+        return (alpha + beta * x) * np.sin(w * x) / w + beta * np.cos(w * x) / w**2
+
+    c[:, 1:] = (primitive(q) - primitive(p)).sum(axis=1)
+    i = np.arange(1, n + 1)
+    diff, summ = np.abs(i[:, None] - i[None, :]), i[:, None] + i[None, :]
+    return (0.5 * (c[:, diff] - c[:, summ])).reshape(R, n * n)
 
 
 def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: bool,
@@ -257,13 +267,11 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
     I_sq = np.empty((R, n * n)) if with_square else None
     F_ss = np.empty((R, n * n)) if with_point_loads else None
     if patterns.shape[0] <= _MAX_GROUPS:
-        grid, w = _simpson(_FINE)
-        s = np.sin(np.pi * grid[:, None] * j[None, :])  # (P, n)
-        W = (w[:, None, None] * s[:, :, None] * s[:, None, :]).reshape(-1, n * n)
         for g, pattern in enumerate(patterns):  # over distinct station patterns, not over rows
             rows = slice(None) if patterns.shape[0] == 1 else inverse == g
             xi_g = np.where(np.isinf(pattern), np.nan, pattern)
-            W_g = _hat_matrix(xi_g, grid) @ W  # (S, n*n)
+            # weights of each station's moment: the integrals of its hat function (S, n*n)
+            W_g = _exact_integrals(np.broadcast_to(xi_g, (S, S)), np.eye(S), n)
             m_g = m[rows]
             I_mm[rows] = m_g @ W_g
             if with_square:
@@ -275,10 +283,7 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
                 Wq = (s_st[:, :, None] * s_st[:, None, :]).reshape(S, n * n)
                 F_ss[rows] = m[rows] @ (_kink_matrix(xi_g) @ Wq)
     else:
-        grid, w = _simpson(_GRID)
-        s = np.sin(np.pi * grid[:, None] * j[None, :])
-        W = (w[:, None, None] * s[:, :, None] * s[:, None, :]).reshape(-1, n * n)
-        I_mm[:] = _interp_rows(xi, m, grid) @ W
+        I_mm[:] = _exact_integrals(xi, m, n)
         if with_point_loads:
             F_ss[:] = _point_load_integrals_rows(xi, m, j)
     I_mm = I_mm.reshape(R, n, n)
