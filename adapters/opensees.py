@@ -62,6 +62,11 @@ def load(project: dict, project_path: Path) -> tuple[Frame, Results]:
     if not isinstance(stations, int) or isinstance(stations, bool) or stations < 5:
         raise InputError(f"stations = {stations!r}: a whole number of at least 5 per element",
                          file=file, field="model.stations")
+    processes = model.get("processes")
+    if processes is not None and (not isinstance(processes, int) or isinstance(processes, bool)
+                                  or processes < 1):
+        raise InputError(f"processes = {processes!r}: a whole number, 1 or more", file=file,
+                         field="model.processes")
     pdelta = analysis == "p-delta"
 
     ops = import_opensees()
@@ -83,7 +88,7 @@ def load(project: dict, project_path: Path) -> tuple[Frame, Results]:
                             pattern_of)
     patterns = [pattern_of[c] for c in cases["load_case"]]
     kw = dict(script=str(script), builder=builder, pdelta=pdelta,
-              processes=model.get("processes"))
+              processes=processes)
     if not pdelta:
         jobs = [Job(f"load case {c}", {p: 1.0}) for c, p in zip(cases["load_case"], patterns)]
         outcomes = run_jobs(ops, captured, jobs, **kw)

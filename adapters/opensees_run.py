@@ -155,6 +155,10 @@ def clear_patterns(ops) -> None:
     """Remove the user's load patterns: every job applies its own factored loads."""
     for tag in list(ops.getPatterns()):
         ops.remove("loadPattern", int(tag))
+    # a script may have run an analysis of its own: start every job from the unloaded state
+    ops.wipeAnalysis()
+    ops.reset()
+    ops.setTime(0.0)
 
 
 # ---------------------------------------------------------------- running many jobs

@@ -469,3 +469,32 @@ def test_export_tables_round_trip(tmp_path, example, ndm):
                                   check_dtype=False, check_index_type=False)
     np.testing.assert_allclose(local_axes(frame), local_axes(frame2), atol=1e-15)
     assert (results2.combinations["analysis"] == results.combinations["analysis"]).all()
+
+
+def test_two_processes_give_the_same_results_as_one():
+    project_file = ROOT / "examples" / "sway_frame" / "project.toml"
+    project = tomllib.loads(project_file.read_text())
+    one = dict(project, model={**project["model"], "processes": 1})
+    two = dict(project, model={**project["model"], "processes": 2})
+    _, r1 = opensees.load(one, project_file)
+    _, r2 = opensees.load(two, project_file)
+    # the same analyses in other processes: identical numbers (deterministic solver)
+    pd.testing.assert_frame_equal(r1.forces, r2.forces)
+    pd.testing.assert_frame_equal(r1.combinations, r2.combinations)
+    assert r1.combinations["analysis"].eq("second-order").all()
+
+
+def test_script_with_its_own_analysis_and_pattern_factor(tmp_path):
+    # the script scales its pattern by 2 (-fact) and runs an analysis of its own first
+    script = BEAM_2D.format(fix_rot=0).replace(
+        "ops.pattern('Plain', 1, 1)", "ops.pattern('Plain', 1, 1, '-fact', 2.0)") + textwrap.indent(
+        textwrap.dedent("""
+        ops.system('BandGeneral'); ops.numberer('Plain'); ops.constraints('Plain')
+        ops.integrator('LoadControl', 1.0); ops.algorithm('Linear'); ops.analysis('Static')
+        ops.analyze(1)
+        """), "    ")
+    frame, results = run(tmp_path, script, BEAM_PROJECT)
+    f = results.forces[results.forces["combination"] == "unit"]
+    # 2 x w L^2 / 8 at midspan (classical), from the unloaded state, not on top of the script's
+    mid = f[(f["element"] == "2") & np.isclose(f["x_m"], 1.0)]["My_Nm"].iloc[0]
+    assert mid == pytest.approx(-2 * 10.0e3 * 6.0**2 / 8, rel=SOLVER)
