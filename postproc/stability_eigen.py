@@ -94,9 +94,14 @@ def _local_geometric(L: np.ndarray) -> np.ndarray:
     return g
 
 
-def section_columns(frame: Frame, names: tuple[str, ...] = ("A", "I_y", "I_z", "I_t")
-                    ) -> dict[str, np.ndarray]:
-    """Per-element section properties; a missing section or property raises InputError."""
+def section_columns(frame: Frame, names: tuple[str, ...] = ("A", "I_y", "I_z", "I_t"), *,
+                    needed: dict[str, np.ndarray] | None = None) -> dict[str, np.ndarray]:
+    """Per-element section properties (e,) in SI.
+
+    A missing section, or a missing or non-positive property where it is needed, raises
+    InputError. `needed` maps a property to a boolean (e,) mask of the elements that need it
+    (default: all); elsewhere a missing value becomes 1.0, a placeholder on held freedoms.
+    """
     secs = frame.sections
     used = frame.elements["section"].astype(str)
     missing = sorted(set(used) - set(secs.index.astype(str)))
@@ -108,16 +113,21 @@ def section_columns(frame: Frame, names: tuple[str, ...] = ("A", "I_y", "I_z", "
     table = secs.copy()
     table.index = table.index.astype(str)
     for name in names:
+        mask = np.ones(len(used), dtype=bool) if needed is None else \
+            needed.get(name, np.ones(len(used), dtype=bool))
         if name not in table.columns:
-            raise InputError(f"the sections table has no column '{name}' (needed for the "
-                             "buckling analysis)", field=name)
-        vals = table.loc[used, name].to_numpy(float)
-        bad = ~(vals > 0.0)
+            if mask.any():
+                raise InputError(f"the sections table has no column '{name}' (needed for the "
+                                 "buckling analysis)", field=name)
+            out[name] = np.ones(len(used))
+            continue
+        vals = pd.to_numeric(table.loc[used, name], errors="coerce").to_numpy(float)
+        bad = ~(vals > 0.0) & mask
         if bad.any():
             k = int(np.argmax(bad))
             raise InputError(f"{name} = {vals[k]} of section '{used.iloc[k]}' must be a positive "
                              "number for the buckling analysis", field=f"section {used.iloc[k]}")
-        out[name] = vals
+        out[name] = np.where(vals > 0.0, vals, 1.0)
     return out
 
 
@@ -140,9 +150,15 @@ def build_mesh(frame: Frame, elements_per_member: np.ndarray) -> Mesh:
         elements_per_member: (e,) number of sub-elements for each frame element.
     """
     check_connected(frame)
-    props = section_columns(frame)
     chord, length = element_vectors(frame)
     axes = local_axes(frame)
+    if frame.ndm == 2:
+        # a plane model needs only the area and the in-plane inertia
+        about_y = np.abs(axes[:, 1, 2]) >= 0.5
+        none = np.zeros(len(length), dtype=bool)
+        props = section_columns(frame, needed={"I_y": about_y, "I_z": ~about_y, "I_t": none})
+    else:
+        props = section_columns(frame)
     xyz0 = frame.nodes[NODE_COLUMNS].to_numpy(float)
     node_ids = frame.nodes.index.astype(str).tolist()
     where = {n: k for k, n in enumerate(node_ids)}

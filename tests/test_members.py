@@ -176,6 +176,19 @@ def test_space_frame_joint_restrains_both_ways():
     assert m.members.at["B1", "kind"] == "beam"
 
 
+def test_declared_global_direction_maps_to_local_axes():
+    # a plane frame beam: local y is out of plane (global Z), local z is vertical (global Y)
+    nodes = [("1", 0, 0, 0), ("2", 0, 4, 0), ("3", 3, 4, 0), ("4", 6, 4, 0), ("5", 6, 0, 0)]
+    els = [("C1", "1", "2", "HEB 200", "", ""), ("B1", "2", "3", "IPE 300", "", ""),
+           ("B2", "3", "4", "IPE 300", "", ""), ("C2", "5", "4", "HEB 200", "", "")]
+    decl = pd.DataFrame({"node": ["3", "3"], "direction": ["Z", "X"]})
+    m = design_members(make_frame(nodes, els, [("1", *FIXED), ("5", *FIXED)]),
+                       restraint_nodes=decl)
+    r = m.restraints[m.restraints["member"] == "B1"]
+    # 'Z' holds the beam out of plane (local y); 'X' runs along the beam and holds nothing
+    assert set(r.loc[np.isclose(r["x_m"], 3.0), "direction"]) == {"y"}
+
+
 def test_existing_contract_still_works():
     f = pitched_portal()
     m = one_member_per_element(f)

@@ -185,6 +185,47 @@ def test_iterative_eigen_solver_agrees_with_the_dense_one(monkeypatch):
     assert iterative == pytest.approx(dense, rel=1e-8)     # same problem, solver tolerance
 
 
+def test_space_portal_sways_about_the_weak_axis():
+    # columns with the default orientation of a space frame: local z along X, so sway along Y
+    # bends them about z-z. Both column tops turn alike about X, which twists the beam along X
+    # not at all, so nothing holds them: two cantilevers, L_cr = 2L about z-z (Euler), lower
+    # than sway along X (stiff beam, L about y-y: 4 I_y / I_z = 11 times higher)
+    L = 4.0
+    nodes = [("1", 0, 0, 0), ("2", 0, 0, L), ("3", 6, 0, L), ("4", 6, 0, 0)]
+    els = [("C1", "1", "2", "HEB 200", "", ""), ("R1", "2", "3", "STIFF", "", ""),
+           ("C2", "4", "3", "HEB 200", "", "")]
+    f = make_frame(nodes, els, [("1", *FIXED), ("4", *FIXED)], ndm=3)
+    P = 500e3
+    _, _, alpha = run(f, {"U1": {"C1": -P, "C2": -P}})
+    expected = np.pi ** 2 * E * I_HEB200_Z / (4 * L ** 2 * P)
+    assert alpha.at["U1", "alpha_cr"] == pytest.approx(expected, rel=CLOSED_FORM_REL)
+    assert bool(alpha.at["U1", "sway_mode"])
+
+
+def test_plane_frame_needs_only_in_plane_properties():
+    f = portal()
+    secs = f.sections.copy()
+    secs["I_t"] = np.nan                           # torsion is not part of a plane model
+    secs.loc["HEB 200", "I_z"] = np.nan            # nor is out-of-plane bending
+    g = Frame(2, f.nodes, f.elements, f.supports, secs)
+    P = 1e5
+    _, _, alpha = run(g, {"U1": {"C1": -P, "C2": -P}})
+    assert alpha.at["U1", "alpha_cr"] == pytest.approx(
+        np.pi ** 2 * E * I_HEB200_Y / (5.0 ** 2 * P), rel=CLOSED_FORM_REL)
+    secs.loc["HEB 200", "I_y"] = np.nan            # the in-plane inertia is needed
+    with pytest.raises(InputError, match="I_y = nan of section 'HEB 200'"):
+        run(Frame(2, f.nodes, f.elements, f.supports, secs), {"U1": {"C1": -P}})
+
+
+def test_missing_forces_give_nan_and_a_note():
+    f = portal()
+    res = Results(constant_forces({"U1": {"C1": -1e5, "C2": -1e5}}, f), combos(["U1"]))
+    res = Results(res.forces[res.forces["element"] != "C2"], res.combinations)
+    alpha = critical_load_factors(f, res, design_members(f))
+    assert np.isnan(alpha.at["U1", "alpha_cr"])
+    assert "no forces for element C2" in alpha.at["U1", "mode_note"]
+
+
 def test_no_compression_gives_no_mode():
     f = portal()
     _, _, alpha = run(f, {"U1": {"C1": 1e5, "C2": 1e5}})
