@@ -1,0 +1,338 @@
+"""Member buckling checks: flexural and torsional buckling (6.3.1) and lateral-torsional buckling
+(6.3.2), and the per-row buckling values the interaction checks (6.3.3) reuse.
+
+Row data read here (see `postproc.checks.base.MemberRows`):
+- lengths 'L_cr_y', 'L_cr_z', 'L_cr_T', 'L_LT' (m, NaN unknown: that check is not evaluated).
+- section columns shape, fabrication, h, b, t_f, A, I_y, I_z, I_t, I_w, W_pl_y, W_el_y.
+- info 'section_class' (R, S) int per station (0 unknown), 'ltb_restrained' (R,) bool,
+  'k_LT', 'k_w' (R,) effective-length factors of the LTB segment ends (default 1.0),
+  'z_g' (R,) m, load height above the shear centre along +z (default 0), 'grade' (R,) str
+  (optional: S460 selects the right-hand column of Table 6.2; without it the safe column is used),
+  'buckling' (the dict of `buckling_values`, when the checker has computed it already).
+
+Lateral-torsional buckling segments: where L_LT < member length the member is divided into
+round(length / L_LT) equal segments (at most MAX_SEGMENTS) and the segment with the highest
+M_Ed / M_b,Rd governs. M_cr of a segment uses the longer of L_LT and the segment (safe side).
+"""
+
+from __future__ import annotations
+
+import numpy as np
+
+from ..ec3 import critical_moment as cm
+from ..ec3 import flexural_buckling as fb
+from ..ec3 import lateral_torsional as lt
+from .base import CheckBlock, MemberRows, no_reason
+
+MAX_SEGMENTS = 64
+GENERIC = "section given by properties only (shape GENERIC): no buckling curve without geometry"
+CLASS_4 = "class 4 cross-section: effective properties are not covered"
+CLASS_UNKNOWN = "section class not known"
+
+
+def _add(reason: np.ndarray, mask: np.ndarray, text: str) -> None:
+    """Append `text` to the reasons of the rows in `mask` (in place)."""
+    mask = np.asarray(mask, bool)
+    if mask.any():
+        old = reason[mask]
+        reason[mask] = np.where(old == "", text, old + "; " + text)
+
+
+def _member_class(rows: MemberRows) -> np.ndarray:
+    """Worst class along the member as float: 1 .. 4, NaN where any station's class is unknown."""
+    cls = rows.info.get("section_class")
+    if cls is None:
+        return np.full(rows.n_rows, np.nan)
+    cls = np.where(rows.valid, np.asarray(cls, float), np.nan)
+    unknown = ((cls == 0) | np.isnan(cls)) & rows.valid
+    worst = np.max(np.where(np.isnan(cls), 0.0, cls), axis=1)
+    return np.where(unknown.any(axis=1) | (worst == 0), np.nan, worst)
+
+
+def _info(rows: MemberRows, key: str, default: float) -> np.ndarray:
+    value = rows.info.get(key)
+    if value is None:
+        return np.full(rows.n_rows, default)
+    return np.where(np.isnan(np.asarray(value, float)), default, np.asarray(value, float))
+
+
+def buckling_values(rows: MemberRows) -> dict[str, np.ndarray]:
+    """Member buckling quantities per row (see the module docstring for the inputs).
+
+    Returns (R,) arrays: chi_y, chi_z, chi_T, chi_LT (1.0 where not susceptible), lambda_bar_y,
+    lambda_bar_z, lambda_bar_T, lambda_bar_LT, N_cr_y_N, N_cr_z_N, N_cr_T_N, M_cr_Nm, M_cr_0_Nm,
+    C_1 (M_cr / M_cr,0; 1.0 where the segment carries no moment or the member is not susceptible),
+    curve_y, curve_z, curve_LT (object), ltb_susceptible, torsion_susceptible (bool),
+    ltb_segment_start_m, ltb_segment_end_m, section_class_member (float 1 .. 4, NaN unknown),
+    reason (object: '' or why some values are NaN), the per-check reasons reason_y, reason_z,
+    reason_T, reason_LT, and the intermediate LTB values (alpha_LT, k_c, k_c_case, psi, f,
+    chi_LT_unmodified, M_Ed_LT_Nm, x_LT_m, W_y_m3, n_segments, ltb_negligible, lambda_LT_0).
+    chi_y, chi_z and chi_T are eq. (6.49) values; the 6.3.1.2(4) rule is applied by the checks.
+    """
+    R = rows.n_rows
+    sec = rows.section
+    shape = np.asarray(sec["shape"], dtype=object)
+    fab = np.asarray(sec.get("fabrication", np.full(R, "", dtype=object)), dtype=object)
+    num = {k: np.asarray(sec[k], float) for k in
+           ("h", "b", "t_f", "A", "I_y", "I_z", "I_t", "I_w", "W_pl_y", "W_el_y")}
+    E, G, f_y = np.asarray(rows.E, float), np.asarray(rows.G, float), np.asarray(rows.f_y, float)
+    hollow = (shape == "RHS") | (shape == "CHS")
+    generic = ~hollow & (shape != "I")
+    restrained = np.asarray(rows.info.get("ltb_restrained", np.zeros(R, bool)), bool)
+
+    cls = _member_class(rows)
+    common = no_reason(R)
+    _add(common, generic, GENERIC)
+    _add(common, cls == 4, CLASS_4)
+    _add(common, np.isnan(cls) & ~generic, CLASS_UNKNOWN)
+
+    grade = rows.info.get("grade")
+    s460 = (np.char.startswith(np.asarray(grade, dtype=str), "S460") if grade is not None
+            else np.zeros(R, bool))
+    curve_y, curve_z = fb.buckling_curves(shape, fab, num["h"], num["b"], num["t_f"], s460=s460)
+    out: dict[str, np.ndarray] = {"curve_y": curve_y, "curve_z": curve_z}
+    joined = common.copy()  # every reason once, for the 'reason' value
+
+    def add(reason: np.ndarray, mask: np.ndarray, text: str) -> None:
+        _add(reason, mask, text)
+        _add(joined, mask, text)
+
+    for axis, I, curve in (("y", num["I_y"], curve_y), ("z", num["I_z"], curve_z)):
+        L_cr = np.asarray(rows.lengths.get(f"L_cr_{axis}", np.full(R, np.nan)), float)
+        N_cr = fb.N_cr_flexural(E, I, L_cr)
+        lam = fb.lambda_bar(num["A"], f_y, N_cr)
+        reason = common.copy()
+        add(reason, np.isnan(L_cr) | (L_cr <= 0), f"buckling length L_cr,{axis} not known")
+        add(reason, ~generic & (curve == ""),
+             f"no buckling curve in Table 6.2 for this shape/fabrication/flange ({axis}-{axis})")
+        chi = np.where(reason == "", fb.chi(lam, fb.imperfection_factor(curve)), np.nan)
+        out[f"N_cr_{axis}_N"], out[f"lambda_bar_{axis}"], out[f"chi_{axis}"] = N_cr, lam, chi
+        out[f"reason_{axis}"] = reason
+
+    # torsional buckling, 6.3.1.4: open doubly symmetric I sections; hollow ones not susceptible
+    L_cr_T = np.asarray(rows.lengths.get("L_cr_T", np.full(R, np.nan)), float)
+    i0 = fb.i_0_squared(num["I_y"], num["I_z"], num["A"])
+    N_cr_T = np.where(hollow, np.inf, fb.N_cr_torsional(E, G, num["I_t"], num["I_w"], L_cr_T, i0))
+    lam_T = fb.lambda_bar(num["A"], f_y, N_cr_T)
+    reason_T = common.copy()
+    add(reason_T, ~hollow & (np.isnan(L_cr_T) | (L_cr_T <= 0)), "buckling length L_cr,T not known")
+    add(reason_T, ~hollow & ~generic & (curve_z == ""), "no buckling curve in Table 6.2 (z-z)")
+    add(reason_T, ~hollow & ~generic & (np.isnan(num["I_t"]) | np.isnan(num["I_w"])),
+         "I_t or I_w not known")
+    chi_T = np.where(hollow, 1.0, fb.chi(lam_T, fb.imperfection_factor(curve_z)))
+    chi_T = np.where(reason_T == "", chi_T, np.nan)
+    out.update(N_cr_T_N=N_cr_T, lambda_bar_T=lam_T, chi_T=chi_T, reason_T=reason_T)
+
+    ltb = _ltb_values(rows, shape, fab, num, cls, hollow, restrained, common, joined)
+    out.update(ltb)
+    out["ltb_susceptible"] = ~hollow & ~restrained
+    out["torsion_susceptible"] = ~hollow & ~restrained
+    out["section_class_member"] = cls
+    out["reason"] = joined
+    return out
+
+
+def _ltb_values(rows: MemberRows, shape, fab, num, cls, hollow, restrained, common, joined
+                ) -> dict[str, np.ndarray]:
+    """Lateral-torsional buckling per row, worst segment between lateral restraints."""
+    R = rows.n_rows
+    st = rows.settings
+    length = np.asarray(rows.length, float)
+    L_LT = np.asarray(rows.lengths.get("L_LT", np.full(R, np.nan)), float)
+    susceptible = ~hollow & ~restrained
+    reason = np.where(susceptible, common, "").astype(object)
+    no_length = susceptible & (np.isnan(L_LT) | (L_LT <= 0))
+    _add(reason, no_length, "LTB length L_LT not known")
+    _add(joined, no_length, "LTB length L_LT not known")
+    _add(reason, susceptible & (np.isnan(num["I_t"]) | np.isnan(num["I_w"])), "I_t or I_w not known")
+    general = st.ltb_method == "general"
+    curve_fn = lt.curve_LT_general if general else lt.curve_LT_rolled
+    curve = np.where(susceptible, curve_fn(shape, fab, num["h"], num["b"]), "").astype(object)
+    no_curve = susceptible & (shape == "I") & (curve == "")
+    _add(reason, no_curve, "no lateral-torsional buckling curve for this fabrication")
+    _add(joined, no_curve, "no lateral-torsional buckling curve for this fabrication")
+
+    with np.errstate(invalid="ignore", divide="ignore"):
+        n_seg = np.where(L_LT < length, np.clip(np.round(length / L_LT), 1, MAX_SEGMENTS), 1)
+    n_seg = np.where(np.isfinite(n_seg), n_seg, 1).astype(int)
+    out = {
+        "M_cr_Nm": np.where(susceptible, np.nan, np.inf), "M_cr_0_Nm": np.where(susceptible, np.nan, np.inf),
+        "C_1": np.where(susceptible, np.nan, 1.0), "lambda_bar_LT": np.where(susceptible, np.nan, 0.0),
+        "chi_LT": np.where(susceptible, np.nan, 1.0), "chi_LT_unmodified": np.where(susceptible, np.nan, 1.0),
+        "alpha_LT": np.full(R, np.nan), "k_c": np.full(R, np.nan), "psi": np.full(R, np.nan),
+        "f": np.full(R, np.nan), "k_c_case": np.full(R, "", dtype=object),
+        "M_Ed_LT_Nm": np.full(R, np.nan), "x_LT_m": np.full(R, np.nan),
+        "W_y_m3": lt.W_y_for_class(cls, num["W_pl_y"], num["W_el_y"]),
+        "ltb_segment_start_m": np.zeros(R), "ltb_segment_end_m": length.copy(),
+        "n_segments": n_seg, "ltb_negligible": np.zeros(R, bool), "curve_LT": curve,
+        "lambda_LT_0": np.full(R, 0.2 if general else st.lambda_LT_0),
+    }
+    todo = np.flatnonzero(susceptible & (reason == ""))
+    if todo.size:
+        _segments(rows, todo, n_seg, L_LT, curve, num, out, general)
+    out["reason_LT"] = reason
+    return out
+
+
+def _segments(rows: MemberRows, todo: np.ndarray, n_seg: np.ndarray, L_LT: np.ndarray,
+              curve: np.ndarray, num: dict, out: dict, general: bool) -> None:
+    """M_cr, chi_LT and utilisation of every segment of the rows `todo`; keep the worst."""
+    st = rows.settings
+    counts = n_seg[todo]
+    seg_row = np.repeat(todo, counts)  # one entry per (row, segment)
+    first = np.cumsum(counts) - counts
+    seg_k = np.arange(seg_row.size) - np.repeat(first, counts)
+    length = np.asarray(rows.length, float)[seg_row]
+    step = length / n_seg[seg_row]
+    x_a = seg_k * step
+    L_seg = np.fmax(L_LT[seg_row], step)  # the longer of the two: safe side
+    xi = (rows.x[seg_row] - x_a[:, None]) / step[:, None]
+    M = rows.My[seg_row]
+    E, G = np.asarray(rows.E, float)[seg_row], np.asarray(rows.G, float)[seg_row]
+    I_z, I_t, I_w = (num[k][seg_row] for k in ("I_z", "I_t", "I_w"))
+    k, k_w = _info(rows, "k_LT", 1.0)[seg_row], _info(rows, "k_w", 1.0)[seg_row]
+    z_g = _info(rows, "z_g", 0.0)[seg_row]
+    M_cr = cm.M_cr(xi, M, L_seg, E, G, I_z, I_t, I_w, k=k, k_w=k_w, z_g=z_g)
+    M_cr_0 = cm.M_cr_0(L_seg, E, G, I_z, I_t, I_w, k=k, k_w=k_w)
+    M_Ed = cm.peak_moment(xi, M)
+    no_moment = M_Ed == 0
+    C_1 = np.where(no_moment, 1.0, M_cr / M_cr_0)
+    W_y, f_y = out["W_y_m3"][seg_row], np.asarray(rows.f_y, float)[seg_row]
+    lam = lt.lambda_bar_LT(W_y, f_y, M_cr)
+    alpha = fb.imperfection_factor(curve[seg_row])
+    lam_0 = 0.2 if general else st.lambda_LT_0
+    if general:
+        chi = lt.chi_LT_general(lam, alpha)
+        chi_mod, k_c, psi, f = chi, np.full(chi.shape, np.nan), np.full(chi.shape, np.nan), np.ones(chi.shape)
+        case = np.full(chi.shape, "", dtype=object)
+    else:
+        chi = lt.chi_LT_rolled(lam, alpha, lambda_LT_0=st.lambda_LT_0, beta=st.beta_LT)
+        k_c, psi, case = lt.k_c_from_diagram(xi, M, C_1)
+        f = lt.f_modification(lam, k_c)
+        chi_mod = lt.chi_LT_mod(chi, f, lam)
+    negligible = lt.ltb_negligible(lam, M_Ed, M_cr, lambda_LT_0=lam_0)
+    chi_used = np.where(negligible & ~np.isnan(lam), 1.0, chi_mod)
+    with np.errstate(invalid="ignore", divide="ignore"):
+        util = M_Ed / lt.M_b_Rd(chi_used, W_y, f_y, gamma_M1=st.gamma_M1)
+    util = np.where(no_moment, 0.0, util)
+    # the governing segment per row: highest utilisation, a NaN anywhere makes the row NaN
+    group = np.repeat(np.arange(todo.size), counts)
+    best = np.maximum.reduceat(util, first)[group]
+    hits = np.flatnonzero((util == best) | np.isnan(best))
+    _, first_hit = np.unique(group[hits], return_index=True)
+    pick = hits[first_hit]  # one segment per row of `todo`, in order
+    rows_out = todo
+    x_peak = _peak_location(xi[pick], M[pick]) * step[pick] + x_a[pick]
+    for key, values in (("M_cr_Nm", M_cr), ("M_cr_0_Nm", M_cr_0), ("C_1", C_1),
+                        ("lambda_bar_LT", lam), ("chi_LT", chi_used), ("chi_LT_unmodified", chi),
+                        ("alpha_LT", alpha), ("k_c", k_c), ("psi", psi), ("f", f),
+                        ("k_c_case", case), ("M_Ed_LT_Nm", M_Ed), ("ltb_negligible", negligible)):
+        out[key][rows_out] = values[pick]
+    out["x_LT_m"][rows_out] = x_peak
+    out["ltb_segment_start_m"][rows_out] = x_a[pick]
+    out["ltb_segment_end_m"][rows_out] = x_a[pick] + step[pick]
+
+
+def _peak_location(xi: np.ndarray, M: np.ndarray) -> np.ndarray:
+    """Fraction of the segment where |M| is largest (a station inside or an end)."""
+    inside = (xi >= 0.0) & (xi <= 1.0)
+    ends = np.abs(cm._interp_rows(xi, np.nan_to_num(M), np.array([0.0, 1.0])))
+    cand_x = np.concatenate([np.where(inside, xi, np.nan), np.zeros((xi.shape[0], 1)),
+                             np.ones((xi.shape[0], 1))], axis=1)
+    cand_m = np.concatenate([np.where(inside, np.abs(np.nan_to_num(M)), -1.0), ends], axis=1)
+    idx = np.argmax(cand_m, axis=1)
+    return cand_x[np.arange(xi.shape[0]), idx]
+
+
+def _compression(rows: MemberRows) -> tuple[np.ndarray, np.ndarray]:
+    """Largest compression along the member (N, as a positive number) and where it acts."""
+    N = np.where(rows.valid, rows.N, np.nan)
+    filled = np.where(np.isnan(N), np.inf, N)
+    idx = np.argmin(filled, axis=1)
+    r = np.arange(rows.n_rows)
+    N_min = N[r, idx]
+    nan_force = (np.isnan(rows.N) & rows.valid).any(axis=1)
+    N_Ed = np.where(nan_force, np.nan, -N_min)
+    return N_Ed, rows.x[r, idx]
+
+
+def _buckling(rows: MemberRows) -> dict[str, np.ndarray]:
+    values = rows.info.get("buckling")
+    return values if values is not None else buckling_values(rows)
+
+
+def flexural_buckling_checks(rows: MemberRows) -> list[CheckBlock]:
+    """'flexural buckling y-y' and 'z-z' (6.3.1.1, eq. 6.46) and 'torsional buckling' (6.3.1.4).
+
+    N_Ed is the largest compression along the member; the checks apply where N < 0 somewhere
+    (torsional buckling: open sections only). Where 6.3.1.2(4) allows buckling to be ignored
+    (lambda_bar <= 0.2 or N_Ed / N_cr <= 0.04) chi = 1 is used and 'buckling_negligible' says so.
+    """
+    b = _buckling(rows)
+    st = rows.settings
+    A, f_y = np.asarray(rows.section["A"], float), np.asarray(rows.f_y, float)
+    N_Ed, x_N = _compression(rows)
+    compressed = np.nan_to_num(N_Ed, nan=1.0) > 0  # a NaN force is reported, not skipped
+    shape = np.asarray(rows.section["shape"], dtype=object)
+    open_section = (shape != "RHS") & (shape != "CHS")
+    blocks = []
+    for check, clause, key, lam_key, ncr_key, curve, applies, L_key in (
+            ("flexural buckling y-y", "6.3.1.1 (6.46)", "y", "lambda_bar_y", "N_cr_y_N",
+             b["curve_y"], compressed, "L_cr_y"),
+            ("flexural buckling z-z", "6.3.1.1 (6.46)", "z", "lambda_bar_z", "N_cr_z_N",
+             b["curve_z"], compressed, "L_cr_z"),
+            ("torsional buckling", "6.3.1.4", "T", "lambda_bar_T", "N_cr_T_N",
+             b["curve_z"], compressed & open_section, "L_cr_T")):
+        lam, N_cr = np.asarray(b[lam_key], float), np.asarray(b[ncr_key], float)
+        chi_649 = np.asarray(b[f"chi_{key}"], float)
+        alpha = fb.imperfection_factor(curve)
+        negligible = fb.buckling_negligible(lam, N_Ed, N_cr)
+        chi_used = np.where(negligible & ~np.isnan(chi_649), 1.0, chi_649)
+        N_b = fb.N_b_Rd(chi_used, A, f_y, gamma_M1=st.gamma_M1)
+        reason = np.asarray(b.get(f"reason_{key}", b["reason"]), dtype=object).copy()
+        _add(reason, np.isnan(N_Ed), "axial force not known at some station")
+        with np.errstate(invalid="ignore", divide="ignore"):
+            util = np.where(reason == "", N_Ed / N_b, np.nan)
+        blocks.append(CheckBlock(
+            check=check, clause=clause, utilisation=util, x=x_N, applies=applies, reason=reason,
+            values={"N_Ed_N": N_Ed, "L_cr_m": np.asarray(rows.lengths.get(L_key, np.full(rows.n_rows, np.nan)), float),
+                    "N_cr_N": N_cr, "lambda_bar": lam, "buckling_curve": curve, "alpha": alpha,
+                    "Phi": fb.Phi(lam, alpha), "chi_6_49": chi_649, "buckling_negligible": negligible,
+                    "chi": chi_used, "A_m2": A, "f_y_Pa": f_y, "gamma_M1": np.full(rows.n_rows, st.gamma_M1),
+                    "N_b_Rd_N": N_b}))
+    return blocks
+
+
+def lateral_torsional_checks(rows: MemberRows) -> list[CheckBlock]:
+    """'lateral-torsional buckling' (6.3.2.1, eq. 6.54) of the governing segment.
+
+    Applies where M_y is not zero somewhere and the member is susceptible (open section, not
+    restrained); tension does not relieve it. M_y,Ed is the largest |M_y| in the governing segment.
+    """
+    b = _buckling(rows)
+    st = rows.settings
+    My = np.where(rows.valid, rows.My, 0.0)
+    nan_force = (np.isnan(rows.My) & rows.valid).any(axis=1)
+    applies = ((np.abs(np.nan_to_num(My)) > 0).any(axis=1) | nan_force) & np.asarray(b["ltb_susceptible"], bool)
+    reason = np.asarray(b.get("reason_LT", b["reason"]), dtype=object).copy()
+    _add(reason, nan_force, "bending moment M_y not known at some station")
+    W_y, f_y = np.asarray(b["W_y_m3"], float), np.asarray(rows.f_y, float)
+    chi_LT = np.asarray(b["chi_LT"], float)
+    M_b = lt.M_b_Rd(chi_LT, W_y, f_y, gamma_M1=st.gamma_M1)
+    M_Ed = np.asarray(b["M_Ed_LT_Nm"], float)
+    with np.errstate(invalid="ignore", divide="ignore"):
+        util = np.where(reason == "", M_Ed / M_b, np.nan)
+    R = rows.n_rows
+    values = {"M_y_Ed_Nm": M_Ed, "segment_start_m": b["ltb_segment_start_m"],
+              "segment_end_m": b["ltb_segment_end_m"], "n_segments": b["n_segments"],
+              "M_cr_Nm": b["M_cr_Nm"], "M_cr_0_Nm": b["M_cr_0_Nm"], "C_1": b["C_1"],
+              "W_y_m3": W_y, "lambda_bar_LT": b["lambda_bar_LT"], "buckling_curve": b["curve_LT"],
+              "alpha_LT": b["alpha_LT"], "lambda_LT_0": b["lambda_LT_0"],
+              "beta": np.full(R, np.nan if st.ltb_method == "general" else st.beta_LT),
+              "chi_LT_unmodified": b["chi_LT_unmodified"], "k_c": b["k_c"], "k_c_case": b["k_c_case"],
+              "psi": b["psi"], "f": b["f"], "ltb_negligible": b["ltb_negligible"], "chi_LT": chi_LT,
+              "method": np.full(R, "6.3.2.2 general" if st.ltb_method == "general" else "6.3.2.3 rolled",
+                                dtype=object),
+              "f_y_Pa": f_y, "gamma_M1": np.full(R, st.gamma_M1), "M_b_Rd_Nm": M_b}
+    return [CheckBlock(check="lateral-torsional buckling", clause="6.3.2.1 (6.54)", utilisation=util,
+                       x=np.asarray(b["x_LT_m"], float), applies=applies, reason=reason, values=values)]
