@@ -104,7 +104,9 @@ def grade_name(grade: str, *, file: str | None = None, row: int | None = None,
 
 def strengths(grade: np.ndarray | list[str], t: np.ndarray, *, file: str | None = None,
               field: str = "grade") -> tuple[np.ndarray, np.ndarray]:
-    """EN 1993-1-1:2005, 3.2.1, Table 3.1: nominal f_y and f_u (Pa) by grade and thickness t (m).
+    """EN 1993-1-1:2005, 3.2.1, Table 3.1.
+
+    Nominal f_y and f_u (Pa) by grade and nominal thickness t (m).
 
     `grade` and `t` broadcast together. t is the nominal thickness of the element that governs
     (for a rolled I section the flange). Table 3.1 has two columns, t <= 40 mm and 40 < t <= 80 mm;

@@ -114,6 +114,19 @@ def _i_record(row: _Row, h: float, b: float, tw: float, tf: float, r: float, a: 
     return rec
 
 
+def _corner_radii(t: np.ndarray, fabrication: np.ndarray, r_o: np.ndarray
+                  ) -> tuple[np.ndarray, np.ndarray]:
+    """Outer and inner corner radii of RHS: the product standard's when r_o is NaN; with a given
+    r_o, cold-formed walls bend at constant thickness (r_i = r_o - t) and hot-finished keep the
+    EN 10210-2 proportion r_i = r_o / 1.5."""
+    r_o_default, r_i_default = shapes.hollow_corner_radii(t, fabrication)
+    cold = np.asarray(fabrication) == "cold-formed"
+    given = np.asarray(r_o, dtype=float)
+    r_i = np.where(np.isnan(given), r_i_default,
+                   np.where(cold, np.maximum(given - t, 0.0), given / 1.5))
+    return np.where(np.isnan(given), r_o_default, given), r_i
+
+
 def _hollow_record(row: _Row, shape: str, h: float, b: float, t: float, r_o: float,
                    fabrication: str) -> dict:
     if t >= min(h, b) / 2.0:
@@ -126,6 +139,15 @@ def _hollow_record(row: _Row, shape: str, h: float, b: float, t: float, r_o: flo
         if fabrication == "cold-formed" and r_o < t:
             raise row.error(f"outer corner radius {r_o:g} mm of a cold-formed section must be at "
                             f"least the wall thickness {t:g} mm", "ro_mm")
+    if shape == "RHS":
+        r_out, r_in = _corner_radii(np.array(t * 1e-3), np.array(fabrication),
+                                    np.array(r_o * 1e-3))
+        if r_in > (min(h, b) - 2.0 * t) * 1e-3 / 2.0 + 1e-12:
+            field = "t_mm" if np.isnan(r_o) else "ro_mm"
+            raise row.error(f"the corners do not fit: inner radius {float(r_in) * 1e3:g} mm (outer "
+                            f"{float(r_out) * 1e3:g} mm) exceeds half the inside width "
+                            f"{(min(h, b) - 2 * t) / 2:g} mm; the wall is too thick for the size",
+                            field)
     rec = _empty_record()
     rec.update(shape=shape, fabrication=fabrication, h=h * 1e-3, b=b * 1e-3, t=t * 1e-3,
                r_o=r_o * 1e-3)
@@ -246,13 +268,7 @@ def _compute(table: pd.DataFrame) -> pd.DataFrame:
         h, b, tw, tf = (s[c].to_numpy() for c in ("h", "b", "t_w", "t_f"))
         props = shapes.i_section(h, b, tw, tf, r, rolled=~welded)
         h_w = h - 2.0 * tf
-        # 6.2.6(3)(a) rolled I, load parallel to the web: A - 2 b t_f + (t_w + 2 r) t_f >= eta h_w t_w
-        # 6.2.6(3)(b) welded I: eta h_w t_w; eta = 1.0 (conservative value allowed by 6.2.6(3))
-        av_rolled = np.maximum(props["A"] - 2.0 * b * tf + (tw + 2.0 * r) * tf, h_w * tw)
-        props["Av_z"] = np.where(welded, h_w * tw, av_rolled)
-        # load parallel to the flanges: 6.2.6(3)(d) A - h_w t_w for welded; for rolled the same
-        # expression would credit the fillets, so the flanges alone, 2 b t_f (common practice)
-        props["Av_y"] = np.where(welded, props["A"] - h_w * tw, 2.0 * b * tf)
+        props["Av_z"], props["Av_y"] = shapes.shear_areas_i(props["A"], h, b, tw, tf, r, welded)
         props["t_max"] = np.maximum(tf, tw)
         props["c_web"] = h_w - 2.0 * r - 2.0 * SQRT2 * a
         props["t_web"] = tw
@@ -265,18 +281,9 @@ def _compute(table: pd.DataFrame) -> pd.DataFrame:
     if is_rhs.any():
         s = t.loc[is_rhs]
         h, b, wall = (s[c].to_numpy() for c in ("h", "b", "t"))
-        r_o_default, r_i_default = shapes.hollow_corner_radii(wall, fab[is_rhs])
-        given = s["r_o"].to_numpy()
-        cold = fab[is_rhs] == "cold-formed"
-        # a given outer radius: cold-formed walls bend at constant thickness (r_i = r_o - t);
-        # hot-finished keep the EN 10210-2 proportion r_i / r_o = 1 / 1.5
-        r_o = np.where(np.isnan(given), r_o_default, given)
-        r_i = np.where(np.isnan(given), r_i_default,
-                       np.where(cold, np.maximum(given - wall, 0.0), given / 1.5))
+        r_o, r_i = _corner_radii(wall, fab[is_rhs], s["r_o"].to_numpy())
         props = shapes.rhs(h, b, wall, r_o, r_i)
-        # 6.2.6(3)(e) rolled RHS of uniform thickness: A h / (b + h) parallel to the depth
-        props["Av_z"] = props["A"] * h / (b + h)
-        props["Av_y"] = props["A"] * b / (b + h)
+        props["Av_z"], props["Av_y"] = shapes.shear_areas_rhs(props["A"], h, b)
         props["t_max"] = wall
         props["r_o"] = r_o
         # Table 5.2 internal parts: c = h - 3 t and b - 3 t (common practice for hollow sections)
@@ -290,7 +297,7 @@ def _compute(table: pd.DataFrame) -> pd.DataFrame:
         s = t.loc[is_chs]
         d, wall = s["h"].to_numpy(), s["t"].to_numpy()
         props = shapes.chs(d, wall)
-        props["Av_z"] = props["Av_y"] = 2.0 * props["A"] / np.pi  # 6.2.6(3)(g)
+        props["Av_z"] = props["Av_y"] = shapes.shear_area_chs(props["A"])
         props["t_max"] = wall
         props["c_web"], props["t_web"] = d, wall  # Table 5.2 sheet 3: d / t
         for key, value in props.items():

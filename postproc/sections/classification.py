@@ -41,12 +41,17 @@ _TINY = 1e-9  # a moment below 1e-9 f_y W counts as zero (pure compression or pu
 
 
 def epsilon(f_y: Array) -> Array:
-    """EN 1993-1-1:2005, 5.5.2, Table 5.2: eps = sqrt(235 / f_y), f_y in Pa (235 N/mm2 = 235e6 Pa)."""
+    """EN 1993-1-1:2005, 5.5.2, Table 5.2.
+
+    eps = sqrt(235 N/mm2 / f_y), f_y in Pa.
+    """
     return np.sqrt(235e6 / np.asarray(f_y, dtype=float))
 
 
 def internal_part_limits_plastic(alpha: Array, eps: Array) -> tuple[Array, Array]:
-    """EN 1993-1-1:2005, 5.5.2, Table 5.2 (sheet 1): class 1 and 2 c/t limits of internal parts.
+    """EN 1993-1-1:2005, 5.5.2, Table 5.2 (sheet 1).
+
+    Class 1 and 2 c/t limits of internal compression parts.
 
     alpha: fraction of c in compression under the plastic distribution (0 < alpha <= 1);
     alpha = 1 is pure compression (33 eps, 38 eps), alpha = 0.5 pure bending (72 eps, 83 eps).
@@ -60,7 +65,9 @@ def internal_part_limits_plastic(alpha: Array, eps: Array) -> tuple[Array, Array
 
 
 def internal_part_limit_elastic(psi: Array, eps: Array) -> Array:
-    """EN 1993-1-1:2005, 5.5.2, Table 5.2 (sheet 1): class 3 c/t limit of internal parts.
+    """EN 1993-1-1:2005, 5.5.2, Table 5.2 (sheet 1).
+
+    Class 3 c/t limit of internal compression parts.
 
     psi: ratio of the end stresses, the larger compression being 1 (psi = 1 compression, 42 eps;
     psi = -1 pure bending, 124 eps). psi > -1: 42 eps / (0.67 + 0.33 psi);
@@ -74,7 +81,9 @@ def internal_part_limit_elastic(psi: Array, eps: Array) -> Array:
 
 def outstand_limits_plastic(alpha: Array, tip_in_compression: Array, eps: Array
                             ) -> tuple[Array, Array]:
-    """EN 1993-1-1:2005, 5.5.2, Table 5.2 (sheet 2): class 1 and 2 c/t limits of outstand flanges.
+    """EN 1993-1-1:2005, 5.5.2, Table 5.2 (sheet 2).
+
+    Class 1 and 2 c/t limits of outstand flanges.
 
     alpha: fraction of c in compression (plastic), measured from the tip when the tip is in
     compression, from the root when the tip is in tension. Tip in compression: 9 eps / alpha,
@@ -88,7 +97,9 @@ def outstand_limits_plastic(alpha: Array, tip_in_compression: Array, eps: Array
 
 
 def k_sigma_outstand(psi: Array, tip_in_compression: Array) -> Array:
-    """EN 1993-1-5:2006, 4.4, Table 4.2: buckling factor k_sigma of an outstand element.
+    """EN 1993-1-5:2006, 4.4, Table 4.2.
+
+    Buckling factor k_sigma of an outstand compression element.
 
     psi = sigma_2 / sigma_1, sigma_1 the larger compression. Largest compression at the free
     edge (tip): k_sigma = 0.57 - 0.21 psi + 0.07 psi^2 for 1 >= psi >= -3 (psi below -3 taken as
@@ -106,7 +117,9 @@ def k_sigma_outstand(psi: Array, tip_in_compression: Array) -> Array:
 
 
 def outstand_limit_elastic(psi: Array, tip_in_compression: Array, eps: Array) -> Array:
-    """EN 1993-1-1:2005, 5.5.2, Table 5.2 (sheet 2): class 3 c/t limit of outstand flanges.
+    """EN 1993-1-1:2005, 5.5.2, Table 5.2 (sheet 2).
+
+    Class 3 c/t limit of outstand flanges.
 
     Uniform compression (psi = 1): 14 eps; otherwise 21 eps sqrt(k_sigma), k_sigma from
     EN 1993-1-5 Table 4.2 (`k_sigma_outstand`).
@@ -117,8 +130,11 @@ def outstand_limit_elastic(psi: Array, tip_in_compression: Array, eps: Array) ->
 
 
 def chs_limits(eps: Array) -> tuple[Array, Array, Array]:
-    """EN 1993-1-1:2005, 5.5.2, Table 5.2 (sheet 3): d/t limits of tubular sections, 50, 70 and
-    90 eps^2 for classes 1, 2 and 3 (bending and/or compression)."""
+    """EN 1993-1-1:2005, 5.5.2, Table 5.2 (sheet 3).
+
+    d/t limits of tubular sections, 50, 70 and 90 eps^2 for classes 1, 2 and 3 (bending and/or
+    compression).
+    """
     eps2 = np.asarray(eps, dtype=float) ** 2
     return 50.0 * eps2, 70.0 * eps2, 90.0 * eps2
 
@@ -284,7 +300,9 @@ def _chs_class(s: dict[str, Array], f_y: Array, eps: Array, N_c: Array, My: Arra
 
 def section_class(section: dict[str, np.ndarray], f_y: np.ndarray, N_Ed: np.ndarray,
                   My_Ed: np.ndarray, Mz_Ed: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
-    """EN 1993-1-1:2005, 5.5.2, Table 5.2: cross-section class under N_Ed, My_Ed, Mz_Ed.
+    """EN 1993-1-1:2005, 5.5.2, Table 5.2.
+
+    Cross-section class under N_Ed, My_Ed, Mz_Ed (module docstring: how).
 
     `section` maps the sections table's columns to arrays; every array broadcasts with f_y (Pa)
     and the forces (N, N*m; N > 0 tension), e.g. section arrays and f_y of shape (R, 1) against

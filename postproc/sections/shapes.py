@@ -133,6 +133,40 @@ def chs(d: Array, t: Array) -> dict[str, Array]:
             "W_pl_z": W_pl, "I_t": 2.0 * I, "I_w": np.zeros_like(I)}
 
 
+def shear_areas_i(A: Array, h: Array, b: Array, t_w: Array, t_f: Array, r: Array,
+                  welded: Array | bool, *, eta: float = 1.0) -> tuple[Array, Array]:
+    """EN 1993-1-1:2005, 6.2.6(3).
+
+    Shear areas (Av_z for load parallel to the web, Av_y parallel to the flanges) of I sections:
+    rolled, (a) A - 2 b t_f + (t_w + 2 r) t_f but not less than eta h_w t_w; welded, (b)
+    eta h_w t_w, and (d) A - h_w t_w parallel to the flanges. Rolled sections parallel to the
+    flanges take 2 b t_f (the flanges alone, common practice: (d) would credit the fillets).
+    eta: EN 1993-1-5 factor, 1.0 the conservative value 6.2.6(3) allows (NDP in EN 1993-1-5).
+    """
+    h_w = h - 2.0 * t_f
+    av_rolled = np.maximum(A - 2.0 * b * t_f + (t_w + 2.0 * r) * t_f, eta * h_w * t_w)
+    Av_z = np.where(welded, eta * h_w * t_w, av_rolled)
+    Av_y = np.where(welded, A - h_w * t_w, 2.0 * b * t_f)
+    return Av_z, Av_y
+
+
+def shear_areas_rhs(A: Array, h: Array, b: Array) -> tuple[Array, Array]:
+    """EN 1993-1-1:2005, 6.2.6(3).
+
+    (e) rectangular hollow sections of uniform thickness: A h / (b + h) for load parallel to the
+    depth h (Av_z), A b / (b + h) parallel to the width b (Av_y).
+    """
+    return A * h / (b + h), A * b / (b + h)
+
+
+def shear_area_chs(A: Array) -> Array:
+    """EN 1993-1-1:2005, 6.2.6(3).
+
+    (g) circular hollow sections and tubes of uniform thickness: 2 A / pi.
+    """
+    return 2.0 * A / np.pi
+
+
 def hollow_corner_radii(t: Array, fabrication: Array) -> tuple[Array, Array]:
     """Outer and inner corner radii of rectangular hollow sections when none is given.
 
