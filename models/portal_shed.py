@@ -77,9 +77,9 @@ def build_model() -> dict:
         _vertical(element, 0.30e3 * SPACING + 0.42e3, *run(a, b))
     for element, a, b in ((1, 1, 2), (2, 21, 20)):
         _vertical(element, 0.20e3 * SPACING + 0.66e3, *run(a, b))  # wall rails and cladding
-    ops.pattern("Plain", 2, 1)  # snow 0.8 x 1.0 kN/m2 on plan
+    ops.pattern("Plain", 2, 1)  # snow: shape factor 0.8 x 1.25 kN/m2 on the ground, on plan
     for element, a, b in rafters:
-        _on_plan(element, 0.80e3 * SPACING, *run(a, b))
+        _on_plan(element, 1.00e3 * SPACING, *run(a, b))
     ops.pattern("Plain", 3, 1)  # imposed on roof, 0.4 kN/m2 on plan
     for element, a, b in rafters:
         _on_plan(element, 0.40e3 * SPACING, *run(a, b))

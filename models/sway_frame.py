@@ -44,7 +44,7 @@ def build_model() -> dict:
     columns, beams = {}, {}
     for level in range(1, LEVELS + 1):
         for line in range(LINES):
-            tag = 1000 + 10 * level + line        # columns: 1011 .. 1033
+            tag = 1000 + 10 * level + line        # columns: 1010 .. 1032
             section = 1 if level == 1 else 2
             ops.element("elasticBeamColumn", tag, node_tag(line, level - 1),
                         node_tag(line, level), section, 1)
@@ -68,8 +68,8 @@ def build_model() -> dict:
     ops.pattern("Plain", 2, 1)  # offices 3.0 kN/m2
     for t in floors:
         ops.eleLoad("-ele", t, "-type", "-beamUniform", -3.0e3 * SPACING)
-    ops.pattern("Plain", 3, 1)  # storage 2.5 kN/m2, left bay of level 1, plus a shelving unit
-    ops.eleLoad("-ele", beams[(0, 1)], "-type", "-beamUniform", -2.5e3 * SPACING)
+    ops.pattern("Plain", 3, 1)  # storage 4.0 kN/m2, left bay of level 1, plus a shelving unit
+    ops.eleLoad("-ele", beams[(0, 1)], "-type", "-beamUniform", -4.0e3 * SPACING)
     ops.eleLoad("-ele", beams[(0, 1)], "-type", "-beamPoint", -20.0e3, 0.3)
     ops.pattern("Plain", 4, 1)  # snow 0.6 kN/m2
     for t in roof:
