@@ -105,7 +105,7 @@ def in_plane_moment(frame: Frame) -> np.ndarray:
 
 
 def moment_released(frame: Frame, end: str) -> np.ndarray:
-    """(n,) True where the element end carries no bending moment (a pin) in the modelled plane(s)."""
+    """(n,) True where the element `end` carries no bending moment in the modelled plane(s)."""
     my, mz = released(frame, end, "My"), released(frame, end, "Mz")
     if frame.ndm == 2:
         return np.where(in_plane_moment(frame) == "My", my, mz)

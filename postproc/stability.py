@@ -475,5 +475,6 @@ def bow_imperfections_needed(frame: Frame, members: Members, results: Results,
                         "combination": table["combination"].to_numpy(),
                         "N_Ed_N": N_Ed, "N_cr_N": N_cr[idx], "moment_end": moment_end[idx],
                         "sway_mode": sway})
-    out["bow_needed"] = out["sway_mode"] & out["moment_end"] & (out["N_Ed_N"] > 0.25 * out["N_cr_N"])
+    slender = out["N_Ed_N"] > 0.25 * out["N_cr_N"]
+    out["bow_needed"] = out["sway_mode"] & out["moment_end"] & slender
     return out.reset_index(drop=True)

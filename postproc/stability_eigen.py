@@ -134,7 +134,8 @@ def section_columns(frame: Frame, names: tuple[str, ...] = ("A", "I_y", "I_z", "
 def check_connected(frame: Frame) -> None:
     """Raise TopologyError if the elements form more than one connected piece."""
     g = nx.Graph()
-    g.add_edges_from(zip(frame.elements["node_i"].astype(str), frame.elements["node_j"].astype(str)))
+    g.add_edges_from(zip(frame.elements["node_i"].astype(str),
+                         frame.elements["node_j"].astype(str)))
     parts = sorted(nx.connected_components(g), key=len, reverse=True)
     if len(parts) > 1:
         lone = sorted(parts[1])[:5]

@@ -11,7 +11,8 @@ Where each length comes from (the `origin_*` columns say it row by row):
     force in the frame's buckling mode, N_cr = alpha_cr |N_Ed|, L_cr = pi sqrt(E I / N_cr)
     (5.2.2(8)); this is a lower bound of the member's critical force about either axis, so it is
     used for both axes of a space frame. A member not in compression gets the sway effective
-    length from its end restraint.
+    length from its end restraint, or, pinned at both ends (a link that sways with the frame),
+    the non-sway length.
   - a member end with no restraint across that axis (a cantilever tip): the sway effective
     length with that end free.
 - The out-of-plane axis of a plane frame: the longest span between points restrained out of
@@ -286,7 +287,9 @@ def buckling_lengths(frame: Frame, members: Members, results: Results, paths: pd
             frame_len = np.pi * np.sqrt(E_STEEL * I[:, None] / (alpha[None, :] * -N))
         use_frame = (modelled[:, None] & sway_needed[None, :] & (N < 0) & np.isfinite(frame_len)
                      & np.isfinite(alpha)[None, :])
-        use_sway = modelled[:, None] & sway_needed[None, :] & ~use_frame
+        # a member with no sway stiffness of its own (pinned both ends, not in compression)
+        # sways as a link with the frame: its own length is the non-sway one
+        use_sway = modelled[:, None] & sway_needed[None, :] & ~use_frame & np.isfinite(sw)[:, None]
         L = np.where(use_frame, frame_len, np.where(use_sway, sw[:, None], base[:, None]))
         origin = np.where(use_sway, sw_o[:, None], base_o[:, None]).astype(object)
         fr_text = np.array([f"frame buckling mode: N_cr = alpha_cr |N_Ed| = {a:.2f} x |N_Ed| "
