@@ -28,7 +28,7 @@ from .errors import MaterialError
 E = 210e9
 """Modulus of elasticity, Pa. EN 1993-1-1:2005, 3.2.6(1)."""
 G = 81e9
-"""Shear modulus, Pa. EN 1993-1-1:2005, 3.2.6(1) (E / (2 (1 + nu)), rounded as the standard does)."""
+"""Shear modulus, Pa. EN 1993-1-1:2005, 3.2.6(1) (E / (2 (1 + nu)), rounded as given there)."""
 NU = 0.3
 """Poisson's ratio in the elastic range. EN 1993-1-1:2005, 3.2.6(1)."""
 
@@ -83,7 +83,7 @@ _GRADE_RE = re.compile(r"^S(\d{3})(JR|J0|J2|K2)?([NMQW])?(L1|L)?(H)?$")
 
 def grade_name(grade: str, *, file: str | None = None, row: int | None = None,
                field: str | None = "grade") -> str:
-    """The key of Table 3.1 for a grade as users write it ('s355 j2' -> 'S355', 'S355NLH' -> 'S355NH').
+    """The Table 3.1 key of a grade as users write it ('s355 j2' -> 'S355', 'S355NLH' -> 'S355NH').
 
     Raises MaterialError naming the grade and the known grades when it cannot be read.
     """

@@ -1,7 +1,7 @@
 """Steel grades: EN 1993-1-1:2005 3.2.6 constants and Table 3.1 strengths.
 
 Table 3.1 values are recalled from the standard (from memory); the EN 10025-2 rows also appear in
-/work/shared/REFERENCES.md, which the team keeps as its list of trusted outside values.
+REFERENCES.md, the project's list of trusted outside values.
 """
 
 import numpy as np

@@ -1,7 +1,8 @@
 """Sections: properties from dimensions, the catalogue of standard sizes, classification.
 
-`build_sections(specs)` turns the user's section rows (catalogue designation, dimensions, or explicit
-properties) into the sections table every later stage reads. Index `section`; columns, all SI:
+`build_sections(specs)` turns the user's section rows (catalogue designation, dimensions, or
+explicit properties) into the sections table every later stage reads. Index `section`; columns,
+all SI:
 
 - `shape` ('I', 'RHS', 'CHS', 'GENERIC'), `fabrication` ('rolled', 'welded', 'hot-finished',
   'cold-formed', ''), `designation` (the catalogue name, '' when given by dimensions);
@@ -14,7 +15,8 @@ properties) into the sections table every later stage reads. Index `section`; co
 - `given_class` (NaN unless the user gave a class);
 - plate parts for Table 5.2: `c_web, t_web, c_flange, t_flange` (m). I: web c = h - 2 t_f - 2 r
   (welded: - 2 sqrt(2) a), flange outstand c = (b - t_w - 2 r) / 2 (welded: - sqrt(2) a). RHS:
-  h - 3 t (web, the walls along z) and b - 3 t (flange, the walls along y). CHS: c_web = d, t_web = t.
+  h - 3 t (web, the walls along z) and b - 3 t (flange, the walls along y). CHS: c_web = d,
+  t_web = t.
 
 See docs/sections.md for the input columns and how each property is computed.
 """

@@ -25,7 +25,8 @@ DIMENSIONS = ["h", "b", "t_w", "t_f", "r", "a_w", "t", "r_o"]
 PROPERTIES = ["A", "Av_z", "Av_y", "I_y", "I_z", "W_el_y", "W_el_z", "W_pl_y", "W_pl_z", "i_y",
               "i_z", "I_t", "I_w", "t_max"]
 PARTS = ["c_web", "t_web", "c_flange", "t_flange"]
-COLUMNS = ["shape", "fabrication", "designation"] + DIMENSIONS + PROPERTIES + ["given_class"] + PARTS
+COLUMNS = (["shape", "fabrication", "designation"] + DIMENSIONS + PROPERTIES + ["given_class"]
+           + PARTS)
 """Columns of the sections table, in order (index: `section`)."""
 
 INPUT_SHAPES = ("I", "I-welded", "RHS", "CHS", "GENERIC")
@@ -100,7 +101,8 @@ def _check_i(row: _Row, h: float, b: float, tw: float, tf: float, r: float, a: f
     if h - 2.0 * tf - 2.0 * corner <= 0.0 or (b - tw) / 2.0 - corner <= 0.0:
         what = "root radius" if r > 0 else "weld"
         raise row.error(f"{what} of {corner:g} mm leaves no flat web or flange outstand: the web "
-                        f"between flanges is {h - 2 * tf:g} mm and the outstand {(b - tw) / 2:g} mm",
+                        f"between flanges is {h - 2 * tf:g} mm and the outstand "
+                        f"{(b - tw) / 2:g} mm",
                         field)
 
 

@@ -140,7 +140,8 @@ BAD = [
 @pytest.mark.parametrize("columns, field, words", BAD)
 def test_bad_input_names_file_row_field_value(columns, field, words):
     specs = spec(section=["ok", "bad"], _row=[7, 8],
-                 **{k: [np.nan if k != "designation" else "IPE 200", v] for k, v in columns.items()})
+                 **{k: [np.nan if k != "designation" else "IPE 200", v]
+                    for k, v in columns.items()})
     if "designation" not in columns:
         specs["designation"] = ["IPE 200", ""]
     with pytest.raises(SectionError) as info:

@@ -1,7 +1,8 @@
 """Computed section properties against handbook values.
 
 Sources, named per case below:
-- IPE 300, HEA 200, HEB 200: /work/shared/REFERENCES.md, section handbook values (from memory there).
+- IPE 300, HEA 200, HEB 200: REFERENCES.md (the project's list of trusted outside values),
+  section handbook values (from memory there).
 - IPE 200, HEA 300, SHS 100x100x5, CHS 168.3x8: handbook values recalled here (from memory).
 Catalogue dimensions are themselves recalled from EN 10365 / EN 10210-2 (from memory).
 
