@@ -22,5 +22,7 @@ See docs/sections.md for the input columns and how each property is computed.
 """
 
 from .builder import COLUMNS, build_sections
+from .classification import section_class
+from .listing import catalogue_listing
 
-__all__ = ["COLUMNS", "build_sections"]
+__all__ = ["COLUMNS", "build_sections", "catalogue_listing", "section_class"]
