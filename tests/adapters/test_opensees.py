@@ -498,3 +498,72 @@ def test_script_with_its_own_analysis_and_pattern_factor(tmp_path):
     # 2 x w L^2 / 8 at midspan (classical), from the unloaded state, not on top of the script's
     mid = f[(f["element"] == "2") & np.isclose(f["x_m"], 1.0)]["My_Nm"].iloc[0]
     assert mid == pytest.approx(-2 * 10.0e3 * 6.0**2 / 8, rel=SOLVER)
+
+
+BEAM_3D = """
+import openseespy.opensees as ops
+
+def build_model():
+    ops.wipe()
+    ops.model('basic', '-ndm', 3, '-ndf', 6)
+    ops.node(1, 0.0, 0.0, 0.0); ops.node(2, 5.0, 0.0, 0.0)
+    ops.fix(1, 1, 1, 1, 1, 0, 0); ops.fix(2, 0, 1, 1, 1, 0, 0)
+    ops.geomTransf('Linear', 1, 0.0, 0.0, 1.0)        # vecxz along the web (global Z)
+    # IPE 300: A E G J Iy Iz with Iy the major value (major_axis = "y")
+    ops.element('elasticBeamColumn', 1, 1, 2, 53.8e-4, 2.1e11, 8.1e10, 20.1e-8, 8356e-8,
+                604e-8, 1)
+    ops.timeSeries('Linear', 1)
+    ops.pattern('Plain', 1, 1)
+    ops.eleLoad('-ele', 1, '-type', '-beamUniform', 2.0e3, -8.0e3)    # wy (+Y), wz (-Z)
+    ops.eleLoad('-ele', 1, '-type', '-beamPoint', 0.0, -20.0e3, 0.3)  # Pz down at 0.3 L
+"""
+
+
+def test_3d_beam_loads_in_both_local_directions(tmp_path):
+    project = COLUMN_PROJECT.format(major="y").replace('1 = "HEB 200"', '1 = "IPE 300"')
+    frame, results = run(tmp_path, BEAM_3D, project)
+    f = at(results, "unit", "1")
+    L, wy, wz, P, a = 5.0, 2.0e3, 8.0e3, 20.0e3, 1.5
+    ex, ey, ez = local_axes(frame)[0]
+    assert ez == pytest.approx([0, 0, 1]) and ey == pytest.approx([0, 1, 0])
+    x = f["x_m"].to_numpy()
+    # simply supported: M = w x (L - x) / 2 plus P x (L - a) / L before the load and
+    # P a (L - x) / L after it (classical). Loads along -z sag the beam: -z side in tension,
+    # My < 0; loads along +y put the +y side in tension: Mz < 0 (sigma = -Mz y / I_z).
+    My = -(wz * x * (L - x) / 2 + np.where(x <= a, P * x * (L - a) / L, P * a * (L - x) / L))
+    Mz = -(wy * x * (L - x) / 2)
+    np.testing.assert_allclose(f["My_Nm"], My, atol=SOLVER * P * L)
+    np.testing.assert_allclose(f["Mz_Nm"], Mz, atol=SOLVER * P * L)
+    assert a in set(np.round(x, 12))  # the point load position is a station
+    # dMy/dx = Vz and dMz/dx = -Vy (postproc.results): with V linear between stations, the
+    # secant slope of M equals the mean of V at the two ends of each interval. At the point
+    # load V jumps, so intervals touching it are left out.
+    mid = (f["Vz_N"].to_numpy()[1:] + f["Vz_N"].to_numpy()[:-1]) / 2
+    slope = np.diff(f["My_Nm"].to_numpy()) / np.diff(x)
+    away = (np.abs(x[1:] - a) > 1e-9) & (np.abs(x[:-1] - a) > 1e-9)
+    np.testing.assert_allclose(slope[away], mid[away], atol=SOLVER * P)
+    mid_y = (f["Vy_N"].to_numpy()[1:] + f["Vy_N"].to_numpy()[:-1]) / 2
+    np.testing.assert_allclose(np.diff(f["Mz_Nm"].to_numpy()) / np.diff(x), -mid_y,
+                               atol=SOLVER * P)
+
+
+def test_opensees_and_exported_tables_give_the_same_utilisations(tmp_path):
+    from postproc.run import run_project
+
+    project_file = ROOT / "examples" / "portal_shed" / "project.toml"
+    direct = run_project(project_file)
+    opensees.export_tables(direct.frame, direct.results, tmp_path / "tables")
+    text = project_file.read_text()
+    members = text[text.index("[members."):]
+    (tmp_path / "project.toml").write_text(
+        '[model]\nsource = "tables"\ndirectory = "tables"\nndm = 2\n'
+        '[design]\ndefault_grade = "S275"\n' + members)
+    via_tables = run_project(tmp_path / "project.toml")
+    key = ["member", "combination", "check"]
+    a = direct.outcome.table.sort_values(key).reset_index(drop=True)
+    b = via_tables.outcome.table.sort_values(key).reset_index(drop=True)
+    assert len(a) == len(b) > 0
+    pd.testing.assert_series_equal(a["status"], b["status"])
+    # the same doubles go in, so the same utilisations come out
+    np.testing.assert_allclose(a["utilisation"], b["utilisation"], rtol=1e-12, equal_nan=True)
+    assert direct.outcome.exit_code == via_tables.outcome.exit_code
