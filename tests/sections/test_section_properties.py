@@ -91,3 +91,26 @@ def test_i_plate_parts_and_radii_of_gyration():
     # handbook i_y = 8.54 cm, i_z = 5.07 cm for HEB 200 (from memory)
     assert t["i_y"] == pytest.approx(0.0854, rel=TOL_EXACT)
     assert t["i_z"] == pytest.approx(0.0507, rel=TOL_EXACT)
+
+
+# Spot checks of the recalled catalogue rows: handbook A [cm2] and I_y [cm4] (from memory) for
+# sizes across every family and the whole depth range. A wrong dimension in a data file shows up
+# here as a difference well beyond TOL_EXACT.
+SPOT = {
+    "IPE 80": (7.64, 80.1), "IPE 100": (10.32, 171.0), "IPE 400": (84.46, 23130),
+    "IPE 500": (115.5, 48200), "IPE 600": (156.0, 92080),
+    "HEA 100": (21.24, 349.2), "HEA 400": (159.0, 45070), "HEA 500": (197.5, 86970),
+    "HEA 1000": (346.8, 553800),
+    "HEB 100": (26.04, 449.5), "HEB 300": (149.1, 25170), "HEB 400": (197.8, 57680),
+    "HEB 600": (270.0, 171000), "HEB 1000": (400.0, 644700),
+    "HEM 200": (131.3, 10640), "HEM 300": (303.1, 59200),
+    "RHS 200x100x8": (44.8, 2234), "CHS 219.1x10": (65.7, 3598),
+}
+
+
+def test_catalogue_spot_checks():
+    names = list(SPOT)
+    t = build_sections(pd.DataFrame({"section": names, "designation": names}))
+    for name, (area, inertia) in SPOT.items():
+        assert t.loc[name, "A"] == pytest.approx(area * CM2, rel=TOL_EXACT), name
+        assert t.loc[name, "I_y"] == pytest.approx(inertia * CM4, rel=TOL_EXACT), name
