@@ -33,7 +33,7 @@ E_STEEL = 210e9     # Pa, EN 1993-1-1 3.2.6(1)
 G_STEEL = 81e9      # Pa, EN 1993-1-1 3.2.6(1), G = E / (2 (1 + 0.3)) rounded as the standard does
 SUB_PER_MEMBER = 4  # at least this many sub-elements per design member
 PIVOT_RATIO_MIN = 1e-10   # scaled Cholesky pivot below this: the stiffness is singular
-DENSE_MAX = 400     # free freedoms up to which the eigenproblem is solved densely
+DENSE_MAX = 600     # free freedoms up to which the problem is solved with dense matrices
 
 # local freedom index of each releasable end action: u, v, w, theta_x, theta_y, theta_z
 ACTION_DOF = {"N": 0, "Vy": 1, "Vz": 2, "T": 3, "My": 4, "Mz": 5}
@@ -53,9 +53,10 @@ class Mesh:
     frac_mid: np.ndarray       # (s,) position of the sub-element middle along its element, 0..1
     free: np.ndarray           # (F,) global freedom numbers kept in the analysis
     n_dof: int                 # all freedoms, extra release freedoms included
-    K: np.ndarray              # (F, F) elastic stiffness on the kept freedoms, scaled
+    K: sp.csc_matrix           # (F, F) elastic stiffness on the kept freedoms, scaled
     scale: np.ndarray          # (F,) 1/sqrt(diag K): K_scaled = S K S
-    chol: np.ndarray           # (F, F) lower Cholesky factor of the scaled K
+    chol: np.ndarray | None    # (F, F) lower Cholesky factor of the scaled K (small models)
+    lu: object | None          # sparse LU factors of the scaled K (larger models)
     g_index: np.ndarray        # (s, 24) global freedom of each column of the element matrices
     g_unit: np.ndarray         # (s, 24, 24) geometric stiffness per unit tension, global axes
 
@@ -235,12 +236,17 @@ def build_mesh(frame: Frame, elements_per_member: np.ndarray) -> Mesh:
     # freedoms nothing is attached to (e.g. node rotation where every element is pinned)
     loose = diag <= 1e-9 * diag.max()
     free = np.nonzero(~fixed & ~loose)[0]
-    Kf = K[free][:, free].toarray()
+    Kf = K[free][:, free].tocsc()
     scale = 1.0 / np.sqrt(Kf.diagonal())
-    Ks = Kf * scale[:, None] * scale[None, :]
-    chol = _factorise(Ks, free, node_ids, len(xyz0))
-    return Mesh(xyz, node_ids, parent, n_sub, end_i, end_j,
-                (local + 0.5) / n_sub[parent], free, n_dof, Ks, scale, chol, g_index, g_unit)
+    S = sp.diags(scale)
+    Ks = (S @ Kf @ S).tocsc()
+    where_dof = (free, node_ids, len(xyz0))
+    if len(free) <= DENSE_MAX:
+        chol, lu = _factorise_dense(Ks.toarray(), *where_dof), None
+    else:
+        chol, lu = None, _factorise_sparse(Ks, *where_dof)
+    return Mesh(xyz, node_ids, parent, n_sub, end_i, end_j, (local + 0.5) / n_sub[parent],
+                free, n_dof, Ks, scale, chol, lu, g_index, g_unit)
 
 
 def _assemble(mats: np.ndarray, index: np.ndarray, n: int) -> sp.csr_matrix:
@@ -257,20 +263,39 @@ def _describe_dof(g: int, node_ids: list[str], n_frame_nodes: int) -> str:
     return "a point inside an element or a released element end"
 
 
-def _factorise(Ks: np.ndarray, free: np.ndarray, node_ids: list[str], n_nodes: int) -> np.ndarray:
+def _mechanism(g: int | None, node_ids: list[str], n_nodes: int) -> TopologyError:
+    where = "" if g is None else \
+        f"; the free motion is largest at {_describe_dof(g, node_ids, n_nodes)}"
+    return TopologyError("the frame is a mechanism (its stiffness matrix is singular): check "
+                         f"supports and end releases{where}")
+
+
+def _factorise_dense(Ks: np.ndarray, free: np.ndarray, node_ids: list[str], n_nodes: int
+                     ) -> np.ndarray:
     """Cholesky of the scaled stiffness; a mechanism raises TopologyError naming a freedom."""
     try:
         chol = sla.cholesky(Ks, lower=True)
-        pivots = chol.diagonal() ** 2
-        if pivots.min() >= PIVOT_RATIO_MIN:
+        if (chol.diagonal() ** 2).min() >= PIVOT_RATIO_MIN:
             return chol
     except sla.LinAlgError:
         pass
-    w, v = sla.eigh(Ks, subset_by_index=[0, 0])
-    g = int(free[np.argmax(np.abs(v[:, 0]))])
-    raise TopologyError("the frame is a mechanism (its stiffness matrix is singular): check "
-                        "supports and end releases; the free motion is largest at "
-                        f"{_describe_dof(g, node_ids, n_nodes)}")
+    _, v = sla.eigh(Ks, subset_by_index=[0, 0])
+    raise _mechanism(int(free[np.argmax(np.abs(v[:, 0]))]), node_ids, n_nodes)
+
+
+def _factorise_sparse(Ks: sp.csc_matrix, free: np.ndarray, node_ids: list[str], n_nodes: int):
+    """Sparse LU (diagonal pivots, symmetric ordering) of the scaled stiffness; the pivots of a
+    unit-diagonal matrix show a mechanism directly."""
+    try:
+        lu = spla.splu(Ks, permc_spec="MMD_AT_PLUS_A", diag_pivot_thresh=0.0,
+                       options={"SymmetricMode": True})
+    except RuntimeError:
+        raise _mechanism(None, node_ids, n_nodes) from None
+    pivots = np.abs(lu.U.diagonal())
+    if pivots.min() >= PIVOT_RATIO_MIN:
+        return lu
+    k = int(np.argmin(pivots))
+    raise _mechanism(int(free[np.argsort(lu.perm_c)[k]]), node_ids, n_nodes)
 
 
 def lowest_mode(mesh: Mesh, tension: np.ndarray) -> tuple[float, np.ndarray | None]:
@@ -278,32 +303,31 @@ def lowest_mode(mesh: Mesh, tension: np.ndarray) -> tuple[float, np.ndarray | No
 
     Returns (alpha_cr, mode over all freedoms) or (inf, None) when nothing is in compression.
     """
-    Kg = _assemble(tension[:, None, None] * mesh.g_unit, mesh.g_index, mesh.n_dof)
-    Gf = -Kg[mesh.free][:, mesh.free].toarray() * mesh.scale[:, None] * mesh.scale[None, :]
     if not np.any(tension < 0.0):
         return np.inf, None
-    L = mesh.chol
+    Kg = _assemble(tension[:, None, None] * mesh.g_unit, mesh.g_index, mesh.n_dof)
+    S = sp.diags(mesh.scale)
+    Gs = -(S @ Kg[mesh.free][:, mesh.free] @ S)
     n = len(mesh.free)
-
-    def apply(x: np.ndarray) -> np.ndarray:
-        y = sla.solve_triangular(L, x, lower=True, trans="T")
-        return sla.solve_triangular(L, Gf @ y, lower=True)
-
-    if n <= DENSE_MAX:
-        A = sla.solve_triangular(L, Gf, lower=True)
+    if mesh.chol is not None:
+        # standard symmetric form: L^-1 (-K_G) L^-T y = mu y, mu = 1 / alpha
+        L = mesh.chol
+        A = sla.solve_triangular(L, Gs.toarray(), lower=True)
         A = sla.solve_triangular(L, A.T, lower=True)
-        A = 0.5 * (A + A.T)
-        mu, vec = sla.eigh(A, subset_by_index=[n - 1, n - 1])
-        mu, y = float(mu[0]), vec[:, 0]
+        mu, vec = sla.eigh(0.5 * (A + A.T), subset_by_index=[n - 1, n - 1])
+        mu = float(mu[0])
+        phi_s = sla.solve_triangular(L, vec[:, 0], lower=True, trans="T")
     else:
-        op = spla.LinearOperator((n, n), matvec=apply, dtype=float)
-        mu_all, vecs = spla.eigsh(op, k=3, which="LA", tol=1e-10)
+        # generalised form -K_G phi = mu K phi, K positive definite (ARPACK mode 2)
+        minv = spla.LinearOperator((n, n), matvec=mesh.lu.solve, dtype=float)
+        mu_all, vecs = spla.eigsh(Gs.tocsc(), k=min(3, n - 1), M=mesh.K, Minv=minv,
+                                  which="LA", tol=1e-10)
         top = int(np.argmax(mu_all))
-        mu, y = float(mu_all[top]), vecs[:, top]
+        mu, phi_s = float(mu_all[top]), vecs[:, top]
     if mu <= 1e-12:
         return np.inf, None
     phi = np.zeros(mesh.n_dof)
-    phi[mesh.free] = mesh.scale * sla.solve_triangular(L, y, lower=True, trans="T")
+    phi[mesh.free] = mesh.scale * phi_s
     return 1.0 / mu, phi
 
 

@@ -201,15 +201,18 @@ def test_braced_frame_has_no_sway_mode():
     assert not bool(lengths.at["C1", "sway_y"])
 
 
-def test_iterative_eigen_solver_agrees_with_the_dense_one(monkeypatch):
-    # larger models use scipy's eigsh; force it on a small one and compare with the dense path
+def test_sparse_solver_agrees_with_the_dense_one(monkeypatch):
+    # larger models use sparse LU and scipy's eigsh; force them on a small model
     import postproc.stability_eigen as eig
     f = portal(PINNED, beam="IPE 300", brace=True)
     axial = {"U1": {"C1": -3e5, "C2": -2e5, "R1": -1e4}}
-    dense = run(f, axial)[2].at["U1", "alpha_cr"]
+    dense = run(f, axial)[2]
     monkeypatch.setattr(eig, "DENSE_MAX", 0)
-    iterative = run(f, axial)[2].at["U1", "alpha_cr"]
-    assert iterative == pytest.approx(dense, rel=1e-8)     # same problem, solver tolerance
+    sparse = run(f, axial)[2]
+    assert sparse.at["U1", "alpha_cr"] == pytest.approx(dense.at["U1", "alpha_cr"], rel=1e-8)
+    assert sparse.at["U1", "sway_mode"] == dense.at["U1", "sway_mode"]
+    with pytest.raises(TopologyError, match="mechanism"):
+        run(portal(PINNED, beam_release="My"), {"U1": {"C1": -1e5, "C2": -1e5}})
 
 
 def test_space_portal_sways_about_the_weak_axis():
