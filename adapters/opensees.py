@@ -13,6 +13,7 @@ in the sign convention of `postproc.results`. The project keys are documented in
 
 from __future__ import annotations
 
+from dataclasses import dataclass
 from pathlib import Path
 
 import numpy as np
@@ -36,10 +37,21 @@ __all__ = ["load", "export_tables", "load_cases", "build_frame"]
 STIFFNESS_WARNING = 0.10  # relative difference between model and catalogue I worth a warning
 
 
-def load(project: dict, project_path: Path) -> tuple[Frame, Results]:
-    """Build, analyse and read the project's openseespy model (see docs/opensees.md)."""
+@dataclass(frozen=True)
+class Options:
+    """The [model] keys of an OpenSees project, checked."""
+
+    script: Path
+    builder: str | None
+    analysis: str
+    major_axis: str
+    stations: int
+    processes: int | None
+
+
+def model_options(model: dict, project_path: Path) -> Options:
+    """Check the [model] table of an OpenSees project (keys in docs/opensees.md)."""
     file = str(project_path)
-    model = dict(project.get("model", {}))
     unknown = sorted(set(model) - MODEL_KEYS)
     if unknown:
         raise InputError(f"unknown key(s) {', '.join(unknown)} under [model]; known: "
@@ -47,8 +59,6 @@ def load(project: dict, project_path: Path) -> tuple[Frame, Results]:
     if "script" not in model:
         raise InputError("needs script = \"path/to/model.py\" (relative to the project file)",
                          file=file, field="model.script")
-    script = (Path(project_path).parent / str(model["script"])).resolve()
-    builder = model.get("builder") or None
     analysis = model.get("analysis", "linear")
     if analysis not in ANALYSES:
         raise InputError(f"analysis {analysis!r} is not known; use one of {', '.join(ANALYSES)}",
@@ -59,41 +69,62 @@ def load(project: dict, project_path: Path) -> tuple[Frame, Results]:
                          "\"y\") is the section's major axis y-y", file=file,
                          field="model.major_axis")
     stations = model.get("stations", 5)
-    if not isinstance(stations, int) or isinstance(stations, bool) or stations < 5:
+    if not _whole(stations) or stations < 5:
         raise InputError(f"stations = {stations!r}: a whole number of at least 5 per element",
                          file=file, field="model.stations")
     processes = model.get("processes")
-    if processes is not None and (not isinstance(processes, int) or isinstance(processes, bool)
-                                  or processes < 1):
+    if processes is not None and (not _whole(processes) or processes < 1):
         raise InputError(f"processes = {processes!r}: a whole number, 1 or more", file=file,
                          field="model.processes")
-    pdelta = analysis == "p-delta"
+    return Options(script=(Path(project_path).parent / str(model["script"])).resolve(),
+                   builder=model.get("builder") or None, analysis=analysis,
+                   major_axis=major_axis, stations=stations, processes=processes)
+
+
+def _whole(value: object) -> bool:
+    return isinstance(value, int) and not isinstance(value, bool)
+
+
+def load(project: dict, project_path: Path) -> tuple[Frame, Results]:
+    """Build, analyse and read the project's openseespy model (see docs/opensees.md).
+
+    Args:
+        project: the parsed project file (tables [model], [load_cases], [combinations],
+            [design]).
+        project_path: the project file; the script path is relative to its folder.
+
+    Returns:
+        The Frame and the Results of every combination, SI, sign convention of
+        `postproc.results`. Raises InputError for bad input (naming file and field).
+    """
+    file = str(project_path)
+    model = dict(project.get("model", {}))
+    opt = model_options(model, project_path)
+    pdelta = opt.analysis == "p-delta"
 
     ops = import_opensees()
-    watched, returned = run_user_model(ops, script, builder, pdelta=pdelta)
-    captured = read_domain(ops, watched, script=str(script), returned=returned)
-    if captured.ndm == 2 and major_axis != "z":
+    watched = run_user_model(ops, opt.script, opt.builder, pdelta=pdelta)
+    captured = read_domain(ops, watched, script=str(opt.script))
+    if captured.ndm == 2 and opt.major_axis != "z":
         raise InputError("a plane model bends about OpenSees local z; major_axis must be \"z\"",
                          file=file, field="model.major_axis")
     cases = load_cases(project.get("load_cases", {}), captured.patterns, file=file)
     factors = loads.project_combinations(cases, project.get("combinations", {}), file=file)
-    frame = build_frame(captured, model, project, watched, major_axis=major_axis, file=file,
-                        script=script)
+    frame = build_frame(captured, model, project, watched, major_axis=opt.major_axis, file=file,
+                        script=opt.script)
     clear_patterns(ops)
 
     pattern_of = dict(zip(cases["load_case"], cases["pattern"]))
+    patterns = list(cases["pattern"])
     names = list(dict.fromkeys(factors["combination"]))
     kinds = factors.groupby("combination", sort=False)["kind"].first()
-    matrix = _factor_matrix(factors, names, [pattern_of[c] for c in cases["load_case"]],
-                            pattern_of)
-    patterns = [pattern_of[c] for c in cases["load_case"]]
-    kw = dict(script=str(script), builder=builder, pdelta=pdelta,
-              processes=processes)
+    matrix = _factor_matrix(factors, names, patterns, pattern_of)
+    run = dict(script=str(opt.script), builder=opt.builder, pdelta=pdelta,
+               processes=opt.processes)
     if not pdelta:
         jobs = [Job(f"load case {c}", {p: 1.0}) for c, p in zip(cases["load_case"], patterns)]
-        outcomes = run_jobs(ops, captured, jobs, **kw)
+        outcomes = run_jobs(ops, captured, jobs, **run)
         sets = _superpose_outcomes(outcomes, matrix, names, list(cases["load_case"]))
-        analysis_kind = ["first-order"] * len(names)
         set_kinds = [kinds[n] for n in names]
     else:
         from . import opensees_sway
@@ -101,13 +132,13 @@ def load(project: dict, project_path: Path) -> tuple[Frame, Results]:
         jobs, rows, set_names = opensees_sway.jobs(frame, captured, matrix, names,
                                                    [kinds[n] for n in names], patterns,
                                                    model.get("imperfection", {}), file=file)
-        outcomes = run_jobs(ops, captured, jobs, **kw)
+        outcomes = run_jobs(ops, captured, jobs, **run)
         sets = [(o.end_forces, o.displacements, o.reactions, o.error) for o in outcomes]
         set_kinds = [kinds[names[r]] for r in rows]
         matrix, names = matrix[rows], set_names
-        analysis_kind = ["second-order"] * len(names)
-    results = _results(captured, frame, matrix, patterns, names, set_kinds, analysis_kind, sets,
-                       stations=stations, major_axis=major_axis)
+    analysis = ["second-order" if pdelta else "first-order"] * len(names)
+    results = _results(captured, matrix, patterns, names, set_kinds, analysis, sets,
+                       stations=opt.stations, major_axis=opt.major_axis)
     return frame, results
 
 
@@ -130,24 +161,25 @@ def load_cases(table: dict, patterns: list[str], *, file: str) -> pd.DataFrame:
         if pattern not in patterns:
             raise InputError(f"load pattern {pattern} is not in the model (its patterns: "
                              f"{', '.join(patterns) or 'none'})", file=file, field=where)
+        psi_0 = spec.get("psi_0", np.nan)
+        if not isinstance(psi_0, (int, float)) or isinstance(psi_0, bool):
+            raise InputError(f"psi_0 = {psi_0!r} must be a number from 0 to 1", file=file,
+                             field=f"{where}.psi_0")
         records.append({"load_case": str(name), "category": spec["category"], "pattern": pattern,
-                        "group": str(spec.get("group", "")),
-                        "psi_0": float(spec.get("psi_0", np.nan))})
+                        "group": str(spec.get("group", "")), "psi_0": float(psi_0)})
     cases = pd.DataFrame.from_records(
         records, columns=["load_case", "category", "pattern", "group", "psi_0"])
     missing = [p for p in patterns if p not in set(cases["pattern"])]
     if missing:
         raise InputError(f"load pattern(s) {', '.join(missing)} of the model have no category; "
-                         f"add e.g. \"{missing[0]}\" = \"permanent\" under [load_cases] (categories: "
+                         f"add e.g. \"{missing[0]}\" = \"permanent\" under [load_cases] "
+                         "(categories: "
                          f"{', '.join(loads.CATEGORIES)})", file=file, field="load_cases")
     twice = cases["pattern"].duplicated()
     if twice.any():
         raise InputError(f"load pattern {cases['pattern'][twice].iloc[0]} is named by two load "
                          "cases", file=file, field="load_cases")
-    try:
-        return loads.check_cases(cases, file=file).assign(pattern=cases["pattern"].to_numpy())
-    except InputError:
-        raise
+    return loads.check_cases(cases, file=file).assign(pattern=cases["pattern"].to_numpy())
 
 
 def build_frame(captured: Captured, model: dict, project: dict, watched, *, major_axis: str,
@@ -238,15 +270,16 @@ def check_stiffness(captured: Captured, frame: Frame, major_axis: str, *, file: 
         element = frame.elements.index[k]
         raise InputError(
             f"element {element} ({frame.elements['section'].iloc[k]}): the model's I about "
-            f"OpenSees local {major_axis} is {I_major[k]:.4g} m4, close to the section's minor-axis "
-            f"I_z = {I_z[k]:.4g} m4, not its I_y = {I_y[k]:.4g} m4. Check the element's vecxz or "
+            f"OpenSees local {major_axis} is {I_major[k]:.4g} m4, close to the section's "
+            f"minor-axis I_z = {I_z[k]:.4g} m4, not its I_y = {I_y[k]:.4g} m4. Check the element's vecxz or "
             f"set [model] major_axis (now \"{major_axis}\"); for a plane frame, bending about the "
             "minor axis is not read.", file=file, field="model.major_axis")
     off = known & (np.abs(I_major - I_y) > STIFFNESS_WARNING * I_y)
     if off.any():
         k = int(np.argmax(off))
         warnings.warn(f"{int(off.sum())} element(s), e.g. {frame.elements.index[k]}: the model's "
-                      f"major-axis I differs from the catalogue {frame.elements['section'].iloc[k]} "
+                      "major-axis I differs from the catalogue "
+                      f"{frame.elements['section'].iloc[k]} "
                       f"by more than {STIFFNESS_WARNING:.0%}", stacklevel=2)
 
 
@@ -296,7 +329,6 @@ def span_loads(captured: Captured, matrix: np.ndarray, patterns: list[str]
               uni[["px", "py", "pz"]].to_numpy(float))
     uniform = np.einsum("jp,pec->jec", matrix, W)
     pts = el[el["kind"] == "point"]
-    J = matrix.shape[0]
     if len(pts) == 0:
         return uniform, pd.DataFrame(columns=["set", "element_index", "a", "px", "py", "pz"])
     f = matrix[:, pts["pattern"].map(column).to_numpy(int)]  # (J, K)
@@ -308,7 +340,6 @@ def span_loads(captured: Captured, matrix: np.ndarray, patterns: list[str]
                           "px": pts["px"].to_numpy(float)[kk] * f[jj, kk],
                           "py": pts["py"].to_numpy(float)[kk] * f[jj, kk],
                           "pz": pts["pz"].to_numpy(float)[kk] * f[jj, kk]})
-    del J
     return uniform, point
 
 
@@ -319,7 +350,7 @@ def _lengths(captured: Captured) -> np.ndarray:
                           axis=1)
 
 
-def _results(captured: Captured, frame: Frame, matrix: np.ndarray, patterns: list[str],
+def _results(captured: Captured, matrix: np.ndarray, patterns: list[str],
              names: list[str], kinds: list[str], analysis: list[str], sets: list, *,
              stations: int, major_axis: str) -> Results:
     E = len(captured.elements)

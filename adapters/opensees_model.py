@@ -97,15 +97,15 @@ def watching(ops, watched: Watched, *, pdelta: bool):
             setattr(ops, name, original)
 
 
-def run_user_model(ops, script: Path, builder: str | None, *, pdelta: bool) -> tuple[Watched,
-                                                                                      object]:
-    """Run the user's script (and builder function) once; returns what was watched and what the
-    builder returned. Any exception in their code becomes an InputError naming the script."""
+def run_user_model(ops, script: Path, builder: str | None, *, pdelta: bool) -> Watched:
+    """Run the user's script (and builder function) once; returns what was watched.
+
+    Any exception in their code becomes an InputError naming the script.
+    """
     watched = Watched()
     if not script.is_file():
         raise InputError(f"model script {script} does not exist", field="model.script")
     ops.wipe()
-    returned = None
     with watching(ops, watched, pdelta=pdelta):
         try:
             namespace = runpy.run_path(str(script), run_name="framesweep_model")
@@ -114,7 +114,7 @@ def run_user_model(ops, script: Path, builder: str | None, *, pdelta: bool) -> t
                 if not callable(function):
                     raise InputError(f"the script defines no function {builder!r}",
                                      file=str(script), field="model.builder")
-                returned = function()
+                function()
         except InputError:
             raise
         except BaseException as exc:  # SystemExit from a script counts as a failure too
@@ -123,7 +123,7 @@ def run_user_model(ops, script: Path, builder: str | None, *, pdelta: bool) -> t
                              file=str(script), field="model.script") from None
     if ops.getNDM() == [] or not ops.getNodeTags():
         raise InputError("the model script built no nodes", file=str(script), field="model.script")
-    return watched, returned
+    return watched
 
 
 @dataclass(frozen=True)
@@ -133,13 +133,12 @@ class Captured:
     ndm: int
     ndf: int
     nodes: pd.DataFrame          # index node; x_m, y_m, z_m
-    elements: pd.DataFrame       # index element; node_i, node_j, type, section_tag, transf,
+    elements: pd.DataFrame       # index element; node_i, node_j, type, section_tag,
                                  # xaxis, yaxis, zaxis (3-vectors), I_y_os, I_z_os (NaN unknown)
     supports: pd.DataFrame       # index node; ux .. rz booleans
     node_loads: pd.DataFrame     # pattern, node, FX_N, FY_N, FZ_N, MX_Nm, MY_Nm, MZ_Nm
     element_loads: pd.DataFrame  # ELEMENT_LOAD_COLUMNS, OpenSees local axes
     patterns: list[str]
-    returned: object = None
 
 
 def _ndm(ops) -> int:
@@ -219,7 +218,7 @@ def _pattern_factor(pattern: int, watched: Watched) -> float:
     return fact
 
 
-def read_domain(ops, watched: Watched, *, script: str, returned: object = None) -> Captured:
+def read_domain(ops, watched: Watched, *, script: str) -> Captured:
     """Nodes, elements, supports and loads per pattern from the OpenSees domain."""
     ndm = _ndm(ops)
     node_tags = list(ops.getNodeTags())
@@ -267,8 +266,7 @@ def read_domain(ops, watched: Watched, *, script: str, returned: object = None) 
                          field="model.script")
     node_loads, element_loads = _loads(ops, watched, ndm, ndf, script)
     patterns = [str(p) for p in ops.getPatterns()]
-    return Captured(ndm, ndf, nodes, elements, supports, node_loads, element_loads, patterns,
-                    returned)
+    return Captured(ndm, ndf, nodes, elements, supports, node_loads, element_loads, patterns)
 
 
 def _loads(ops, watched: Watched, ndm: int, ndf: int, script: str

@@ -170,8 +170,8 @@ def _worker_start(script: str, builder: str | None, pdelta: bool) -> None:
     from pathlib import Path
 
     ops = import_opensees()
-    watched, returned = run_user_model(ops, Path(script), builder, pdelta=pdelta)
-    captured = read_domain(ops, watched, script=script, returned=None)
+    watched = run_user_model(ops, Path(script), builder, pdelta=pdelta)
+    captured = read_domain(ops, watched, script=script)
     clear_patterns(ops)
     _WORKER.update(ops=ops, captured=captured)
 

@@ -149,7 +149,8 @@ def uls_combinations(cases: pd.DataFrame, *, method: str = "6.10", gamma_G_sup: 
                          f"{', '.join(METHODS)}", field="combinations.method")
     if favourable_permanent not in FAVOURABLE_PERMANENT:
         raise InputError(f"favourable_permanent {favourable_permanent!r} is not known; use one of "
-                         f"{', '.join(FAVOURABLE_PERMANENT)}", field="combinations.favourable_permanent")
+                         f"{', '.join(FAVOURABLE_PERMANENT)}",
+                         field="combinations.favourable_permanent")
     cases = check_cases(cases)
     psi_0 = dict(zip(cases["load_case"], _psi_0(cases, psi)))
     category = dict(zip(cases["load_case"], cases["category"]))

@@ -286,7 +286,7 @@ def _captured_and_factors(project_file: Path):
     project = tomllib.loads(project_file.read_text())
     script = (project_file.parent / project["model"]["script"]).resolve()
     ops = import_opensees()
-    watched, _ = run_user_model(ops, script, "build_model", pdelta=False)
+    watched = run_user_model(ops, script, "build_model", pdelta=False)
     captured = read_domain(ops, watched, script=str(script))
     cases = opensees.load_cases(project["load_cases"], captured.patterns, file="p")
     factors = loads.project_combinations(cases, project.get("combinations", {}))
