@@ -100,3 +100,15 @@ def test_chs():
                  mesh_size=15.0)
     for key in ("A", "I_y", "W_pl_y", "I_t"):
         assert s[key] == pytest.approx(fe[key], rel=TOL_OUTLINE), key
+
+
+def test_welded_i():
+    # plates 500 x 200 x 8 x 12 mm without fillets: A, I, W_pl exact; I_t by the plate formula
+    # (welds ignored) measured 1.8 % below the finite-element value; I_w within 0.2 %
+    s = build_sections(pd.DataFrame({"section": ["w"], "shape": ["I-welded"], "h_mm": [500],
+                                     "b_mm": [200], "tw_mm": [8], "tf_mm": [12]})).loc["w"]
+    fe = analyse(sp_library.i_section(d=500, b=200, t_f=12, t_w=8, r=0, n_r=1), mesh_size=20.0)
+    for key in ("A", "I_y", "I_z", "W_pl_y", "W_pl_z"):
+        assert s[key] == pytest.approx(fe[key], rel=TOL_OUTLINE), key
+    assert s["I_t"] == pytest.approx(fe["I_t"], rel=TOL_J_I)
+    assert s["I_w"] == pytest.approx(fe["I_w"], rel=TOL_GAMMA_I)
