@@ -217,22 +217,26 @@ def storey_alpha(frame: Frame, results: Results, members: Members, combos: list[
     f = results.forces.copy()
     f["element"] = f["element"].astype(str)
     f["combination"] = f["combination"].astype(str)
-    f = f[f["element"].isin(low_elem) & f["combination"].isin(combos)]
+    f = f[f["element"].isin(low_elem) & f["combination"].isin(combos)].sort_values("x_m")
+    # the station at the column's lower end: first or last station of that element
+    ends = {0.0: f.groupby(["combination", "element"]).head(1),
+            np.inf: f.groupby(["combination", "element"]).tail(1)}
+    ends = {key: t.set_index(["combination", "element"]) for key, t in ends.items()}
     u = disp.copy()
     u["combination"], u["node"] = u["combination"].astype(str), u["node"].astype(str)
     u = u.set_index(["combination", "node"])
     ucols = ["ux_m", "uy_m", "uz_m"]
     alpha = np.full(n, np.nan)
+    ax = axes[[epos[e] for e in low_elem]]                     # (n_col, 3, 3)
+    sgn = np.array(sign)[:, None]
     for c, comb in enumerate(combos):
-        F = np.full((len(cols), 3), np.nan)
-        for k, e in enumerate(low_elem):
-            sel = f[(f["combination"] == comb) & (f["element"] == e)]
-            if not len(sel):
-                continue
-            pick = sel["x_m"] == (sel["x_m"].min() if low_x[k] == 0.0 else sel["x_m"].max())
-            row = sel[pick].iloc[0]
-            ax = axes[epos[e]]
-            F[k] = sign[k] * (row["N_N"] * ax[0] + row["Vy_N"] * ax[1] + row["Vz_N"] * ax[2])
+        keys = list(zip([comb] * len(low_elem), low_elem))
+        local = np.full((len(low_elem), 3), np.nan)
+        for at in (0.0, np.inf):
+            pick = [k for k, x in enumerate(low_x) if x == at]
+            rows = ends[at].reindex([keys[k] for k in pick])[["N_N", "Vy_N", "Vz_N"]]
+            local[pick] = rows.to_numpy(float)
+        F = sgn * np.einsum("ka,kab->kb", local, ax)          # global force from above
         try:
             dt = u.loc[[(comb, t) for t in top], ucols].to_numpy(float)
             db = u.loc[[(comb, b) for b in bottom], ucols].to_numpy(float)

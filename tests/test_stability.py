@@ -357,9 +357,17 @@ def test_amplify_sway_effects_only_on_the_amplified_path():
 
 # --- storey method, 5.2.1(4)B -------------------------------------------------------------------
 
-def test_storey_method_eq_5_2():
+@pytest.mark.parametrize("c2_down", [False, True])
+def test_storey_method_eq_5_2(c2_down):
     L, P, H = 5.0, 400e3, 20e3
     f = portal(FIXED, L=L)
+    if c2_down:
+        # C2 drawn from its top to its base: local x down, local z = +X; the lower end is now
+        # its last station, and Vz = -H/2 still means the part above pushes the part below
+        # along +X
+        els = f.elements.copy()
+        els.loc["C2", ["node_i", "node_j"]] = ["3", "4"]
+        f = Frame(2, f.nodes, els, f.supports, f.sections)
     delta = H * L ** 3 / (24 * E * I_HEB200_Y)      # two fixed-ended columns, rigid beam
     forces = constant_forces({"U1": {"C1": -P, "C2": -P}}, f)
     # columns run upwards, local z = -X in a plane frame: F_x = -Vz, so Vz = -H/2 per column
