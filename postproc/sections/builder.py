@@ -232,7 +232,8 @@ def _given_class(row: _Row) -> float:
 
 
 def _parse(row: _Row) -> dict:
-    designation, shape = row.text("designation"), row.text("shape").upper()
+    designation, shape = row.text("designation"), row.text("shape").upper().replace(" ", "")
+    shape = {"I-ROLLED": "I", "SHS": "RHS", "WELDED-I": "I-WELDED"}.get(shape, shape)
     dims_given = [f for f in DIMENSION_INPUTS + list(GENERIC_INPUTS)
                   if not _blank(row.record.get(f))]
     if designation:
@@ -240,7 +241,7 @@ def _parse(row: _Row) -> dict:
             raise row.error(f"give either a designation or dimensions/properties, not both "
                             f"(found {', '.join(dims_given)})", dims_given[0])
         rec = _from_designation(row, designation)
-        if shape and shape not in (rec["shape"], "I-ROLLED"):
+        if shape and shape != rec["shape"]:
             raise row.error(f"shape {row.text('shape')!r} contradicts designation "
                             f"{designation!r}, which is {rec['shape']}", "shape")
     elif shape == "GENERIC":

@@ -161,3 +161,20 @@ def test_duplicate_and_missing_names():
         build_sections(pd.DataFrame({"designation": ["IPE 300"]}))
     with pytest.raises(SectionError, match="row 2.*empty"):
         build_sections(spec(section=["a", ""], designation="IPE 300"))
+
+
+def test_shape_spellings():
+    t = build_sections(spec(section=["a", "b"], shape=["SHS", "i-rolled"], h_mm=[100, 300],
+                            b_mm=[100, 150], t_mm=[5, np.nan], tw_mm=[np.nan, 7.1],
+                            tf_mm=[np.nan, 10.7], r_mm=[np.nan, 15],
+                            fabrication=["cold-formed", ""]))
+    assert list(t["shape"]) == ["RHS", "I"]
+    assert list(t["fabrication"]) == ["cold-formed", "rolled"]
+
+
+def test_values_given_as_text_like_a_csv_reader_leaves_them():
+    t = build_sections(spec(section="s", shape="I", h_mm="300", b_mm="150", tw_mm="7.1",
+                            tf_mm="10.7", r_mm="15", **{"class": "2"}, _row="4"))
+    assert t.loc["s", "A"] == pytest.approx(
+        build_sections(spec(section="s", designation="IPE 300")).loc["s", "A"])
+    assert t.loc["s", "given_class"] == 2.0
