@@ -112,3 +112,16 @@ def test_welded_i():
         assert s[key] == pytest.approx(fe[key], rel=TOL_OUTLINE), key
     assert s["I_t"] == pytest.approx(fe["I_t"], rel=TOL_J_I)
     assert s["I_w"] == pytest.approx(fe["I_w"], rel=TOL_GAMMA_I)
+
+
+def test_cold_formed_rhs():
+    # EN 10219-2 corners for t = 5 mm: r_o = 2 t = 10 mm, r_i = t = 5 mm
+    s = build_sections(pd.DataFrame({"section": ["c"], "shape": ["RHS"], "h_mm": [150],
+                                     "b_mm": [100], "t_mm": [5],
+                                     "fabrication": ["cold-formed"]})).loc["c"]
+    assert (s["r_o"], s["t"]) == pytest.approx((0.010, 0.005))
+    fe = analyse(sp_library.rectangular_hollow_section(d=150, b=100, t=5, r_out=10, r_in=5,
+                                                       n_r=N_ARC), mesh_size=8.0)
+    for key in ("A", "I_y", "I_z", "W_pl_y", "W_pl_z"):
+        assert s[key] == pytest.approx(fe[key], rel=TOL_OUTLINE), key
+    assert s["I_t"] == pytest.approx(fe["I_t"], rel=TOL_J_HOLLOW)
