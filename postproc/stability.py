@@ -23,7 +23,8 @@ from .members import Members, member_axes, moment_released
 from .results import Results
 from .stability_eigen import (E_STEEL, SUB_PER_MEMBER, Mesh, build_mesh, lowest_mode,
                               section_columns, translations)
-from .stability_lengths import buckling_lengths, effective_length_ratio  # noqa: F401 re-export
+from .stability_lengths import (buckling_lengths, effective_length_ratio,  # noqa: F401
+                                member_compression)
 
 ALPHA_FIRST_ORDER = 10.0    # 5.2.1(3), eq. (5.1), elastic analysis
 ALPHA_AMPLIFY_MIN = 3.0     # 5.2.2(5B)
@@ -114,7 +115,7 @@ def _mode_shape_measures(mesh: Mesh, frame: Frame, members: Members, phi: np.nda
 
 
 def critical_load_factors(frame: Frame, results: Results, members: Members) -> pd.DataFrame:
-    """Elastic critical load factor alpha_cr of every ULS combination (5.2.1).
+    """EN 1993-1-1:2005, 5.2.1(3) and 5.2.1(4)B, eq. (5.2): alpha_cr of every ULS combination.
 
     alpha_cr: lowest positive eigenvalue of (K + alpha K_G) phi = 0, K the elastic stiffness
     assembled from the frame (each member cut into at least four beam-column elements, releases
@@ -465,20 +466,15 @@ def bow_imperfections_needed(frame: Frame, members: Members, results: Results,
                  for r in firsts.itertuples()}
     end_pin = {r.member: pin["i" if r.flipped else "j"][r.element] for r in lasts.itertuples()}
     moment_end = np.array([not (start_pin[m] and end_pin[m]) for m in mm.index])
-    f = results.forces.merge(members.member_elements[["member", "element"]]
-                             .astype({"element": str}),
-                             left_on=results.forces["element"].astype(str), right_on="element",
-                             suffixes=("", "_m"))
-    N_min = f.groupby(["member", "combination"])["N_N"].min()
-    table = N_min.rename("N").reset_index()
-    table = table[table["combination"].isin(alpha.index)]
-    idx = mm.index.get_indexer(table["member"])
-    N_Ed = np.maximum(-table["N"].to_numpy(float), 0.0)
-    sway = alpha["sway_mode"].reindex(table["combination"]).fillna(False).to_numpy(bool)
-    out = pd.DataFrame({"member": table["member"].to_numpy(),
-                        "combination": table["combination"].to_numpy(),
-                        "N_Ed_N": N_Ed, "N_cr_N": N_cr[idx], "moment_end": moment_end[idx],
-                        "sway_mode": sway})
+    combos = alpha.index.astype(str).tolist()
+    N = member_compression(members, results, combos).to_numpy(float)          # (M, C)
+    M, C = N.shape
+    sway = alpha["sway_mode"].fillna(False).to_numpy(bool)
+    out = pd.DataFrame({"member": np.repeat(mm.index.to_numpy(), C),
+                        "combination": np.tile(combos, M),
+                        "N_Ed_N": np.maximum(-N, 0.0).ravel(),   # NaN (no forces) stays NaN
+                        "N_cr_N": np.repeat(N_cr, C), "moment_end": np.repeat(moment_end, C),
+                        "sway_mode": np.tile(sway, M)})
     slender = out["N_Ed_N"] > 0.25 * out["N_cr_N"]
     out["bow_needed"] = out["sway_mode"] & out["moment_end"] & slender
     return out.reset_index(drop=True)
