@@ -87,13 +87,17 @@ def solve(ops, captured: Captured, job: Job) -> Outcome:
     ops.wipeAnalysis()
     ops.constraints("Transformation")
     ops.numberer("RCM")
-    ops.system("BandGeneral")  # reports a singular matrix; UmfPack returns garbage for one
     if job.second_order:
+        # a symmetric positive definite solver: beyond the critical load the stiffness is not
+        # positive definite, the factorisation stops, and the combination is reported failed
+        # instead of converging to an equilibrium on the far side of buckling
+        ops.system("BandSPD")
         ops.test("NormDispIncr", PDELTA_TOLERANCE_M, PDELTA_ITERATIONS)
         ops.algorithm("Newton")
         ops.integrator("LoadControl", 1.0 / PDELTA_STEPS)
         steps = PDELTA_STEPS
     else:
+        ops.system("BandGeneral")  # reports a singular matrix; UmfPack returns garbage for one
         ops.algorithm("Linear")
         ops.integrator("LoadControl", 1.0)
         steps = 1

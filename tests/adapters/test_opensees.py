@@ -567,3 +567,69 @@ def test_opensees_and_exported_tables_give_the_same_utilisations(tmp_path):
     # the same doubles go in, so the same utilisations come out
     np.testing.assert_allclose(a["utilisation"], b["utilisation"], rtol=1e-12, equal_nan=True)
     assert direct.outcome.exit_code == via_tables.outcome.exit_code
+
+
+def test_pdelta_beyond_the_critical_load_fails(tmp_path):
+    EI, L = 2.1e11 * 5696e-8, 4.0
+    P = 1.2 * np.pi**2 * EI / (4 * L**2)  # above the Euler load of the cantilever (L_cr = 2L)
+    frame, results = run(tmp_path, CANTILEVER.format(P=P), CANTILEVER_PROJECT)
+    row = results.combinations.loc["both"]
+    assert row["status"] == "failed" and "P-delta" in row["message"]
+    assert results.forces.empty
+
+
+def test_openseespy_that_cannot_import_says_what_to_install(monkeypatch):
+    import sys
+
+    from adapters.opensees_model import import_opensees
+
+    monkeypatch.setitem(sys.modules, "openseespy.opensees", None)  # import now fails
+    with pytest.raises(InputError, match="libblas3 liblapack3"):
+        import_opensees()
+
+
+FORCE_BEAM = """
+import openseespy.opensees as ops
+
+def build_model():
+    ops.wipe()
+    ops.model('basic', '-ndm', 2, '-ndf', 3)
+    ops.node(1, 0.0, 0.0); ops.node(2, 6.0, 0.0)
+    ops.fix(1, 1, 1, 0); ops.fix(2, 0, 1, 0)
+    ops.geomTransf('Linear', 3)
+    ops.section('Elastic', 7, 2.1e11, 53.8e-4, 8356e-8)   # IPE 300
+    ops.beamIntegration('Lobatto', 11, 7, 5)
+    ops.element('forceBeamColumn', 1, 1, 2, 3, 11)
+    ops.timeSeries('Linear', 1)
+    ops.pattern('Plain', 1, 1)
+    ops.eleLoad('-ele', 1, '-type', '-beamUniform', -10.0e3)
+"""
+
+
+def test_force_based_element_section_from_its_integration(tmp_path):
+    frame, results = run(tmp_path, FORCE_BEAM, BEAM_PROJECT)
+    assert frame.elements.loc["1", "section"] == "IPE 300"  # section tag 7 via integration 11
+    f = at(results, "unit", "1")
+    # M = w L^2 / 8 at midspan (classical); a force-based element is exact for member loads
+    assert f["My_Nm"].min() == pytest.approx(-10.0e3 * 6.0**2 / 8, rel=SOLVER)
+
+
+def test_pdelta_space_frame_directions():
+    project_file = ROOT / "examples" / "platform_3d" / "project.toml"
+    project = tomllib.loads(project_file.read_text())
+    project["model"]["analysis"] = "p-delta"
+    project["combinations"]["sls"] = False
+    frame, results = opensees.load(project, project_file)
+    names = set(results.combinations.index)
+    # gravity only: four directions (our rule, after EN 1993-1-1 5.3.2(8), one at a time)
+    assert {f"ULS 1.35 dead [sway {d}]" for d in ("+X", "-X", "+Y", "-Y")} <= names
+    # wind along +Y leads: the imperfection along +Y only
+    assert "ULS 1.00 dead + 1.50 wind_y [sway +Y]" in names
+    assert not any(n.startswith("ULS 1.00 dead + 1.50 wind_y [sway") and not n.endswith("+Y]")
+                   for n in names)
+    assert (results.combinations["status"] == "ok").all()
+    # vertical equilibrium unchanged by the horizontal forces: 1.35 x 65.76 kN (hand sum above)
+    r = results.reactions[results.reactions["combination"] == "ULS 1.35 dead [sway +Y]"]
+    assert r["FZ_N"].sum() == pytest.approx(1.35 * 65.76e3, rel=1e-9)
+    # the imperfection pushes along +Y: the supports push back along -Y
+    assert r["FY_N"].sum() < 0 and abs(r["FX_N"].sum()) < 1e-6 * r["FZ_N"].sum()
