@@ -16,7 +16,9 @@ import pytest
 from postproc.errors import InputError
 from postproc.frame import local_axes
 
-opensees = pytest.importorskip("adapters.opensees")
+pytest.importorskip("openseespy.opensees")  # needs libblas3 and liblapack3 on Linux
+from adapters import opensees  # noqa: E402
+
 pytestmark = pytest.mark.opensees
 
 ROOT = Path(__file__).resolve().parents[2]
