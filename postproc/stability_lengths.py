@@ -175,7 +175,7 @@ def _span(xs: np.ndarray, length: float, what: str, ends: tuple[str, str]) -> tu
                                if len(xs) > 2 else f"span between {what}s, k = 1")
 
 
-def _member_candidates(model: _Model, m: str) -> dict:
+def _member_candidates(model: _Model, m: str, k1: bool = False) -> dict:
     """Per-member lengths that do not depend on the combination."""
     mm = model.members.members
     L = float(mm.at[m, "length_m"])
@@ -217,6 +217,8 @@ def _member_candidates(model: _Model, m: str) -> dict:
                         "mechanism; give an override", True)
         if held0 and held1 and inner:
             non_sway = (*_span(x, L, f"restraint along local {across}", ends), False)
+        elif held0 and held1 and k1:
+            non_sway = (L, "member length between its end restraints, k = 1 (asked for)", False)
         elif held0 and held1:
             ratio = float(effective_length_ratio(e0, e1, sway=False))
             non_sway = (ratio * L, f"non-sway effective length {ratio:.3f} L ({n0}, {n1}; "
@@ -246,7 +248,8 @@ def member_compression(members: Members, results: Results, combos: list[str]) ->
 
 
 def buckling_lengths(frame: Frame, members: Members, results: Results, paths: pd.DataFrame,
-                     overrides: pd.DataFrame | None = None) -> pd.DataFrame:
+                     overrides: pd.DataFrame | None = None, *,
+                     system_length_non_sway: bool = False) -> pd.DataFrame:
     """Buckling lengths per (member, combination); see the module docstring for the rules.
 
     Args:
@@ -255,6 +258,9 @@ def buckling_lengths(frame: Frame, members: Members, results: Results, paths: pd
         overrides: columns member, L_cr_y_m, L_cr_z_m, L_LT_m, L_cr_T_m; NaN keeps the found
             value. A member that does not exist or a length that is not positive raises
             InputError.
+        system_length_non_sway: True takes the member's length between restraints (k = 1)
+            wherever the non-sway effective length from end restraint would be used: the plain,
+            conservative reading of 5.2.2(7).
 
     Returns:
         columns member, combination, L_cr_y_m, L_cr_z_m, L_cr_T_m, L_LT_m, sway_y, sway_z
@@ -264,7 +270,7 @@ def buckling_lengths(frame: Frame, members: Members, results: Results, paths: pd
     names = members.members.index.tolist()
     combos = paths.index.astype(str).tolist()
     M, C = len(names), len(combos)
-    cand = [_member_candidates(model, m) for m in names]
+    cand = [_member_candidates(model, m, system_length_non_sway) for m in names]
     N = member_compression(members, results, combos).to_numpy(float)        # (M, C)
     path = paths["path"].astype(str).to_numpy()
     alpha = paths["alpha_cr"].to_numpy(float)

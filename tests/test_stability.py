@@ -199,6 +199,8 @@ def test_braced_frame_has_no_sway_mode():
     # expression, 0.699 L exactly
     assert lengths.at["C1", "L_cr_y_m"] == pytest.approx(0.699 * L, rel=CLOSED_FORM_REL)
     assert not bool(lengths.at["C1", "sway_y"])
+    plain = buckling_lengths(f, members, res, paths, system_length_non_sway=True)
+    assert plain.set_index("member").at["C1", "L_cr_y_m"] == pytest.approx(L)
 
 
 def test_sparse_solver_agrees_with_the_dense_one(monkeypatch):
