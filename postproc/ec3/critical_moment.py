@@ -32,6 +32,7 @@ import numpy as np
 
 N_TERMS = 6  # sine terms per field; see tests/ec3/test_critical_moment.py for the convergence
 _MAX_GROUPS = 64  # beyond this many station patterns, integrate row by row instead
+_ROWS_PER_BLOCK = 65536  # rows per block of M_cr
 _BLOCK = 16384  # rows per block of the power iteration (fits in cache)
 
 
@@ -85,7 +86,19 @@ def M_cr(xi: np.ndarray, M: np.ndarray, L: np.ndarray, E: np.ndarray, G: np.ndar
     R = xi.shape[0]
     bcast = lambda v: np.broadcast_to(np.asarray(v, float), (R,))  # noqa: E731
     L, E, G, I_z, I_t, I_w, k, k_w = (bcast(v) for v in (L, E, G, I_z, I_t, I_w, k, k_w))
-    n = int(n_terms)
+    z = None if z_g is None else bcast(z_g)
+    out = np.empty(R)
+    for a in range(0, R, _ROWS_PER_BLOCK):  # blocks of rows keep the work arrays in cache
+        b = min(a + _ROWS_PER_BLOCK, R)
+        out[a:b] = _M_cr_block(xi[a:b], M[a:b], L[a:b], E[a:b], G[a:b], I_z[a:b], I_t[a:b],
+                               I_w[a:b], k[a:b], k_w[a:b], None if z is None else z[a:b],
+                               int(n_terms))
+    return out
+
+
+def _M_cr_block(xi, M, L, E, G, I_z, I_t, I_w, k, k_w, z_g, n) -> np.ndarray:
+    """M_cr for one block of rows; arguments as M_cr, all (R,) arrays already."""
+    R = xi.shape[0]
     j = np.arange(1, n + 1)
     # diagonal stiffnesses of the sine modes (int_0^L sin^2 = L/2); K_u,i = EI_z/k^2 beta_i^4 L/2
     beta = j[None, :] * np.pi / L[:, None]  # (R, n), 1/m
@@ -94,37 +107,40 @@ def M_cr(xi: np.ndarray, M: np.ndarray, L: np.ndarray, E: np.ndarray, G: np.ndar
     peak = peak_moment(xi, M)
     scale = np.where(peak > 0, peak, 1.0)  # work with M / max|M|: the eigenvalue is then M_cr
     m = np.nan_to_num(M) / scale[:, None]
-    has_height = z_g is not None and np.any(np.asarray(z_g, float) != 0.0)
-    I_mm, I_sq, F_ss = _work_integrals(xi, m, n, with_point_loads=has_height,
-                                       with_square=not has_height)
+    height = np.zeros(R, bool) if z_g is None else np.nan_to_num(z_g) != 0.0
+    I_mm, I_sq, F_ss = _work_integrals(xi, m, n, with_point_loads=bool(height.any()),
+                                       with_square=True)
     # G_ij = int M u_i'' phi_j dx = -(i pi/L)^2 L int_0^1 m s_i s_j dxi. Scaled by K^-1/2 on both
     # sides, (i pi/L)^2 cancels against sqrt(K_u,i): B = K_u^-1/2 G K_phi^-1/2 = I_mm diag(d).
     d = -L[:, None] / (np.sqrt(E * I_z * L / (2.0 * k**2))[:, None] * np.sqrt(K_phi))
-    if not has_height:
+    lam = np.empty(R)
+    plain = ~height
+    if plain.any():
         # eliminating u: K_phi b = lambda^2 G^T K_u^-1 G b, i.e. 1/lambda^2 = largest eigenvalue
         # of B^T B = diag(d) I_mm^2 diag(d) (symmetric, positive semi-definite)
-        A = I_sq * (d[:, :, None] * d[:, None, :])
-        mu = largest_eigenvalue_psd(A)
+        dp = d[plain]
+        mu = largest_eigenvalue_psd(I_sq[plain] * (dp[:, :, None] * dp[:, None, :]))
         with np.errstate(divide="ignore"):
-            lam = 1.0 / np.sqrt(mu)
-    else:
+            lam[plain] = 1.0 / np.sqrt(mu)
+    if height.any():
         # with a load height the reduced problem is quadratic in lambda: solve the linear 2n x 2n
-        # one, K x = lambda K_g x, as K^-1/2 K_g K^-1/2 y = (1/lambda) y
-        # Q_jl = int q_z z_g s_j s_l dx with q_z = -M'': point loads F at the interior stations
-        Q = (bcast(z_g) / L)[:, None, None] * F_ss
-        Q_t = Q / np.sqrt(K_phi[:, :, None] * K_phi[:, None, :])
-        B = I_mm * d[:, None, :]
-        C = np.zeros((R, 2 * n, 2 * n))
+        # one, K x = lambda K_g x, as K^-1/2 K_g K^-1/2 y = (1/lambda) y, with
+        # Q_jl = int q_z z_g s_j s_l dx, q_z = -M'': point loads F at the interior stations
+        h = height
+        Q = (z_g[h] / L[h])[:, None, None] * F_ss[h]
+        Q_t = Q / np.sqrt(K_phi[h][:, :, None] * K_phi[h][:, None, :])
+        B = I_mm[h] * d[h][:, None, :]
+        C = np.zeros((B.shape[0], 2 * n, 2 * n))
         C[:, :n, n:] = -B
         C[:, n:, :n] = -np.swapaxes(B, 1, 2)
         C[:, n:, n:] = -Q_t
-        nu = np.linalg.eigvalsh(C)[:, -1] if R else np.zeros(0)
+        nu = np.linalg.eigvalsh(C)[:, -1]
         with np.errstate(divide="ignore"):
-            lam = np.where(nu > 0, 1.0 / nu, np.inf)
+            lam[h] = np.where(nu > 0, 1.0 / nu, np.inf)
     out = np.where(peak > 0, lam, np.inf)
     bad = (np.isnan(M) & ~np.isnan(xi)).any(axis=1) | np.isnan(L + E + G + I_z + I_t + I_w + k + k_w)
     if z_g is not None:
-        bad |= np.isnan(bcast(z_g))
+        bad |= np.isnan(z_g)
     return np.where(bad, np.nan, out)
 
 
@@ -265,6 +281,11 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
         return np.zeros((0, n, n)), np.zeros((0, n, n)), np.zeros((0, n, n))
     I_mm = np.empty((R, n * n))
     I_sq = np.empty((R, n * n)) if with_square else None
+    s_up, t_up = np.triu_indices(S)
+    i_up, l_up = np.triu_indices(n)
+    position = np.zeros((n, n), dtype=int)
+    position[i_up, l_up] = np.arange(i_up.size)
+    full_index = np.maximum(position, position.T).reshape(-1)  # upper triangle to full matrix
     F_ss = np.empty((R, n * n)) if with_point_loads else None
     if patterns.shape[0] <= _MAX_GROUPS:
         for g, pattern in enumerate(patterns):  # over distinct station patterns, not over rows
@@ -276,8 +297,11 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
             I_mm[rows] = m_g @ W_g
             if with_square:
                 W_s = W_g.reshape(S, n, n)
-                WW = np.einsum("sij,tjl->stil", W_s, W_s).reshape(S * S, n * n)
-                I_sq[rows] = (m_g[:, :, None] * m_g[:, None, :]).reshape(-1, S * S) @ WW
+                # symmetric in (s, t) and in (i, l): only s <= t and i <= l are multiplied
+                WW = np.einsum("sij,tjl->stil", W_s, W_s)
+                WW = (WW + WW.transpose(1, 0, 2, 3))[s_up, t_up] / np.where(s_up == t_up, 2.0, 1.0)[:, None, None]
+                upper = (m_g[:, s_up] * m_g[:, t_up]) @ WW[:, i_up, l_up]
+                I_sq[rows] = upper[:, full_index]
             if with_point_loads:
                 s_st = np.sin(np.pi * np.nan_to_num(xi_g)[:, None] * j[None, :])
                 Wq = (s_st[:, :, None] * s_st[:, None, :]).reshape(S, n * n)
