@@ -167,12 +167,14 @@ def _span(xs: np.ndarray, length: float, what: str, ends: tuple[str, str]) -> tu
     """Longest span between restraint positions xs on a member of `length`, or NaN and why."""
     xs = np.unique(np.round(xs, 6))
     if not len(xs) or xs.min() > X_TOL_M:
-        return np.nan, f"no {what} at the member's start (node {ends[0]}): give an override"
+        return np.nan, (f"none of the {what} at the member's start (node {ends[0]}): "
+                        "give an override")
     if xs.max() < length - X_TOL_M:
-        return np.nan, f"no {what} at the member's end (node {ends[1]}): give an override"
+        return np.nan, (f"none of the {what} at the member's end (node {ends[1]}): "
+                        "give an override")
     gaps = np.diff(xs)
-    return float(gaps.max()), (f"longest span between {what}s ({len(xs)} points), k = 1"
-                               if len(xs) > 2 else f"span between {what}s, k = 1")
+    return float(gaps.max()), (f"longest span between {what} ({len(xs)} points), k = 1"
+                               if len(xs) > 2 else f"span between {what}, k = 1")
 
 
 def _member_candidates(model: _Model, m: str, k1: bool = False) -> dict:
@@ -193,7 +195,7 @@ def _member_candidates(model: _Model, m: str, k1: bool = False) -> dict:
     for axis in ("y", "z"):
         across = "z" if axis == "y" else "y"         # restraint direction for this axis
         if axis not in modelled:
-            out[axis] = (*_span(xs[across], L, f"restraint along local {across}", ends), False)
+            out[axis] = (*_span(xs[across], L, f"points held along local {across}", ends), False)
             out[axis + "_sway"] = out[axis]
             continue
         x = xs[across]
@@ -216,7 +218,7 @@ def _member_candidates(model: _Model, m: str, k1: bool = False) -> dict:
             sway_len = (np.nan, f"no sway stiffness about {axis}-{axis} ({sn0}, {sn1}): "
                         "mechanism; give an override", True)
         if held0 and held1 and inner:
-            non_sway = (*_span(x, L, f"restraint along local {across}", ends), False)
+            non_sway = (*_span(x, L, f"points held along local {across}", ends), False)
         elif held0 and held1 and k1:
             non_sway = (L, "member length between its end restraints, k = 1 (asked for)", False)
         elif held0 and held1:
@@ -231,8 +233,8 @@ def _member_candidates(model: _Model, m: str, k1: bool = False) -> dict:
         out[axis] = non_sway
         out[axis + "_sway"] = sway_len if not inner else non_sway
         out[axis + "_modelled"] = True
-    out["LT"] = _span(xs["y"], L, "lateral restraint", ends)
-    out["T"] = _span(xs["torsion"], L, "torsional restraint", ends)
+    out["LT"] = _span(xs["y"], L, "lateral restraints", ends)
+    out["T"] = _span(xs["torsion"], L, "torsional restraints", ends)
     return out
 
 
