@@ -277,12 +277,17 @@ def _rhs_classes(s: dict[str, Array], f_y: Array, eps: Array, N_c: Array, My: Ar
     bend_y = np.abs(My) > _TINY * f_y * s["W_el_y"]
     bend_z = np.abs(Mz) > _TINY * f_y * s["W_el_z"]
     phi_y, phi_z = _shares(My, Mz, f_y, s["W_pl_y"], s["W_pl_z"])
-    # walls along z (two of them share N; the M_z mechanism compresses one of them)
-    walls_z = _internal_part(c_w, t, f_y, eps, F_c=N_c / 2.0 + phi_z * c_w * t * f_y,
-                             bending=bend_y, sigma_mid=N_c / A + np.abs(Mz) * (b / 2.0) / I_z,
+    # Plastic force on a wall: with its own bending gradient the plastic neutral axis lies in
+    # the pair of walls, which then carry N between them (N/2 each, as for the web of an I);
+    # without one, the wall carries its area share of N. The other axis's mechanism adds its
+    # share of the wall's squash load (module docstring).
+    F_z = np.where(bend_y, N_c / 2.0, N_c * c_w * t / A) + phi_z * c_w * t * f_y
+    F_y = np.where(bend_z, N_c / 2.0, N_c * c_f * t / A) + phi_y * c_f * t * f_y
+    walls_z = _internal_part(c_w, t, f_y, eps, F_c=F_z, bending=bend_y,
+                             sigma_mid=N_c / A + np.abs(Mz) * (b / 2.0) / I_z,
                              sigma_bend=np.abs(My) * (c_w / 2.0) / I_y)
-    walls_y = _internal_part(c_f, t, f_y, eps, F_c=N_c / 2.0 + phi_y * c_f * t * f_y,
-                             bending=bend_z, sigma_mid=N_c / A + np.abs(My) * (h / 2.0) / I_y,
+    walls_y = _internal_part(c_f, t, f_y, eps, F_c=F_y, bending=bend_z,
+                             sigma_mid=N_c / A + np.abs(My) * (h / 2.0) / I_y,
                              sigma_bend=np.abs(Mz) * (c_f / 2.0) / I_z)
     return _worse(walls_z, walls_y)[:2]
 

@@ -289,3 +289,14 @@ def test_catalogue_sections(designation, f_y, N, My, expected):
     table = build_sections(pd.DataFrame({"section": ["s"], "designation": [designation]}))
     sec = {k: np.array([v]) for k, v in table.iloc[0].items()}
     assert classify(sec, N=N, My=My, f_y=f_y) == expected
+
+
+def test_rhs_compression_wall_stays_compressed_under_large_tension():
+    # M_y with a tension of 0.8 N_pl: with the plastic neutral axis in the walls along z, the wall
+    # along y on the compression side is wholly compressed (alpha = 1), so c/t = 40 lies between
+    # 38 and 42 (Table 5.2 sheet 1, compression) -> class 3, even though the tension exceeds what
+    # that wall alone could balance. Elastic: N/A = -0.8 f_y, M_y (h/2)/I_y = f_y -> psi = 1.
+    sec = rhs(10.0, 40.0)
+    N = 0.8 * sec["A"][0] * F_Y
+    My = F_Y * sec["I_y"][0] / (sec["h"][0] / 2)
+    assert classify(sec, N=N, My=My) == (3, "wall")
