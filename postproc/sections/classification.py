@@ -294,9 +294,12 @@ def _rhs_classes(s: dict[str, Array], f_y: Array, eps: Array, N_c: Array, My: Ar
 
 def _chs_class(s: dict[str, Array], f_y: Array, eps: Array, N_c: Array, My: Array,
                Mz: Array) -> Array:
-    sigma_max = N_c / s["A"] + np.hypot(My, Mz) / s["W_el_y"]
+    # the wall has compression somewhere under N_c > 0 or any moment (plastic distribution with
+    # N fixed and the moment grown to the resistance); only pure tension makes it class 1
+    M = np.hypot(My, Mz)
+    sigma_max = N_c / s["A"] + M / s["W_el_y"]
     lim_1, lim_2, lim_3 = chs_limits(eps)
-    tension = sigma_max <= 0.0
+    tension = (N_c <= 0.0) & (M <= _TINY * f_y * s["W_el_y"])
     inf = np.inf
     ratio = np.where(np.isnan(sigma_max), np.nan, s["c_web"] / s["t_web"])
     return class_from_limits(ratio, np.where(tension, inf, lim_1), np.where(tension, inf, lim_2),

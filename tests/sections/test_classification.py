@@ -300,3 +300,13 @@ def test_rhs_compression_wall_stays_compressed_under_large_tension():
     N = 0.8 * sec["A"][0] * F_Y
     My = F_Y * sec["I_y"][0] / (sec["h"][0] / 2)
     assert classify(sec, N=N, My=My) == (3, "wall")
+
+
+def test_chs_in_tension():
+    # pure tension: class 1 however thin (tension parts); with a moment the wall has compression
+    # under the plastic distribution, so Table 5.2 sheet 3 applies: d/t = 100 > 90 eps^2 -> 4
+    sec = {k: np.array([v]) for k, v in build_sections(pd.DataFrame({
+        "section": ["p"], "shape": ["CHS"], "h_mm": [1000.0], "t_mm": [10.0],
+        "fabrication": ["hot-finished"]})).iloc[0].items()}
+    assert classify(sec, N=1e6) == (1, "wall")
+    assert classify(sec, N=1e6, My=1e3) == (4, "wall")
