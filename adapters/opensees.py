@@ -216,10 +216,15 @@ def build_frame(captured: Captured, model: dict, project: dict, watched, *, majo
     axes = axis_map(captured, major_axis)
     vz = axes[:, 1, :]
     release_i, release_j = _releases(watched, els.index, major_axis)
+    truss = els["truss"].to_numpy(bool)
+    pinned = "My" if captured.ndm == 2 else "My Mz"
+    release_i = np.where(truss, pinned, release_i)
+    release_j = np.where(truss, pinned, release_j)
     elements = pd.DataFrame({
         "node_i": els["node_i"].to_numpy(), "node_j": els["node_j"].to_numpy(),
         "section": designation, "grade": grade,
-        "vz_x": vz[:, 0], "vz_y": vz[:, 1], "vz_z": vz[:, 2] if captured.ndm == 3 else 0.0,
+        "vz_x": vz[:, 0], "vz_y": vz[:, 1],
+        "vz_z": vz[:, 2] if captured.ndm == 3 else np.where(truss, np.nan, 0.0),
         "release_i": release_i, "release_j": release_j}, index=els.index.rename("element"))
     supports = captured.supports.copy()
     if captured.ndm == 2:  # out-of-plane freedoms of a plane frame are restrained by definition

@@ -29,6 +29,8 @@ from postproc.errors import InputError
 # element class names read (eleType) -> kind
 BEAM_TYPES = {"ElasticBeam2d", "ElasticBeam3d", "ForceBeamColumn2d", "ForceBeamColumn3d",
               "DispBeamColumn2d", "DispBeamColumn3d"}
+# axial-only elements (braces, ties): N from 'axialForce', no bending, no span loads
+TRUSS_TYPES = {"Truss", "TrussSection", "CorotTruss", "CorotTrussSection"}
 # element load class tags (OpenSees classTags.h) -> (name, number of data values)
 LOAD_CLASSES = {3: ("uniform", 2), 4: ("point", 3), 5: ("uniform", 3), 6: ("point", 4)}
 WATCHED = ("geomTransf", "element", "section", "beamIntegration", "timeSeries", "pattern", "sp")
@@ -133,7 +135,7 @@ class Captured:
     ndm: int
     ndf: int
     nodes: pd.DataFrame          # index node; x_m, y_m, z_m
-    elements: pd.DataFrame       # index element; node_i, node_j, type, section_tag,
+    elements: pd.DataFrame       # index element; node_i, node_j, type, truss, section_tag,
                                  # xaxis, yaxis, zaxis (3-vectors), I_y_os, I_z_os (NaN unknown)
     supports: pd.DataFrame       # index node; ux .. rz booleans
     node_loads: pd.DataFrame     # pattern, node, FX_N, FY_N, FZ_N, MX_Nm, MY_Nm, MZ_Nm
@@ -167,6 +169,8 @@ def _section_tag(kind: str, args: tuple, watched: Watched, ndm: int) -> float:
     if kind == "elasticBeamColumn":
         # (i, j, secTag, transfTag) when built from a section; (i, j, A, E, ...) otherwise
         return float(numbers[2]) if len(numbers) == 4 else np.nan
+    if kind in ("TrussSection", "corotTrussSection"):  # (i, j, secTag)
+        return float(numbers[2]) if len(numbers) >= 3 else np.nan
     if kind in ("forceBeamColumn", "dispBeamColumn", "nonlinearBeamColumn"):
         if len(numbers) == 4:  # (i, j, transfTag, integrationTag)
             integration = watched.integrations.get(int(numbers[3]))
@@ -235,21 +239,23 @@ def read_domain(ops, watched: Watched, *, script: str) -> Captured:
     for tag in ops.getEleTags():
         cls = ops.eleType(tag)
         kind, args = watched.elements.get(tag, ("", ()))
-        if cls not in BEAM_TYPES:
+        if cls not in BEAM_TYPES | TRUSS_TYPES:
             raise InputError(f"element {tag} is a {cls}; framesweep reads elasticBeamColumn, "
-                             "forceBeamColumn and dispBeamColumn elements only (model members "
-                             "as beam-columns, with end releases where pinned)",
+                             "forceBeamColumn, dispBeamColumn and truss elements only (model "
+                             "members as beam-columns, with end releases where pinned)",
                              file=script, field="model.script")
         ends = ops.eleNodes(tag)
         section_tag = _section_tag(kind, args, watched, ndm)
         I_y, I_z = _stiffness(kind, args, section_tag, watched, ndm)
+        if cls in TRUSS_TYPES:  # no local axes of its own: the Frame's default orientation
+            chord = xyz[node_tags.index(ends[1])] - xyz[node_tags.index(ends[0])]
+            axes = [chord / np.linalg.norm(chord), np.full(3, np.nan), np.full(3, np.nan)]
+        else:
+            axes = [np.array(ops.eleResponse(tag, a), float) for a in ("xaxis", "yaxis", "zaxis")]
         records.append({
             "element": str(tag), "node_i": str(ends[0]), "node_j": str(ends[1]), "type": cls,
-            "section_tag": section_tag,
-            "xaxis": np.array(ops.eleResponse(tag, "xaxis"), float),
-            "yaxis": np.array(ops.eleResponse(tag, "yaxis"), float),
-            "zaxis": np.array(ops.eleResponse(tag, "zaxis"), float),
-            "I_y_os": I_y, "I_z_os": I_z})
+            "truss": cls in TRUSS_TYPES, "section_tag": section_tag,
+            "xaxis": axes[0], "yaxis": axes[1], "zaxis": axes[2], "I_y_os": I_y, "I_z_os": I_z})
     if not records:
         raise InputError("the model has no elements", file=script, field="model.script")
     elements = pd.DataFrame.from_records(records).set_index("element")
@@ -265,6 +271,12 @@ def read_domain(ops, watched: Watched, *, script: str) -> Captured:
                          "read: model them as forces or leave them out", file=script,
                          field="model.script")
     node_loads, element_loads = _loads(ops, watched, ndm, ndf, script)
+    on_truss = element_loads["element"].isin(elements.index[elements["truss"]])
+    if on_truss.any():
+        raise InputError(f"element {element_loads['element'][on_truss].iloc[0]} is a truss and "
+                         "carries an element load, which trusses ignore; put the load on the "
+                         "nodes or model the member as a beam-column", file=script,
+                         field="model.script")
     patterns = [str(p) for p in ops.getPatterns()]
     return Captured(ndm, ndf, nodes, elements, supports, node_loads, element_loads, patterns)
 

@@ -138,13 +138,16 @@ def solve(ops, captured: Captured, job: Job) -> Outcome:
 
 
 def _end_forces(ops, captured: Captured) -> np.ndarray:
-    tags = captured.elements.index.astype(int)
-    raw = np.array([ops.eleResponse(int(t), "localForce") for t in tags], float)
-    if captured.ndm == 2:  # N, V, M per end -> N, Vy, Vz, T, My, Mz
-        out = np.zeros((len(tags), 2, 6))
-        out[:, :, [0, 1, 5]] = raw.reshape(len(tags), 2, 3)
-        return out
-    return raw.reshape(len(tags), 2, 6)
+    """(E, 2, 6) forces of the nodes on each element, OpenSees local axes, 6 per end."""
+    out = np.zeros((len(captured.elements), 2, 6))
+    columns = [0, 1, 5] if captured.ndm == 2 else list(range(6))
+    for k, (tag, truss) in enumerate(zip(captured.elements.index, captured.elements["truss"])):
+        if truss:  # tension N pulls node i's end towards -x and node j's towards +x
+            N = ops.eleResponse(int(tag), "axialForce")[0]
+            out[k, 0, 0], out[k, 1, 0] = -N, N
+        else:
+            out[k][:, columns] = np.reshape(ops.eleResponse(int(tag), "localForce"), (2, -1))
+    return out
 
 
 def _node_values(getter, captured: Captured, nodes) -> np.ndarray:

@@ -265,9 +265,9 @@ def test_script_that_raises(tmp_path):
 
 def test_element_type_not_read(tmp_path):
     script = BEAM_2D.format(fix_rot=0).replace(
-        "ops.timeSeries", "ops.uniaxialMaterial('Elastic', 9, 2.1e11); "
-        "ops.element('Truss', 99, 1, 3, 1e-3, 9); ops.timeSeries")
-    with pytest.raises(InputError, match="Truss"):
+        "ops.timeSeries", "ops.uniaxialMaterial('Elastic', 9, 2.1e11); ops.node(99, 0.0, 0.0); "
+        "ops.element('zeroLength', 99, 1, 99, '-mat', 9, '-dir', 1); ops.timeSeries")
+    with pytest.raises(InputError, match="element 99 is a ZeroLength"):
         run(tmp_path, script, BEAM_PROJECT)
 
 
@@ -635,3 +635,38 @@ def test_pdelta_space_frame_directions():
     assert r["FZ_N"].sum() == pytest.approx(1.35 * 65.76e3, rel=1e-9)
     # the imperfection pushes along +Y: the supports push back along -Y
     assert r["FY_N"].sum() < 0 and abs(r["FX_N"].sum()) < 1e-6 * r["FZ_N"].sum()
+
+
+TRUSS_FRAME = """
+import openseespy.opensees as ops
+
+def build_model():
+    ops.wipe()
+    ops.model('basic', '-ndm', 2, '-ndf', 3)
+    ops.node(1, 0.0, 0.0); ops.node(2, 0.0, 4.0); ops.node(3, 3.0, 4.0); ops.node(4, 3.0, 0.0)
+    ops.fix(1, 1, 1, 1); ops.fix(4, 1, 1, 1)
+    ops.fix(2, 0, 0, 1); ops.fix(3, 0, 0, 1)   # trusses have no rotational stiffness
+    ops.uniaxialMaterial('Elastic', 1, 2.1e11)
+    for tag, (i, j) in enumerate([(1, 2), (2, 3), (4, 3), (1, 3)], start=1):
+        ops.element('Truss', tag, i, j, 18.7e-4, 1)
+    ops.timeSeries('Linear', 1)
+    ops.pattern('Plain', 1, 1)
+    ops.load(2, 10.0e3, 0.0, 0.0)
+"""
+
+
+def test_truss_members_carry_axial_force_only(tmp_path):
+    project = PORTAL_PROJECT.replace('1 = "HEB 200"\n2 = "IPE 300"\n3 = "HEB 200"',
+                                     "\n".join(f'{k} = "SHS 100x100x5"' for k in range(1, 5)))
+    frame, results = run(tmp_path, TRUSS_FRAME, project)
+    N = {e: at(results, "unit", e)["N_N"] for e in ("1", "2", "3", "4")}
+    H = 10.0e3
+    # method of joints (statics): top chord -H, diagonal +H / 0.6 (3-4-5 triangle), right
+    # column -0.8 x the diagonal, left column 0
+    assert N["2"].to_numpy() == pytest.approx(-H, rel=SOLVER)
+    assert N["4"].to_numpy() == pytest.approx(H / 0.6, rel=SOLVER)
+    assert N["3"].to_numpy() == pytest.approx(-0.8 * H / 0.6, rel=SOLVER)
+    assert np.abs(N["1"].to_numpy()).max() < SOLVER * H
+    moments = results.forces[["Vy_N", "Vz_N", "T_Nm", "My_Nm", "Mz_Nm"]].to_numpy()
+    assert not moments.any()
+    assert (frame.elements["release_i"] == "My").all()
