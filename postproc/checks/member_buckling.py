@@ -144,7 +144,8 @@ def _ltb_values(rows: MemberRows, shape, fab, num, cls, hollow, restrained, comm
     no_length = susceptible & (np.isnan(L_LT) | (L_LT <= 0))
     _add(reason, no_length, "LTB length L_LT not known")
     _add(joined, no_length, "LTB length L_LT not known")
-    _add(reason, susceptible & (np.isnan(num["I_t"]) | np.isnan(num["I_w"])), "I_t or I_w not known")
+    _add(reason, susceptible & (np.isnan(num["I_t"]) | np.isnan(num["I_w"])),
+         "I_t or I_w not known")
     general = st.ltb_method == "general"
     curve_fn = lt.curve_LT_general if general else lt.curve_LT_rolled
     curve = np.where(susceptible, curve_fn(shape, fab, num["h"], num["b"]), "").astype(object)
@@ -156,9 +157,13 @@ def _ltb_values(rows: MemberRows, shape, fab, num, cls, hollow, restrained, comm
         n_seg = np.where(L_LT < length, np.clip(np.round(length / L_LT), 1, MAX_SEGMENTS), 1)
     n_seg = np.where(np.isfinite(n_seg), n_seg, 1).astype(int)
     out = {
-        "M_cr_Nm": np.where(susceptible, np.nan, np.inf), "M_cr_0_Nm": np.where(susceptible, np.nan, np.inf),
-        "C_1": np.where(susceptible, np.nan, 1.0), "lambda_bar_LT": np.where(susceptible, np.nan, 0.0),
-        "chi_LT": np.where(susceptible, np.nan, 1.0), "chi_LT_unmodified": np.where(susceptible, np.nan, 1.0),
+        # not susceptible: no lateral-torsional buckling (M_cr unbounded, chi_LT = 1)
+        "M_cr_Nm": np.where(susceptible, np.nan, np.inf),
+        "M_cr_0_Nm": np.where(susceptible, np.nan, np.inf),
+        "C_1": np.where(susceptible, np.nan, 1.0),
+        "lambda_bar_LT": np.where(susceptible, np.nan, 0.0),
+        "chi_LT": np.where(susceptible, np.nan, 1.0),
+        "chi_LT_unmodified": np.where(susceptible, np.nan, 1.0),
         "alpha_LT": np.full(R, np.nan), "k_c": np.full(R, np.nan), "psi": np.full(R, np.nan),
         "f": np.full(R, np.nan), "k_c_case": np.full(R, "", dtype=object),
         "M_Ed_LT_Nm": np.full(R, np.nan), "x_LT_m": np.full(R, np.nan),
@@ -199,11 +204,12 @@ def _segments(rows: MemberRows, todo: np.ndarray, n_seg: np.ndarray, L_LT: np.nd
     C_1 = np.where(no_moment, 1.0, M_cr / M_cr_0)
     W_y, f_y = out["W_y_m3"][seg_row], np.asarray(rows.f_y, float)[seg_row]
     lam = lt.lambda_bar_LT(W_y, f_y, M_cr)
-    alpha = fb.imperfection_factor(curve[seg_row])
+    alpha = lt.imperfection_factor_LT(curve[seg_row])
     lam_0 = 0.2 if general else st.lambda_LT_0
     if general:
         chi = lt.chi_LT_general(lam, alpha)
-        chi_mod, k_c, psi, f = chi, np.full(chi.shape, np.nan), np.full(chi.shape, np.nan), np.ones(chi.shape)
+        chi_mod, f = chi, np.ones(chi.shape)
+        k_c, psi = np.full(chi.shape, np.nan), np.full(chi.shape, np.nan)
         case = np.full(chi.shape, "", dtype=object)
     else:
         chi = lt.chi_LT_rolled(lam, alpha, lambda_LT_0=st.lambda_LT_0, beta=st.beta_LT)
@@ -270,6 +276,7 @@ def flexural_buckling_checks(rows: MemberRows) -> list[CheckBlock]:
     """
     b = _buckling(rows)
     st = rows.settings
+    R = rows.n_rows
     A, f_y = np.asarray(rows.section["A"], float), np.asarray(rows.f_y, float)
     N_Ed, x_N = _compression(rows)
     compressed = np.nan_to_num(N_Ed, nan=1.0) > 0  # a NaN force is reported, not skipped
@@ -295,10 +302,12 @@ def flexural_buckling_checks(rows: MemberRows) -> list[CheckBlock]:
             util = np.where(reason == "", N_Ed / N_b, np.nan)
         blocks.append(CheckBlock(
             check=check, clause=clause, utilisation=util, x=x_N, applies=applies, reason=reason,
-            values={"N_Ed_N": N_Ed, "L_cr_m": np.asarray(rows.lengths.get(L_key, np.full(rows.n_rows, np.nan)), float),
+            values={"N_Ed_N": N_Ed,
+                    "L_cr_m": np.asarray(rows.lengths.get(L_key, np.full(R, np.nan)), float),
                     "N_cr_N": N_cr, "lambda_bar": lam, "buckling_curve": curve, "alpha": alpha,
-                    "Phi": fb.Phi(lam, alpha), "chi_6_49": chi_649, "buckling_negligible": negligible,
-                    "chi": chi_used, "A_m2": A, "f_y_Pa": f_y, "gamma_M1": np.full(rows.n_rows, st.gamma_M1),
+                    "Phi": fb.Phi(lam, alpha), "chi_6_49": chi_649,
+                    "buckling_negligible": negligible, "chi": chi_used, "A_m2": A, "f_y_Pa": f_y,
+                    "gamma_M1": np.full(R, st.gamma_M1),
                     "N_b_Rd_N": N_b}))
     return blocks
 
@@ -313,7 +322,8 @@ def lateral_torsional_checks(rows: MemberRows) -> list[CheckBlock]:
     st = rows.settings
     My = np.where(rows.valid, rows.My, 0.0)
     nan_force = (np.isnan(rows.My) & rows.valid).any(axis=1)
-    applies = ((np.abs(np.nan_to_num(My)) > 0).any(axis=1) | nan_force) & np.asarray(b["ltb_susceptible"], bool)
+    bent = (np.abs(np.nan_to_num(My)) > 0).any(axis=1) | nan_force
+    applies = bent & np.asarray(b["ltb_susceptible"], bool)
     reason = np.asarray(b.get("reason_LT", b["reason"]), dtype=object).copy()
     _add(reason, nan_force, "bending moment M_y not known at some station")
     W_y, f_y = np.asarray(b["W_y_m3"], float), np.asarray(rows.f_y, float)
@@ -329,10 +339,12 @@ def lateral_torsional_checks(rows: MemberRows) -> list[CheckBlock]:
               "W_y_m3": W_y, "lambda_bar_LT": b["lambda_bar_LT"], "buckling_curve": b["curve_LT"],
               "alpha_LT": b["alpha_LT"], "lambda_LT_0": b["lambda_LT_0"],
               "beta": np.full(R, np.nan if st.ltb_method == "general" else st.beta_LT),
-              "chi_LT_unmodified": b["chi_LT_unmodified"], "k_c": b["k_c"], "k_c_case": b["k_c_case"],
+              "chi_LT_unmodified": b["chi_LT_unmodified"], "k_c": b["k_c"],
+              "k_c_case": b["k_c_case"],
               "psi": b["psi"], "f": b["f"], "ltb_negligible": b["ltb_negligible"], "chi_LT": chi_LT,
-              "method": np.full(R, "6.3.2.2 general" if st.ltb_method == "general" else "6.3.2.3 rolled",
-                                dtype=object),
+              "method": np.full(R, "6.3.2.2 general" if st.ltb_method == "general"
+                                else "6.3.2.3 rolled", dtype=object),
               "f_y_Pa": f_y, "gamma_M1": np.full(R, st.gamma_M1), "M_b_Rd_Nm": M_b}
-    return [CheckBlock(check="lateral-torsional buckling", clause="6.3.2.1 (6.54)", utilisation=util,
-                       x=np.asarray(b["x_LT_m"], float), applies=applies, reason=reason, values=values)]
+    return [CheckBlock(check="lateral-torsional buckling", clause="6.3.2.1 (6.54)",
+                       utilisation=util, x=np.asarray(b["x_LT_m"], float), applies=applies,
+                       reason=reason, values=values)]

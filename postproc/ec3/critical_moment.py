@@ -2,8 +2,8 @@
 
 EN 1993-1-1 6.3.2.2(2) asks for M_cr "based on gross cross-sectional properties and taking into
 account the loading conditions, the real moment distribution and the lateral restraints" and gives
-no formula. This module solves the classical lateral-torsional buckling problem of a doubly symmetric
-member numerically (Rayleigh-Ritz), vectorised over rows:
+no formula. This module solves the classical lateral-torsional buckling problem of a doubly
+symmetric member numerically (Rayleigh-Ritz), vectorised over rows:
 
 - lateral deflection u(x) = sum a_i sin(i pi x / L), twist phi(x) = sum b_j sin(j pi x / L), i.e.
   fork supports at the segment ends (u = phi = 0, free warping);
@@ -39,7 +39,9 @@ _BLOCK = 16384  # rows per block of the power iteration (fits in cache)
 def M_cr_0(L: np.ndarray, E: np.ndarray, G: np.ndarray, I_z: np.ndarray, I_t: np.ndarray,
            I_w: np.ndarray, *, k: np.ndarray | float = 1.0,
            k_w: np.ndarray | float = 1.0) -> np.ndarray:
-    """EN 1993-1-1:2005, 6.3.2.2(2), M_cr for uniform moment (closed form, doubly symmetric I).
+    """EN 1993-1-1:2005, 6.3.2.2(2).
+
+    M_cr,0: M_cr for uniform moment (closed form, doubly symmetric I section).
 
     M_cr,0 = sqrt(pi^2 E I_z / (k L)^2 * (G I_t + pi^2 E I_w / (k_w L)^2)), in N*m; the value of
     the classical theory of lateral-torsional buckling with the load at the shear centre.
@@ -50,7 +52,9 @@ def M_cr_0(L: np.ndarray, E: np.ndarray, G: np.ndarray, I_z: np.ndarray, I_t: np
 
 
 def peak_moment(xi: np.ndarray, M: np.ndarray) -> np.ndarray:
-    """EN 1993-1-1:2005, 6.3.2.1(1), largest |M| within the segment 0 <= xi <= 1 (N*m).
+    """EN 1993-1-1:2005, 6.3.2.1(1).
+
+    M_Ed of a segment: the largest |M| within 0 <= xi <= 1 (N*m).
 
     xi (R, S) are station positions as fractions of the segment (ascending, NaN padding, may lie
     outside [0, 1] when the segment is part of a longer member); M (R, S) is linear between them.
@@ -65,7 +69,9 @@ def M_cr(xi: np.ndarray, M: np.ndarray, L: np.ndarray, E: np.ndarray, G: np.ndar
          I_z: np.ndarray, I_t: np.ndarray, I_w: np.ndarray, *, k: np.ndarray | float = 1.0,
          k_w: np.ndarray | float = 1.0, z_g: np.ndarray | None = None,
          n_terms: int = N_TERMS) -> np.ndarray:
-    """EN 1993-1-1:2005, 6.3.2.2(2), M_cr of a segment for its actual moment diagram (Rayleigh-Ritz).
+    """EN 1993-1-1:2005, 6.3.2.2(2).
+
+    M_cr of a segment for its actual moment diagram (Rayleigh-Ritz, see the module docstring).
 
     Args:
         xi: (R, S) station positions as fractions of the segment length, ascending, NaN padding.
@@ -102,7 +108,8 @@ def _M_cr_block(xi, M, L, E, G, I_z, I_t, I_w, k, k_w, z_g, n) -> np.ndarray:
     j = np.arange(1, n + 1)
     # diagonal stiffnesses of the sine modes (int_0^L sin^2 = L/2); K_u,i = EI_z/k^2 beta_i^4 L/2
     beta = j[None, :] * np.pi / L[:, None]  # (R, n), 1/m
-    K_phi = ((G * I_t)[:, None] * beta**2 + (E * I_w / k_w**2)[:, None] * beta**4) * (L[:, None] / 2)
+    K_phi = ((G * I_t)[:, None] * beta**2
+             + (E * I_w / k_w**2)[:, None] * beta**4) * (L[:, None] / 2)
 
     peak = peak_moment(xi, M)
     scale = np.where(peak > 0, peak, 1.0)  # work with M / max|M|: the eigenvalue is then M_cr
@@ -138,7 +145,8 @@ def _M_cr_block(xi, M, L, E, G, I_z, I_t, I_w, k, k_w, z_g, n) -> np.ndarray:
         with np.errstate(divide="ignore"):
             lam[h] = np.where(nu > 0, 1.0 / nu, np.inf)
     out = np.where(peak > 0, lam, np.inf)
-    bad = (np.isnan(M) & ~np.isnan(xi)).any(axis=1) | np.isnan(L + E + G + I_z + I_t + I_w + k + k_w)
+    bad = ((np.isnan(M) & ~np.isnan(xi)).any(axis=1)
+           | np.isnan(L + E + G + I_z + I_t + I_w + k + k_w))
     if z_g is not None:
         bad |= np.isnan(z_g)
     return np.where(bad, np.nan, out)
@@ -167,7 +175,8 @@ def largest_eigenvalue_psd(A: np.ndarray, *, iterations: int = 8,
         stop = min(start + _BLOCK, R)
         t = trace[start:stop]
         safe = np.where(t > 0, t, 1.0)
-        flat = (A[start:stop] / safe[:, None, None]).reshape(stop - start, n * n).T.astype(np.float32)
+        flat = (A[start:stop] / safe[:, None, None]).reshape(stop - start, n * n)
+        flat = flat.T.astype(np.float32)
         x = np.ones((n, stop - start), dtype=np.float32)
         for _ in range(iterations):
             x = _matvec(flat, x, n)
@@ -246,7 +255,7 @@ def _exact_integrals(xi: np.ndarray, m: np.ndarray, n: int) -> np.ndarray:
     p, q = np.where(use, p, 0.0)[:, :, None], np.where(use, q, 0.0)[:, :, None]
     w = np.pi * np.arange(1, 2 * n + 1)[None, None, :]  # k = 1 .. 2n
     c = np.empty((R, 2 * n + 1))
-    c[:, 0] = (alpha[:, :, 0] * (q - p)[:, :, 0] + beta[:, :, 0] * (q**2 - p**2)[:, :, 0] / 2).sum(1)
+    c[:, 0] = (alpha * (q - p) + beta * (q**2 - p**2) / 2)[:, :, 0].sum(axis=1)
 
     def primitive(x):  # of (alpha + beta x) cos(w x)
         return (alpha + beta * x) * np.sin(w * x) / w + beta * np.cos(w * x) / w**2
@@ -299,7 +308,8 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
                 W_s = W_g.reshape(S, n, n)
                 # symmetric in (s, t) and in (i, l): only s <= t and i <= l are multiplied
                 WW = np.einsum("sij,tjl->stil", W_s, W_s)
-                WW = (WW + WW.transpose(1, 0, 2, 3))[s_up, t_up] / np.where(s_up == t_up, 2.0, 1.0)[:, None, None]
+                twice = np.where(s_up == t_up, 2.0, 1.0)[:, None, None]
+                WW = (WW + WW.transpose(1, 0, 2, 3))[s_up, t_up] / twice
                 upper = (m_g[:, s_up] * m_g[:, t_up]) @ WW[:, i_up, l_up]
                 I_sq[rows] = upper[:, full_index]
             if with_point_loads:

@@ -76,22 +76,30 @@ def buckling_curves(shape: np.ndarray, fabrication: np.ndarray, h: np.ndarray, b
 
 
 def N_cr_flexural(E: np.ndarray, I: np.ndarray, L_cr: np.ndarray) -> np.ndarray:
-    """EN 1993-1-1:2005, 6.3.1.2(1), N_cr = pi^2 E I / L_cr^2 (Euler load), N."""
+    """EN 1993-1-1:2005, 6.3.1.2(1).
+
+    Elastic critical force for flexural buckling (Euler load) N_cr = pi^2 E I / L_cr^2, N.
+    """
     return np.pi**2 * np.asarray(E, float) * I / np.asarray(L_cr, float) ** 2
 
 
 def i_0_squared(I_y: np.ndarray, I_z: np.ndarray, A: np.ndarray, *, y_0: np.ndarray | float = 0.0,
                 z_0: np.ndarray | float = 0.0) -> np.ndarray:
-    """EN 1993-1-1:2005, 6.3.1.4, polar radius of gyration about the shear centre, i_0^2 (m^2).
+    """EN 1993-1-1:2005, 6.3.1.4.
+
+    Polar radius of gyration about the shear centre, squared: i_0^2 (m^2).
 
     i_0^2 = (I_y + I_z) / A + y_0^2 + z_0^2, y_0 and z_0 the shear centre from the centroid.
     """
-    return (np.asarray(I_y, float) + I_z) / A + np.asarray(y_0, float) ** 2 + np.asarray(z_0, float) ** 2
+    y_0, z_0 = np.asarray(y_0, float), np.asarray(z_0, float)
+    return (np.asarray(I_y, float) + I_z) / A + y_0**2 + z_0**2
 
 
 def N_cr_torsional(E: np.ndarray, G: np.ndarray, I_t: np.ndarray, I_w: np.ndarray,
                    L_cr_T: np.ndarray, i_0_sq: np.ndarray) -> np.ndarray:
-    """EN 1993-1-1:2005, 6.3.1.4(2), N_cr,T = (G I_t + pi^2 E I_w / L_cr,T^2) / i_0^2, N.
+    """EN 1993-1-1:2005, 6.3.1.4(2).
+
+    N_cr,T = (G I_t + pi^2 E I_w / L_cr,T^2) / i_0^2, N.
 
     Elastic torsional buckling load (textbook elastic stability). Where the shear centre is at the
     centroid (doubly symmetric sections) torsion does not couple with flexure, so torsional-flexural
@@ -112,7 +120,10 @@ def lambda_bar(A: np.ndarray, f_y: np.ndarray, N_cr: np.ndarray) -> np.ndarray:
 
 
 def Phi(lambda_bar: np.ndarray, alpha: np.ndarray) -> np.ndarray:
-    """EN 1993-1-1:2005, 6.3.1.2(1), eq. (6.49), Phi = 0.5 (1 + alpha (lambda_bar - 0.2) + lambda_bar^2)."""
+    """EN 1993-1-1:2005, 6.3.1.2(1), eq. (6.49).
+
+    Phi = 0.5 (1 + alpha (lambda_bar - 0.2) + lambda_bar^2).
+    """
     lam = np.asarray(lambda_bar, float)
     return 0.5 * (1.0 + np.asarray(alpha, float) * (lam - 0.2) + lam**2)
 
@@ -132,7 +143,9 @@ def chi(lambda_bar: np.ndarray, alpha: np.ndarray) -> np.ndarray:
 
 
 def buckling_negligible(lambda_bar: np.ndarray, N_Ed: np.ndarray, N_cr: np.ndarray) -> np.ndarray:
-    """EN 1993-1-1:2005, 6.3.1.2(4), buckling effects may be ignored.
+    """EN 1993-1-1:2005, 6.3.1.2(4).
+
+    Whether flexural buckling effects may be ignored.
 
     True where lambda_bar <= 0.2 or N_Ed / N_cr <= 0.04 (N_Ed the compression, as a magnitude).
     """

@@ -22,6 +22,15 @@ KC_FROM_C1 = "1/sqrt(C_1), diagram not in Table 6.6"
 _SHAPE_TOL = 1e-3  # relative to the peak moment: a diagram matches a case within this
 
 
+def imperfection_factor_LT(curve: np.ndarray) -> np.ndarray:
+    """EN 1993-1-1:2005, 6.3.2.2(2), Table 6.3.
+
+    Imperfection factor alpha_LT of curves a, b, c, d (0.21, 0.34, 0.49, 0.76); NaN otherwise.
+    """
+    curve = np.asarray(curve, dtype=object)
+    return np.where(curve == "a0", np.nan, imperfection_factor(curve))
+
+
 def curve_LT_general(shape: np.ndarray, fabrication: np.ndarray, h: np.ndarray,
                      b: np.ndarray) -> np.ndarray:
     """EN 1993-1-1:2005, 6.3.2.2(2), Table 6.4.
@@ -57,7 +66,9 @@ def _curve_by_depth(shape, fabrication, h, b, *, rolled, welded) -> np.ndarray:
 
 
 def lambda_bar_LT(W_y: np.ndarray, f_y: np.ndarray, M_cr: np.ndarray) -> np.ndarray:
-    """EN 1993-1-1:2005, 6.3.2.2(1), lambda_bar_LT = sqrt(W_y f_y / M_cr).
+    """EN 1993-1-1:2005, 6.3.2.2(1).
+
+    Non-dimensional slenderness lambda_bar_LT = sqrt(W_y f_y / M_cr).
 
     0 where M_cr is infinite (a segment without moment).
     """
@@ -76,8 +87,11 @@ def chi_LT_general(lambda_bar_LT: np.ndarray, alpha_LT: np.ndarray) -> np.ndarra
 
 def Phi_LT_rolled(lambda_bar_LT: np.ndarray, alpha_LT: np.ndarray, *, lambda_LT_0: float = 0.4,
                   beta: float = 0.75) -> np.ndarray:
-    """EN 1993-1-1:2005, 6.3.2.3(1), eq. (6.57), Phi_LT = 0.5 (1 + alpha_LT (lambda_bar_LT -
-    lambda_LT,0) + beta lambda_bar_LT^2). lambda_LT,0 and beta are NDPs (recommended 0.4, 0.75)."""
+    """EN 1993-1-1:2005, 6.3.2.3(1), eq. (6.57).
+
+    Phi_LT = 0.5 (1 + alpha_LT (lambda_bar_LT - lambda_LT,0) + beta lambda_bar_LT^2);
+    lambda_LT,0 and beta are NDPs (recommended 0.4 and 0.75).
+    """
     lam = np.asarray(lambda_bar_LT, float)
     return 0.5 * (1.0 + np.asarray(alpha_LT, float) * (lam - lambda_LT_0) + beta * lam**2)
 
@@ -100,7 +114,9 @@ def chi_LT_rolled(lambda_bar_LT: np.ndarray, alpha_LT: np.ndarray, *, lambda_LT_
 
 def ltb_negligible(lambda_bar_LT: np.ndarray, M_Ed: np.ndarray, M_cr: np.ndarray, *,
                    lambda_LT_0: float = 0.4) -> np.ndarray:
-    """EN 1993-1-1:2005, 6.3.2.2(4), lateral-torsional buckling effects may be ignored.
+    """EN 1993-1-1:2005, 6.3.2.2(4).
+
+    Whether lateral-torsional buckling effects may be ignored.
 
     True where lambda_bar_LT <= lambda_LT,0 or M_Ed / M_cr <= lambda_LT,0^2 (lambda_LT,0 an NDP,
     see 6.3.2.3; the recommended value is 0.4).
@@ -111,13 +127,17 @@ def ltb_negligible(lambda_bar_LT: np.ndarray, M_Ed: np.ndarray, M_cr: np.ndarray
 
 
 def k_c_linear(psi: np.ndarray) -> np.ndarray:
-    """EN 1993-1-1:2005, 6.3.2.3(2), Table 6.6, k_c = 1 / (1.33 - 0.33 psi) for a linear diagram,
-    -1 <= psi <= 1 (psi = 1: uniform moment, k_c = 1)."""
+    """EN 1993-1-1:2005, 6.3.2.3(2), Table 6.6.
+
+    k_c = 1 / (1.33 - 0.33 psi) for a linear diagram, -1 <= psi <= 1 (psi = 1: uniform moment).
+    """
     return 1.0 / (1.33 - 0.33 * np.asarray(psi, float))
 
 
 def k_c_from_diagram(xi: np.ndarray, M: np.ndarray, C_1: np.ndarray) -> tuple[np.ndarray, ...]:
-    """EN 1993-1-1:2005, 6.3.2.3(2), Table 6.6, correction factor k_c of a segment's diagram.
+    """EN 1993-1-1:2005, 6.3.2.3(2), Table 6.6.
+
+    Correction factor k_c of a segment's moment diagram.
 
     Recognised cases, within 0.1 % of the peak moment at every station: linear (k_c from psi),
     simply supported with a uniform load (parabola with zero end moments, k_c = 0.94) and with a
@@ -183,8 +203,10 @@ def f_modification(lambda_bar_LT: np.ndarray, k_c: np.ndarray) -> np.ndarray:
 
 
 def chi_LT_mod(chi_LT: np.ndarray, f: np.ndarray, lambda_bar_LT: np.ndarray) -> np.ndarray:
-    """EN 1993-1-1:2005, 6.3.2.3(2), eq. (6.58), chi_LT,mod = chi_LT / f, <= 1 and
-    <= 1 / lambda_bar_LT^2."""
+    """EN 1993-1-1:2005, 6.3.2.3(2), eq. (6.58).
+
+    chi_LT,mod = chi_LT / f, at most 1 and at most 1 / lambda_bar_LT^2.
+    """
     lam = np.asarray(lambda_bar_LT, float)
     with np.errstate(divide="ignore"):
         cap = np.minimum(1.0, 1.0 / lam**2)
@@ -192,7 +214,9 @@ def chi_LT_mod(chi_LT: np.ndarray, f: np.ndarray, lambda_bar_LT: np.ndarray) -> 
 
 
 def W_y_for_class(section_class: np.ndarray, W_pl_y: np.ndarray, W_el_y: np.ndarray) -> np.ndarray:
-    """EN 1993-1-1:2005, 6.3.2.2(1), section modulus W_y by class (m^3).
+    """EN 1993-1-1:2005, 6.3.2.2(1).
+
+    Section modulus W_y by class (m^3).
 
     W_pl,y for class 1 and 2, W_el,y for class 3; NaN for class 4 (W_eff,y needed) and unknown (0).
     """
@@ -210,6 +234,6 @@ def M_b_Rd(chi_LT: np.ndarray, W_y: np.ndarray, f_y: np.ndarray, *,
     return np.asarray(chi_LT, float) * W_y * f_y / gamma_M1
 
 
-__all__ = ["curve_LT_general", "curve_LT_rolled", "lambda_bar_LT", "chi_LT_general",
+__all__ = ["imperfection_factor_LT", "curve_LT_general", "curve_LT_rolled", "lambda_bar_LT", "chi_LT_general",
            "Phi_LT_rolled", "chi_LT_rolled", "ltb_negligible", "k_c_linear", "k_c_from_diagram",
-           "f_modification", "chi_LT_mod", "W_y_for_class", "M_b_Rd", "imperfection_factor"]
+           "f_modification", "chi_LT_mod", "W_y_for_class", "M_b_Rd"]

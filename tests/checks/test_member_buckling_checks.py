@@ -19,7 +19,8 @@ NUMERICAL = 0.01  # numerical M_cr against the closed form (brief: within 1 %)
 E, G, S355 = 210e9, 81e9, 355e6  # EN 1993-1-1 3.2.6; Table 3.1 S355, t <= 40 mm
 MM, CM2, CM3, CM4 = 1e-3, 1e-4, 1e-6, 1e-8
 IPE300 = dict(shape="I", fabrication="rolled", h=300 * MM, b=150 * MM, t_f=10.7 * MM,
-              A=53.8 * CM2, I_y=8356 * CM4, I_z=604 * CM4, I_t=20.1 * CM4, I_w=126e3 * 1e-12,  # cm6 to m6
+              A=53.8 * CM2, I_y=8356 * CM4, I_z=604 * CM4, I_t=20.1 * CM4,
+              I_w=126e3 * 1e-12,  # 126 x 10^3 cm6 in m6
               W_pl_y=628 * CM3, W_el_y=2 * 8356 * CM4 / (300 * MM))
 RHS = dict(shape="RHS", fabrication="hot-finished", h=200 * MM, b=100 * MM, t_f=np.nan,
            A=28.9 * CM2, I_y=1543 * CM4, I_z=523 * CM4, I_t=1219 * CM4, I_w=0.0,

@@ -33,7 +33,8 @@ def closed_form(L, k=1.0, k_w=1.0):
 def m_cr(fn, L, n_stations=41, **kw):
     xi = np.linspace(0.0, 1.0, n_stations)
     M = np.atleast_2d(fn(xi))
-    return cm.M_cr(np.broadcast_to(xi, M.shape), M, np.full(M.shape[0], L), E, G, I_z, I_t, I_w, **kw)
+    return cm.M_cr(np.broadcast_to(xi, M.shape), M, np.full(M.shape[0], L), E, G, I_z, I_t, I_w,
+                   **kw)
 
 
 @pytest.mark.parametrize("L", [2.0, 4.0, 6.0, 10.0])

@@ -106,7 +106,8 @@ def test_torsional_buckling_load_by_hand():
 
 def test_buckling_negligible_6_3_1_2_4():
     # 6.3.1.2(4): lambda_bar <= 0.2 or N_Ed / N_cr <= 0.04
-    flag = fb.buckling_negligible(np.array([0.2, 0.5, 0.5, np.nan]), np.array([10.0, 4.0, 4.1, 1.0]),
+    flag = fb.buckling_negligible(np.array([0.2, 0.5, 0.5, np.nan]),
+                                  np.array([10.0, 4.0, 4.1, 1.0]),
                                   np.array([100.0, 100.0, 100.0, np.nan]))
     assert flag.tolist() == [True, True, False, False]
 
@@ -114,4 +115,5 @@ def test_buckling_negligible_6_3_1_2_4():
 def test_N_b_Rd_eq_6_47():
     # eq. (6.47) with gamma_M1 as keyword (NDP, recommended 1.0)
     assert fb.N_b_Rd(0.5, 53.8e-4, 355e6) == pytest.approx(0.5 * 53.8e-4 * 355e6)
-    assert fb.N_b_Rd(0.5, 53.8e-4, 355e6, gamma_M1=1.1) == pytest.approx(0.5 * 53.8e-4 * 355e6 / 1.1)
+    assert fb.N_b_Rd(0.5, 53.8e-4, 355e6, gamma_M1=1.1) == pytest.approx(
+        0.5 * 53.8e-4 * 355e6 / 1.1)

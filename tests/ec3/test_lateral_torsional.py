@@ -45,6 +45,12 @@ def test_chi_LT_general_is_eq_6_49_curve_table():
     np.testing.assert_allclose(chi, [0.6656, 0.2229, 0.4671, 0.1766], atol=TABLE_ROUNDING)
 
 
+def test_table_6_3_imperfection_factors():
+    # EN 1993-1-1:2005 Table 6.3: a 0.21, b 0.34, c 0.49, d 0.76; no curve a0 for LTB
+    got = lt.imperfection_factor_LT(np.array(["a", "b", "c", "d", "a0", ""], dtype=object))
+    assert got[:4].tolist() == [0.21, 0.34, 0.49, 0.76] and np.isnan(got[4:]).all()
+
+
 def test_curves_tables_6_4_and_6_5():
     # EN 1993-1-1:2005 Table 6.4 (general) and Table 6.5 (rolled and equivalent welded)
     shape = np.array(["I", "I", "I", "I", "RHS", "GENERIC"], dtype=object)
