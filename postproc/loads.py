@@ -181,7 +181,7 @@ def uls_combinations(cases: pd.DataFrame, *, method: str = "6.10", gamma_G_sup: 
                 add("(6.10b) ", xi * gamma_G_sup, lead, gamma_Q, others)
         if favourable_permanent == "all" or (favourable_permanent == "wind"
                                              and category[lead] == "wind"):
-            add("", gamma_G_inf, lead, gamma_Q, [])
+            add("" if method == "6.10" else "(6.10b) ", gamma_G_inf, lead, gamma_Q, [])
     return _long(combos, prefixes, "ULS")
 
 
@@ -214,7 +214,10 @@ def _long(combos: list[list[tuple[str, float]]], prefixes: list[str], kind: str)
         if key in seen:
             continue
         seen.add(key)
-        name = _name(kind, prefix, terms)
+        name = base = _name(kind, prefix, terms)
+        k = 2
+        while any(r[0] == name for r in records):  # equal to 2 decimals, different beyond
+            name, k = f"{base} ({k})", k + 1
         records += [(name, case, float(f), kind) for case, f in terms]
     return pd.DataFrame.from_records(records, columns=FACTORS_COLUMNS)
 

@@ -159,3 +159,9 @@ def test_superpose_refuses_missing_case():
     factors = pd.DataFrame({"combination": ["c1"], "load_case": ["ghost"], "factor": [1.0]})
     with pytest.raises(InputError, match="ghost"):
         loads.superpose(case_table("dead", 1.0), factors)
+
+
+def test_names_stay_unique_when_factors_differ_beyond_two_decimals():
+    table = loads._long([[("g", 1.351)], [("g", 1.349)], [("g", 1.351)]], ["", "", ""], "ULS")
+    assert list(table["combination"]) == ["ULS 1.35 g", "ULS 1.35 g (2)"]  # third: a repeat
+    assert list(table["factor"]) == [1.351, 1.349]
