@@ -17,7 +17,7 @@ import pandas as pd
 from postproc import materials
 from postproc.errors import InputError
 from postproc.frame import Frame
-from postproc.results import DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
+from postproc.results import COMBINATION_COLUMNS, DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
 from postproc.sections import build_sections
 from postproc.units import factor
 
@@ -119,7 +119,9 @@ def load(project, project_path: Path | None = None) -> tuple[Frame, Results]:
 
     `project` is a `postproc.project.Project`. [model] keys: `directory` (folder of the tables,
     relative to the project file; default the project's folder), `ndm` (2 or 3, default 2),
-    `units` (length, force, moment), and optional file names overriding FILES.
+    `units` (length, force, moment), `imperfections_in_forces` (true where the forces carry
+    the frame's sway imperfection of 5.3.2; default false), and optional file names overriding
+    FILES.
     """
     model = project.model
     folder = project.resolve(model.get("directory", "."))
@@ -141,7 +143,15 @@ def load(project, project_path: Path | None = None) -> tuple[Frame, Results]:
     supports = _supports(files["supports"], units, nodes, ndm)
     frame = Frame(ndm=ndm, nodes=nodes, elements=elements, supports=supports, sections=sections,
                   source=f"CSV tables in {folder}")
+    imperfections = model.get("imperfections_in_forces", False)
+    if not isinstance(imperfections, bool):
+        raise InputError(f"must be true or false, got {imperfections!r}", file=str(project.path),
+                         field="model.imperfections_in_forces")
     results = _results(files, units, frame, project)
+    combos = results.combinations.copy()
+    combos["imperfections"] = imperfections
+    results = Results(forces=results.forces, combinations=combos[COMBINATION_COLUMNS],
+                      displacements=results.displacements)
     return frame, results
 
 

@@ -24,7 +24,7 @@ import pandas as pd
 FORCE_COLUMNS = ["N_N", "Vy_N", "Vz_N", "T_Nm", "My_Nm", "Mz_Nm"]
 FORCE_KEYS = ["combination", "element", "x_m"]
 DISPLACEMENT_COLUMNS = ["ux_m", "uy_m", "uz_m", "rx_rad", "ry_rad", "rz_rad"]
-COMBINATION_COLUMNS = ["kind", "analysis", "status", "message"]
+COMBINATION_COLUMNS = ["kind", "analysis", "imperfections", "status", "message"]
 
 
 @dataclass(frozen=True)
@@ -36,6 +36,9 @@ class Results:
             (combination, element, station), sorted by combination, element, x_m.
         combinations: index `combination`; columns kind ('ULS' or 'SLS'), analysis
             ('first-order' or 'second-order': whether sway effects are already in the forces),
+            imperfections (bool: whether the forces carry the frame's sway imperfection of
+            5.3.2, e.g. as equivalent horizontal forces; False where unknown, and then members
+            in a sway mode keep their sway buckling lengths),
             status ('ok' or 'failed'), message (why it failed). A failed combination has no
             forces and its members are reported not evaluated.
         displacements: columns combination, node, ux_m .. rz_rad; may be empty.

@@ -276,7 +276,9 @@ def analysis_path(alpha: pd.DataFrame, combinations: pd.DataFrame) -> pd.DataFra
 
     Returns:
         index `combination`; columns path, amplification (1 where forces are used as they are,
-        NaN where they cannot be used), alpha_cr (the value used), sway_mode, reason.
+        NaN where they cannot be used), alpha_cr (the value used), sway_mode, imperfections
+        (whether the forces carry the frame's sway imperfection of 5.3.2: the combinations
+        table's `imperfections` column, False where absent), reason.
     """
     rows = []
     for comb, r in alpha.iterrows():
@@ -314,9 +316,17 @@ def analysis_path(alpha: pd.DataFrame, combinations: pd.DataFrame) -> pd.DataFra
             path, amp = "second-order needed", np.nan
             reason = (f"{source} = {a:.2f} < 3 with first-order forces: a second-order "
                       "analysis is needed (5.2.2(5B))")
-        rows.append((comb, path, amp, a, sway, reason))
+        # 5.2.2(3), (7), (8): non-sway member lengths hold only where the forces carry the frame's
+        # sway imperfection (5.3.2); without it a sway-mode member keeps its sway length
+        imperfect = bool(combinations.at[comb, "imperfections"]) if (
+            "imperfections" in combinations.columns) else False
+        if sway and not imperfect and path in ("first-order", "amplified",
+                                               "second-order in forces"):
+            reason += ("; the forces do not carry the frame imperfection (5.3.2), so members "
+                       "in the sway mode keep their sway buckling length (5.2.2(8))")
+        rows.append((comb, path, amp, a, sway, imperfect, reason))
     out = pd.DataFrame(rows, columns=["combination", "path", "amplification", "alpha_cr",
-                                      "sway_mode", "reason"])
+                                      "sway_mode", "imperfections", "reason"])
     return out.set_index("combination")
 
 

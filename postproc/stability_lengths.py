@@ -3,11 +3,11 @@
 Where each length comes from (the `origin_*` columns say it row by row):
 - Modelled bending axes (the in-plane axis of a plane frame; both axes of a space frame):
   - sway effects in the forces or negligible (paths 'first-order', 'amplified', 'second-order in
-    forces'): the non-sway length, 5.2.2(3)b and (7): with restraints inside the member the
+    forces') and the frame's sway imperfection (5.3.2) in the forces: the non-sway length, 5.2.2(3)b and (7): with restraints inside the member the
     longest span between them (k = 1); otherwise the non-sway effective length from the end
     restraint of the members framing in (`effective_length_ratio`, sway=False).
-  - sway effects not in the forces (paths 'second-order needed', 'unstable', 'not evaluated')
-    and a sway mode: for a member in compression the length that gives the member's critical
+  - sway effects or the sway imperfection not in the forces (paths 'second-order needed',
+    'unstable', 'not evaluated', or `paths.imperfections` False) and a sway mode: for a member in compression the length that gives the member's critical
     force in the frame's buckling mode, N_cr = alpha_cr |N_Ed|, L_cr = pi sqrt(E I / N_cr)
     (5.2.2(8)); this is a lower bound of the member's critical force about either axis, so it is
     used for both axes of a space frame. A member not in compression gets the sway effective
@@ -277,7 +277,10 @@ def buckling_lengths(frame: Frame, members: Members, results: Results, paths: pd
     path = paths["path"].astype(str).to_numpy()
     alpha = paths["alpha_cr"].to_numpy(float)
     sway_mode = paths["sway_mode"].fillna(False).to_numpy(bool)
-    sway_needed = np.isin(path, SWAY_PATHS) & sway_mode                         # (C,)
+    imperfect = (paths["imperfections"].fillna(False).to_numpy(bool)
+                 if "imperfections" in paths else np.zeros(len(paths), dtype=bool))
+    # sway lengths where the forces miss the sway effects or the frame imperfection (5.2.2(8))
+    sway_needed = (np.isin(path, SWAY_PATHS) | ~imperfect) & sway_mode          # (C,)
     me = members.member_elements[members.member_elements["position"] == 0]
     first = me.set_index("member").loc[names, "element"].astype(str)
     k = np.array([model.pos[e] for e in first])

@@ -486,3 +486,25 @@ def test_tens_of_combinations_run_in_seconds():
     assert len(out) == 30 * len(members.members)
     assert alpha["alpha_cr"].notna().all()
     assert elapsed < 10.0, f"30 combinations took {elapsed:.1f} s"
+
+
+@pytest.mark.parametrize("imperfections, expected_k", [(True, None), (False, 1.0)])
+def test_sway_lengths_unless_the_forces_carry_the_imperfection(imperfections, expected_k):
+    """5.2.2(7)/(8): with alpha_cr >= 10 the member may be checked with its non-sway length only
+    where the forces carry the frame imperfection (5.3.2); otherwise the sway length, here the
+    closed form L_cr = L of a fixed-base portal with a rigid beam (textbook elastic stability)."""
+    L = 5.0
+    P = np.pi ** 2 * E * I_HEB200_Y / L ** 2 / 20.0                  # alpha_cr = 20
+    f = portal(FIXED, L=L)
+    res, members, alpha = run(f, {"U1": {"C1": -P, "C2": -P}})
+    table = res.combinations.assign(imperfections=imperfections)
+    paths = analysis_path(alpha, table)
+    assert paths.at["U1", "path"] == "first-order"
+    lengths = buckling_lengths(f, members, res, paths).set_index("member")
+    if expected_k is None:     # non-sway: fixed base, rigid beam: below L
+        assert lengths.at["C1", "L_cr_y_m"] < 0.75 * L
+        assert not bool(lengths.at["C1", "sway_y"])
+    else:
+        assert lengths.at["C1", "L_cr_y_m"] == pytest.approx(expected_k * L, rel=CLOSED_FORM_REL)
+        assert bool(lengths.at["C1", "sway_y"])
+        assert "5.2.2(8)" in paths.at["U1", "reason"]
