@@ -105,6 +105,14 @@ def load(project: dict, project_path: Path) -> tuple[Frame, Results]:
     ops = import_opensees()
     watched = run_user_model(ops, opt.script, opt.builder, pdelta=pdelta)
     captured = read_domain(ops, watched, script=str(opt.script))
+    if pdelta:
+        unseen = [e for e, t in zip(captured.elements.index, captured.elements["truss"])
+                  if not t and int(e) not in watched.elements]
+        if unseen or not watched.transforms:
+            raise InputError(f"element {unseen[0] if unseen else ''} was not built through "
+                             "openseespy.opensees while the script ran, so its geometric "
+                             "transformation cannot be made P-delta; build the model in the "
+                             "script or the builder function", file=file, field="model.analysis")
     if captured.ndm == 2 and opt.major_axis != "z":
         raise InputError("a plane model bends about OpenSees local z; major_axis must be \"z\"",
                          file=file, field="model.major_axis")
