@@ -13,6 +13,11 @@ Row data read here (see `postproc.checks.base.MemberRows`):
 Lateral-torsional buckling segments: where L_LT < member length the member is divided into
 round(length / L_LT) equal segments (at most MAX_SEGMENTS) and the segment with the highest
 M_Ed / M_b,Rd governs. M_cr of a segment uses the longer of L_LT and the segment (safe side).
+
+Choices, echoed in the block values: the section class of a member is its worst class along the
+member (W_y by that class); 6.3.2.2(4) uses lambda_LT,0 from the settings with the 6.3.2.3 method
+and 0.2 (the plateau of eq. 6.56) with the general method; chi_y, chi_z, chi_T in the buckling
+values are eq. (6.49) values, and the 6.3.1.2(4) allowance (chi = 1) is applied in the checks only.
 """
 
 from __future__ import annotations

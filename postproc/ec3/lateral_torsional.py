@@ -182,7 +182,8 @@ def k_c_from_diagram(xi: np.ndarray, M: np.ndarray, C_1: np.ndarray) -> tuple[np
         from_c1 = np.minimum(1.0 / np.sqrt(np.asarray(C_1, float)), 1.0)
     k_c = np.select([linear, udl, point], [k_c_linear(np.nan_to_num(psi, nan=1.0)), 0.94, 0.86],
                     from_c1)
-    case = np.select([linear, udl, point], [KC_LINEAR, KC_UDL, KC_POINT], KC_FROM_C1).astype(object)
+    code = np.select([linear, udl, point], [0, 1, 2], 3)
+    case = np.array([KC_LINEAR, KC_UDL, KC_POINT, KC_FROM_C1], dtype=object)[code]
     return k_c, psi, case
 
 
