@@ -203,20 +203,25 @@ def _stiffness(kind: str, args: tuple, section_tag: float, watched: Watched, ndm
     return np.nan, np.nan
 
 
-def _pattern_factor(pattern: int, watched: Watched) -> float:
+def _pattern_factor(pattern: int, watched: Watched, script: str) -> float:
     """Scale of a load pattern at pseudo-time 1: pattern -fact times the series -factor."""
-    kind, args = watched.patterns.get(pattern, ("Plain", ()))
+    unseen = ("load pattern {} was not created through openseespy.opensees while the script ran, "
+              "so its time series is unknown; create it in the script or the builder function")
+    if pattern not in watched.patterns:
+        raise InputError(unseen.format(pattern), file=script, field="model.script")
+    kind, args = watched.patterns[pattern]
     if kind != "Plain":
         raise InputError(f"load pattern {pattern} is of type {kind!r}; only 'Plain' patterns are "
-                         "read", field="model.script")
-    numbers = [a for a in args if not isinstance(a, str)]
+                         "read", file=script, field="model.script")
+    numbers = _positional(args)
     fact = float(args[args.index("-fact") + 1]) if "-fact" in args else 1.0
-    series_kind, series_args = watched.series.get(int(numbers[0]) if numbers else -1,
-                                                  ("Linear", ()))
+    if not numbers or int(numbers[0]) not in watched.series:
+        raise InputError(unseen.format(pattern), file=script, field="model.script")
+    series_kind, series_args = watched.series[int(numbers[0])]
     if series_kind not in ("Linear", "Constant"):
         raise InputError(f"load pattern {pattern} uses a {series_kind!r} time series; use "
                          "'Linear' or 'Constant' so that the pattern holds characteristic loads",
-                         field="model.script")
+                         file=script, field="model.script")
     if "-factor" in series_args:
         fact *= float(series_args[series_args.index("-factor") + 1])
     return fact
@@ -287,7 +292,7 @@ def _loads(ops, watched: Watched, ndm: int, ndf: int, script: str
     nodal_index = [0, 1, 5] if ndm == 2 else list(range(6))
     node_parts, element_records = [], []
     for pattern in ops.getPatterns():
-        scale = _pattern_factor(pattern, watched)
+        scale = _pattern_factor(pattern, watched, script)
         tags = list(ops.getNodeLoadTags(pattern))
         if tags:
             data = np.array(ops.getNodeLoadData(pattern), float).reshape(len(tags), ndf) * scale
