@@ -284,8 +284,8 @@ def check_stiffness(captured: Captured, frame: Frame, major_axis: str, *, file: 
         raise InputError(
             f"element {element} ({frame.elements['section'].iloc[k]}): the model's I about "
             f"OpenSees local {major_axis} is {I_major[k]:.4g} m4, close to the section's "
-            f"minor-axis I_z = {I_z[k]:.4g} m4, not its I_y = {I_y[k]:.4g} m4. Check the element's vecxz or "
-            f"set [model] major_axis (now \"{major_axis}\"); for a plane frame, bending about the "
+            f"minor-axis I_z = {I_z[k]:.4g} m4, not its I_y = {I_y[k]:.4g} m4. Check the "
+            f"element's vecxz or set [model] major_axis (now \"{major_axis}\"); for a plane frame, bending about the "
             "minor axis is not read.", file=file, field="model.major_axis")
     off = known & (np.abs(I_major - I_y) > STIFFNESS_WARNING * I_y)
     if off.any():
