@@ -369,7 +369,10 @@ def _results(captured: Captured, matrix: np.ndarray, patterns: list[str],
     E = len(captured.elements)
     L = _lengths(captured)
     ok = [j for j, s in enumerate(sets) if not s[3]]
-    combos = pd.DataFrame({"kind": kinds, "analysis": analysis,
+    # P-delta ULS runs carry the sway imperfection as equivalent horizontal forces (5.3.2(7));
+    # linear runs do not, so members in a sway mode keep their sway buckling lengths
+    imperfect = [a == "second-order" and k == "ULS" for a, k in zip(analysis, kinds)]
+    combos = pd.DataFrame({"kind": kinds, "analysis": analysis, "imperfections": imperfect,
                            "status": ["failed" if s[3] else "ok" for s in sets],
                            "message": [s[3] for s in sets]},
                           index=pd.Index(names, name="combination"))

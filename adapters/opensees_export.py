@@ -64,8 +64,9 @@ def export_tables(frame: Frame, results: Results, directory: Path) -> None:
 
     combos = results.combinations
     pd.DataFrame({"combination": combos.index.astype(str), "kind": combos["kind"],
-                  "analysis": combos["analysis"]}).to_csv(directory / "combinations.csv",
-                                                          index=False)
+                  "analysis": combos["analysis"],
+                  "imperfections": combos["imperfections"].astype(int)}).to_csv(
+        directory / "combinations.csv", index=False)
     if results.displacements is not None and len(results.displacements):
         headers = {c: (f"{c.split('_')[0]} [m]" if c.startswith("u") else c.split("_")[0])
                    for c in DISPLACEMENT_COLUMNS}

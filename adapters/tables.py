@@ -149,7 +149,8 @@ def load(project, project_path: Path | None = None) -> tuple[Frame, Results]:
                          field="model.imperfections_in_forces")
     results = _results(files, units, frame, project)
     combos = results.combinations.copy()
-    combos["imperfections"] = imperfections
+    given = combos["imperfections"] if "imperfections" in combos else pd.Series(np.nan, combos.index)
+    combos["imperfections"] = given.fillna(float(imperfections)).astype(bool)
     results = Results(forces=results.forces, combinations=combos[COMBINATION_COLUMNS],
                       displacements=results.displacements)
     return frame, results
@@ -309,12 +310,20 @@ def _combination_table(path: Path, units: dict, present: np.ndarray, forces_file
             raise InputError(f"combination(s) {', '.join(extra)} have forces but are not listed "
                              f"in {table.name}", file=forces_file, field="combination")
         index = ids.to_numpy()
+        imperfections = table.number("imperfections", required=False)
+        bad = ~np.isnan(imperfections) & ~np.isin(imperfections, (0.0, 1.0))
+        if bad.any():
+            k = int(bad.argmax())
+            raise InputError("imperfections must be 1 (the forces carry the frame imperfection) "
+                             "or 0", file=table.name, row=int(table.rows[k]), field="imperfections")
     else:
         index = np.asarray(present)
         kind = pd.Series(["ULS"] * len(index))
         analysis = pd.Series(["first-order"] * len(index))
+        imperfections = np.full(len(index), np.nan)
     frame = pd.DataFrame({"kind": kind.to_numpy(), "analysis": analysis.to_numpy(),
-                          "status": "ok", "message": ""}, index=pd.Index(index, name="combination"))
+                          "imperfections": imperfections, "status": "ok", "message": ""},
+                         index=pd.Index(index, name="combination"))
     return frame
 
 
