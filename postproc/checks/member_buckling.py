@@ -202,9 +202,10 @@ def _segments(rows: MemberRows, todo: np.ndarray, n_seg: np.ndarray, L_LT: np.nd
     I_z, I_t, I_w = (num[k][seg_row] for k in ("I_z", "I_t", "I_w"))
     k, k_w = _info(rows, "k_LT", 1.0)[seg_row], _info(rows, "k_w", 1.0)[seg_row]
     z_g = _info(rows, "z_g", 0.0)[seg_row]
-    M_cr = cm.M_cr(xi, M, L_seg, E, G, I_z, I_t, I_w, k=k, k_w=k_w, z_g=z_g)
+    ends = cm.end_moments(xi, M)
+    M_Ed = cm.peak_moment(xi, M, ends=ends)
+    M_cr = cm.M_cr(xi, M, L_seg, E, G, I_z, I_t, I_w, k=k, k_w=k_w, z_g=z_g, M_max=M_Ed)
     M_cr_0 = cm.M_cr_0(L_seg, E, G, I_z, I_t, I_w, k=k, k_w=k_w)
-    M_Ed = cm.peak_moment(xi, M)
     no_moment = M_Ed == 0
     C_1 = np.where(no_moment, 1.0, M_cr / M_cr_0)
     W_y, f_y = out["W_y_m3"][seg_row], np.asarray(rows.f_y, float)[seg_row]
@@ -218,7 +219,7 @@ def _segments(rows: MemberRows, todo: np.ndarray, n_seg: np.ndarray, L_LT: np.nd
         case = np.full(chi.shape, "", dtype=object)
     else:
         chi = lt.chi_LT_rolled(lam, alpha, lambda_LT_0=st.lambda_LT_0, beta=st.beta_LT)
-        k_c, psi, case = lt.k_c_from_diagram(xi, M, C_1)
+        k_c, psi, case = lt.k_c_from_diagram(xi, M, C_1, ends=ends)
         f = lt.f_modification(lam, k_c)
         chi_mod = lt.chi_LT_mod(chi, f, lam)
     negligible = lt.ltb_negligible(lam, M_Ed, M_cr, lambda_LT_0=lam_0)
@@ -233,7 +234,7 @@ def _segments(rows: MemberRows, todo: np.ndarray, n_seg: np.ndarray, L_LT: np.nd
     _, first_hit = np.unique(group[hits], return_index=True)
     pick = hits[first_hit]  # one segment per row of `todo`, in order
     rows_out = todo
-    x_peak = _peak_location(xi[pick], M[pick]) * step[pick] + x_a[pick]
+    x_peak = _peak_location(xi[pick], M[pick], ends[pick]) * step[pick] + x_a[pick]
     for key, values in (("M_cr_Nm", M_cr), ("M_cr_0_Nm", M_cr_0), ("C_1", C_1),
                         ("lambda_bar_LT", lam), ("chi_LT", chi_used), ("chi_LT_unmodified", chi),
                         ("alpha_LT", alpha), ("k_c", k_c), ("psi", psi), ("f", f),
@@ -244,10 +245,10 @@ def _segments(rows: MemberRows, todo: np.ndarray, n_seg: np.ndarray, L_LT: np.nd
     out["ltb_segment_end_m"][rows_out] = x_a[pick] + step[pick]
 
 
-def _peak_location(xi: np.ndarray, M: np.ndarray) -> np.ndarray:
+def _peak_location(xi: np.ndarray, M: np.ndarray, ends: np.ndarray) -> np.ndarray:
     """Fraction of the segment where |M| is largest (a station inside or an end)."""
     inside = (xi >= 0.0) & (xi <= 1.0)
-    ends = np.abs(cm._interp_rows(xi, np.nan_to_num(M), np.array([0.0, 1.0])))
+    ends = np.abs(np.nan_to_num(ends))
     cand_x = np.concatenate([np.where(inside, xi, np.nan), np.zeros((xi.shape[0], 1)),
                              np.ones((xi.shape[0], 1))], axis=1)
     cand_m = np.concatenate([np.where(inside, np.abs(np.nan_to_num(M)), -1.0), ends], axis=1)

@@ -51,24 +51,30 @@ def M_cr_0(L: np.ndarray, E: np.ndarray, G: np.ndarray, I_z: np.ndarray, I_t: np
     return np.sqrt(P_z * (G * I_t + np.pi**2 * E * I_w / (k_w * L) ** 2))
 
 
-def peak_moment(xi: np.ndarray, M: np.ndarray) -> np.ndarray:
+def end_moments(xi: np.ndarray, M: np.ndarray) -> np.ndarray:
+    """(R, 2) moments at the segment ends xi = 0 and xi = 1, linear between stations (N*m)."""
+    return _interp_rows(np.asarray(xi, float), np.asarray(M, float), np.array([0.0, 1.0]))
+
+
+def peak_moment(xi: np.ndarray, M: np.ndarray, *, ends: np.ndarray | None = None) -> np.ndarray:
     """EN 1993-1-1:2005, 6.3.2.1(1).
 
     M_Ed of a segment: the largest |M| within 0 <= xi <= 1 (N*m).
 
     xi (R, S) are station positions as fractions of the segment (ascending, NaN padding, may lie
     outside [0, 1] when the segment is part of a longer member); M (R, S) is linear between them.
+    `ends` may pass the result of `end_moments` when it is at hand.
     """
     inside = (xi >= 0.0) & (xi <= 1.0)
     peak = np.max(np.where(inside, np.abs(np.nan_to_num(M)), 0.0), axis=1)
-    ends = np.abs(_interp_rows(xi, M, np.array([0.0, 1.0])))
+    ends = np.abs(end_moments(xi, M) if ends is None else ends)
     return np.maximum(peak, ends.max(axis=1))
 
 
 def M_cr(xi: np.ndarray, M: np.ndarray, L: np.ndarray, E: np.ndarray, G: np.ndarray,
          I_z: np.ndarray, I_t: np.ndarray, I_w: np.ndarray, *, k: np.ndarray | float = 1.0,
          k_w: np.ndarray | float = 1.0, z_g: np.ndarray | None = None,
-         n_terms: int = N_TERMS) -> np.ndarray:
+         n_terms: int = N_TERMS, M_max: np.ndarray | None = None) -> np.ndarray:
     """EN 1993-1-1:2005, 6.3.2.2(2).
 
     M_cr of a segment for its actual moment diagram (Rayleigh-Ritz, see the module docstring).
@@ -82,6 +88,7 @@ def M_cr(xi: np.ndarray, M: np.ndarray, L: np.ndarray, E: np.ndarray, G: np.ndar
         k, k_w: effective-length factors for lateral bending and warping (1.0: fork supports).
         z_g: (R,) height of the load above the shear centre along +z, m (None or 0: at the centre).
         n_terms: sine terms per field.
+        M_max: (R,) the largest |M| in the segment (`peak_moment`), if already known.
 
     Returns:
         (R,) M_cr in N*m, referred to the largest |M| in the segment: the diagram scaled by
@@ -93,16 +100,17 @@ def M_cr(xi: np.ndarray, M: np.ndarray, L: np.ndarray, E: np.ndarray, G: np.ndar
     bcast = lambda v: np.broadcast_to(np.asarray(v, float), (R,))  # noqa: E731
     L, E, G, I_z, I_t, I_w, k, k_w = (bcast(v) for v in (L, E, G, I_z, I_t, I_w, k, k_w))
     z = None if z_g is None else bcast(z_g)
+    peak = peak_moment(xi, M) if M_max is None else bcast(M_max)
     out = np.empty(R)
     for a in range(0, R, _ROWS_PER_BLOCK):  # blocks of rows keep the work arrays in cache
         b = min(a + _ROWS_PER_BLOCK, R)
         out[a:b] = _M_cr_block(xi[a:b], M[a:b], L[a:b], E[a:b], G[a:b], I_z[a:b], I_t[a:b],
                                I_w[a:b], k[a:b], k_w[a:b], None if z is None else z[a:b],
-                               int(n_terms))
+                               int(n_terms), peak[a:b])
     return out
 
 
-def _M_cr_block(xi, M, L, E, G, I_z, I_t, I_w, k, k_w, z_g, n) -> np.ndarray:
+def _M_cr_block(xi, M, L, E, G, I_z, I_t, I_w, k, k_w, z_g, n, peak) -> np.ndarray:
     """M_cr for one block of rows; arguments as M_cr, all (R,) arrays already."""
     R = xi.shape[0]
     j = np.arange(1, n + 1)
@@ -111,7 +119,6 @@ def _M_cr_block(xi, M, L, E, G, I_z, I_t, I_w, k, k_w, z_g, n) -> np.ndarray:
     K_phi = ((G * I_t)[:, None] * beta**2
              + (E * I_w / k_w**2)[:, None] * beta**4) * (L[:, None] / 2)
 
-    peak = peak_moment(xi, M)
     scale = np.where(peak > 0, peak, 1.0)  # work with M / max|M|: the eigenvalue is then M_cr
     m = np.nan_to_num(M) / scale[:, None]
     height = np.zeros(R, bool) if z_g is None else np.nan_to_num(z_g) != 0.0
@@ -289,8 +296,7 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
     if R and same.all():
         inverse, patterns = np.zeros(R, int), key[:1]
     elif R:
-        patterns, inverse = np.unique(key, axis=0, return_inverse=True)
-        inverse = inverse.reshape(-1)
+        patterns, inverse = _station_patterns(key)
     else:
         return np.zeros((0, n, n)), np.zeros((0, n, n)), np.zeros((0, n, n))
     I_mm = np.empty((R, n * n))
@@ -329,6 +335,20 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
     if with_square:
         I_sq = (I_sq.reshape(R, n, n) if patterns.shape[0] <= _MAX_GROUPS else I_mm @ I_mm)
     return I_mm, I_sq, (F_ss.reshape(R, n, n) if with_point_loads else None)
+
+
+def _station_patterns(key: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """Distinct rows of key (R, S) and each row's pattern number. A fixed projection turns each
+    row into one number (sorting numbers is far cheaper than sorting rows); rows are then checked
+    against their pattern, and any collision falls back to sorting whole rows."""
+    finite = np.where(np.isinf(key), 7.0, key)
+    weights = np.cos(np.arange(1, key.shape[1] + 1) * 1.2345) + 2.0  # distinct, irrational-ish
+    _, first, inverse = np.unique(finite @ weights, return_index=True, return_inverse=True)
+    patterns = key[first]
+    if np.all(key == patterns[inverse]):
+        return patterns, inverse.reshape(-1)
+    patterns, inverse = np.unique(key, axis=0, return_inverse=True)
+    return patterns, inverse.reshape(-1)
 
 
 def _point_load_integrals_rows(xi: np.ndarray, m: np.ndarray, j: np.ndarray) -> np.ndarray:

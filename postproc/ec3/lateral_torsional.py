@@ -10,7 +10,7 @@ from __future__ import annotations
 
 import numpy as np
 
-from .critical_moment import _interp_rows
+from .critical_moment import end_moments
 from .flexural_buckling import chi as _chi_6_49
 from .flexural_buckling import imperfection_factor
 
@@ -134,7 +134,8 @@ def k_c_linear(psi: np.ndarray) -> np.ndarray:
     return 1.0 / (1.33 - 0.33 * np.asarray(psi, float))
 
 
-def k_c_from_diagram(xi: np.ndarray, M: np.ndarray, C_1: np.ndarray) -> tuple[np.ndarray, ...]:
+def k_c_from_diagram(xi: np.ndarray, M: np.ndarray, C_1: np.ndarray, *,
+                     ends: np.ndarray | None = None) -> tuple[np.ndarray, ...]:
     """EN 1993-1-1:2005, 6.3.2.3(2), Table 6.6.
 
     Correction factor k_c of a segment's moment diagram.
@@ -149,13 +150,14 @@ def k_c_from_diagram(xi: np.ndarray, M: np.ndarray, C_1: np.ndarray) -> tuple[np
         xi: (R, S) station positions as fractions of the segment, ascending, NaN padding.
         M: (R, S) moments at the stations, N*m.
         C_1: (R,) M_cr / M_cr,0 of the segment.
+        ends: (R, 2) moments at the segment ends, if already known (`end_moments`).
 
     Returns:
         k_c (R,), psi (R,) (NaN unless linear), case (R,) object: which rule gave k_c.
     """
     xi = np.asarray(xi, float)
     M = np.nan_to_num(np.asarray(M, float))
-    ends = _ends(xi, M)
+    ends = end_moments(xi, M) if ends is None else np.nan_to_num(ends)
     M_a, M_b = ends[:, 0], ends[:, 1]
     inside = (xi > 0.0) & (xi < 1.0)
     x_in = np.where(inside, xi, 0.5)
@@ -185,11 +187,6 @@ def k_c_from_diagram(xi: np.ndarray, M: np.ndarray, C_1: np.ndarray) -> tuple[np
     code = np.select([linear, udl, point], [0, 1, 2], 3)
     case = np.array([KC_LINEAR, KC_UDL, KC_POINT, KC_FROM_C1], dtype=object)[code]
     return k_c, psi, case
-
-
-def _ends(xi: np.ndarray, M: np.ndarray) -> np.ndarray:
-    """(R, 2) moments at xi = 0 and 1 by linear interpolation between stations."""
-    return _interp_rows(xi, M, np.array([0.0, 1.0]))
 
 
 def f_modification(lambda_bar_LT: np.ndarray, k_c: np.ndarray) -> np.ndarray:

@@ -173,3 +173,12 @@ def test_largest_eigenvalue_certificate_and_fallback():
     # the certified result is an upper bound within tol * trace; 1e-3 covers tol * n
     assert np.all(got >= exact * (1 - 1e-6))
     np.testing.assert_allclose(got, exact, rtol=1e-3, atol=1e-12)
+
+
+def test_station_patterns_group_equal_rows():
+    # rows repeating three station patterns (with padding) are grouped as whole-row sorting would
+    base = np.array([[0.0, 0.5, 1.0, np.inf], [-1.0, 0.0, 1.0, 2.0], [0.0, 0.25, 1.0, np.inf]])
+    pick = np.random.default_rng(5).integers(0, 3, 200)
+    patterns, inverse = cm._station_patterns(base[pick])
+    assert patterns.shape[0] == 3
+    np.testing.assert_array_equal(patterns[inverse], base[pick])
