@@ -16,7 +16,9 @@ row. What each block means and when it applies:
   the shear-reduced linear sum (6.2.10 with 6.2.1(7)) is used there instead, a conservative form;
 - 'linear sum' 6.2.1(7) eq. (6.2), with the class's resistances reduced for shear (any N or M);
 - 'torsion' 6.2.7 (rows whose St Venant shear stress exceeds TORSION_NEGLIGIBLE of the shear
-  yield stress): always "not evaluated", the tool does not design for torsion.
+  yield stress): hollow sections are checked for St Venant torsion, alone (6.2.7(5)) and with
+  shear (6.2.7(9), eq. 6.28); open sections, where warping carries part of the torsion, are
+  "not evaluated": the tool does not design them for torsion.
 
 Inputs beyond MemberRows' own: rows.info['section_class'] ((R, S) or (R,) integers, 1 to 4, 0
 unknown), rows.info['class_part'] (same shape, text naming the governing plate part),
@@ -351,16 +353,31 @@ def _linear_sum(c: _Rows, sv: dict[str, np.ndarray]) -> CheckBlock:
 
 
 def _torsion(c: _Rows) -> CheckBlock:
+    """6.2.7: St Venant torsion of hollow sections is checked (6.2.7(5) and, with shear,
+    6.2.7(9) eq. (6.28)); open sections, whose torsion is carried partly by warping, are not
+    designed for torsion here and a non-negligible T_Ed leaves them not evaluated."""
     tau = cs.tau_t_Ed(c.T, c.shape, c.p("I_t"), c.p("t_max"), c.p("h"), c.p("b"), c.p("t"))
     tau_ratio = tau / (c.f_y / (np.sqrt(3.0) * c.gM0))
+    hollow = (c.shape == "RHS") | (c.shape == "CHS")
     # an unknown stress (missing I_t) with a real T counts as not negligible
     felt = (c.T != 0.0) & ~(tau_ratio <= TORSION_NEGLIGIBLE)
+    V_pl_T = {}
+    for axis in ("z", "y"):
+        _, V_pl, _ = _shear_parts(c, axis)
+        V_pl_T[axis] = cs.V_pl_T_Rd_hollow(V_pl, tau_ratio)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        shear_z = np.where(c.Vz == 0.0, 0.0, np.abs(c.Vz) / V_pl_T["z"])
+        shear_y = np.where(c.Vy == 0.0, 0.0, np.abs(c.Vy) / V_pl_T["y"])
+    util_hollow = np.fmax(tau_ratio, np.fmax(shear_z, shear_y))
+    util_hollow = np.where(tau_ratio >= 1.0, np.fmax(tau_ratio, 1.0), util_hollow)
+    open_felt = felt & ~hollow
+    util = np.where(open_felt | np.isnan(c.T), np.nan, np.where(hollow, util_hollow, 0.0))
     nan_T = c.nan_at(c.T)
-    util = np.where(felt | np.isnan(c.T), np.nan, 0.0)
-    reason = _reasons(util, [(nan_T, NAN_FORCE), (felt, TORSION)])
+    reason = _reasons(util, [(nan_T, NAN_FORCE), (open_felt, TORSION)])
     applies = c.any_(felt) | c.any_(nan_T)
     worst = np.argmax(np.where(c.valid, np.nan_to_num(np.abs(c.T), nan=np.inf), -1.0), axis=1)
     values = {"T_Ed_Nm": c.T, "tau_t_Ed_Pa": tau, "tau_t_ratio": tau_ratio,
+              "V_pl_T_z_Rd_N": V_pl_T["z"], "V_pl_T_y_Rd_N": V_pl_T["y"],
               "I_t_m4": c.p("I_t"), **c.common()}
     return _block(c, "torsion", "6.2.7", util, reason, applies, values, nan_station=worst)
 

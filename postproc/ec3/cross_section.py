@@ -487,3 +487,13 @@ def tau_t_Ed(T_Ed: ArrayLike, shape: ArrayLike, I_t: ArrayLike, t_max: ArrayLike
         bredt = T / (2.0 * (h - t) * (b - t) * t)
         ring = T * (h / 2.0) / I_t
     return np.where(shape == "RHS", bredt, np.where(shape == "CHS", ring, open_))
+
+
+def V_pl_T_Rd_hollow(V_pl_Rd: ArrayLike, tau_t_ratio: ArrayLike) -> Array:
+    """EN 1993-1-1:2005, 6.2.7(9), eq. (6.28).
+
+    Plastic shear resistance of a structural hollow section reduced for St Venant torsion:
+    V_pl,T,Rd = (1 - tau_t,Ed / (f_y / (sqrt3 gamma_M0))) V_pl,Rd, with tau_t_ratio the bracketed
+    stress ratio; 0 where the torsion alone exhausts the section.
+    """
+    return np.maximum(1.0 - _a(tau_t_ratio), 0.0) * _a(V_pl_Rd)

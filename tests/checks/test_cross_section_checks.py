@@ -411,3 +411,31 @@ def test_class_per_row_broadcasts_over_stations():
     m = blocks(rows)["bending y-y"]
     close(m.values["M_c_y_Rd_Nm"], [IPE300["W_pl_y"] * S355, IPE300["W_el_y"] * S355])
     assert list(m.values["class_part"]) == ["flange", "web"]
+
+
+def test_hollow_section_torsion_is_checked_with_shear():
+    """6.2.7(5): St Venant shear stress of a closed section by Bredt's formula,
+    tau = T / (2 A_m t), A_m = (h - t)(b - t) (common knowledge of elastic torsion), against
+    f_y / (sqrt3 gamma_M0); with shear, 6.2.7(9) eq. (6.28): V_pl,T,Rd = (1 - tau/tau_y) V_pl,Rd."""
+    s = SHS200
+    T, Vz = 20e3, 300e3
+    tau = T / (2 * (190 * MM) ** 2 * 10 * MM)
+    tau_ratio = tau / (S355 / np.sqrt(3))
+    V_pl = s["Av_z"] * S355 / np.sqrt(3)  # eq. (6.18)
+    k = blocks(make_rows([s], T=T, Vz=Vz))["torsion"]
+    assert k.status()[0] == PASS and k.reason[0] == ""
+    close(k.values["tau_t_ratio"], tau_ratio)
+    close(k.utilisation, Vz / ((1 - tau_ratio) * V_pl))
+    # torsion alone
+    k = blocks(make_rows([s], T=T))["torsion"]
+    close(k.utilisation, tau_ratio)
+    # more torsion than the walls carry fails, never passes
+    k = blocks(make_rows([s], T=T * 1.05 / tau_ratio))["torsion"]
+    assert k.status()[0] == FAIL
+
+
+def test_open_section_torsion_stays_not_evaluated_beside_a_checked_hollow_one():
+    b = blocks(make_rows([IPE300, SHS200], T=5e3))["torsion"]
+    status = b.status()
+    assert status[0] == NOT_EVALUATED and "6.2.7" in b.reason[0]
+    assert status[1] == PASS
