@@ -6,7 +6,9 @@ Row data read here (see `postproc.checks.base.MemberRows`):
 - section columns shape, fabrication, h, b, t_f, A, I_y, I_z, I_t, I_w, W_pl_y, W_el_y.
 - info 'section_class' (R, S) int per station (0 unknown), 'ltb_restrained' (R,) bool,
   'k_LT', 'k_w' (R,) effective-length factors of the LTB segment ends (default 1.0),
-  'z_g' (R,) m, load height above the shear centre along +z (default 0), 'grade' (R,) str
+  'z_g' (R,) m, height of the load above the shear centre (default 0; + destabilising for
+  gravity loads), 'z_up' (R,) bool (optional: True where the member's local +z points up;
+  without it the lower M_cr of both orientations is used), 'grade' (R,) str
   (optional: S460 selects the right-hand column of Table 6.2; without it the safe column is used),
   'buckling' (the dict of `buckling_values`, when the checker has computed it already).
 
@@ -202,9 +204,20 @@ def _segments(rows: MemberRows, todo: np.ndarray, n_seg: np.ndarray, L_LT: np.nd
     I_z, I_t, I_w = (num[k][seg_row] for k in ("I_z", "I_t", "I_w"))
     k, k_w = _info(rows, "k_LT", 1.0)[seg_row], _info(rows, "k_w", 1.0)[seg_row]
     z_g = _info(rows, "z_g", 0.0)[seg_row]
+    z_up = rows.info.get("z_up")
+    if z_up is not None:  # heights along local +z, where the load-height term is exact
+        z_g = np.where(np.asarray(z_up, bool)[seg_row], z_g, -z_g)
     ends = cm.end_moments(xi, M)
     M_Ed = cm.peak_moment(xi, M, ends=ends)
     M_cr = cm.M_cr(xi, M, L_seg, E, G, I_z, I_t, I_w, k=k, k_w=k_w, z_g=z_g, M_max=M_Ed)
+    height = z_g != 0
+    if z_up is None and height.any():
+        # which way local z points is not known: the load may act towards the shear centre or
+        # away from it, so take the lower M_cr of the two (safe for either orientation)
+        h = np.flatnonzero(height)
+        flipped = cm.M_cr(xi[h], M[h], L_seg[h], E[h], G[h], I_z[h], I_t[h], I_w[h], k=k[h],
+                          k_w=k_w[h], z_g=-z_g[h], M_max=M_Ed[h])
+        M_cr[h] = np.minimum(M_cr[h], flipped)
     M_cr_0 = cm.M_cr_0(L_seg, E, G, I_z, I_t, I_w, k=k, k_w=k_w)
     no_moment = M_Ed == 0
     C_1 = np.where(no_moment, 1.0, M_cr / M_cr_0)

@@ -224,8 +224,20 @@ def test_load_height_from_rows_info():
     sag = -100e3 * 4 * (x / 6) * (1 - x / 6)  # gravity load, z up
     top = make_rows([IPE300], My=sag, x=tuple(x), info={"z_g": np.array([0.15])})
     centre = make_rows([IPE300], My=sag, x=tuple(x))
-    assert (fam.buckling_values(top)["M_cr_Nm"][0]
-            < fam.buckling_values(centre)["M_cr_Nm"][0])
+    M_top = fam.buckling_values(top)["M_cr_Nm"][0]
+    M_centre = fam.buckling_values(centre)["M_cr_Nm"][0]
+    assert M_top < M_centre
+    # bottom flange: stabilising for gravity only when the tool knows which way local z points;
+    # without that it takes the lower of both orientations (the top-flange value)
+    bottom = {"z_g": np.array([-0.15])}
+    known = make_rows([IPE300], My=sag, x=tuple(x), info=dict(bottom, z_up=np.array([True])))
+    unknown = make_rows([IPE300], My=sag, x=tuple(x), info=bottom)
+    assert fam.buckling_values(known)["M_cr_Nm"][0] > M_centre
+    assert fam.buckling_values(unknown)["M_cr_Nm"][0] == pytest.approx(M_top, rel=1e-9)
+    # local z pointing down: the same physical top-flange load gives the same M_cr
+    down = make_rows([IPE300], My=-sag, x=tuple(x),
+                     info={"z_g": np.array([0.15]), "z_up": np.array([False])})
+    assert fam.buckling_values(down)["M_cr_Nm"][0] == pytest.approx(M_top, rel=1e-9)
 
 
 def test_fail_status_and_precomputed_values_are_used():
