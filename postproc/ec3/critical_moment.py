@@ -237,17 +237,29 @@ def _interp_rows(xi: np.ndarray, M: np.ndarray, at: np.ndarray) -> np.ndarray:
 
 def _kink_matrix(xi: np.ndarray) -> np.ndarray:
     """(S, S) D with F = m @ D the point loads q_z = -M'' at each station (one pattern, 0 at the
-    padding and at stations outside the open segment)."""
+    padding and at stations outside the open segment).
+
+    Two stations at one position (element joints) carry a jump of M (a concentrated moment, no
+    transverse load): the kink is taken between the last interval ending there and the interval
+    leaving the last of the two, and placed on that last station.
+    """
     S = xi.shape[0]
     D = np.zeros((S, S))
     valid = np.flatnonzero(~np.isnan(xi))
-    for a, b, c in zip(valid[:-2], valid[1:-1], valid[2:]):  # over stations of one pattern only
-        if 0.0 < xi[b] < 1.0:
-            h1, h2 = xi[b] - xi[a], xi[c] - xi[b]
-            # F_b = -(slope right - slope left), slopes per unit xi (m is per unit of peak moment)
-            D[a, b] += -1.0 / h1
-            D[b, b] += 1.0 / h1 + 1.0 / h2
-            D[c, b] += -1.0 / h2
+    left = None  # last interval of non-zero length: (start, end)
+    for a, c in zip(valid[:-1], valid[1:]):  # over stations of one pattern only
+        h = xi[c] - xi[a]
+        if h <= 0.0:
+            continue
+        if left is not None and 0.0 < xi[a] < 1.0:
+            # F_a = -(slope right - slope left), slopes per unit xi
+            s0, e0 = left
+            h0 = xi[e0] - xi[s0]
+            D[c, a] -= 1.0 / h
+            D[a, a] += 1.0 / h
+            D[e0, a] += 1.0 / h0
+            D[s0, a] -= 1.0 / h0
+        left = (a, c)
     return D
 
 
@@ -262,7 +274,8 @@ def _exact_integrals(xi: np.ndarray, m: np.ndarray, n: int) -> np.ndarray:
         slope = (m_b - m_a) / (b - a)
     p, q = np.clip(a, 0.0, 1.0), np.clip(b, 0.0, 1.0)
     use = (q > p) & np.isfinite(slope)
-    alpha = np.where(use, m_a - slope * a, 0.0)[:, :, None]
+    with np.errstate(invalid="ignore"):
+        alpha = np.where(use, m_a - slope * a, 0.0)[:, :, None]
     beta = np.where(use, slope, 0.0)[:, :, None]
     p, q = np.where(use, p, 0.0)[:, :, None], np.where(use, q, 0.0)[:, :, None]
     w = np.pi * np.arange(1, 2 * n + 1)[None, None, :]  # k = 1 .. 2n
@@ -352,15 +365,22 @@ def _station_patterns(key: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
 
 
 def _point_load_integrals_rows(xi: np.ndarray, m: np.ndarray, j: np.ndarray) -> np.ndarray:
-    """Per-row version of the point-load integrals for rows that share no station pattern."""
+    """Per-row version of the point-load integrals for rows that share no station pattern (same
+    treatment of stations at one position as `_kink_matrix`)."""
     R, S = xi.shape
     n = j.shape[0]
     xs = np.nan_to_num(xi)
     with np.errstate(invalid="ignore", divide="ignore"):
         slope = np.diff(np.nan_to_num(m), axis=1) / np.diff(xi, axis=1)  # (R, S-1)
-    slope = np.where(np.isfinite(slope), slope, np.nan)
+    finite = np.isfinite(slope) & (np.diff(xi, axis=1) > 0)
+    # slope of the last non-zero interval at or before each interval (forward fill)
+    last = np.maximum.accumulate(np.where(finite, np.arange(S - 1)[None, :], -1), axis=1)
+    filled = np.take_along_axis(slope, np.maximum(last, 0), axis=1)
+    filled = np.where(last >= 0, filled, np.nan)
     F = np.zeros((R, S))
-    F[:, 1:-1] = np.nan_to_num(-(slope[:, 1:] - slope[:, :-1]))  # at stations 1 .. S-2
+    # station k (1 .. S-2): right interval k, left = last non-zero interval before k
+    kink = -(slope[:, 1:] - filled[:, :-1])
+    F[:, 1:-1] = np.where(finite[:, 1:] & ~np.isnan(filled[:, :-1]), kink, 0.0)
     F = np.where((xs > 0.0) & (xs < 1.0) & ~np.isnan(xi), F, 0.0)
     s_st = np.sin(np.pi * xs[:, :, None] * j[None, None, :])  # (R, S, n)
     return np.einsum("rk,rkj,rkl->rjl", F, s_st, s_st).reshape(R, n * n)

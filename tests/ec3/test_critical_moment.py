@@ -182,3 +182,28 @@ def test_station_patterns_group_equal_rows():
     patterns, inverse = cm._station_patterns(base[pick])
     assert patterns.shape[0] == 3
     np.testing.assert_array_equal(patterns[inverse], base[pick])
+
+
+def test_repeated_station_at_an_element_joint():
+    # a member of two elements reports the joint twice; the same diagram with the joint once
+    # must give the same M_cr, with and without a load height, on both integration paths
+    once = np.array([[0.0, 0.25, 0.5, 0.75, 1.0]])
+    twice = np.array([[0.0, 0.25, 0.5, 0.5, 0.75, 1.0]])
+    fn = lambda x: -1e5 * 4 * x * (1 - x)  # noqa: E731
+    for z_g in (None, np.array([0.15])):
+        a = cm.M_cr(once, fn(once), 6.0, E, G, I_z, I_t, I_w, z_g=z_g)[0]
+        b = cm.M_cr(twice, fn(twice), 6.0, E, G, I_z, I_t, I_w, z_g=z_g)[0]
+        assert np.isfinite(b) and b == pytest.approx(a, rel=1e-9)
+    # per-row path (many patterns): same answer
+    rows = np.vstack([twice] * 3 + [np.array([[0.0, 0.1 * i, 0.5, 0.5, 0.8, 1.0]]) for i in
+                                    range(1, 5)])
+    M = fn(rows)
+    z = np.full(rows.shape[0], 0.15)
+    grouped = cm.M_cr(rows, M, 6.0, E, G, I_z, I_t, I_w, z_g=z)
+    saved = cm._MAX_GROUPS
+    try:
+        cm._MAX_GROUPS = 1
+        per_row = cm.M_cr(rows, M, 6.0, E, G, I_z, I_t, I_w, z_g=z)
+    finally:
+        cm._MAX_GROUPS = saved
+    np.testing.assert_allclose(per_row, grouped, rtol=1e-9)
