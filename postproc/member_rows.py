@@ -3,7 +3,8 @@
 A row is one (design member, combination). Element stations are moved onto the member's own x
 (element offset along the member, direction flipped where the element runs backwards, which
 changes the sign of Vz and Mz: see `postproc.results`), then scattered into (R, S) arrays padded
-with NaN, S being the largest number of stations of any row. No Python loop over rows.
+with NaN, S being the largest number of stations of any row. No Python loop over rows, and no
+sorting or joining of strings: ids become integer codes first.
 """
 
 from __future__ import annotations
@@ -35,43 +36,73 @@ def member_forces(forces: pd.DataFrame, members: Members,
     Returns columns member, combination, x_m (from the member start), and the force columns,
     sorted by member, combination, x_m.
     """
-    links = members.member_elements.set_index("element")
-    elements = forces["element"].to_numpy()
-    link = links.loc[elements]
-    flipped = link["flipped"].to_numpy(bool)
+    grid = _member_grid(forces, members, element_length)
+    keys, arrays, valid = grid
+    n = valid.sum(axis=1)
+    out = {"member": np.repeat(keys["member"].to_numpy(), n),
+           "combination": np.repeat(keys["combination"].to_numpy(), n)}
+    for column, values in arrays.items():
+        out[column] = values[valid]
+    return pd.DataFrame(out)
+
+
+def _codes(values: pd.Series | np.ndarray, index: pd.Index, what: str) -> np.ndarray:
+    codes = index.get_indexer(values)
+    if (codes < 0).any():
+        missing = pd.Series(values)[codes < 0].iloc[0]
+        raise KeyError(f"{what} {missing!r} is not known")
+    return codes
+
+
+def _member_grid(forces: pd.DataFrame, members: Members, element_length: pd.Series
+                 ) -> tuple[pd.DataFrame, dict[str, np.ndarray], np.ndarray]:
+    """Forces scattered into (R, S) arrays along the members, rows sorted by member and
+    combination, stations by x. Works on integer codes: no sorting or joining of strings."""
+    links = members.member_elements
+    element_index = pd.Index(element_length.index.astype(str))
+    member_index = pd.Index(members.members.index.astype(str))
+    link_el = _codes(links["element"].astype(str), element_index, "element")
+    el_member = np.full(len(element_index), -1)
+    el_member[link_el] = _codes(links["member"].astype(str), member_index, "member")
+    el_x0 = np.zeros(len(element_index))
+    el_x0[link_el] = links["x0_m"].to_numpy(float)
+    el_flip = np.zeros(len(element_index), dtype=bool)
+    el_flip[link_el] = links["flipped"].to_numpy(bool)
+    el_length = element_length.to_numpy(float)
+
+    element = _codes(forces["element"].astype(str), element_index, "element")
+    combination, combination_names = pd.factorize(forces["combination"].astype(str), sort=True)
+    member = el_member[element]
+    flipped = el_flip[element]
     x_el = forces["x_m"].to_numpy(float)
-    length = element_length.loc[elements].to_numpy(float)
-    x = link["x0_m"].to_numpy(float) + np.where(flipped, length - x_el, x_el)
-    out = {"member": link["member"].to_numpy(), "combination": forces["combination"].to_numpy(),
-           "x_m": x}
-    sign = np.where(flipped, -1.0, 1.0)
-    for column in FORCE_COLUMNS:
-        values = forces[column].to_numpy(float)
-        out[column] = values * sign if column in FLIP_SIGN else values
-    table = pd.DataFrame(out)
-    return table.sort_values(["member", "combination", "x_m"], kind="stable", ignore_index=True)
-
-
-def pad_stations(table: pd.DataFrame) -> tuple[pd.DataFrame, dict[str, np.ndarray]]:
-    """Scatter a sorted (member, combination, x_m, forces) table into (R, S) arrays.
-
-    Returns the row keys (member, combination) and a dict of (R, S) arrays for x_m and the forces.
-    """
-    keys = table[["member", "combination"]]
-    starts = np.ones(len(table), dtype=bool)
-    if len(table) > 1:
-        starts[1:] = ((keys["member"].to_numpy()[1:] != keys["member"].to_numpy()[:-1])
-                      | (keys["combination"].to_numpy()[1:] != keys["combination"].to_numpy()[:-1]))
+    x = el_x0[element] + np.where(flipped, el_length[element] - x_el, x_el)
+    order = np.lexsort((x, combination, member))
+    key = (member.astype(np.int64) * max(len(combination_names), 1) + combination)[order]
+    starts = np.ones(len(key), dtype=bool)
+    starts[1:] = key[1:] != key[:-1]
     row = np.cumsum(starts) - 1
     first = np.flatnonzero(starts)
-    station = np.arange(len(table)) - first[row]
-    n_rows, n_stations = len(first), int(station.max()) + 1 if len(table) else 0
+    station = np.arange(len(key)) - first[row]
+    n_rows = len(first)
+    n_stations = int(station.max()) + 1 if len(key) else 0
+    sign = np.where(flipped, -1.0, 1.0)
     arrays = {}
     for column in ["x_m", *FORCE_COLUMNS]:
+        values = x if column == "x_m" else forces[column].to_numpy(float)
+        if column in FLIP_SIGN:
+            values = values * sign
         grid = np.full((n_rows, n_stations), np.nan)
-        grid[row, station] = table[column].to_numpy(float)
+        grid[row, station] = values[order]
         arrays[column] = grid
-    return keys.iloc[first].reset_index(drop=True), arrays
+    valid = np.zeros((n_rows, n_stations), dtype=bool)
+    valid[row, station] = True
+    member_code = member[order][first]
+    combination_code = combination[order][first]
+    keys = pd.DataFrame({"member": member_index.to_numpy()[member_code],
+                         "combination": np.asarray(combination_names)[combination_code],
+                         "member_code": member_code, "combination_code": combination_code})
+    keys.attrs["combinations"] = np.asarray(combination_names)
+    return keys, arrays, valid
 
 
 def build_member_rows(frame: Frame, forces: pd.DataFrame, members: Members,
@@ -91,32 +122,52 @@ def build_member_rows(frame: Frame, forces: pd.DataFrame, members: Members,
     """
     _, element_length = element_vectors(frame)
     lengths_by_element = pd.Series(element_length, index=frame.elements.index)
-    keys, arrays = pad_stations(member_forces(forces, members, lengths_by_element))
+    keys, arrays, _ = _member_grid(forces, members, lengths_by_element)
     sections = frame.sections
-    member_table = members.members.loc[keys["member"].to_numpy()]
+    # member-level values once per member, then taken per row by integer code
+    code = keys["member_code"].to_numpy()
+    member_table = members.members
     section_rows = sections.loc[member_table["section"].to_numpy()]
-    section = {column: section_rows[column].to_numpy() for column in sections.columns}
-    f_y, f_u = materials.strengths(member_table["grade"].to_numpy(), section["t_max"].astype(float))
+    per_member = {column: section_rows[column].to_numpy() for column in sections.columns}
+    f_y_m, f_u_m = materials.strengths(member_table["grade"].to_numpy(),
+                                       per_member["t_max"].astype(float))
+    section = {column: values[code] for column, values in per_member.items()}
+    f_y, f_u = f_y_m[code], f_u_m[code]
     n = len(keys)
-    length_arrays: dict[str, np.ndarray] = {}
+    length_arrays = {key: np.full(n, np.nan) for key in LENGTH_KEYS}
     row_info: dict[str, np.ndarray] = {}
     if lengths is not None and len(lengths):
-        aligned = keys.merge(lengths, on=["member", "combination"], how="left")
-        for key in LENGTH_KEYS:
-            column = f"{key}_m"
-            length_arrays[key] = (aligned[column].to_numpy(float) if column in aligned
-                                  else np.full(n, np.nan))
-        for column in aligned.columns:
-            if column not in ("member", "combination") and not column.endswith("_m"):
-                row_info[column] = aligned[column].to_numpy()
-    else:
-        for key in LENGTH_KEYS:
-            length_arrays[key] = np.full(n, np.nan)
+        member_index = pd.Index(member_table.index.astype(str))
+        combination_index = pd.Index(keys.attrs["combinations"])
+        l_member = member_index.get_indexer(lengths["member"].astype(str))
+        l_combination = combination_index.get_indexer(lengths["combination"].astype(str))
+        known = (l_member >= 0) & (l_combination >= 0)
+        n_comb = max(len(combination_index), 1)
+        lookup = np.full(len(member_index) * n_comb, -1)
+        lookup[l_member[known] * n_comb + l_combination[known]] = np.flatnonzero(known)
+        at = lookup[code * n_comb + keys["combination_code"].to_numpy()]
+        found = at >= 0
+        for column in lengths.columns:
+            if column in ("member", "combination"):
+                continue
+            values = lengths[column].to_numpy()
+            if column.endswith("_m"):
+                out = np.full(n, np.nan)
+                out[found] = values[at[found]].astype(float)
+                if column[:-2] in LENGTH_KEYS:
+                    length_arrays[column[:-2]] = out
+            else:
+                out = np.empty(n, dtype=values.dtype if values.dtype != bool else object)
+                out[found] = values[at[found]]
+                if (~found).any():
+                    out = out.astype(object)
+                    out[~found] = None
+                row_info[column] = out
     row_info.update(info or {})
     return MemberRows(
         member=keys["member"].to_numpy(), combination=keys["combination"].to_numpy(),
         x=arrays["x_m"], N=arrays["N_N"], Vy=arrays["Vy_N"], Vz=arrays["Vz_N"], T=arrays["T_Nm"],
         My=arrays["My_Nm"], Mz=arrays["Mz_Nm"],
-        length=member_table["length_m"].to_numpy(float), section=section, f_y=f_y, f_u=f_u,
+        length=member_table["length_m"].to_numpy(float)[code], section=section, f_y=f_y, f_u=f_u,
         E=np.full(n, materials.E), G=np.full(n, materials.G), lengths=length_arrays,
         info=row_info, settings=settings)

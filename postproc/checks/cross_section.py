@@ -128,16 +128,31 @@ class _Rows:
                 "gamma_M0": np.full((self.R, 1), self.gM0)}
 
 
-def _reasons(util: np.ndarray, cases: list[tuple[np.ndarray, str]]) -> np.ndarray:
+class _Reasons:
+    """Why each station is not evaluated, as small integer codes into a list of texts, so that
+    no (R, S) array of strings is ever built."""
+
+    def __init__(self, codes: np.ndarray, texts: list[str]) -> None:
+        self.codes, self.texts = codes, np.array(texts, dtype=object)
+
+    def at(self, idx: np.ndarray) -> np.ndarray:
+        codes = self.codes
+        if codes.ndim == 2:
+            codes = codes[np.arange(codes.shape[0]), np.minimum(idx, codes.shape[1] - 1)]
+        return self.texts[codes]
+
+
+def _reasons(util: np.ndarray, cases: list[tuple[np.ndarray, str]]) -> _Reasons:
     """(R, S) reason at each NaN station: the first case that holds there."""
     nan = np.isnan(util)
-    conds = [nan & np.broadcast_to(m, util.shape) for m, _ in cases]
-    out = np.select(conds, [t for _, t in cases], default="") if conds else np.full(util.shape, "")
-    out = out.astype(object)
-    return np.where(nan & (out == ""), "could not be evaluated", out)
+    codes = np.zeros(util.shape, np.int8)
+    codes[nan] = len(cases) + 1                      # 'could not be evaluated'
+    for k in range(len(cases) - 1, -1, -1):          # earlier cases win
+        codes[nan & np.broadcast_to(cases[k][0], util.shape)] = k + 1
+    return _Reasons(codes, ["", *[t for _, t in cases], "could not be evaluated"])
 
 
-def _block(c: _Rows, check: str, clause: str, util: np.ndarray, reason: np.ndarray,
+def _block(c: _Rows, check: str, clause: str, util: np.ndarray, reason: _Reasons,
            applies: np.ndarray, values: dict[str, np.ndarray],
            nan_station: np.ndarray | None = None) -> CheckBlock:
     """Reduce (R, S) results to the governing station per row; a NaN at a real station makes the
@@ -149,7 +164,7 @@ def _block(c: _Rows, check: str, clause: str, util: np.ndarray, reason: np.ndarr
     has_nan = nan_real.any(axis=1)
     first = np.argmax(nan_real, axis=1) if nan_station is None else nan_station
     idx = np.where(has_nan, first, idx)
-    reason_row = np.where(has_nan, at_station(np.broadcast_to(reason, (c.R, c.S)), idx), "")
+    reason_row = np.where(has_nan, reason.at(idx), "")
     vals = {k: at_station(np.broadcast_to(np.asarray(v), (c.R, c.S)), idx)
             for k, v in values.items()}
     return CheckBlock(check=check, clause=clause, utilisation=np.where(has_nan, np.nan, u),
