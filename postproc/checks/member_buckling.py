@@ -111,7 +111,7 @@ def buckling_values(rows: MemberRows) -> dict[str, np.ndarray]:
         reason = common.copy()
         add(reason, np.isnan(L_cr) | (L_cr <= 0), f"buckling length L_cr,{axis} not known")
         add(reason, ~generic & (curve == ""),
-             f"no buckling curve in Table 6.2 for this shape/fabrication/flange ({axis}-{axis})")
+            f"no buckling curve in Table 6.2 for this shape/fabrication/flange ({axis}-{axis})")
         chi = np.where(reason == "", fb.chi(lam, fb.imperfection_factor(curve)), np.nan)
         out[f"N_cr_{axis}_N"], out[f"lambda_bar_{axis}"], out[f"chi_{axis}"] = N_cr, lam, chi
         out[f"reason_{axis}"] = reason
@@ -125,7 +125,7 @@ def buckling_values(rows: MemberRows) -> dict[str, np.ndarray]:
     add(reason_T, ~hollow & (np.isnan(L_cr_T) | (L_cr_T <= 0)), "buckling length L_cr,T not known")
     add(reason_T, ~hollow & ~generic & (curve_z == ""), "no buckling curve in Table 6.2 (z-z)")
     add(reason_T, ~hollow & ~generic & (np.isnan(num["I_t"]) | np.isnan(num["I_w"])),
-         "I_t or I_w not known")
+        "I_t or I_w not known")
     chi_T = np.where(hollow, 1.0, fb.chi(lam_T, fb.imperfection_factor(curve_z)))
     chi_T = np.where(reason_T == "", chi_T, np.nan)
     out.update(N_cr_T_N=N_cr_T, lambda_bar_T=lam_T, chi_T=chi_T, reason_T=reason_T)

@@ -30,7 +30,7 @@ from __future__ import annotations
 
 import numpy as np
 
-N_TERMS = 8  # sine terms per field: within about 1 % of 24 terms (tests/ec3/test_critical_moment.py)
+N_TERMS = 8  # sine terms per field: within about 1 % of 24 terms (see the tests)
 _MAX_GROUPS = 64  # beyond this many station patterns, integrate row by row instead
 _ROWS_PER_BLOCK = 65536  # rows per block of M_cr
 _BLOCK = 16384  # rows per block of the power iteration (fits in cache)
