@@ -21,7 +21,7 @@ from pathlib import Path
 import numpy as np
 import pandas as pd
 
-from .checker import CHECK_FAMILIES, _with_member_info
+from .checker import CHECK_FAMILIES, run_checks as run_families
 from .frame import Frame
 from .member_rows import build_member_rows
 from .members import one_member_per_element
@@ -88,8 +88,8 @@ def run_checks(frame: Frame, forces: pd.DataFrame, lengths: pd.DataFrame,
     """The whole per-row check pipeline; returns the number of check results."""
     members = one_member_per_element(frame)
     rows = build_member_rows(frame, forces, members, settings, lengths)
-    rows = _with_member_info(rows, None)
-    return sum(int(np.asarray(b.applies).sum()) for family in CHECK_FAMILIES for b in family(rows))
+    _, blocks = run_families(rows, CHECK_FAMILIES)
+    return sum(int(np.asarray(b.applies).sum()) for b in blocks)
 
 
 def main(argv: list[str] | None = None) -> None:

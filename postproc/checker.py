@@ -8,13 +8,16 @@ station, 6. member buckling values, 7. every check family, 8. the long table.
 
 from __future__ import annotations
 
+import os
+from concurrent.futures import ThreadPoolExecutor
 from dataclasses import dataclass, field, replace
 from typing import Callable
 
 import numpy as np
 import pandas as pd
 
-from .checks.base import FAIL, NOT_EVALUATED, PASS, CheckBlock, MemberRows
+from .checks.base import (FAIL, NOT_EVALUATED, PASS, CheckBlock, MemberRows, block_concat,
+                          rows_concat, rows_slice)
 from .checks.cross_section import cross_section_checks
 from .checks.interaction import interaction_checks
 from .checks.member_buckling import (buckling_values, flexural_buckling_checks,
@@ -34,6 +37,7 @@ CHECK_FAMILIES: list[CheckFamily] = [
     lateral_torsional_checks,
     interaction_checks,
 ]
+CHUNK_ROWS = 20_000  # rows per chunk: (rows x stations) arrays of a few MB stay in cache
 KEY_COLUMNS = ["member", "combination", "check", "clause", "x_m", "utilisation", "status", "reason"]
 
 
@@ -95,12 +99,41 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
                                          _length_overrides(overrides))
 
     rows = build_member_rows(frame, checked.forces, members, settings, lengths)
-    rows = _with_member_info(rows, overrides)
-    blocks = [block for family in (families or CHECK_FAMILIES) for block in family(rows)]
+    rows, blocks = run_checks(rows, families or CHECK_FAMILIES, overrides=overrides)
     table = results_table(rows, blocks, settings.utilisation_limit)
     table = _mark_unusable_combinations(table, per_combination, combos, members)
     return CheckOutcome(table=table, members=members, stability=per_combination,
                         lengths=lengths, settings=settings, combinations=combos)
+
+
+def run_checks(rows: MemberRows, families: list[CheckFamily], *,
+               overrides: pd.DataFrame | None = None, chunk_rows: int = CHUNK_ROWS,
+               threads: int | None = None) -> tuple[MemberRows, list[CheckBlock]]:
+    """Section classes, member buckling values and every check family, over chunks of rows.
+
+    Rows are independent, so they are cut into chunks that fit the processor caches and run on
+    a thread per core (numpy releases the interpreter lock inside its array operations); the
+    blocks of the chunks are joined in row order. Returns the rows with their member information
+    and one block per check.
+    """
+    n = rows.n_rows
+    bounds = [(a, min(a + chunk_rows, n)) for a in range(0, n, chunk_rows)] or [(0, 0)]
+
+    def one(bound: tuple[int, int]) -> tuple[MemberRows, list[CheckBlock]]:
+        part = _with_member_info(rows_slice(rows, *bound), overrides)
+        return part, [block for family in families for block in family(part)]
+
+    workers = min(threads or os.cpu_count() or 1, len(bounds))
+    if workers > 1:
+        with ThreadPoolExecutor(workers) as pool:
+            parts = list(pool.map(one, bounds))
+    else:
+        parts = [one(b) for b in bounds]
+    if len(parts) == 1:
+        return parts[0]
+    joined_rows = rows_concat([p for p, _ in parts])
+    blocks = [block_concat([p[1][k] for p in parts]) for k in range(len(parts[0][1]))]
+    return joined_rows, blocks
 
 
 def _length_overrides(overrides: pd.DataFrame | None) -> pd.DataFrame | None:

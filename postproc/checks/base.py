@@ -7,7 +7,7 @@ loop over members or combinations.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, fields
 
 import numpy as np
 
@@ -128,3 +128,53 @@ def governing(utilisation: np.ndarray, x: np.ndarray) -> tuple[np.ndarray, np.nd
 def at_station(values: np.ndarray, idx: np.ndarray) -> np.ndarray:
     """Pick one station per row from an (R, S) array."""
     return values[np.arange(values.shape[0]), idx]
+
+
+def _slice_value(value, a: int, b: int, n: int):
+    """Slice per-row arrays (first axis n), recurse into dicts, keep anything else."""
+    if isinstance(value, dict):
+        return {k: _slice_value(v, a, b, n) for k, v in value.items()}
+    if isinstance(value, np.ndarray) and value.ndim >= 1 and value.shape[0] == n:
+        return value[a:b]
+    return value
+
+
+def rows_slice(rows: MemberRows, a: int, b: int) -> MemberRows:
+    """Rows a..b (a view: no copy of the force arrays)."""
+    n = rows.n_rows
+    return MemberRows(**{f.name: _slice_value(getattr(rows, f.name), a, b, n)
+                         for f in fields(MemberRows)})
+
+
+def _concat_value(values: list):
+    first = values[0]
+    if isinstance(first, dict):
+        return {k: _concat_value([v[k] for v in values]) for k in first}
+    if isinstance(first, np.ndarray) and first.ndim >= 1:
+        return np.concatenate(values, axis=0)
+    return first
+
+
+def rows_concat(parts: list[MemberRows]) -> MemberRows:
+    """Rows of several slices joined in order (the inverse of rows_slice)."""
+    return MemberRows(**{f.name: _concat_value([getattr(p, f.name) for p in parts])
+                         for f in fields(MemberRows)})
+
+
+def block_concat(parts: list[CheckBlock]) -> CheckBlock:
+    """One check's blocks of several row slices joined in order."""
+    first = parts[0]
+    names = list(dict.fromkeys(k for p in parts for k in p.values))
+    values = {}
+    for name in names:
+        pieces = [np.asarray(p.values[name]) if name in p.values
+                  else np.full(p.utilisation.shape[0], np.nan) for p in parts]
+        if any(piece.dtype == object for piece in pieces):
+            pieces = [piece.astype(object) for piece in pieces]
+        values[name] = np.concatenate(pieces)
+    return CheckBlock(check=first.check, clause=first.clause,
+                      utilisation=np.concatenate([p.utilisation for p in parts]),
+                      x=np.concatenate([p.x for p in parts]),
+                      applies=np.concatenate([np.asarray(p.applies, bool) for p in parts]),
+                      reason=np.concatenate([np.asarray(p.reason, dtype=object) for p in parts]),
+                      values=values)
