@@ -1,0 +1,29 @@
+"""Cutting the rows into chunks (and threads) must not change a single result."""
+
+from __future__ import annotations
+
+import numpy as np
+
+from postproc.benchmark import synthetic_model
+from postproc.checker import CHECK_FAMILIES, results_table, run_checks
+from postproc.member_rows import build_member_rows
+from postproc.members import one_member_per_element
+from postproc.settings import DesignSettings
+
+
+def test_chunks_give_the_same_table_as_one_pass() -> None:
+    frame, forces, lengths = synthetic_model(30, 7, seed=3)
+    for annex in ("A", "B"):
+        settings = DesignSettings(annex=annex)
+        rows = build_member_rows(frame, forces, one_member_per_element(frame), settings, lengths)
+        whole_rows, whole = run_checks(rows, CHECK_FAMILIES, chunk_rows=10_000, threads=1)
+        cut_rows, cut = run_checks(rows, CHECK_FAMILIES, chunk_rows=16, threads=2)
+        a = results_table(whole_rows, whole)
+        b = results_table(cut_rows, cut)
+        assert a.shape == b.shape and list(a.columns) == list(b.columns)
+        for column in a.columns:
+            left, right = a[column].to_numpy(), b[column].to_numpy()
+            if left.dtype.kind == "f":
+                np.testing.assert_array_equal(left, right)
+            else:
+                assert (left.astype(str) == right.astype(str)).all(), column
