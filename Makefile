@@ -3,7 +3,7 @@
 VENV ?= .venv
 PYTHON ?= python3
 PY := $(VENV)/bin/python
-DEMO_PROJECT ?= examples/hillside_depot/project.toml
+DEMO_PROJECT ?= examples/sway_frame/project.toml
 DEMO_OUT ?= out/demo
 
 .PHONY: setup demo test bench clean

@@ -1,4 +1,4 @@
-"""Storage mezzanine at the Tollgate Yard depot: a braced steel platform on nine columns (3D).
+"""Storage mezzanine at the valley depot: a braced steel platform on nine columns (3D).
 
 An invented example. Plan 12 m (X, two bays of 6 m) by 8 m (Y, two bays of 4 m), deck at 3.5 m.
 Fixed column bases, rigid beam-column joints both ways (columns bend about both axes), diagonal
@@ -92,7 +92,7 @@ def build_model() -> dict:
     ops.pattern("Plain", 5, 1)  # wind along Y: 0.8 kN/m2 on 12 m x 2.5 m
     for a in range(len(XS)):
         ops.load(deck[a, 0], 0.0, 0.8e3 * 12.0 * 2.5 / 3, 0.0, 0.0, 0.0, 0.0)
-    return {"name": "Tollgate Yard storage mezzanine",
+    return {"name": "Valley depot storage mezzanine",
             "sections": {t: s[0] for t, s in SECTIONS.items()}, "braces": braces}
 
 

@@ -1,4 +1,4 @@
-"""Implement shed of the Fernhollow growers' cooperative: one single-bay pitched portal frame (2D).
+"""Implement shed of a growers' cooperative: one single-bay pitched portal frame (2D).
 
 An invented example. Pinned column bases, rigid knees and apex, span 16 m, eaves 5.0 m, apex
 6.4 m, frames at 6.0 m centres. Units N and m. Plane frame in X-Y, Y up.
@@ -93,7 +93,7 @@ def build_model() -> dict:
         # roof: suction 0.70 kN/m2 normal to the roof (local +y points out of the roof)
         for element, _, _ in rafters:
             ops.eleLoad("-ele", element, "-type", "-beamUniform", 0.70e3 * SPACING)
-    return {"name": "Fernhollow implement shed", "sections": {t: s[0] for t, s in
+    return {"name": "Cooperative implement shed", "sections": {t: s[0] for t, s in
                                                                SECTIONS.items()}}
 
 

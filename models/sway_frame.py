@@ -1,4 +1,4 @@
-"""Workshop annex on Larkspur Row: a three-storey, two-bay unbraced (sway) frame (2D).
+"""Workshop annex on the workshop annex: a three-storey, two-bay unbraced (sway) frame (2D).
 
 An invented example. Fixed column bases, rigid beam-column joints, bays of 7.0 m, storeys of
 3.6 m, frames at 5.0 m centres. Units N and m. Plane frame in X-Y, Y up.
@@ -80,7 +80,7 @@ def build_model() -> dict:
         for level in range(1, LEVELS + 1):  # 1.1 kN/m2 on the facade, half storey at the roof
             height = STOREY if level < LEVELS else STOREY / 2
             ops.load(node_tag(edge, level), sign * 1.1e3 * SPACING * height, 0.0, 0.0)
-    return {"name": "Larkspur Row workshop annex",
+    return {"name": "Three-storey workshop annex",
             "sections": {t: s[0] for t, s in SECTIONS.items()}}
 
 
