@@ -22,8 +22,15 @@ The work integrals are integrated exactly for that piecewise-linear diagram. The
 station moments, with weights that depend only on where the stations lie within the segment, so
 rows sharing a station pattern (the usual case) cost one matrix product; with many different
 patterns each row is integrated on its own (slower, same result).
-Eliminating u leaves a symmetric n x n eigenproblem per row (2n x 2n with a load height), solved
-batched with numpy.linalg.eigvalsh.
+
+Eliminating u leaves a symmetric eigenproblem per row, small and numerous. Without a load height it
+is linear (largest eigenvalue of a positive semi-definite n x n matrix): a power iteration
+vectorised over rows, certified per row, with numpy.linalg.eigvalsh for the rows it cannot
+certify. With a load height it is quadratic in the load factor: an iteration on the Rayleigh
+functional, certified from below by a Cholesky test, with the exact 2n x 2n linear problem
+(numpy.linalg.eigvalsh) for the rows it cannot certify. Certified values err low (safe side) by at
+most about 0.1 % against the exact eigenvalue of the Ritz model; the Ritz model itself errs high,
+by at most about 1 % with the default N_TERMS on the diagrams the tests try.
 """
 
 from __future__ import annotations
@@ -137,20 +144,28 @@ def _M_cr_block(xi, M, L, E, G, I_z, I_t, I_w, k, k_w, z_g, n, peak) -> np.ndarr
         with np.errstate(divide="ignore"):
             lam[plain] = 1.0 / np.sqrt(mu)
     if height.any():
-        # with a load height the reduced problem is quadratic in lambda: solve the linear 2n x 2n
-        # one, K x = lambda K_g x, as K^-1/2 K_g K^-1/2 y = (1/lambda) y, with
+        # with a load height the reduced problem is quadratic in lambda:
+        # (I + lambda Q~) c = lambda^2 A c, Q~ = K_phi^-1/2 Q K_phi^-1/2, A = B^T B, with
         # Q_jl = int q_z z_g s_j s_l dx, q_z = -M'': point loads F at the interior stations
-        h = height
+        h = np.flatnonzero(height)
         Q = (z_g[h] / L[h])[:, None, None] * F_ss[h]
         Q_t = Q / np.sqrt(K_phi[h][:, :, None] * K_phi[h][:, None, :])
-        B = I_mm[h] * d[h][:, None, :]
-        C = np.zeros((B.shape[0], 2 * n, 2 * n))
-        C[:, :n, n:] = -B
-        C[:, n:, :n] = -np.swapaxes(B, 1, 2)
-        C[:, n:, n:] = -Q_t
-        nu = np.linalg.eigvalsh(C)[:, -1]
-        with np.errstate(divide="ignore"):
-            lam[h] = np.where(nu > 0, 1.0 / nu, np.inf)
+        dh = d[h]
+        A_h = I_sq[h] * (dh[:, :, None] * dh[:, None, :])
+        lam_h, certified = smallest_root_quadratic(A_h, Q_t)
+        lam[h] = lam_h
+        redo = h[~certified]
+        if redo.size:
+            # not certified: the linear 2n x 2n problem K x = lambda K_g x, solved exactly as
+            # K^-1/2 K_g K^-1/2 y = (1/lambda) y
+            B = I_mm[redo] * d[redo][:, None, :]
+            C = np.zeros((redo.size, 2 * n, 2 * n))
+            C[:, :n, n:] = -B
+            C[:, n:, :n] = -np.swapaxes(B, 1, 2)
+            C[:, n:, n:] = -Q_t[~certified]
+            nu = np.linalg.eigvalsh(C)[:, -1]
+            with np.errstate(divide="ignore"):
+                lam[redo] = np.where(nu > 0, 1.0 / nu, np.inf)
     out = np.where(peak > 0, lam, np.inf)
     bad = ((np.isnan(M) & ~np.isnan(xi)).any(axis=1)
            | np.isnan(L + E + G + I_z + I_t + I_w + k + k_w))
@@ -201,6 +216,71 @@ def largest_eigenvalue_psd(A: np.ndarray, *, iterations: int = 8,
     if redo.any():
         mu[redo] = np.linalg.eigvalsh(A[redo])[:, -1]
     return np.where(np.isfinite(trace), mu, np.nan)
+
+
+def smallest_root_quadratic(A: np.ndarray, Q: np.ndarray, *, iterations: int = 16,
+                            eps: float = 1e-3) -> tuple[np.ndarray, np.ndarray]:
+    """Smallest positive lambda with (I + lambda Q - lambda^2 A) c = 0, per row, and a certificate.
+
+    A (R, n, n) symmetric positive semi-definite, Q (R, n, n) symmetric. For a unit vector c the
+    positive root of 1 + lambda q - lambda^2 a (a = c'Ac, q = c'Qc) is an upper bound of the
+    answer, and the answer is the least such root over all c. Each step moves c by a power
+    iteration on lambda^2 A - lambda Q (shifted to be positive semi-definite), which can only
+    lower the root. The result is then certified from below: I + mu Q - mu^2 A with
+    mu = lambda (1 - eps) must be positive definite (a Cholesky factorisation, vectorised over
+    rows), which holds only if no eigenvalue lies below mu. Returns (mu, certified); rows that
+    are not certified need an exact solution.
+    """
+    R, n, _ = A.shape
+    lam_out = np.full(R, np.nan)
+    certified = np.zeros(R, dtype=bool)
+    for start in range(0, R, _BLOCK):  # blocks of rows, for the cache
+        stop = min(start + _BLOCK, R)
+        a_f = A[start:stop].reshape(stop - start, n * n).T.copy()
+        q_f = Q[start:stop].reshape(stop - start, n * n).T.copy()
+        # the iteration only finds the candidate, in float32; the certificate below is float64
+        a_s, q_s = a_f.astype(np.float32), q_f.astype(np.float32)
+        q_norm = np.sqrt((q_s * q_s).sum(axis=0))  # bounds |eigenvalues of Q|
+        c = np.full((n, stop - start), 1.0 / np.sqrt(n), dtype=np.float32)
+        Ac, Qc = _matvec(a_s, c, n), _matvec(q_s, c, n)
+        lam = _positive_root((c * Ac).sum(axis=0), (c * Qc).sum(axis=0))
+        for _ in range(iterations):
+            lam_f = np.where(np.isfinite(lam), lam, 0.0)
+            y = lam_f**2 * Ac - lam_f * Qc + lam_f * q_norm * c
+            norm = np.sqrt((y * y).sum(axis=0))
+            c = np.where(norm > 0, y / np.where(norm > 0, norm, 1.0), c)
+            Ac, Qc = _matvec(a_s, c, n), _matvec(q_s, c, n)
+            lam = np.fmin(lam, _positive_root((c * Ac).sum(axis=0), (c * Qc).sum(axis=0)))
+        mu = lam.astype(float) * (1.0 - eps)
+        with np.errstate(invalid="ignore"):
+            p_f = mu * q_f - mu**2 * a_f
+        p_f[:: n + 1] += 1.0  # diagonal entries of the entry-major storage
+        certified[start:stop] = np.isfinite(mu) & _positive_definite(p_f, n)
+        lam_out[start:stop] = mu
+    return lam_out, certified
+
+
+def _positive_root(a: np.ndarray, q: np.ndarray) -> np.ndarray:
+    """Positive root of 1 + lambda q - lambda^2 a = 0 (a >= 0); inf where there is none."""
+    with np.errstate(invalid="ignore", divide="ignore"):
+        den = np.sqrt(q * q + 4.0 * np.maximum(a, 0.0)) - q  # stable form of the root formula
+        return np.where(den > 0, 2.0 / den, np.inf)
+
+
+def _positive_definite(p_f: np.ndarray, n: int) -> np.ndarray:
+    """Cholesky test of symmetric matrices stored entry-major as (n*n, rows): True where positive
+    definite. Runs over the n*n entries, each a vector over rows."""
+    L = np.zeros_like(p_f)
+    ok = np.ones(p_f.shape[1], dtype=bool)
+    for jj in range(n):
+        diag = p_f[jj * n + jj] - sum(L[jj * n + k] ** 2 for k in range(jj))
+        ok &= diag > 0
+        root = np.sqrt(np.where(diag > 0, diag, 1.0))
+        L[jj * n + jj] = root
+        for i in range(jj + 1, n):
+            off = p_f[i * n + jj] - sum(L[i * n + k] * L[jj * n + k] for k in range(jj))
+            L[i * n + jj] = off / root
+    return ok & np.isfinite(p_f).all(axis=0)
 
 
 def _matvec(flat: np.ndarray, x: np.ndarray, n: int) -> np.ndarray:

@@ -221,3 +221,22 @@ def test_repeated_station_at_an_element_joint():
     finally:
         cm._MAX_GROUPS = saved
     np.testing.assert_allclose(per_row, grouped, rtol=1e-9)
+
+
+def test_load_height_fast_solution_is_certified_from_below(monkeypatch):
+    # the iterative solution with a Cholesky certificate against the exact 2n x 2n eigenvalue
+    # problem (numpy.linalg.eigvalsh, reference library) on seeded random diagrams
+    rng = np.random.default_rng(13)
+    M = rng.normal(size=(300, 5)) * 1e5
+    xi = np.broadcast_to(np.linspace(0, 1, 5), M.shape)
+    z_g = rng.uniform(-0.3, 0.3, 300)
+    fast = cm.M_cr(xi, M, 6.0, E, G, I_z, I_t, I_w, z_g=z_g)
+
+    def never_certified(A, Q, **kw):
+        return np.full(A.shape[0], np.nan), np.zeros(A.shape[0], bool)
+
+    monkeypatch.setattr(cm, "smallest_root_quadratic", never_certified)
+    exact = cm.M_cr(xi, M, 6.0, E, G, I_z, I_t, I_w, z_g=z_g)
+    # certified values lie below the exact ones by at most the certificate's margin (0.1 %)
+    assert np.all(fast <= exact * (1 + 1e-9))
+    assert np.all(fast >= exact * (1 - 1.1e-3))
