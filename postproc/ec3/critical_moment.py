@@ -392,7 +392,9 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
         patterns, inverse = _station_patterns(key)
     else:
         return np.zeros((0, n, n)), np.zeros((0, n, n)), np.zeros((0, n, n))
-    I_mm = np.empty((R, n * n))
+    # I itself is needed with a load height (and to square it row by row); else only I @ I
+    need_I = with_point_loads or not with_square or patterns.shape[0] > _MAX_GROUPS
+    I_mm = np.empty((R, n * n)) if need_I else None
     I_sq = np.empty((R, n * n)) if with_square else None
     s_up, t_up = np.triu_indices(S)
     i_up, l_up = np.triu_indices(n)
@@ -407,7 +409,8 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
             # weights of each station's moment: the integrals of its hat function (S, n*n)
             W_g = _exact_integrals(np.broadcast_to(xi_g, (S, S)), np.eye(S), n)
             m_g = m[rows]
-            I_mm[rows] = m_g @ W_g
+            if need_I:
+                I_mm[rows] = m_g @ W_g
             if with_square:
                 W_s = W_g.reshape(S, n, n)
                 # symmetric in (s, t) and in (i, l): only s <= t and i <= l are multiplied
@@ -424,7 +427,7 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
         I_mm[:] = _exact_integrals(xi, m, n)
         if with_point_loads:
             F_ss[:] = _point_load_integrals_rows(xi, m, j)
-    I_mm = I_mm.reshape(R, n, n)
+    I_mm = I_mm.reshape(R, n, n) if need_I else None
     if with_square:
         I_sq = (I_sq.reshape(R, n, n) if patterns.shape[0] <= _MAX_GROUPS else I_mm @ I_mm)
     return I_mm, I_sq, (F_ss.reshape(R, n, n) if with_point_loads else None)

@@ -18,7 +18,8 @@ def imperfection_factor(curve: np.ndarray) -> np.ndarray:
 
     Imperfection factor alpha of each buckling curve; NaN for '' or an unknown name.
     """
-    curve = np.asarray(curve, dtype=object)
+    # fixed-width text compares in C, far faster than Python string objects
+    curve = np.asarray(curve, dtype=object).astype("U2")
     out = np.full(curve.shape, np.nan)
     for name, alpha in ALPHA.items():  # over the five curves, not over members
         out[curve == name] = alpha
