@@ -1,8 +1,9 @@
 """Flexural and torsional buckling clause functions, 6.3.1.
 
 Outside values: the evaluated table of eq. (6.49) and Table 6.1 in /work/shared/REFERENCES.md
-(EN 1993-1-1:2005 itself); Table 6.2 read from the standard; IPE 300 and HEB 200 properties from the
-handbook table in REFERENCES.md ("from memory" there); Euler's load as a textbook closed form.
+(EN 1993-1-1:2005 itself); Table 6.2 of the standard "from memory" (recalled, not read off a copy at
+hand); IPE 300 properties from the handbook table in REFERENCES.md ("from memory" there); Euler's
+load and the torsional buckling load as textbook closed forms.
 """
 
 from __future__ import annotations
@@ -63,7 +64,7 @@ def test_phi_and_lambda_bar_by_hand():
 
 
 def test_table_6_2_curves():
-    # EN 1993-1-1:2005 Table 6.2, read case by case (h, b, t_f in m)
+    # EN 1993-1-1:2005 Table 6.2 case by case, from memory (h, b, t_f in m)
     shape = np.array(["I", "I", "I", "I", "I", "I", "RHS", "CHS", "RHS", "GENERIC", "I", "I"],
                      dtype=object)
     fab = np.array(["rolled", "rolled", "rolled", "rolled", "welded", "welded", "hot-finished",

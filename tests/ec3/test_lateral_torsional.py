@@ -2,7 +2,8 @@
 
 Outside values: the 6.3.2.3 chi_LT values (curves b and c, recommended lambda_LT,0 = 0.4 and
 beta = 0.75) and the eq. (6.49) table in /work/shared/REFERENCES.md (EN 1993-1-1:2005 evaluated);
-Tables 6.4, 6.5 and 6.6 and eq. (6.58) read from the standard.
+Tables 6.3 to 6.6 and eq. (6.58) of the standard "from memory" (recalled, not read off a copy at
+hand).
 """
 
 from __future__ import annotations
@@ -46,13 +47,13 @@ def test_chi_LT_general_is_eq_6_49_curve_table():
 
 
 def test_table_6_3_imperfection_factors():
-    # EN 1993-1-1:2005 Table 6.3: a 0.21, b 0.34, c 0.49, d 0.76; no curve a0 for LTB
+    # EN 1993-1-1:2005 Table 6.3 (from memory; same values as Table 6.1 in REFERENCES.md)
     got = lt.imperfection_factor_LT(np.array(["a", "b", "c", "d", "a0", ""], dtype=object))
     assert got[:4].tolist() == [0.21, 0.34, 0.49, 0.76] and np.isnan(got[4:]).all()
 
 
 def test_curves_tables_6_4_and_6_5():
-    # EN 1993-1-1:2005 Table 6.4 (general) and Table 6.5 (rolled and equivalent welded)
+    # EN 1993-1-1:2005 Tables 6.4 (general) and 6.5 (rolled, equivalent welded), from memory
     shape = np.array(["I", "I", "I", "I", "RHS", "GENERIC"], dtype=object)
     fab = np.array(["rolled", "rolled", "welded", "welded", "hot-finished", ""], dtype=object)
     h = np.array([0.300, 0.700, 0.400, 0.900, 0.2, np.nan])
@@ -83,13 +84,13 @@ def test_ltb_negligible_6_3_2_2_4():
 
 
 def test_k_c_linear_table_6_6():
-    # Table 6.6: psi = 1 -> 1.0; psi = 0 -> 1/1.33 = 0.752; psi = -1 -> 1/1.66 = 0.602
+    # Table 6.6 (from memory): psi = 1 -> 1.0; psi = 0 -> 1/1.33 = 0.752; psi = -1 -> 1/1.66
     np.testing.assert_allclose(lt.k_c_linear(np.array([1.0, 0.0, -1.0])),
                                [1.0, 1 / 1.33, 1 / 1.66], rtol=1e-12)
 
 
 def test_f_and_chi_LT_mod_by_hand():
-    # eq. (6.58): k_c = 0.94, lambda_bar_LT = 1.0 -> f = 1 - 0.5 * 0.06 * (1 - 2 * 0.04) = 0.9724
+    # eq. (6.58), from memory: k_c = 0.94, lambda_bar_LT = 1.0 -> f = 1 - 0.5 * 0.06 * (1 - 2 * 0.04) = 0.9724
     f = lt.f_modification(np.array([1.0, 0.8]), np.array([0.94, 1.0]))
     assert f[0] == pytest.approx(1 - 0.5 * 0.06 * (1 - 2 * 0.2**2), rel=1e-12)
     assert f[1] == 1.0  # uniform moment: no modification
@@ -106,7 +107,7 @@ def _diagram(fn, n=9):
 
 
 @pytest.mark.parametrize("fn, k_c, case", [
-    (lambda x: np.full(x.shape, 50e3), 1.0, lt.KC_LINEAR),  # Table 6.6 psi = 1
+    (lambda x: np.full(x.shape, 50e3), 1.0, lt.KC_LINEAR),  # Table 6.6 (from memory) psi = 1
     (lambda x: 80e3 * (1 - x), 1 / 1.33, lt.KC_LINEAR),  # psi = 0
     (lambda x: 80e3 * (1 - 1.5 * x), 1 / (1.33 + 0.33 * 0.5), lt.KC_LINEAR),  # psi = -0.5
     (lambda x: -90e3 * 4 * x * (1 - x), 0.94, lt.KC_UDL),  # simply supported, uniform load
