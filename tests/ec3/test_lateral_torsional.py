@@ -90,7 +90,8 @@ def test_k_c_linear_table_6_6():
 
 
 def test_f_and_chi_LT_mod_by_hand():
-    # eq. (6.58), from memory: k_c = 0.94, lambda_bar_LT = 1.0 -> f = 1 - 0.5 * 0.06 * (1 - 2 * 0.04) = 0.9724
+    # eq. (6.58), from memory: k_c = 0.94, lambda_bar_LT = 1.0
+    # -> f = 1 - 0.5 * 0.06 * (1 - 2 * 0.04) = 0.9724
     f = lt.f_modification(np.array([1.0, 0.8]), np.array([0.94, 1.0]))
     assert f[0] == pytest.approx(1 - 0.5 * 0.06 * (1 - 2 * 0.2**2), rel=1e-12)
     assert f[1] == 1.0  # uniform moment: no modification
