@@ -15,7 +15,7 @@ import pandas as pd
 from . import materials
 from .checks.base import MemberRows
 from .frame import Frame, element_vectors
-from .members import Members
+from .members import Members, member_axes
 from .results import FORCE_COLUMNS
 from .settings import DesignSettings
 
@@ -163,6 +163,14 @@ def build_member_rows(frame: Frame, forces: pd.DataFrame, members: Members,
                     out = out.astype(object)
                     out[~found] = None
                 row_info[column] = out
+    # the member's local +z points up (load height above the shear centre is then +z_g), and
+    # its grade (Table 6.2 has its own column for S460)
+    axes = member_axes(frame, members.members, members.member_elements)
+    z_up_m = axes[:, 2, frame.vertical_axis] > 0.0
+    row_info["z_up"] = z_up_m[code]
+    grades = member_table["grade"].astype(str)
+    canonical = {g: materials.grade_name(g) for g in grades.unique()}
+    row_info["grade"] = grades.map(canonical).to_numpy()[code]
     row_info.update(info or {})
     return MemberRows(
         member=keys["member"].to_numpy(), combination=keys["combination"].to_numpy(),
