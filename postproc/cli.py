@@ -76,6 +76,10 @@ def _run(project: Path, out: Path, *, quiet: bool) -> int:
               f"{outcome.table['combination'].nunique()} combinations, "
               f"{len(outcome.table)} checks")
         print(shown.to_string(index=False, float_format=lambda v: f"{v:.3f}"))
+        stability = outcome.stability.reset_index()
+        columns = [c for c in ("combination", "alpha_cr", "sway_mode", "path") if c in stability]
+        print(f"\nFrame stability per combination (EN 1993-1-1 5.2.1, 5.2.2):")
+        print(stability[columns].to_string(index=False, float_format=lambda v: f"{v:.2f}"))
         print()
         for name, what in OUTPUT_FILES.items():
             print(f"  {out / name}: {what}")

@@ -15,6 +15,7 @@ from .. import CAUTION, __version__
 from ..checker import CheckOutcome
 from ..checks.base import FAIL, NOT_EVALUATED
 from .display import to_display
+from .summaries import member_grouping
 
 # viridis at 0, 0.25, 0.5, 0.75, 1 (perceptually uniform, readable by colour-blind readers)
 _VIRIDIS = np.array([[68, 1, 84], [59, 82, 139], [33, 145, 140], [94, 201, 98], [253, 231, 37]])
@@ -94,6 +95,7 @@ be evaluated</i> (these are not passes: see the reasons).</p>
 {''.join(rows)}</table>
 <h2>Overstressed members by combination</h2>
 {_table(failures) if len(failures) else '<p>None.</p>'}
+<h2>Design members</h2>{_table(member_grouping(outcome.members))}
 <h2>Buckling lengths</h2>{_table(outcome.lengths)}
 </body></html>
 """

@@ -51,3 +51,28 @@ def failures_by_combination(table: pd.DataFrame) -> pd.DataFrame:
     worst = worst.join(n, on=["combination", "member"])
     return worst.sort_values(["combination", "utilisation"], ascending=[True, False],
                              ignore_index=True)
+
+
+def member_grouping(members) -> pd.DataFrame:
+    """One row per design member: the elements it is made of, its kind and its restraint points.
+
+    `members` is a `postproc.members.Members`.
+    """
+    table = members.members.copy()
+    links = members.member_elements.sort_values(["member", "position"])
+    elements = links.groupby("member", sort=False)["element"].agg(lambda e: " ".join(map(str, e)))
+    table["elements"] = elements.reindex(table.index).fillna("")
+    restraints = getattr(members, "restraints", None)
+    if restraints is not None and len(restraints):
+        text = (restraints.sort_values(["member", "x_m"])
+                .assign(point=lambda r: r["direction"].astype(str) + " at "
+                        + r["x_m"].map(lambda x: f"{x:.3g}") + " m")
+                .groupby("member", sort=False)["point"].agg("; ".join))
+        table["restraints"] = text.reindex(table.index).fillna("none")
+    else:
+        table["restraints"] = "none"
+    columns = [c for c in ("elements", "kind", "section", "grade", "length_m", "start_node",
+                           "end_node", "restraints") if c in table.columns]
+    out = table[columns].copy()
+    out.index.name = "member"
+    return out.reset_index()

@@ -16,12 +16,13 @@ import pandas as pd
 from ..checker import CheckOutcome
 from .display import to_display
 from .html import html_report
-from .summaries import failures_by_combination, member_summary
+from .summaries import failures_by_combination, member_grouping, member_summary
 
 OUTPUT_FILES = {
     "utilisation.csv": "every (member, combination, check): utilisation, status, clause, values",
     "summary.csv": "one row per member: largest utilisation, governing combination and check",
     "failures.csv": "overstressed members by combination",
+    "members.csv": "design members: their elements, kind, section and restraint points",
     "stability.csv": "per combination: alpha_cr, sway mode, analysis path",
     "buckling_lengths.csv": "per member and combination: buckling lengths and their origin",
     "settings.csv": "the design settings and national parameters used",
@@ -42,6 +43,7 @@ def write_outputs(outcome: CheckOutcome, out_dir: str | Path, *, title: str, sou
         _csv(outcome.table, staging / "utilisation.csv")
         _csv(summary, staging / "summary.csv")
         _csv(failures, staging / "failures.csv")
+        _csv(member_grouping(outcome.members), staging / "members.csv")
         _csv(outcome.stability.reset_index(), staging / "stability.csv")
         _csv(outcome.lengths, staging / "buckling_lengths.csv")
         _csv(settings, staging / "settings.csv", convert=False)
