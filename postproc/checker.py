@@ -102,6 +102,11 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
     rows, blocks = run_checks(rows, families or CHECK_FAMILIES, overrides=overrides)
     table = results_table(rows, blocks, settings.utilisation_limit)
     table = _mark_unusable_combinations(table, per_combination, combos, members)
+    if "path" in per_combination and len(table):
+        # the analysis path of 5.2.1/5.2.2 that each row's forces went through
+        position = list(table.columns).index("reason") + 1
+        table.insert(position, "analysis_path",
+                     table["combination"].map(per_combination["path"]).fillna("").to_numpy())
     return CheckOutcome(table=table, members=members, stability=per_combination,
                         lengths=lengths, settings=settings, combinations=combos)
 
