@@ -47,11 +47,49 @@ def member_forces(forces: pd.DataFrame, members: Members,
 
 
 def _codes(values: pd.Series | np.ndarray, index: pd.Index, what: str) -> np.ndarray:
+    """Position of each value (as text) in `index`; KeyError naming the first unknown one. A
+    categorical column is looked up once per category, not once per value."""
+    if isinstance(values, pd.Series) and isinstance(values.dtype, pd.CategoricalDtype):
+        at = values.cat.codes.to_numpy()
+        if (at >= 0).all():
+            codes = index.get_indexer(values.cat.categories.astype(str))[at]
+            if (codes < 0).any():
+                missing = values.iloc[int(np.argmax(codes < 0))]
+                raise KeyError(f"{what} {str(missing)!r} is not known")
+            return codes
+    if isinstance(values, pd.Series):
+        values = values.astype(str)
     codes = index.get_indexer(values)
     if (codes < 0).any():
         missing = pd.Series(values)[codes < 0].iloc[0]
         raise KeyError(f"{what} {missing!r} is not known")
     return codes
+
+
+def _lookup(values: pd.Series, index: pd.Index) -> np.ndarray:
+    """Position of each value (as text) in `index`, -1 where it is not there; a categorical
+    column is looked up once per category."""
+    if isinstance(values.dtype, pd.CategoricalDtype):
+        at = values.cat.codes.to_numpy()
+        if (at >= 0).all():
+            return index.get_indexer(values.cat.categories.astype(str))[at]
+    return index.get_indexer(values.astype(str))
+
+
+def _factorize_sorted(values: pd.Series) -> tuple[np.ndarray, np.ndarray]:
+    """Codes into the sorted distinct texts of `values`, and those texts (pd.factorize of the
+    text with sort=True; a categorical column is handled through its category codes)."""
+    if isinstance(values.dtype, pd.CategoricalDtype):
+        at = values.cat.codes.to_numpy()
+        names = np.asarray(values.cat.categories.astype(str), dtype=object)
+        if (at >= 0).all() and len(set(names)) == len(names):
+            used = np.flatnonzero(np.bincount(at, minlength=len(names)) > 0)
+            order = used[np.argsort(names[used].astype(str), kind="stable")]
+            remap = np.full(len(names), -1, dtype=np.intp)
+            remap[order] = np.arange(len(order))
+            return remap[at], names[order]
+    codes, uniques = pd.factorize(values.astype(str), sort=True)
+    return codes, np.asarray(uniques)
 
 
 def _member_grid(forces: pd.DataFrame, members: Members, element_length: pd.Series
@@ -70,39 +108,63 @@ def _member_grid(forces: pd.DataFrame, members: Members, element_length: pd.Seri
     el_flip[link_el] = links["flipped"].to_numpy(bool)
     el_length = element_length.to_numpy(float)
 
-    element = _codes(forces["element"].astype(str), element_index, "element")
-    combination, combination_names = pd.factorize(forces["combination"].astype(str), sort=True)
+    element = _codes(forces["element"], element_index, "element")
+    combination, combination_names = _factorize_sorted(forces["combination"])
     member = el_member[element]
     flipped = el_flip[element]
     x_el = forces["x_m"].to_numpy(float)
     x = el_x0[element] + np.where(flipped, el_length[element] - x_el, x_el)
-    order = np.lexsort((x, combination, member))
-    key = (member.astype(np.int64) * max(len(combination_names), 1) + combination)[order]
+    key = member.astype(np.int64) * max(len(combination_names), 1) + combination
+    order = None if _is_sorted(key, x) else np.lexsort((x, key))  # usually already in order
+    if order is not None:
+        key = key[order]
     starts = np.ones(len(key), dtype=bool)
     starts[1:] = key[1:] != key[:-1]
-    row = np.cumsum(starts) - 1
     first = np.flatnonzero(starts)
-    station = np.arange(len(key)) - first[row]
     n_rows = len(first)
-    n_stations = int(station.max()) + 1 if len(key) else 0
-    sign = np.where(flipped, -1.0, 1.0)
+    counts = np.diff(np.append(first, len(key)))
+    n_stations = int(counts.max()) if len(key) else 0
+    full = n_rows * n_stations == len(key)  # every row has all stations: a plain reshape
+    if not full:
+        row = np.cumsum(starts) - 1
+        station = np.arange(len(key)) - first[row]
     arrays = {}
     for column in ["x_m", *FORCE_COLUMNS]:
         values = x if column == "x_m" else forces[column].to_numpy(float)
-        if column in FLIP_SIGN:
-            values = values * sign
-        grid = np.full((n_rows, n_stations), np.nan)
-        grid[row, station] = values[order]
+        if column in FLIP_SIGN and flipped.any():
+            values = np.where(flipped, -values, values)
+        if order is not None:
+            values = values[order]
+        if full:
+            grid = np.array(values, dtype=float, copy=True).reshape(n_rows, n_stations)
+        else:
+            grid = np.full((n_rows, n_stations), np.nan)
+            grid[row, station] = values
         arrays[column] = grid
-    valid = np.zeros((n_rows, n_stations), dtype=bool)
-    valid[row, station] = True
-    member_code = member[order][first]
-    combination_code = combination[order][first]
+    if full:
+        valid = np.ones((n_rows, n_stations), dtype=bool)
+    else:
+        valid = np.zeros((n_rows, n_stations), dtype=bool)
+        valid[row, station] = True
+    at_first = first if order is None else order[first]
+    member_code = member[at_first]
+    combination_code = combination[at_first]
     keys = pd.DataFrame({"member": member_index.to_numpy()[member_code],
                          "combination": np.asarray(combination_names)[combination_code],
                          "member_code": member_code, "combination_code": combination_code})
     keys.attrs["combinations"] = np.asarray(combination_names)
     return keys, arrays, valid
+
+
+def _is_sorted(key: np.ndarray, x: np.ndarray) -> bool:
+    """True where (key, x) is already in lexicographic order (ties of x kept as they are)."""
+    if len(key) < 2:
+        return True
+    step = np.diff(key)
+    if (step < 0).any():
+        return False
+    same = step == 0
+    return not (same & ~(x[1:] >= x[:-1])).any()
 
 
 def build_member_rows(frame: Frame, forces: pd.DataFrame, members: Members,
@@ -139,8 +201,8 @@ def build_member_rows(frame: Frame, forces: pd.DataFrame, members: Members,
     if lengths is not None and len(lengths):
         member_index = pd.Index(member_table.index.astype(str))
         combination_index = pd.Index(keys.attrs["combinations"])
-        l_member = member_index.get_indexer(lengths["member"].astype(str))
-        l_combination = combination_index.get_indexer(lengths["combination"].astype(str))
+        l_member = _lookup(lengths["member"], member_index)
+        l_combination = _lookup(lengths["combination"], combination_index)
         known = (l_member >= 0) & (l_combination >= 0)
         n_comb = max(len(combination_index), 1)
         lookup = np.full(len(member_index) * n_comb, -1)
