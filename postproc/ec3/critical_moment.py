@@ -130,7 +130,8 @@ def _M_cr_block(xi, M, L, E, G, I_z, I_t, I_w, k, k_w, z_g, n, peak) -> np.ndarr
     m = np.nan_to_num(M) / scale[:, None]
     height = np.zeros(R, bool) if z_g is None else np.nan_to_num(z_g) != 0.0
     I_mm, I_sq, F_ss = _work_integrals(xi, m, n, with_point_loads=bool(height.any()),
-                                       with_square=True)
+                                       with_square=True, packed=True)
+    packed = I_sq.ndim == 2  # else rows integrated one by one: full matrices
     # G_ij = int M u_i'' phi_j dx = -(i pi/L)^2 L int_0^1 m s_i s_j dxi. Scaled by K^-1/2 on both
     # sides, (i pi/L)^2 cancels against sqrt(K_u,i): B = K_u^-1/2 G K_phi^-1/2 = I_mm diag(d).
     d = -L[:, None] / (np.sqrt(E * I_z * L / (2.0 * k**2))[:, None] * np.sqrt(K_phi))
@@ -139,8 +140,12 @@ def _M_cr_block(xi, M, L, E, G, I_z, I_t, I_w, k, k_w, z_g, n, peak) -> np.ndarr
     if plain.any():
         # eliminating u: K_phi b = lambda^2 G^T K_u^-1 G b, i.e. 1/lambda^2 = largest eigenvalue
         # of B^T B = diag(d) I_mm^2 diag(d) (symmetric, positive semi-definite)
-        dp = d[plain]
-        mu = largest_eigenvalue_psd(I_sq[plain] * (dp[:, :, None] * dp[:, None, :]))
+        dp, I_p = (d, I_sq) if plain.all() else (d[plain], I_sq[plain])
+        if packed:
+            i_up, l_up = np.triu_indices(n)
+            mu = _largest_eigenvalue(I_p * (dp[:, i_up] * dp[:, l_up]), n, _full_index(n))
+        else:
+            mu = largest_eigenvalue_psd(I_p * (dp[:, :, None] * dp[:, None, :]))
         with np.errstate(divide="ignore"):
             lam[plain] = 1.0 / np.sqrt(mu)
     if height.any():
@@ -151,7 +156,7 @@ def _M_cr_block(xi, M, L, E, G, I_z, I_t, I_w, k, k_w, z_g, n, peak) -> np.ndarr
         Q = (z_g[h] / L[h])[:, None, None] * F_ss[h]
         Q_t = Q / np.sqrt(K_phi[h][:, :, None] * K_phi[h][:, None, :])
         dh = d[h]
-        A_h = I_sq[h] * (dh[:, :, None] * dh[:, None, :])
+        A_h = (_unpack(I_sq[h], n) if packed else I_sq[h]) * (dh[:, :, None] * dh[:, None, :])
         lam_h, certified = smallest_root_quadratic(A_h, Q_t)
         lam[h] = lam_h
         redo = h[~certified]
@@ -188,33 +193,50 @@ def largest_eigenvalue_psd(A: np.ndarray, *, iterations: int = 8,
     cache; tol (relative to the trace) is far above float32 rounding.
     """
     R, n, _ = A.shape
+    return _largest_eigenvalue(A.reshape(R, n * n), n, np.arange(n * n), iterations=iterations,
+                               tol=tol)
+
+
+def _largest_eigenvalue(P: np.ndarray, n: int, index: np.ndarray, *, iterations: int = 8,
+                        tol: float = 1e-4) -> np.ndarray:
+    """`largest_eigenvalue_psd` of matrices given by their entries P (R, k): entry (i, j) of row
+    r's matrix is P[r, index[i * n + j]] (index = arange(n * n) for full row-major matrices, or
+    `_full_index(n)` for packed upper triangles, which halves the work of building them)."""
+    R = P.shape[0]
     mu = np.zeros(R)
     if R == 0:
         return mu
-    trace = np.einsum("rii->r", A)
+    diag = index[:: n + 1]
+    trace = P[:, diag[0]].copy()
+    for k in diag[1:]:  # the diagonal summed in order, as numpy.einsum('rii->r') does
+        trace += P[:, k]
+    identity = index.size == P.shape[1] and np.array_equal(index, np.arange(index.size))
     ok = np.zeros(R, dtype=bool)
     for start in range(0, R, _BLOCK):  # blocks of rows, for the cache
         stop = min(start + _BLOCK, R)
         t = trace[start:stop]
         safe = np.where(t > 0, t, 1.0)
-        flat = (A[start:stop] / safe[:, None, None]).reshape(stop - start, n * n)
-        flat = flat.T.astype(np.float32)
+        full = (P[start:stop] / safe[:, None]).astype(np.float32)
+        if not identity:
+            full = full[:, index]
+        flat = full.T  # (n*n, rows): one vector over rows per matrix entry
+        frob2 = (flat * flat).sum(axis=0)
+        flat = np.ascontiguousarray(flat)  # entry-major in memory too: the products stream
         x = np.ones((n, stop - start), dtype=np.float32)
         for _ in range(iterations):
             x = _matvec(flat, x, n)
-            norm = np.sqrt((x * x).sum(axis=0))
+        norm = np.sqrt((x * x).sum(axis=0))
         x /= np.where(norm > 0, norm, 1.0)  # eigenvalues of A / trace lie in [0, 1]
         y = _matvec(flat, x, n)
         rho = (x * y).sum(axis=0)
         r = np.sqrt(((y - rho * x) ** 2).sum(axis=0))
         low = rho - r
-        frob2 = (flat * flat).sum(axis=0)
         ok[start:stop] = (r <= tol) & (frob2 - low**2 < low**2) & (low > 0)
         mu[start:stop] = (rho.astype(float) + r) * t
     mu = np.where(trace > 0, mu, 0.0)
     redo = ~ok & (trace > 0) & np.isfinite(trace)
     if redo.any():
-        mu[redo] = np.linalg.eigvalsh(A[redo])[:, -1]
+        mu[redo] = np.linalg.eigvalsh(P[redo][:, index].reshape(-1, n, n))[:, -1]
     return np.where(np.isfinite(trace), mu, np.nan)
 
 
@@ -284,13 +306,18 @@ def _positive_definite(p_f: np.ndarray, n: int) -> np.ndarray:
 
 
 def _matvec(flat: np.ndarray, x: np.ndarray, n: int) -> np.ndarray:
-    """y_i = sum_j A_ij x_j for a block of rows at once, A stored entry-major as (n*n, rows)."""
-    y = np.empty_like(x)
-    for i in range(n):  # over matrix entries (n is a handful), not over rows
-        acc = flat[i * n] * x[0]
-        for jj in range(1, n):
-            acc += flat[i * n + jj] * x[jj]
-        y[i] = acc
+    """y_i = sum_j A_ij x_j for a block of rows at once, A stored entry-major as (n*n, rows).
+
+    All n rows of A at once, one column j at a time (n array operations of n x rows, not n^2 of
+    rows); each y_i is still summed over j in order, so the result does not depend on the layout.
+    """
+    cols = flat.reshape(n, n, -1)  # [i, j, row]
+    y = np.empty_like(x)  # the layout of x, whatever the layout of A
+    np.multiply(cols[:, 0], x[0], out=y)
+    tmp = np.empty_like(y)
+    for jj in range(1, n):  # over matrix columns (n is a handful), not over rows
+        np.multiply(cols[:, jj], x[jj], out=tmp)
+        y += tmp
     return y
 
 
@@ -372,9 +399,14 @@ def _exact_integrals(xi: np.ndarray, m: np.ndarray, n: int) -> np.ndarray:
 
 
 def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: bool,
-                    with_square: bool) -> tuple[np.ndarray, np.ndarray | None, np.ndarray | None]:
+                    with_square: bool, packed: bool = False
+                    ) -> tuple[np.ndarray, np.ndarray | None, np.ndarray | None]:
     """I_ij = int_0^1 m s_i s_j dxi (R, n, n), its matrix square (I @ I, if asked) and
     F_jl = sum_k F_k s_j(xi_k) s_l(xi_k), (R, n, n).
+
+    With `packed`, the square comes as its upper triangle (R, n (n + 1) / 2), in the order of
+    numpy.triu_indices(n), wherever it is computed by station pattern (`_unpack` gives the full
+    matrix); rows integrated one by one still give (R, n, n).
 
     I is linear in the station moments, so I @ I is quadratic: for rows sharing a station pattern
     it is (m_s m_t) @ (W_s W_t), one large matrix product instead of R small ones.
@@ -395,12 +427,12 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
     # I itself is needed with a load height (and to square it row by row); else only I @ I
     need_I = with_point_loads or not with_square or patterns.shape[0] > _MAX_GROUPS
     I_mm = np.empty((R, n * n)) if need_I else None
-    I_sq = np.empty((R, n * n)) if with_square else None
+    by_pattern = patterns.shape[0] <= _MAX_GROUPS
+    packed = packed and by_pattern
+    I_sq = np.empty((R, n * (n + 1) // 2 if packed else n * n)) if with_square else None
     s_up, t_up = np.triu_indices(S)
     i_up, l_up = np.triu_indices(n)
-    position = np.zeros((n, n), dtype=int)
-    position[i_up, l_up] = np.arange(i_up.size)
-    full_index = np.maximum(position, position.T).reshape(-1)  # upper triangle to full matrix
+    full_index = _full_index(n)  # upper triangle to full matrix
     F_ss = np.empty((R, n * n)) if with_point_loads else None
     if patterns.shape[0] <= _MAX_GROUPS:
         for g, pattern in enumerate(patterns):  # over distinct station patterns, not over rows
@@ -418,7 +450,10 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
                 twice = np.where(s_up == t_up, 2.0, 1.0)[:, None, None]
                 WW = (WW + WW.transpose(1, 0, 2, 3))[s_up, t_up] / twice
                 upper = (m_g[:, s_up] * m_g[:, t_up]) @ WW[:, i_up, l_up]
-                I_sq[rows] = upper[:, full_index]
+                if packed and patterns.shape[0] == 1:
+                    I_sq = upper
+                else:
+                    I_sq[rows] = upper if packed else upper[:, full_index]
             if with_point_loads:
                 s_st = np.sin(np.pi * np.nan_to_num(xi_g)[:, None] * j[None, :])
                 Wq = (s_st[:, :, None] * s_st[:, None, :]).reshape(S, n * n)
@@ -428,9 +463,23 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
         if with_point_loads:
             F_ss[:] = _point_load_integrals_rows(xi, m, j)
     I_mm = I_mm.reshape(R, n, n) if need_I else None
-    if with_square:
-        I_sq = (I_sq.reshape(R, n, n) if patterns.shape[0] <= _MAX_GROUPS else I_mm @ I_mm)
+    if with_square and not packed:
+        I_sq = I_sq.reshape(R, n, n) if by_pattern else I_mm @ I_mm
     return I_mm, I_sq, (F_ss.reshape(R, n, n) if with_point_loads else None)
+
+
+def _full_index(n: int) -> np.ndarray:
+    """(n*n,) position in the packed upper triangle (numpy.triu_indices order) of each entry of
+    the full symmetric matrix, row-major."""
+    i_up, l_up = np.triu_indices(n)
+    position = np.zeros((n, n), dtype=int)
+    position[i_up, l_up] = np.arange(i_up.size)
+    return np.maximum(position, position.T).reshape(-1)
+
+
+def _unpack(packed: np.ndarray, n: int) -> np.ndarray:
+    """(R, n, n) symmetric matrices from their packed upper triangles (R, n (n + 1) / 2)."""
+    return packed[:, _full_index(n)].reshape(-1, n, n)
 
 
 def _station_patterns(key: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
