@@ -1,12 +1,23 @@
 """Throughput benchmark: the full set of member checks on a synthetic result set.
 
 Builds R member-combinations (default 1,000,000) with 5 stations each, writes the forces as CSV,
-times reading them back with pandas (pyarrow engine), then times the checks (member rows, section
-class at every station, member buckling values, every check family) with Annex B and with Annex A,
-and prints the throughput, the ratio of check time to read time, and the peak memory of the process.
+times reading them back with pandas (pyarrow engine), then times the checks with Annex B and with
+Annex A, and prints the throughput, the ratio of check time to read time, the time of each stage
+and the peak memory of the process.
+
+What is timed as "checks", end to end: the member rows from the forces table (one design member
+per element), then chunk by chunk (`postproc.checker.iter_checks`): section class at every
+station and the member buckling values, every check family, and keeping what a large run keeps,
+the governing utilisation (float64) and status (int8) of every row and check. No chunk's
+intermediate values outlive the chunk, so memory does not grow with the full set of values. Not
+timed: making the synthetic model, writing the CSV, and the results table (one long DataFrame of
+every intermediate value, which the normal run builds through `run_checks`).
+Stage times are summed over the worker threads (a thread per core), so with two cores they add
+up to more than the wall time of the checks.
 Run: `make bench` (or `python -m postproc.benchmark --rows 200000` for a quicker look).
 The synthetic members are random but physical: rolled I sections of the catalogue, lengths 3-9 m,
-end moments and axial forces scaled to their resistances.
+end moments and axial forces scaled to their resistances. Member and combination ids are held as
+categoricals in memory; the CSV holds them as plain text, as a user's file does.
 """
 
 from __future__ import annotations
@@ -15,13 +26,13 @@ import argparse
 import resource
 import tempfile
 import time
-from dataclasses import replace
+from dataclasses import dataclass
 from pathlib import Path
 
 import numpy as np
 import pandas as pd
 
-from .checker import CHECK_FAMILIES, run_checks as run_families
+from .checker import CHECK_FAMILIES, iter_checks
 from .frame import Frame
 from .member_rows import build_member_rows
 from .members import one_member_per_element
@@ -30,6 +41,10 @@ from .sections import build_sections
 from .settings import DesignSettings
 
 STATIONS = 5
+ROWS_STAGE = "member rows"
+KEEP_STAGE = "keep utilisation and status"
+STATUS_CODES = {"pass": 0, "fail": 1, "not evaluated": 2}
+"""Status per row and check as int8; -1 where the check does not apply."""
 DESIGNATIONS = ["IPE 200", "IPE 300", "IPE 400", "HEA 200", "HEA 300", "HEB 200", "HEB 300",
                 "SHS 150x150x8", "CHS 168.3x8"]
 
@@ -69,27 +84,68 @@ def synthetic_model(n_members: int, n_combinations: int, seed: int = 1) -> tuple
     my = m1[:, None] * (1 - xi) + m2[:, None] * xi + ms[:, None] * 4 * xi * (1 - xi)
     mz = (rng.uniform(-0.1, 0.1, n_rows) * wz)[:, None] * (1 - xi)
     vz = ((m2 - m1) / length[member])[:, None] + ms[:, None] * 4 * (1 - 2 * xi) / length[member][:, None]
+    combination_ids = pd.Categorical.from_codes(
+        np.tile(np.arange(n_combinations), n_members).repeat(STATIONS),
+        categories=[f"C{c}" for c in range(n_combinations)])
+    element_ids = pd.Categorical.from_codes(member.repeat(STATIONS), categories=ids)
     forces = pd.DataFrame({
-        "combination": np.tile(np.array([f"C{c}" for c in range(n_combinations)]), n_members
-                               ).repeat(STATIONS),
-        "element": ids[member].repeat(STATIONS),
+        "combination": combination_ids,
+        "element": element_ids,
         "x_m": (xi[None, :] * length[member][:, None]).ravel(),
         "N_N": np.repeat(n, STATIONS), "Vy_N": 0.0, "Vz_N": vz.ravel(), "T_Nm": 0.0,
         "My_Nm": my.ravel(), "Mz_Nm": mz.ravel()})
-    lengths = pd.DataFrame({"member": ids[member], "combination": forces["combination"].to_numpy()[::STATIONS],
+    lengths = pd.DataFrame({"member": pd.Categorical.from_codes(member, categories=ids),
+                            "combination": combination_ids[::STATIONS],
                             "L_cr_y_m": length[member], "L_cr_z_m": length[member] / 2,
                             "L_cr_T_m": length[member] / 2, "L_LT_m": length[member] / 2,
                             "sway_y": False, "sway_z": False})
     return frame, forces, lengths
 
 
+@dataclass
+class Kept:
+    """What the benchmark keeps of a run: per row and check, compact arrays."""
+
+    checks: list[str]
+    utilisation: np.ndarray  # (R, checks) float64, NaN where not evaluated or not applicable
+    status: np.ndarray  # (R, checks) int8, STATUS_CODES, -1 where the check does not apply
+
+    @property
+    def n_results(self) -> int:
+        return int((self.status >= 0).sum())
+
+
 def run_checks(frame: Frame, forces: pd.DataFrame, lengths: pd.DataFrame,
-               settings: DesignSettings) -> int:
-    """The whole per-row check pipeline; returns the number of check results."""
+               settings: DesignSettings, timings: dict[str, float] | None = None) -> Kept:
+    """The whole per-row check pipeline, chunk by chunk; keeps the governing utilisation and
+    status per row and check. Stage times are added to `timings` if given."""
+    timings = {} if timings is None else timings
+    t0 = time.perf_counter()
     members = one_member_per_element(frame)
     rows = build_member_rows(frame, forces, members, settings, lengths)
-    _, blocks = run_families(rows, CHECK_FAMILIES)
-    return sum(int(np.asarray(b.applies).sum()) for b in blocks)
+    timings[ROWS_STAGE] = timings.get(ROWS_STAGE, 0.0) + time.perf_counter() - t0
+    n = rows.n_rows
+    kept: Kept | None = None
+    start = 0
+    limit = settings.utilisation_limit
+    for part, blocks in iter_checks(rows, CHECK_FAMILIES, timings=timings):
+        t0 = time.perf_counter()
+        if kept is None:
+            kept = Kept([b.check for b in blocks], np.full((n, len(blocks)), np.nan),
+                        np.full((n, len(blocks)), -1, dtype=np.int8))
+        stop = start + part.n_rows
+        for k, block in enumerate(blocks):
+            applies = np.asarray(block.applies, bool)
+            util = np.asarray(block.utilisation, float)
+            evaluated = ~np.isnan(util) & (np.asarray(block.reason, dtype=object) == "")
+            code = np.where(evaluated, np.where(util > limit, STATUS_CODES["fail"],
+                                                STATUS_CODES["pass"]),
+                            STATUS_CODES["not evaluated"])
+            kept.utilisation[start:stop, k] = np.where(applies, util, np.nan)
+            kept.status[start:stop, k] = np.where(applies, code, -1)
+        start = stop
+        timings[KEEP_STAGE] = timings.get(KEEP_STAGE, 0.0) + time.perf_counter() - t0
+    return kept
 
 
 def main(argv: list[str] | None = None) -> None:
@@ -111,12 +167,18 @@ def main(argv: list[str] | None = None) -> None:
     print(f"read forces CSV (pandas, pyarrow engine): {t_read:.2f} s")
     for annex in ("B", "A"):
         settings = DesignSettings(annex=annex)
+        timings: dict[str, float] = {}
         t0 = time.perf_counter()
-        n_results = run_checks(frame, forces, lengths, settings)
+        kept = run_checks(frame, forces, lengths, settings, timings)
         t_check = time.perf_counter() - t0
-        print(f"checks with Annex {annex}: {t_check:.2f} s, {n_rows / t_check:,.0f} "
-              f"member-combinations/s, {n_results:,} check rows, "
+        print(f"checks with Annex {annex} (member rows, classification and buckling values, every "
+              f"family, keeping utilisation and status per row and check): {t_check:.2f} s, "
+              f"{n_rows / t_check:,.0f} member-combinations/s, {kept.n_results:,} check rows, "
               f"ratio to the CSV read {t_check / t_read:.2f} (target <= 3)")
+        print("  stage times (summed over threads):")
+        for stage, seconds in timings.items():
+            print(f"    {stage:<38} {seconds:7.2f} s  {seconds / t_read:5.2f} x read")
+        del kept
     peak = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024 ** 2
     print(f"peak memory (max resident set): {peak:.2f} GiB (target < 4)")
 

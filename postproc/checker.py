@@ -8,10 +8,14 @@ station, 6. member buckling values, 7. every check family, 8. the long table.
 
 from __future__ import annotations
 
+import itertools
 import os
-from concurrent.futures import ThreadPoolExecutor
+import threading
+import time
+from collections import deque
+from concurrent.futures import Future, ThreadPoolExecutor
 from dataclasses import dataclass, field, replace
-from typing import Callable
+from typing import Callable, Iterator
 
 import numpy as np
 import pandas as pd
@@ -111,29 +115,69 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
                         lengths=lengths, settings=settings, combinations=combos)
 
 
-def run_checks(rows: MemberRows, families: list[CheckFamily], *,
-               overrides: pd.DataFrame | None = None, chunk_rows: int = CHUNK_ROWS,
-               threads: int | None = None) -> tuple[MemberRows, list[CheckBlock]]:
-    """Section classes, member buckling values and every check family, over chunks of rows.
+def iter_checks(rows: MemberRows, families: list[CheckFamily], *,
+                overrides: pd.DataFrame | None = None, chunk_rows: int = CHUNK_ROWS,
+                threads: int | None = None, timings: dict[str, float] | None = None
+                ) -> Iterator[tuple[MemberRows, list[CheckBlock]]]:
+    """Section classes, member buckling values and every check family, chunk by chunk.
 
     Rows are independent, so they are cut into chunks that fit the processor caches and run on
-    a thread per core (numpy releases the interpreter lock inside its array operations); the
-    blocks of the chunks are joined in row order. Returns the rows with their member information
-    and one block per check.
+    a thread per core (numpy releases the interpreter lock inside its array operations). Yields
+    (rows of the chunk with their member information, one block per check) in row order; only a
+    few chunks are in flight at a time, so a caller that keeps less than the whole blocks never
+    holds a full-size set of intermediate values.
+
+    timings: if given, the seconds spent in each stage are added to it, summed over the worker
+        threads: 'classification and buckling values' (section class per station, member
+        overrides, member buckling values) and one entry per family (the family's __name__).
     """
     n = rows.n_rows
     bounds = [(a, min(a + chunk_rows, n)) for a in range(0, n, chunk_rows)] or [(0, 0)]
+    lock = threading.Lock()
+
+    def add(stage: str, seconds: float) -> None:
+        if timings is not None:
+            with lock:
+                timings[stage] = timings.get(stage, 0.0) + seconds
 
     def one(bound: tuple[int, int]) -> tuple[MemberRows, list[CheckBlock]]:
+        t0 = time.perf_counter()
         part = _with_member_info(rows_slice(rows, *bound), overrides)
-        return part, [block for family in families for block in family(part)]
+        add("classification and buckling values", time.perf_counter() - t0)
+        blocks = []
+        for family in families:
+            t0 = time.perf_counter()
+            blocks.extend(family(part))
+            add(getattr(family, "__name__", str(family)), time.perf_counter() - t0)
+        return part, blocks
 
     workers = min(threads or os.cpu_count() or 1, len(bounds))
-    if workers > 1:
-        with ThreadPoolExecutor(workers) as pool:
-            parts = list(pool.map(one, bounds))
-    else:
-        parts = [one(b) for b in bounds]
+    if workers <= 1:
+        for bound in bounds:
+            yield one(bound)
+        return
+    with ThreadPoolExecutor(workers) as pool:
+        pending: deque[Future] = deque()
+        ahead = iter(bounds)
+        for bound in itertools.islice(ahead, 2 * workers):
+            pending.append(pool.submit(one, bound))
+        while pending:
+            result = pending.popleft().result()
+            for bound in itertools.islice(ahead, 1):
+                pending.append(pool.submit(one, bound))
+            yield result
+
+
+def run_checks(rows: MemberRows, families: list[CheckFamily], *,
+               overrides: pd.DataFrame | None = None, chunk_rows: int = CHUNK_ROWS,
+               threads: int | None = None) -> tuple[MemberRows, list[CheckBlock]]:
+    """Section classes, member buckling values and every check family for all rows.
+
+    The chunks of `iter_checks` joined in row order. Returns the rows with their member
+    information and one block per check.
+    """
+    parts = list(iter_checks(rows, families, overrides=overrides, chunk_rows=chunk_rows,
+                             threads=threads))
     if len(parts) == 1:
         return parts[0]
     joined_rows = rows_concat([p for p, _ in parts])

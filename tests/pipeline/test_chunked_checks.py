@@ -27,3 +27,24 @@ def test_chunks_give_the_same_table_as_one_pass() -> None:
                 np.testing.assert_array_equal(left, right)
             else:
                 assert (left.astype(str) == right.astype(str)).all(), column
+
+
+def test_streamed_benchmark_keeps_the_statuses_of_the_table() -> None:
+    from postproc import benchmark
+
+    frame, forces, lengths = synthetic_model(40, 6, seed=8)
+    settings = DesignSettings(annex="B")
+    timings: dict[str, float] = {}
+    kept = benchmark.run_checks(frame, forces, lengths, settings, timings)
+    rows = build_member_rows(frame, forces, one_member_per_element(frame), settings, lengths)
+    table = results_table(*run_checks(rows, CHECK_FAMILIES, chunk_rows=50, threads=2))
+    assert kept.n_results == len(table)
+    names = {code: name for name, code in benchmark.STATUS_CODES.items()}
+    for k, check in enumerate(kept.checks):
+        part = table[table["check"] == check]
+        kept_status = kept.status[:, k]
+        applies = kept_status >= 0
+        assert applies.sum() == len(part)
+        assert [names[c] for c in kept_status[applies]] == list(part["status"])
+        np.testing.assert_array_equal(kept.utilisation[applies, k], part["utilisation"])
+    assert {"member rows", "cross_section_checks", "keep utilisation and status"} <= set(timings)
