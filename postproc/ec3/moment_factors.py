@@ -34,6 +34,35 @@ NONE, DISTRIBUTED, CONCENTRATED, UNDETERMINED = (
 
 C_M_SWAY = 0.9  # Table B.3, note: members with a sway buckling mode.
 
+# Diagram shapes and span loads are worked on as small integer codes (indices into these tables)
+# and turned into text once, at the end.
+_SHAPES = np.array([LINEAR, SPAN_SMALLER, SPAN_LARGER, NO_MOMENT, INVALID], dtype=object)
+_LOADS = np.array([NONE, DISTRIBUTED, CONCENTRATED, UNDETERMINED], dtype=object)
+_S_LINEAR, _S_SMALLER, _S_LARGER, _S_NO_MOMENT, _S_INVALID = range(5)
+_L_NONE, _L_DISTRIBUTED, _L_CONCENTRATED, _L_UNDETERMINED = range(4)
+_PSI_TEXT = ("", ", 0 <= psi <= 1", ", -1 <= psi < 0")
+_COLUMN_TEXT = ("concentrated", "distributed", "distributed (load type undetermined)")
+
+
+def _row_texts(ratio: str, sign: str) -> np.ndarray:
+    """Table B.3 row texts by code (sign * 3 + psi) * 3 + column, for alpha_s or alpha_h."""
+    return np.array([f"B.3 {ratio}, {s_txt}{p_txt}, {c_txt}"
+                     for s_txt in (f"0 <= {sign} <= 1", f"-1 <= {sign} < 0")
+                     for p_txt in _PSI_TEXT for c_txt in _COLUMN_TEXT], dtype=object)
+
+
+_ROWS_S = _row_texts("alpha_s = M_s/M_h", "alpha_s")
+_ROWS_H = _row_texts("alpha_h = M_h/M_s", "alpha_h")
+
+
+def _codes(values: np.ndarray, table: np.ndarray) -> np.ndarray:
+    """Integer codes of text values in `table`; -1 for anything else."""
+    values = np.asarray(values, dtype=object)
+    code = np.full(values.shape, -1, dtype=np.int8)
+    for k, name in enumerate(table):  # over the handful of names, not over rows
+        code[values == name] = k
+    return code
+
 
 def _compact(x: np.ndarray, M: np.ndarray
              ) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
@@ -42,9 +71,12 @@ def _compact(x: np.ndarray, M: np.ndarray
     M = np.atleast_2d(np.asarray(M, dtype=float))
     real = ~np.isnan(x)
     bad = (real & np.isnan(M)).any(axis=1)  # a station without a moment: diagram incomplete
-    order = np.argsort(np.where(real, x, np.inf), axis=1, kind="stable")
-    xs = np.take_along_axis(np.where(real, x, np.nan), order, axis=1)
-    Ms = np.take_along_axis(np.where(real, M, np.nan), order, axis=1)
+    key = np.where(real, x, np.inf)
+    xs, Ms = np.where(real, x, np.nan), np.where(real, M, np.nan)
+    if not np.all(key[:, 1:] >= key[:, :-1]):  # rows usually arrive in order: then no sort
+        order = np.argsort(key, axis=1, kind="stable")
+        xs = np.take_along_axis(xs, order, axis=1)
+        Ms = np.take_along_axis(Ms, order, axis=1)
     n = real.sum(axis=1)
     return xs, Ms, n, bad | (n < 2)
 
@@ -72,12 +104,28 @@ def diagram_shape(x: np.ndarray, M: np.ndarray, *, linear_tol: float = 1e-3,
         (object: linear / span moment smaller / larger / no moment / not readable), 'load'
         (object: none / distributed / concentrated / undetermined).
     """
+    out = _diagram(x, M, linear_tol=linear_tol, concentrated_share=concentrated_share)
+    return _with_texts(out)
+
+
+def _with_texts(out: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
+    """The `diagram_shape` dict from `_diagram`'s: codes turned into text."""
+    out = dict(out)
+    shape, load = out.pop("shape_code"), out.pop("load_code")
+    out["shape"], out["load"] = _SHAPES[shape], _LOADS[load]
+    return out
+
+
+def _diagram(x: np.ndarray, M: np.ndarray, *, linear_tol: float = 1e-3,
+             concentrated_share: float = 0.95) -> dict[str, np.ndarray]:
+    """`diagram_shape` with 'shape_code' and 'load_code' (indices into _SHAPES and _LOADS) in
+    place of the texts 'shape' and 'load'."""
     xs, Ms, n, bad = _compact(x, M)
     R, S = xs.shape
     rows = np.arange(R)
     M_a, M_b = Ms[:, 0], _last(Ms, n)
     x_a, x_b = xs[:, 0], _last(xs, n)
-    M_max = np.nanmax(np.where(np.isnan(Ms), -np.inf, np.abs(Ms)), axis=1)
+    M_max = np.where(np.isnan(Ms), -np.inf, np.abs(Ms)).max(axis=1)
     M_max = np.where(bad, np.nan, M_max)
     scale = np.where(M_max > 0, M_max, 1.0)
 
@@ -110,26 +158,29 @@ def diagram_shape(x: np.ndarray, M: np.ndarray, *, linear_tol: float = 1e-3,
         alpha_h = np.where(~smaller & ~linear, M_h / np.where(M_s == 0, 1.0, M_s), np.nan)
     alpha_s = np.where(smaller & (M_h == 0) & ~linear, np.nan, alpha_s)
 
-    shape = np.where(linear, LINEAR, np.where(smaller, SPAN_SMALLER, SPAN_LARGER)).astype(object)
-    shape[no_moment] = NO_MOMENT
-    shape[bad] = INVALID
+    shape = np.where(linear, _S_LINEAR, np.where(smaller, _S_SMALLER, _S_LARGER)).astype(np.int8)
+    shape[no_moment] = _S_NO_MOMENT
+    shape[bad] = _S_INVALID
     load = _span_load(xs, Ms, concentrated_share)
-    load[linear | no_moment | bad] = NONE
+    load[linear | no_moment | bad] = _L_NONE
     nan_bad = lambda v: np.where(bad, np.nan, v)  # noqa: E731
     return {"M_a_Nm": nan_bad(M_a), "M_b_Nm": nan_bad(M_b), "M_h_Nm": nan_bad(M_h),
             "psi": nan_bad(np.clip(psi, -1.0, 1.0)),
             "M_s_Nm": nan_bad(np.where(linear, np.nan, M_s)),
             "alpha_s": nan_bad(alpha_s), "alpha_h": nan_bad(alpha_h), "M_max_Nm": M_max,
-            "shape": shape, "load": load}
+            "shape_code": shape, "load_code": load}
 
 
 def _span_load(xs: np.ndarray, Ms: np.ndarray, concentrated_share: float) -> np.ndarray:
-    """'distributed', 'concentrated' or 'undetermined' per row, from the changes of slope."""
+    """Load code per row (_L_DISTRIBUTED, _L_CONCENTRATED or _L_UNDETERMINED), from the changes
+    of slope. xs, Ms as from `_compact` (real stations first, in order)."""
     R = xs.shape[0]
     if xs.shape[1] < 2:
-        return np.full(R, UNDETERMINED, dtype=object)
+        return np.full(R, _L_UNDETERMINED, dtype=np.int8)
     dx = np.diff(xs, axis=1)
-    length = np.nanmax(xs, axis=1, initial=-np.inf) - np.nanmin(xs, axis=1, initial=np.inf)
+    # xs ascending with NaN last: the first and the last real station are the extremes
+    n_real = (~np.isnan(xs)).sum(axis=1)
+    length = _last(xs, n_real) - xs[:, 0]
     real = ~np.isnan(dx) & (dx > 1e-9 * np.where(length > 0, length, 1.0)[:, None])
     with np.errstate(invalid="ignore", divide="ignore"):
         slope = np.where(real, np.diff(Ms, axis=1) / np.where(real, dx, 1.0), np.nan)
@@ -145,8 +196,8 @@ def _span_load(xs: np.ndarray, Ms: np.ndarray, concentrated_share: float) -> np.
         pair = jump.max(axis=1, initial=0.0)
     n_interior = real.sum(axis=1) - 1  # distinct interior stations
     concentrated = pair >= concentrated_share * total
-    out = np.where(concentrated, CONCENTRATED, DISTRIBUTED).astype(object)
-    out[n_interior < 3] = UNDETERMINED
+    out = np.where(concentrated, _L_CONCENTRATED, _L_DISTRIBUTED).astype(np.int8)
+    out[n_interior < 3] = _L_UNDETERMINED
     return out
 
 
@@ -164,11 +215,18 @@ def C_m_table_b3(psi: np.ndarray, alpha_s: np.ndarray, alpha_h: np.ndarray, shap
         column, the larger of the two everywhere in the table. A diagram with no moment takes
         C_m = 1.0 (psi = 1). NaN where the diagram could not be read.
     """
+    return _table_b3(psi, alpha_s, alpha_h, _codes(shape, _SHAPES), _codes(load, _LOADS))
+
+
+def _table_b3(psi: np.ndarray, alpha_s: np.ndarray, alpha_h: np.ndarray, shape: np.ndarray,
+              load: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+    """`C_m_table_b3` on shape and load codes (see `_diagram`)."""
     psi = np.asarray(psi, dtype=float)
     a_s = np.asarray(alpha_s, dtype=float)
     a_h = np.asarray(alpha_h, dtype=float)
-    shape = np.asarray(shape, dtype=object)
-    point = np.asarray(load, dtype=object) == CONCENTRATED
+    point = load == _L_CONCENTRATED
+    is_linear, is_smaller = shape == _S_LINEAR, shape == _S_SMALLER
+    is_larger, no_moment = shape == _S_LARGER, shape == _S_NO_MOMENT
     with np.errstate(invalid="ignore"):
         lin = 0.6 + 0.4 * psi
         s_pos = 0.2 + 0.8 * a_s
@@ -177,26 +235,22 @@ def C_m_table_b3(psi: np.ndarray, alpha_s: np.ndarray, alpha_h: np.ndarray, shap
                          np.where(point, 0.2 * (-psi) - 0.8 * a_s, 0.1 * (1 - psi) - 0.8 * a_s))
         h_fac = np.where((a_h < 0) & (psi < 0), a_h * (1 + 2 * psi), a_h)
         h = np.where(point, 0.90 + 0.10 * h_fac, 0.95 + 0.05 * h_fac)
-        C = np.select([shape == LINEAR, (shape == SPAN_SMALLER) & (a_s >= 0),
-                       shape == SPAN_SMALLER, shape == SPAN_LARGER, shape == NO_MOMENT],
+        C = np.select([is_linear, is_smaller & (a_s >= 0), is_smaller, is_larger, no_moment],
                       [lin, s_pos, s_neg, h, np.ones_like(psi)], default=np.nan)
-        lower_bounded = (shape == LINEAR) | (shape == SPAN_SMALLER)
+        lower_bounded = is_linear | is_smaller
         C = np.where(lower_bounded, np.maximum(C, 0.4), C)  # the '>= 0.4' of the table
 
-    col = np.where(point, "concentrated", "distributed").astype(object)
-    col[np.asarray(load, dtype=object) == UNDETERMINED] = "distributed (load type undetermined)"
-    sign_s = np.where(a_s >= 0, "0 <= alpha_s <= 1", "-1 <= alpha_s < 0")
-    sign_h = np.where(a_h >= 0, "0 <= alpha_h <= 1", "-1 <= alpha_h < 0")
-    psi_txt = np.where(psi >= 0, ", 0 <= psi <= 1", ", -1 <= psi < 0")
+    # row texts by code: (sign of alpha * 3 + psi text) * 3 + load column
+    column = np.where(point, 0, np.where(load == _L_UNDETERMINED, 2, 1))
+    psi_code = np.where(psi >= 0, 1, 2)
     row = np.full(psi.shape, "not readable", dtype=object)
-    row[shape == LINEAR] = "B.3 linear, -1 <= psi <= 1"
-    row[shape == NO_MOMENT] = "no moment, C_m = 1.0"
-    sm = shape == SPAN_SMALLER
-    row[sm] = ("B.3 alpha_s = M_s/M_h, " + sign_s[sm] + np.where(a_s[sm] < 0, psi_txt[sm], "")
-               + ", " + col[sm]).astype(object)
-    lg = shape == SPAN_LARGER
-    row[lg] = ("B.3 alpha_h = M_h/M_s, " + sign_h[lg] + np.where(a_h[lg] < 0, psi_txt[lg], "")
-               + ", " + col[lg]).astype(object)
+    row[is_linear] = "B.3 linear, -1 <= psi <= 1"
+    row[no_moment] = "no moment, C_m = 1.0"
+    with np.errstate(invalid="ignore"):
+        code_s = (np.where(a_s >= 0, 0, 1) * 3 + np.where(a_s < 0, psi_code, 0)) * 3 + column
+        code_h = (np.where(a_h >= 0, 0, 1) * 3 + np.where(a_h < 0, psi_code, 0)) * 3 + column
+    row[is_smaller] = _ROWS_S[code_s[is_smaller]]
+    row[is_larger] = _ROWS_H[code_h[is_larger]]
     return C, row
 
 
@@ -229,20 +283,26 @@ def C_m_annex_b(x: np.ndarray, M: np.ndarray, *, sway: np.ndarray | None = None,
         the `diagram_shape` dict plus 'C_m_non_sway', 'C_m', 'C_m_row' (object) and 'sway'
         (object: 'sway', 'non-sway' or 'not known').
     """
-    shape = diagram_shape(x, M, **shape_options)
-    C, row = C_m_table_b3(shape["psi"], shape["alpha_s"], shape["alpha_h"], shape["shape"],
-                          shape["load"])
+    coded = _diagram(x, M, **shape_options)
+    C, row = _table_b3(coded["psi"], coded["alpha_s"], coded["alpha_h"], coded["shape_code"],
+                       coded["load_code"])
+    shape = _with_texts(coded)
     known, flag = sway_flags(sway, C.shape[0])
+    nan_C = np.isnan(C)
     with np.errstate(invalid="ignore"):
-        larger = np.where(np.isnan(C), np.nan, np.maximum(C, C_M_SWAY))
-    C_used = np.where(known, np.where(flag & ~np.isnan(C), C_M_SWAY, C), larger)
-    row_unknown = np.where(C_M_SWAY > C, "sway mode not known: 0.9, larger than " + row,
-                           row + " (sway mode not known: larger than 0.9)")
-    row_used = np.where(known, np.where(flag, "B.3 sway buckling mode, 0.9", row), row_unknown)
-    row_used = np.where(np.isnan(C), row, row_used)
-    mode = np.where(known, np.where(flag, "sway", "non-sway"), "not known").astype(object)
-    return {**shape, "C_m_non_sway": C, "C_m": C_used, "C_m_row": row_used.astype(object),
-            "sway": mode}
+        larger = np.where(nan_C, np.nan, np.maximum(C, C_M_SWAY))
+    C_used = np.where(known, np.where(flag & ~nan_C, C_M_SWAY, C), larger)
+    row_used = row.copy()  # the table row where C is NaN or the mode is non-sway
+    row_used[known & flag & ~nan_C] = "B.3 sway buckling mode, 0.9"
+    unknown = np.flatnonzero(~known & ~nan_C)
+    if unknown.size:
+        given = row[unknown]
+        row_used[unknown] = np.where(C_M_SWAY > C[unknown],
+                                     "sway mode not known: 0.9, larger than " + given,
+                                     given + " (sway mode not known: larger than 0.9)")
+    mode = np.array(["non-sway", "sway", "not known"], dtype=object)[
+        np.where(known, flag.astype(np.int8), 2)]
+    return {**shape, "C_m_non_sway": C, "C_m": C_used, "C_m_row": row_used, "sway": mode}
 
 
 def chord_deflection(x: np.ndarray, M: np.ndarray, EI: np.ndarray, *,
@@ -325,17 +385,19 @@ def C_mi_0_annex_a(x: np.ndarray, M: np.ndarray, *, E: np.ndarray, I_i: np.ndarr
     Returns:
         the `diagram_shape` dict plus 'C_m0', 'C_m0_row' (object) and 'delta_x_m'.
     """
-    shape = diagram_shape(x, M, **shape_options)
+    coded = _diagram(x, M, **shape_options)
+    shape = _with_texts(coded)
     E, I_i = np.asarray(E, dtype=float), np.asarray(I_i, dtype=float)
-    delta = chord_deflection(x, M, E * I_i, curved=shape["load"] != CONCENTRATED)
+    delta = chord_deflection(x, M, E * I_i, curved=coded["load_code"] != _L_CONCENTRATED)
     lin = C_mi_0_linear(shape["psi"], N_Ed, N_cr_i)
     gen = C_mi_0_general(delta, shape["M_max_Nm"], E, I_i, L, N_Ed, N_cr_i)
-    kind = shape["shape"]
-    use_linear = (kind == LINEAR) | (kind == NO_MOMENT)
+    kind = coded["shape_code"]
+    use_linear = (kind == _S_LINEAR) | (kind == _S_NO_MOMENT)
+    invalid = kind == _S_INVALID
     C = np.where(use_linear, lin, gen)
-    C = np.where(kind == INVALID, np.nan, C)
-    row = np.where(use_linear, "A.2 end moments, psi",
-                   "A.2 span load, delta_x from the diagram (chord, double integration)")
-    row = np.where(kind == INVALID, "not readable", row).astype(object)
+    C = np.where(invalid, np.nan, C)
+    texts = np.array(["A.2 span load, delta_x from the diagram (chord, double integration)",
+                      "A.2 end moments, psi", "not readable"], dtype=object)
+    row = texts[np.where(invalid, 2, use_linear.astype(np.int8))]
     return {**shape, "C_m0": C, "C_m0_row": row,
             "delta_x_m": np.where(use_linear, np.nan, delta)}
