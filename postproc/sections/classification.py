@@ -38,6 +38,8 @@ import numpy as np
 
 Array = np.ndarray
 _TINY = 1e-9  # a moment below 1e-9 f_y W counts as zero (pure compression or pure tension)
+_PART_NAMES = np.array(["unknown", "web", "flange", "wall", "given"], dtype=object)
+_UNKNOWN, _WEB, _FLANGE, _WALL, _GIVEN = range(5)
 
 
 def epsilon(f_y: Array) -> Array:
@@ -327,35 +329,56 @@ def section_class(section: dict[str, np.ndarray], f_y: np.ndarray, N_Ed: np.ndar
     s = {k: np.asarray(section.get(k, np.nan), dtype=float) for k in keys}
     out_shape = np.broadcast_shapes(shape_arr.shape, f_y.shape, N_c.shape, My.shape, Mz.shape,
                                     *(v.shape for v in s.values()))
-    eps = epsilon(f_y)
     cls = np.zeros(out_shape, dtype=np.int8)
-    part = np.full(out_shape, "unknown", dtype=object)
-    shape_b = np.broadcast_to(shape_arr, out_shape)
+    part = np.zeros(out_shape, dtype=np.int8)  # codes into _PART_NAMES
 
-    with np.errstate(invalid="ignore", divide="ignore"):
-        if np.any(shape_b == "I"):
-            web, flange = _i_classes(s, f_y, eps, N_c, My, Mz)
-            worst, _, flange_governs = _worse(web, flange)
-            name = np.where(flange_governs, "flange", "web")
-            sel = shape_b == "I"
-            cls[sel] = np.broadcast_to(worst, out_shape)[sel]
-            part[sel] = np.broadcast_to(name, out_shape)[sel]
-        if np.any(shape_b == "RHS"):
-            worst, _ = _rhs_classes(s, f_y, eps, N_c, My, Mz)
-            sel = shape_b == "RHS"
-            cls[sel], part[sel] = np.broadcast_to(worst, out_shape)[sel], "wall"
-        if np.any(shape_b == "CHS"):
-            tube = np.broadcast_to(_chs_class(s, f_y, eps, N_c, My, Mz), out_shape)
-            sel = shape_b == "CHS"
-            cls[sel], part[sel] = tube[sel], "wall"
+    # the shape usually varies by row only ((R, 1) against forces (R, S)): select whole rows
+    by_row = len(out_shape) == 2 and shape_arr.shape == (out_shape[0], 1)
+
+    def only(sel: Array, arr: Array) -> Array:
+        """The elements of `arr` (broadcast to the output) where `sel` holds: whole rows when
+        `sel` selects rows, otherwise a flat array."""
+        if by_row:
+            if arr.ndim == 2 and arr.shape[0] == out_shape[0]:
+                return arr[sel]
+            if arr.ndim < 2 or arr.shape[0] == 1:
+                return arr
+        return np.broadcast_to(arr, out_shape)[sel]
+
+    def put(target: Array, sel: Array, values: Array | int) -> None:
+        if by_row:
+            target[sel] = np.broadcast_to(values, (int(sel.sum()), out_shape[1]))
+        else:
+            target[sel] = values
+
+    # each shape is classified on its own elements only (every operation is elementwise)
+    for kind in ("I", "RHS", "CHS"):
+        sel = shape_arr[:, 0] == kind if by_row else np.broadcast_to(shape_arr == kind, out_shape)
+        if not sel.any():
+            continue
+        sub = {k: only(sel, v) for k, v in s.items()}
+        f_y_s = only(sel, f_y)
+        args = (sub, f_y_s, epsilon(f_y_s), only(sel, N_c), only(sel, My), only(sel, Mz))
+        with np.errstate(invalid="ignore", divide="ignore"):
+            if kind == "I":
+                web, flange = _i_classes(*args)
+                worst, _, flange_governs = _worse(web, flange)
+                put(cls, sel, worst)
+                put(part, sel, np.where(flange_governs, _FLANGE, _WEB))
+            elif kind == "RHS":
+                put(cls, sel, _rhs_classes(*args)[0])
+                put(part, sel, _WALL)
+            else:
+                put(cls, sel, _chs_class(*args))
+                put(part, sel, _WALL)
 
     given = np.broadcast_to(s["given_class"], out_shape)
     has_given = ~np.isnan(given)
     given_int = np.where(has_given, given, 0).astype(np.int8)
-    generic = shape_b == "GENERIC"
+    generic = np.broadcast_to(shape_arr == "GENERIC", out_shape)
     # GENERIC: the given class or unknown; other shapes: a given class can only make it worse
     use_given = has_given & (generic | ((cls > 0) & (given_int > cls)))
     cls = np.where(use_given, given_int, cls).astype(np.int8)
-    part = np.where(use_given, "given", part)
-    part = np.where(cls == 0, "unknown", part).astype(object)
-    return cls, part
+    part[use_given] = _GIVEN
+    part[cls == 0] = _UNKNOWN
+    return cls, _PART_NAMES[part]
