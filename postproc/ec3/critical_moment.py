@@ -129,8 +129,8 @@ def _M_cr_block(xi, M, L, E, G, I_z, I_t, I_w, k, k_w, z_g, n, peak) -> np.ndarr
     scale = np.where(peak > 0, peak, 1.0)  # work with M / max|M|: the eigenvalue is then M_cr
     m = np.nan_to_num(M) / scale[:, None]
     height = np.zeros(R, bool) if z_g is None else np.nan_to_num(z_g) != 0.0
-    I_mm, I_sq, F_ss = _work_integrals(xi, m, n, with_point_loads=bool(height.any()),
-                                       with_square=True, packed=True)
+    I_mm, I_sq, F_ss, order = _work_integrals(xi, m, n, with_point_loads=bool(height.any()),
+                                              with_square=True, packed=True)
     packed = I_sq.ndim == 2  # else rows integrated one by one: full matrices
     # G_ij = int M u_i'' phi_j dx = -(i pi/L)^2 L int_0^1 m s_i s_j dxi. Scaled by K^-1/2 on both
     # sides, (i pi/L)^2 cancels against sqrt(K_u,i): B = K_u^-1/2 G K_phi^-1/2 = I_mm diag(d).
@@ -140,14 +140,23 @@ def _M_cr_block(xi, M, L, E, G, I_z, I_t, I_w, k, k_w, z_g, n, peak) -> np.ndarr
     if plain.any():
         # eliminating u: K_phi b = lambda^2 G^T K_u^-1 G b, i.e. 1/lambda^2 = largest eigenvalue
         # of B^T B = diag(d) I_mm^2 diag(d) (symmetric, positive semi-definite)
+        # (rows grouped by station pattern come only without load heights: all rows plain)
         dp, I_p = (d, I_sq) if plain.all() else (d[plain], I_sq[plain])
         if packed:
             i_up, l_up = np.triu_indices(n)
-            mu = _largest_eigenvalue(I_p * (dp[:, i_up] * dp[:, l_up]), n, _full_index(n))
+            if order is not None:
+                dp = dp[order]
+            A_p = dp[:, i_up]
+            A_p *= dp[:, l_up]
+            A_p *= I_p  # I_ij d_i d_j, as (I * (d d^T)) of the full matrices
+            mu = _largest_eigenvalue(A_p, n, _full_index(n))
         else:
             mu = largest_eigenvalue_psd(I_p * (dp[:, :, None] * dp[:, None, :]))
         with np.errstate(divide="ignore"):
-            lam[plain] = 1.0 / np.sqrt(mu)
+            if order is not None:
+                lam[order] = 1.0 / np.sqrt(mu)
+            else:
+                lam[plain] = 1.0 / np.sqrt(mu)
     if height.any():
         # with a load height the reduced problem is quadratic in lambda:
         # (I + lambda Q~) c = lambda^2 A c, Q~ = K_phi^-1/2 Q K_phi^-1/2, A = B^T B, with
@@ -400,13 +409,16 @@ def _exact_integrals(xi: np.ndarray, m: np.ndarray, n: int) -> np.ndarray:
 
 def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: bool,
                     with_square: bool, packed: bool = False
-                    ) -> tuple[np.ndarray, np.ndarray | None, np.ndarray | None]:
+                    ) -> tuple[np.ndarray | None, np.ndarray | None, np.ndarray | None,
+                               np.ndarray | None]:
     """I_ij = int_0^1 m s_i s_j dxi (R, n, n), its matrix square (I @ I, if asked) and
     F_jl = sum_k F_k s_j(xi_k) s_l(xi_k), (R, n, n).
 
     With `packed`, the square comes as its upper triangle (R, n (n + 1) / 2), in the order of
     numpy.triu_indices(n), wherever it is computed by station pattern (`_unpack` gives the full
-    matrix); rows integrated one by one still give (R, n, n).
+    matrix); rows integrated one by one still give (R, n, n). When only the packed square is
+    asked for, its rows may come grouped by station pattern (no scatter back into row order):
+    the fourth result `order` then says which row each one is (None: rows in order).
 
     I is linear in the station moments, so I @ I is quadratic: for rows sharing a station pattern
     it is (m_s m_t) @ (W_s W_t), one large matrix product instead of R small ones.
@@ -423,20 +435,28 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
     elif R:
         patterns, inverse = _station_patterns(key)
     else:
-        return np.zeros((0, n, n)), np.zeros((0, n, n)), np.zeros((0, n, n))
+        return np.zeros((0, n, n)), np.zeros((0, n, n)), np.zeros((0, n, n)), None
     # I itself is needed with a load height (and to square it row by row); else only I @ I
     need_I = with_point_loads or not with_square or patterns.shape[0] > _MAX_GROUPS
     I_mm = np.empty((R, n * n)) if need_I else None
     by_pattern = patterns.shape[0] <= _MAX_GROUPS
     packed = packed and by_pattern
     I_sq = np.empty((R, n * (n + 1) // 2 if packed else n * n)) if with_square else None
-    s_up, t_up = np.triu_indices(S)
     i_up, l_up = np.triu_indices(n)
     full_index = _full_index(n)  # upper triangle to full matrix
     F_ss = np.empty((R, n * n)) if with_point_loads else None
+    order = None
+    if packed and with_square and not need_I and patterns.shape[0] > 1:
+        order = np.argsort(inverse, kind="stable")  # rows grouped by pattern, in order within
+        ends = np.cumsum(np.bincount(inverse, minlength=patterns.shape[0]))
     if patterns.shape[0] <= _MAX_GROUPS:
         for g, pattern in enumerate(patterns):  # over distinct station patterns, not over rows
-            rows = slice(None) if patterns.shape[0] == 1 else inverse == g
+            if patterns.shape[0] == 1:
+                rows = slice(None)
+            elif order is not None:
+                rows = order[(ends[g - 1] if g else 0):ends[g]]
+            else:
+                rows = inverse == g
             xi_g = np.where(np.isinf(pattern), np.nan, pattern)
             # weights of each station's moment: the integrals of its hat function (S, n*n)
             W_g = _exact_integrals(np.broadcast_to(xi_g, (S, S)), np.eye(S), n)
@@ -444,15 +464,24 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
             if need_I:
                 I_mm[rows] = m_g @ W_g
             if with_square:
+                # only stations whose hat function reaches into the segment carry weight (a
+                # segment of a longer member sees two or three of them)
+                act = np.flatnonzero(np.any(W_g != 0.0, axis=1))
+                a_up, b_up = np.triu_indices(act.size)
+                s_up, t_up = act[a_up], act[b_up]
                 W_s = W_g.reshape(S, n, n)
                 # symmetric in (s, t) and in (i, l): only s <= t and i <= l are multiplied
                 WW = np.einsum("sij,tjl->stil", W_s, W_s)
                 twice = np.where(s_up == t_up, 2.0, 1.0)[:, None, None]
                 WW = (WW + WW.transpose(1, 0, 2, 3))[s_up, t_up] / twice
-                upper = (m_g[:, s_up] * m_g[:, t_up]) @ WW[:, i_up, l_up]
+                pairs = m_g[:, s_up] * m_g[:, t_up]
                 if packed and patterns.shape[0] == 1:
-                    I_sq = upper
+                    I_sq = pairs @ WW[:, i_up, l_up]
+                elif order is not None:  # straight into this pattern's block of rows
+                    np.matmul(pairs, WW[:, i_up, l_up],
+                              out=I_sq[(ends[g - 1] if g else 0):ends[g]])
                 else:
+                    upper = pairs @ WW[:, i_up, l_up]
                     I_sq[rows] = upper if packed else upper[:, full_index]
             if with_point_loads:
                 s_st = np.sin(np.pi * np.nan_to_num(xi_g)[:, None] * j[None, :])
@@ -465,7 +494,7 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
     I_mm = I_mm.reshape(R, n, n) if need_I else None
     if with_square and not packed:
         I_sq = I_sq.reshape(R, n, n) if by_pattern else I_mm @ I_mm
-    return I_mm, I_sq, (F_ss.reshape(R, n, n) if with_point_loads else None)
+    return I_mm, I_sq, (F_ss.reshape(R, n, n) if with_point_loads else None), order
 
 
 def _full_index(n: int) -> np.ndarray:

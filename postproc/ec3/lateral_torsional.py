@@ -173,13 +173,23 @@ def k_c_from_diagram(xi: np.ndarray, M: np.ndarray, C_1: np.ndarray, *,
         psi = np.where(big_a, M_b / M_a, M_a / M_b)
     psi = np.where(linear & (peak > 0), np.clip(psi, -1.0, 1.0), np.nan)
 
-    at_peak = np.argmax(np.where(inside, np.abs(M), -1.0), axis=1)
-    sign = np.sign(M[np.arange(M.shape[0]), at_peak])
     zero_ends = (np.abs(M_a) <= tol) & (np.abs(M_b) <= tol)
     enough = inside.sum(axis=1) >= 2
-    udl = ~linear & zero_ends & enough & matches((sign * peak)[:, None] * 4.0 * x_in * (1.0 - x_in))
-    point = (~linear & zero_ends & enough & ~udl
-             & matches((sign * peak)[:, None] * (1.0 - np.abs(2.0 * x_in - 1.0))))
+    # the curved cases only for the rows that can be one (not linear, zero ends): usually few
+    udl, point = np.zeros(M.shape[0], bool), np.zeros(M.shape[0], bool)
+    cand = np.flatnonzero(~linear & zero_ends & enough)
+    if cand.size:
+        M_c, in_c, x_c, tol_c = M[cand], inside[cand], x_in[cand], tol[cand]
+
+        def matches_c(expected: np.ndarray) -> np.ndarray:
+            return np.all(~in_c | (np.abs(M_c - expected) <= tol_c[:, None]), axis=1)
+
+        at_peak = np.argmax(np.where(in_c, np.abs(M_c), -1.0), axis=1)
+        sign = np.sign(M_c[np.arange(cand.size), at_peak])
+        sp = (sign * peak[cand])[:, None]
+        udl_c = matches_c(sp * 4.0 * x_c * (1.0 - x_c))
+        udl[cand] = udl_c
+        point[cand] = ~udl_c & matches_c(sp * (1.0 - np.abs(2.0 * x_c - 1.0)))
     with np.errstate(invalid="ignore", divide="ignore"):
         from_c1 = np.minimum(1.0 / np.sqrt(np.asarray(C_1, float)), 1.0)
     k_c = np.select([linear, udl, point], [k_c_linear(np.nan_to_num(psi, nan=1.0)), 0.94, 0.86],
