@@ -32,7 +32,7 @@ import numpy as np
 
 from ..ec3 import cross_section as cs
 from ..errors import InputError
-from .base import CheckBlock, MemberRows, at_station, governing
+from .base import CheckBlock, MemberRows, at_station
 
 NOISE = 1e-6
 """Forces below NOISE x (A f_y, W f_y, ...) are numerical noise and count as 0."""
@@ -58,6 +58,7 @@ class _Rows:
         R = rows.n_rows
         S = rows.x.shape[1]
         self.rows, self.R, self.S = rows, R, S
+        self.shear_parts: dict[str, tuple[np.ndarray, np.ndarray, np.ndarray]] = {}
         self.valid = rows.valid
         st = rows.settings
         self.gM0, self.gM2, self.eta = st.gamma_M0, st.gamma_M2, st.eta
@@ -152,24 +153,49 @@ def _reasons(util: np.ndarray, cases: list[tuple[np.ndarray, str]]) -> _Reasons:
     return _Reasons(codes, ["", *[t for _, t in cases], "could not be evaluated"])
 
 
+class _Coded:
+    """An (R, S) text value kept as small integer codes into a list of texts."""
+
+    def __init__(self, codes: np.ndarray, texts: list[str]) -> None:
+        self.codes, self.texts = codes, np.array(texts, dtype=object)
+
+
+def _pick(c: _Rows, value, rows: np.ndarray, idx: np.ndarray, flat: np.ndarray) -> np.ndarray:
+    """One station per row (idx) of a value that broadcasts to (R, S)."""
+    if isinstance(value, _Coded):
+        return value.texts[_pick(c, value.codes, rows, idx, flat)]
+    v = np.asarray(value)
+    if v.shape == (c.R, c.S) and v.flags.c_contiguous:
+        return v.reshape(-1)[flat]
+    if v.shape == (c.R, 1):
+        return v[:, 0].copy()
+    return at_station(np.broadcast_to(v, (c.R, c.S)), idx)
+
+
 def _block(c: _Rows, check: str, clause: str, util: np.ndarray, reason: _Reasons,
            applies: np.ndarray, values: dict[str, np.ndarray],
            nan_station: np.ndarray | None = None) -> CheckBlock:
     """Reduce (R, S) results to the governing station per row; a NaN at a real station makes the
     row not evaluated, reported at that station (or at `nan_station`)."""
-    x = c.rows.x
     util = np.broadcast_to(util, (c.R, c.S))
-    u, _, idx = governing(util, x)
-    nan_real = np.isnan(util) & c.valid
+    nan = np.isnan(util)
+    idx = np.argmax(np.where(nan, -np.inf, util), axis=1)
+    rows = np.arange(c.R)
+    u = util[rows, idx]
+    nan_real = nan & c.valid
     has_nan = nan_real.any(axis=1)
-    first = np.argmax(nan_real, axis=1) if nan_station is None else nan_station
-    idx = np.where(has_nan, first, idx)
-    reason_row = np.where(has_nan, reason.at(idx), "")
-    vals = {k: at_station(np.broadcast_to(np.asarray(v), (c.R, c.S)), idx)
-            for k, v in values.items()}
-    return CheckBlock(check=check, clause=clause, utilisation=np.where(has_nan, np.nan, u),
-                      x=at_station(x, idx), applies=np.asarray(applies, bool),
-                      reason=reason_row.astype(object), values=vals)
+    reason_row = np.full(c.R, "", dtype=object)
+    if has_nan.any():
+        first = np.argmax(nan_real, axis=1) if nan_station is None else nan_station
+        idx = np.where(has_nan, first, idx)
+        u = np.where(has_nan, np.nan, u)
+        hit = np.flatnonzero(has_nan)
+        reason_row[hit] = reason.at(idx)[hit]
+    flat = rows * c.S + idx
+    vals = {k: _pick(c, v, rows, idx, flat) for k, v in values.items()}
+    return CheckBlock(check=check, clause=clause, utilisation=u,
+                      x=_pick(c, c.rows.x, rows, idx, flat), applies=np.asarray(applies, bool),
+                      reason=reason_row, values=vals)
 
 
 def _util(demand: np.ndarray, resistance: np.ndarray) -> np.ndarray:
@@ -218,7 +244,14 @@ def _bending(c: _Rows, axis: str) -> CheckBlock:
 
 
 def _shear_parts(c: _Rows, axis: str) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
-    """Shear area, V_pl,Rd and web slenderness ratio (6.22) for V along `axis`."""
+    """Shear area, V_pl,Rd and web slenderness ratio (6.22) for V along `axis` (worked out once
+    per axis and kept on `c`)."""
+    if axis not in c.shear_parts:
+        c.shear_parts[axis] = _shear_parts_of(c, axis)
+    return c.shear_parts[axis]
+
+
+def _shear_parts_of(c: _Rows, axis: str) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     shape, h, b = c.shape, c.p("h"), c.p("b")
     t_w, t_f, t = c.p("t_w"), c.p("t_f"), c.p("t")
     if axis == "z":
@@ -335,12 +368,11 @@ def _bending_and_axial(c: _Rows, sv: dict[str, np.ndarray]) -> CheckBlock:
                              (no_geometry, NM_NEEDS_GEOMETRY), _missing("A, W, dimensions or f_y")])
     both = (N != 0.0) & ((My != 0.0) | (Mz != 0.0))
     applies = c.any_(both) | c.any_(c.nan_at(N, My, Mz))
-    method = np.select(
+    method = _Coded(np.select(
         [sv["reduced"], c.elastic, c.plastic & is_I, c.plastic & is_RHS, c.plastic & is_CHS,
-         c.plastic],
-        ["shear-reduced linear sum (6.2.10, 6.2)", "elastic (6.42)", "I (6.33)-(6.38), (6.41)",
-         "RHS (6.39)-(6.41)", "CHS M_pl (1 - n^1.7), (6.41)", "single action, (6.41) with 1, 1"],
-        default="").astype(object)
+         c.plastic], [1, 2, 3, 4, 5, 6], default=0).astype(np.int8),
+        ["", "shear-reduced linear sum (6.2.10, 6.2)", "elastic (6.42)", "I (6.33)-(6.38), (6.41)",
+         "RHS (6.39)-(6.41)", "CHS M_pl (1 - n^1.7), (6.41)", "single action, (6.41) with 1, 1"])
     pl = np.where(c.plastic, 1.0, np.nan)  # plastic quantities only where they were used
     values = {"N_Ed_N": N, "N_pl_Rd_N": N_pl, "n": n, "a": a, "a_w": a_w, "a_f": a_f,
               "M_y_Ed_Nm": My, "M_pl_y_Rd_Nm": M_pl_y, "M_N_y_Rd_Nm": M_N_y * pl,

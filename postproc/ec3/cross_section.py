@@ -27,9 +27,13 @@ def _ratio(demand: ArrayLike, resistance: ArrayLike) -> Array:
     the demand is NaN, inf where a positive demand meets a resistance <= 0."""
     d, r = _a(demand), _a(resistance)
     with np.errstate(divide="ignore", invalid="ignore"):
-        q = np.where(r > 0.0, d / r, np.inf)
-    q = np.where(np.isnan(r), np.nan, q)
-    return np.where(d == 0.0, 0.0, np.where(np.isnan(d), np.nan, q))
+        q = np.asarray(np.divide(d, r), dtype=float)  # NaN where r is NaN
+    non_positive = r <= 0.0
+    if non_positive.any():
+        np.copyto(q, np.inf, where=non_positive)
+        np.copyto(q, np.nan, where=np.isnan(d))
+    np.copyto(q, 0.0, where=d == 0.0)
+    return q
 
 
 def epsilon(f_y: ArrayLike) -> Array:
