@@ -71,9 +71,9 @@ def _ltb_segment_moments(rows: MemberRows, b: dict[str, np.ndarray]
     known = ~np.isnan(start[:, 0]) & ~np.isnan(end[:, 0])
     use = known & usable
     x_seg = np.where(use[:, None] & ~inside, np.nan, rows.x)
-    note = np.where(use, "LTB segment",
-                    np.where(known, "whole member (LTB segment holds fewer than 2 stations)",
-                             "whole member (LTB segment not known)")).astype(object)
+    notes = np.array(["LTB segment", "whole member (LTB segment holds fewer than 2 stations)",
+                      "whole member (LTB segment not known)"], dtype=object)
+    note = notes[np.where(use, 0, np.where(known, 1, 2))]
     return x_seg, note
 
 

@@ -53,6 +53,8 @@ def _row_texts(ratio: str, sign: str) -> np.ndarray:
 
 _ROWS_S = _row_texts("alpha_s = M_s/M_h", "alpha_s")
 _ROWS_H = _row_texts("alpha_h = M_h/M_s", "alpha_h")
+_ROW_TEXTS = np.concatenate([np.array(["not readable", "B.3 linear, -1 <= psi <= 1",
+                                       "no moment, C_m = 1.0"], dtype=object), _ROWS_S, _ROWS_H])
 
 
 def _codes(values: np.ndarray, table: np.ndarray) -> np.ndarray:
@@ -191,7 +193,13 @@ def _span_load(xs: np.ndarray, Ms: np.ndarray, concentrated_share: float) -> np.
     jump = np.abs(np.nan_to_num(np.diff(filled, axis=1), nan=0.0))
     total = jump.sum(axis=1)
     if jump.shape[1] >= 2:
-        pair = np.maximum(jump[:, :-1] + jump[:, 1:], jump.max(axis=1, keepdims=True)).max(axis=1)
+        # largest of the neighbouring pairs and of the single jumps, column by column (a few
+        # columns: cheaper than reductions along rows this short)
+        pair = jump[:, 0] + jump[:, 1]
+        for k in range(1, jump.shape[1] - 1):
+            np.maximum(pair, jump[:, k] + jump[:, k + 1], out=pair)
+        for k in range(jump.shape[1]):
+            np.maximum(pair, jump[:, k], out=pair)
     else:
         pair = jump.max(axis=1, initial=0.0)
     n_interior = real.sum(axis=1) - 1  # distinct interior stations
@@ -240,18 +248,19 @@ def _table_b3(psi: np.ndarray, alpha_s: np.ndarray, alpha_h: np.ndarray, shape: 
         lower_bounded = is_linear | is_smaller
         C = np.where(lower_bounded, np.maximum(C, 0.4), C)  # the '>= 0.4' of the table
 
-    # row texts by code: (sign of alpha * 3 + psi text) * 3 + load column
+    # row texts by code (see _ROW_TEXTS): alpha_s and alpha_h rows by
+    # (sign of alpha * 3 + psi text) * 3 + load column
     column = np.where(point, 0, np.where(load == _L_UNDETERMINED, 2, 1))
     psi_code = np.where(psi >= 0, 1, 2)
-    row = np.full(psi.shape, "not readable", dtype=object)
-    row[is_linear] = "B.3 linear, -1 <= psi <= 1"
-    row[no_moment] = "no moment, C_m = 1.0"
     with np.errstate(invalid="ignore"):
         code_s = (np.where(a_s >= 0, 0, 1) * 3 + np.where(a_s < 0, psi_code, 0)) * 3 + column
         code_h = (np.where(a_h >= 0, 0, 1) * 3 + np.where(a_h < 0, psi_code, 0)) * 3 + column
-    row[is_smaller] = _ROWS_S[code_s[is_smaller]]
-    row[is_larger] = _ROWS_H[code_h[is_larger]]
-    return C, row
+    code = np.zeros(psi.shape, dtype=np.int16)  # 0: not readable
+    code[is_linear] = 1
+    code[no_moment] = 2
+    code[is_smaller] = 3 + code_s[is_smaller]
+    code[is_larger] = 3 + _ROWS_S.size + code_h[is_larger]
+    return C, _ROW_TEXTS[code]
 
 
 def sway_flags(sway: np.ndarray | None, n: int) -> tuple[np.ndarray, np.ndarray]:
