@@ -41,6 +41,7 @@ N_TERMS = 8  # sine terms per field: within about 1 % of 24 terms (see the tests
 _MAX_GROUPS = 64  # beyond this many station patterns, integrate row by row instead
 _ROWS_PER_BLOCK = 65536  # rows per block of M_cr
 _BLOCK = 16384  # rows per block of the power iteration (fits in cache)
+_SERIAL_PRODUCT = 1 << 18  # m * n * k up to which the BLAS keeps a matrix product on one thread
 
 
 def M_cr_0(L: np.ndarray, E: np.ndarray, G: np.ndarray, I_z: np.ndarray, I_t: np.ndarray,
@@ -337,7 +338,7 @@ def _interp_rows(xi: np.ndarray, M: np.ndarray, at: np.ndarray) -> np.ndarray:
         # one station pattern for every row (the usual case): weights once, one matrix product
         S = xs.shape[1]
         weights = _interp_rows(np.broadcast_to(xi[:1], (S, S)), np.eye(S), at)  # (S, P)
-        return np.where(np.isinf(xs), 0.0, M) @ weights
+        return _rows_matmul(np.where(np.isinf(xs), 0.0, M), weights)
     count = (~np.isnan(xi)).sum(axis=1)
     idx = (xs[:, None, :] <= at[None, :, None]).sum(axis=2) - 1  # (R, P)
     idx = np.clip(idx, 0, np.maximum(count - 2, 0)[:, None])
@@ -462,7 +463,7 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
             W_g = _exact_integrals(np.broadcast_to(xi_g, (S, S)), np.eye(S), n)
             m_g = m[rows]
             if need_I:
-                I_mm[rows] = m_g @ W_g
+                I_mm[rows] = _rows_matmul(m_g, W_g)
             if with_square:
                 # only stations whose hat function reaches into the segment carry weight (a
                 # segment of a longer member sees two or three of them)
@@ -476,17 +477,17 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
                 WW = (WW + WW.transpose(1, 0, 2, 3))[s_up, t_up] / twice
                 pairs = m_g[:, s_up] * m_g[:, t_up]
                 if packed and patterns.shape[0] == 1:
-                    I_sq = pairs @ WW[:, i_up, l_up]
+                    I_sq = _rows_matmul(pairs, WW[:, i_up, l_up])
                 elif order is not None:  # straight into this pattern's block of rows
-                    np.matmul(pairs, WW[:, i_up, l_up],
-                              out=I_sq[(ends[g - 1] if g else 0):ends[g]])
+                    _rows_matmul(pairs, WW[:, i_up, l_up],
+                                 out=I_sq[(ends[g - 1] if g else 0):ends[g]])
                 else:
-                    upper = pairs @ WW[:, i_up, l_up]
+                    upper = _rows_matmul(pairs, WW[:, i_up, l_up])
                     I_sq[rows] = upper if packed else upper[:, full_index]
             if with_point_loads:
                 s_st = np.sin(np.pi * np.nan_to_num(xi_g)[:, None] * j[None, :])
                 Wq = (s_st[:, :, None] * s_st[:, None, :]).reshape(S, n * n)
-                F_ss[rows] = m[rows] @ (_kink_matrix(xi_g) @ Wq)
+                F_ss[rows] = _rows_matmul(m[rows], _kink_matrix(xi_g) @ Wq)
     else:
         I_mm[:] = _exact_integrals(xi, m, n)
         if with_point_loads:
@@ -495,6 +496,21 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
     if with_square and not packed:
         I_sq = I_sq.reshape(R, n, n) if by_pattern else I_mm @ I_mm
     return I_mm, I_sq, (F_ss.reshape(R, n, n) if with_point_loads else None), order
+
+
+def _rows_matmul(a: np.ndarray, b: np.ndarray, out: np.ndarray | None = None) -> np.ndarray:
+    """a @ b for a tall a (R, k) and a small b (k, p), in blocks of rows small enough that the
+    BLAS keeps each product on the calling thread. Rows are already spread over a thread per
+    core by the checker; a product spread over the cores again only makes the threads wait for
+    each other (and spin)."""
+    R, k = a.shape
+    p = b.shape[1]
+    if out is None:
+        out = np.empty((R, p), dtype=np.result_type(a, b))
+    step = max(1, _SERIAL_PRODUCT // max(k * p, 1))
+    for start in range(0, R, step):  # over blocks of rows
+        np.matmul(a[start:start + step], b, out=out[start:start + step])
+    return out
 
 
 def _full_index(n: int) -> np.ndarray:
