@@ -60,6 +60,9 @@ class _Rows:
         self.rows, self.R, self.S = rows, R, S
         self.shear_parts: dict[str, tuple[np.ndarray, np.ndarray, np.ndarray]] = {}
         self.valid = rows.valid
+        self.all_valid = bool(self.valid.all())
+        self._nan_at: dict[tuple[int, ...], np.ndarray] = {}
+        self._class_cases: list[tuple[np.ndarray, str]] | None = None
         st = rows.settings
         self.gM0, self.gM2, self.eta = st.gamma_M0, st.gamma_M2, st.eta
         self.shape = np.asarray(rows.section.get("shape", np.full(R, "", object)),
@@ -111,18 +114,29 @@ class _Rows:
                              "(NaN where the member has no holes)", row=i, field="A_net")
 
     def nan_at(self, *forces: np.ndarray) -> np.ndarray:
-        """(R, S) True at real stations where any of `forces` is NaN."""
-        out = np.zeros((self.R, self.S), bool)
-        for F in forces:
-            out |= np.isnan(F)
-        return out & self.valid
+        """(R, S) True at real stations where any of `forces` is NaN (kept for reuse: do not
+        modify the result)."""
+        key = tuple(id(F) for F in forces)
+        if key not in self._nan_at:
+            out = np.zeros((self.R, self.S), bool)
+            for F in forces:
+                out |= np.isnan(F)
+            self._nan_at[key] = out & self.valid
+        return self._nan_at[key]
 
     def any_(self, mask: np.ndarray) -> np.ndarray:
+        mask = np.asarray(mask)
+        if self.all_valid:
+            if mask.shape == (self.R, 1):
+                return mask[:, 0].copy()
+            return np.broadcast_to(mask, (self.R, self.S)).any(axis=1)
         return (np.broadcast_to(mask, (self.R, self.S)) & self.valid).any(axis=1)
 
     def class_cases(self) -> list[tuple[np.ndarray, str]]:
-        return [(self.cls == 4, CLASS_4), (~(self.plastic | self.elastic | (self.cls == 4)),
-                                           CLASS_UNKNOWN)]
+        if self._class_cases is None:
+            self._class_cases = [(self.cls == 4, CLASS_4),
+                                 (~(self.plastic | self.elastic | (self.cls == 4)), CLASS_UNKNOWN)]
+        return self._class_cases
 
     def common(self) -> dict[str, np.ndarray]:
         return {"section_class": self.cls, "class_part": self.part, "f_y_Pa": self.f_y,
@@ -131,13 +145,21 @@ class _Rows:
 
 class _Reasons:
     """Why each station is not evaluated, as small integer codes into a list of texts, so that
-    no (R, S) array of strings is ever built."""
+    no (R, S) array of strings is ever built. The codes are worked out only when asked for: the
+    first case that holds at each NaN station."""
 
-    def __init__(self, codes: np.ndarray, texts: list[str]) -> None:
-        self.codes, self.texts = codes, np.array(texts, dtype=object)
+    def __init__(self, util: np.ndarray, cases: list[tuple[np.ndarray, str]]) -> None:
+        self.util, self.cases = util, cases
+        self.texts = np.array(["", *[t for _, t in cases], "could not be evaluated"],
+                              dtype=object)
 
     def at(self, idx: np.ndarray) -> np.ndarray:
-        codes = self.codes
+        util, cases = self.util, self.cases
+        nan = np.isnan(util)
+        codes = np.zeros(util.shape, np.int8)
+        codes[nan] = len(cases) + 1                      # 'could not be evaluated'
+        for k in range(len(cases) - 1, -1, -1):          # earlier cases win
+            codes[nan & np.broadcast_to(cases[k][0], util.shape)] = k + 1
         if codes.ndim == 2:
             codes = codes[np.arange(codes.shape[0]), np.minimum(idx, codes.shape[1] - 1)]
         return self.texts[codes]
@@ -145,12 +167,7 @@ class _Reasons:
 
 def _reasons(util: np.ndarray, cases: list[tuple[np.ndarray, str]]) -> _Reasons:
     """(R, S) reason at each NaN station: the first case that holds there."""
-    nan = np.isnan(util)
-    codes = np.zeros(util.shape, np.int8)
-    codes[nan] = len(cases) + 1                      # 'could not be evaluated'
-    for k in range(len(cases) - 1, -1, -1):          # earlier cases win
-        codes[nan & np.broadcast_to(cases[k][0], util.shape)] = k + 1
-    return _Reasons(codes, ["", *[t for _, t in cases], "could not be evaluated"])
+    return _Reasons(util, cases)
 
 
 class _Coded:
@@ -179,7 +196,7 @@ def _block(c: _Rows, check: str, clause: str, util: np.ndarray, reason: _Reasons
     row not evaluated, reported at that station (or at `nan_station`)."""
     util = np.broadcast_to(util, (c.R, c.S))
     nan = np.isnan(util)
-    idx = np.argmax(np.where(nan, -np.inf, util), axis=1)
+    idx = np.argmax(np.where(nan, -np.inf, util) if nan.any() else util, axis=1)
     rows = np.arange(c.R)
     u = util[rows, idx]
     nan_real = nan & c.valid
