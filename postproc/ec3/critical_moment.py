@@ -144,13 +144,9 @@ def _M_cr_block(xi, M, L, E, G, I_z, I_t, I_w, k, k_w, z_g, n, peak) -> np.ndarr
         # (rows grouped by station pattern come only without load heights: all rows plain)
         dp, I_p = (d, I_sq) if plain.all() else (d[plain], I_sq[plain])
         if packed:
-            i_up, l_up = np.triu_indices(n)
             if order is not None:
                 dp = dp[order]
-            A_p = dp[:, i_up]
-            A_p *= dp[:, l_up]
-            A_p *= I_p  # I_ij d_i d_j, as (I * (d d^T)) of the full matrices
-            mu = _largest_eigenvalue(A_p, n, _full_index(n))
+            mu = _largest_eigenvalue(I_p, n, _full_index(n), scale=dp)  # I_ij d_i d_j
         else:
             mu = largest_eigenvalue_psd(I_p * (dp[:, :, None] * dp[:, None, :]))
         with np.errstate(divide="ignore"):
@@ -207,26 +203,40 @@ def largest_eigenvalue_psd(A: np.ndarray, *, iterations: int = 8,
                                tol=tol)
 
 
-def _largest_eigenvalue(P: np.ndarray, n: int, index: np.ndarray, *, iterations: int = 8,
-                        tol: float = 1e-4) -> np.ndarray:
+def _largest_eigenvalue(P: np.ndarray, n: int, index: np.ndarray, *, scale: np.ndarray | None = None,
+                        iterations: int = 8, tol: float = 1e-4) -> np.ndarray:
     """`largest_eigenvalue_psd` of matrices given by their entries P (R, k): entry (i, j) of row
     r's matrix is P[r, index[i * n + j]] (index = arange(n * n) for full row-major matrices, or
-    `_full_index(n)` for packed upper triangles, which halves the work of building them)."""
+    `_full_index(n)` for packed upper triangles, which halves the work of building them).
+    With `scale` (R, n) (packed P only) the matrices are P_ij scale_i scale_j, formed block by
+    block of rows so that they stay in cache."""
     R = P.shape[0]
     mu = np.zeros(R)
     if R == 0:
         return mu
     diag = index[:: n + 1]
-    trace = P[:, diag[0]].copy()
-    for k in diag[1:]:  # the diagonal summed in order, as numpy.einsum('rii->r') does
-        trace += P[:, k]
     identity = index.size == P.shape[1] and np.array_equal(index, np.arange(index.size))
+    i_up, l_up = np.triu_indices(n)
+
+    def entries(sel) -> np.ndarray:  # the (packed or full) entries of the rows sel
+        if scale is None:
+            return P[sel]
+        A = scale[sel][:, i_up]
+        A *= scale[sel][:, l_up]
+        A *= P[sel]  # P_ij (s_i s_j), as P * (s s^T) of the full matrices
+        return A
+
+    trace = np.empty(R)
     ok = np.zeros(R, dtype=bool)
     for start in range(0, R, _BLOCK):  # blocks of rows, for the cache
         stop = min(start + _BLOCK, R)
-        t = trace[start:stop]
+        A = entries(slice(start, stop))
+        t = A[:, diag[0]].copy()
+        for k in diag[1:]:  # the diagonal summed in order, as numpy.einsum('rii->r') does
+            t += A[:, k]
+        trace[start:stop] = t
         safe = np.where(t > 0, t, 1.0)
-        full = (P[start:stop] / safe[:, None]).astype(np.float32)
+        full = (A / safe[:, None]).astype(np.float32)
         if not identity:
             full = full[:, index]
         flat = full.T  # (n*n, rows): one vector over rows per matrix entry
@@ -246,7 +256,7 @@ def _largest_eigenvalue(P: np.ndarray, n: int, index: np.ndarray, *, iterations:
     mu = np.where(trace > 0, mu, 0.0)
     redo = ~ok & (trace > 0) & np.isfinite(trace)
     if redo.any():
-        mu[redo] = np.linalg.eigvalsh(P[redo][:, index].reshape(-1, n, n))[:, -1]
+        mu[redo] = np.linalg.eigvalsh(entries(redo)[:, index].reshape(-1, n, n))[:, -1]
     return np.where(np.isfinite(trace), mu, np.nan)
 
 
