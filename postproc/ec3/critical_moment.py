@@ -346,20 +346,29 @@ def _interp_rows(xi: np.ndarray, M: np.ndarray, at: np.ndarray) -> np.ndarray:
     xs = np.where(np.isnan(xi), np.inf, xi)
     if xs.shape[0] > 8 and np.all(xs == xs[:1]):
         # one station pattern for every row (the usual case): weights once, one matrix product
-        S = xs.shape[1]
-        weights = _interp_rows(np.broadcast_to(xi[:1], (S, S)), np.eye(S), at)  # (S, P)
+        # weights (S, P): the interpolation below applied to the unit moment of each station
+        idx, idx1, t = _interp_weights(xs[:1], at)
+        unit = np.eye(xs.shape[1])
+        weights = unit[:, idx[0]] + t[0] * (unit[:, idx1[0]] - unit[:, idx[0]])
         return _rows_matmul(np.where(np.isinf(xs), 0.0, M), weights)
-    count = (~np.isnan(xi)).sum(axis=1)
+    idx, idx1, t = _interp_weights(xs, at)
+    m0 = np.take_along_axis(M, idx, axis=1)
+    m1 = np.take_along_axis(M, idx1, axis=1)
+    return m0 + t * (m1 - m0)
+
+
+def _interp_weights(xs: np.ndarray, at: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """For `_interp_rows`: stations on either side of each point (R, P) and the fraction t."""
+    count = (xs != np.inf).sum(axis=1)  # real stations (padding is +inf)
     idx = (xs[:, None, :] <= at[None, :, None]).sum(axis=2) - 1  # (R, P)
     idx = np.clip(idx, 0, np.maximum(count - 2, 0)[:, None])
+    idx1 = np.minimum(idx + 1, xs.shape[1] - 1)
     x0 = np.take_along_axis(xs, idx, axis=1)
-    x1 = np.take_along_axis(xs, np.minimum(idx + 1, xs.shape[1] - 1), axis=1)
-    m0 = np.take_along_axis(M, idx, axis=1)
-    m1 = np.take_along_axis(M, np.minimum(idx + 1, xs.shape[1] - 1), axis=1)
+    x1 = np.take_along_axis(xs, idx1, axis=1)
     with np.errstate(invalid="ignore", divide="ignore"):
         t = np.clip((at[None, :] - x0) / (x1 - x0), 0.0, 1.0)
     t = np.where(np.isfinite(t), t, 0.0)
-    return m0 + t * (m1 - m0)
+    return idx, idx1, t
 
 
 def _kink_matrix(xi: np.ndarray) -> np.ndarray:

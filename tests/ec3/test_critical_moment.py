@@ -145,6 +145,25 @@ def test_segment_of_a_longer_member_and_padding():
     assert cm.peak_moment(xi, M_lin)[0] == pytest.approx(60e3)
 
 
+def test_end_moments_one_pattern_many_stations_and_mixed_patterns():
+    # the end moments of a linear diagram are exact by linear interpolation (no outside value);
+    # rows sharing one pattern of more than eight stations, rows of two patterns (segments of a
+    # longer member) and rows of many patterns must all give them
+    R, S = 20, 12
+    xi = np.tile(np.linspace(-0.5, 1.5, S), (R, 1))
+    slope, offset = np.linspace(1e3, 2e4, R), np.linspace(-5e3, 5e3, R)
+    M = offset[:, None] + slope[:, None] * xi
+    expected = np.stack([offset, offset + slope], axis=1)
+    np.testing.assert_allclose(cm.end_moments(xi, M), expected, rtol=1e-12, atol=1e-6)
+    two = xi.copy()
+    two[::2] -= 0.25  # a second pattern on every other row
+    M_two = offset[:, None] + slope[:, None] * two
+    np.testing.assert_allclose(cm.end_moments(two, M_two), expected, rtol=1e-12, atol=1e-6)
+    many = xi + np.linspace(-0.2, 0.2, R)[:, None]  # every row its own pattern
+    M_many = offset[:, None] + slope[:, None] * many
+    np.testing.assert_allclose(cm.end_moments(many, M_many), expected, rtol=1e-12, atol=1e-6)
+
+
 def test_per_row_path_matches_grouped_path(monkeypatch):
     # rows whose stations differ use per-row resampling when there are many patterns
     rng = np.random.default_rng(7)
