@@ -122,7 +122,14 @@ def _diagram(x: np.ndarray, M: np.ndarray, *, linear_tol: float = 1e-3,
              concentrated_share: float = 0.95) -> dict[str, np.ndarray]:
     """`diagram_shape` with 'shape_code' and 'load_code' (indices into _SHAPES and _LOADS) in
     place of the texts 'shape' and 'load'."""
-    xs, Ms, n, bad = _compact(x, M)
+    return _diagram_compact(*_compact(x, M), linear_tol=linear_tol,
+                            concentrated_share=concentrated_share)
+
+
+def _diagram_compact(xs: np.ndarray, Ms: np.ndarray, n: np.ndarray, bad: np.ndarray, *,
+                     linear_tol: float = 1e-3, concentrated_share: float = 0.95
+                     ) -> dict[str, np.ndarray]:
+    """`_diagram` of a diagram already put in order by `_compact`."""
     R, S = xs.shape
     rows = np.arange(R)
     M_a, M_b = Ms[:, 0], _last(Ms, n)
@@ -163,7 +170,7 @@ def _diagram(x: np.ndarray, M: np.ndarray, *, linear_tol: float = 1e-3,
     shape = np.where(linear, _S_LINEAR, np.where(smaller, _S_SMALLER, _S_LARGER)).astype(np.int8)
     shape[no_moment] = _S_NO_MOMENT
     shape[bad] = _S_INVALID
-    load = _span_load(xs, Ms, concentrated_share)
+    load = _span_load(xs, Ms, n, concentrated_share)
     load[linear | no_moment | bad] = _L_NONE
     nan_bad = lambda v: np.where(bad, np.nan, v)  # noqa: E731
     return {"M_a_Nm": nan_bad(M_a), "M_b_Nm": nan_bad(M_b), "M_h_Nm": nan_bad(M_h),
@@ -173,23 +180,25 @@ def _diagram(x: np.ndarray, M: np.ndarray, *, linear_tol: float = 1e-3,
             "shape_code": shape, "load_code": load}
 
 
-def _span_load(xs: np.ndarray, Ms: np.ndarray, concentrated_share: float) -> np.ndarray:
+def _span_load(xs: np.ndarray, Ms: np.ndarray, n: np.ndarray,
+               concentrated_share: float) -> np.ndarray:
     """Load code per row (_L_DISTRIBUTED, _L_CONCENTRATED or _L_UNDETERMINED), from the changes
-    of slope. xs, Ms as from `_compact` (real stations first, in order)."""
+    of slope. xs, Ms, n as from `_compact` (real stations first, in order)."""
     R = xs.shape[0]
     if xs.shape[1] < 2:
         return np.full(R, _L_UNDETERMINED, dtype=np.int8)
     dx = np.diff(xs, axis=1)
     # xs ascending with NaN last: the first and the last real station are the extremes
-    n_real = (~np.isnan(xs)).sum(axis=1)
-    length = _last(xs, n_real) - xs[:, 0]
-    real = ~np.isnan(dx) & (dx > 1e-9 * np.where(length > 0, length, 1.0)[:, None])
+    length = _last(xs, n) - xs[:, 0]
+    with np.errstate(invalid="ignore"):
+        real = dx > 1e-9 * np.where(length > 0, length, 1.0)[:, None]  # False where NaN
     with np.errstate(invalid="ignore", divide="ignore"):
         slope = np.where(real, np.diff(Ms, axis=1) / np.where(real, dx, 1.0), np.nan)
-    # Carry the last real slope over repeated stations, so a jump there counts once.
-    idx = np.where(real, np.arange(slope.shape[1])[None, :], 0)
-    idx = np.maximum.accumulate(idx, axis=1)
-    filled = np.take_along_axis(slope, idx, axis=1)
+    # Carry the last real slope over repeated stations, so a jump there counts once (column by
+    # column: a handful of columns)
+    filled = slope.copy()
+    for k in range(1, slope.shape[1]):
+        filled[:, k] = np.where(real[:, k], slope[:, k], filled[:, k - 1])
     jump = np.abs(np.nan_to_num(np.diff(filled, axis=1), nan=0.0))
     total = jump.sum(axis=1)
     if jump.shape[1] >= 2:
@@ -325,7 +334,12 @@ def chord_deflection(x: np.ndarray, M: np.ndarray, EI: np.ndarray, *,
     for a uniform load). The largest value at the stations is returned, (R,) in m; NaN where the
     diagram cannot be read.
     """
-    xs, Ms, n, bad = _compact(x, M)
+    return _chord_deflection_compact(*_compact(x, M), EI, curved=curved)
+
+
+def _chord_deflection_compact(xs: np.ndarray, Ms: np.ndarray, n: np.ndarray, bad: np.ndarray,
+                              EI: np.ndarray, *, curved: np.ndarray | None = None) -> np.ndarray:
+    """`chord_deflection` of a diagram already put in order by `_compact`."""
     R = xs.shape[0]
     kappa = Ms / np.asarray(EI, dtype=float)[:, None]
     dx = np.nan_to_num(np.diff(xs, axis=1), nan=0.0)
@@ -338,9 +352,10 @@ def chord_deflection(x: np.ndarray, M: np.ndarray, EI: np.ndarray, *,
             q = (slope[:, 1:] - slope[:, :-1]) / ((dx[:, 1:] + dx[:, :-1]) / 2)  # interior stations
         pad = np.full((R, 1), np.nan)
         left, right = np.concatenate([pad, q], axis=1), np.concatenate([q, pad], axis=1)
-        both = np.stack([left, right])
-        count = (~np.isnan(both)).sum(axis=0)
-        mean = np.where(count > 0, np.nansum(both, axis=0) / np.maximum(count, 1), 0.0)
+        seen_l, seen_r = ~np.isnan(left), ~np.isnan(right)
+        count = seen_l.astype(np.intp) + seen_r
+        total = np.where(seen_l, left, 0.0) + np.where(seen_r, right, 0.0)  # sum without NaN
+        mean = np.where(count > 0, total / np.maximum(count, 1), 0.0)
         bulge = np.where(np.asarray(curved, dtype=bool)[:, None], mean, 0.0)
     # Rotation and deflection at each station: linear part plus the parabola's share.
     d_theta = dx * (k0 + k1) / 2 - bulge * dx ** 3 / 12
@@ -394,10 +409,12 @@ def C_mi_0_annex_a(x: np.ndarray, M: np.ndarray, *, E: np.ndarray, I_i: np.ndarr
     Returns:
         the `diagram_shape` dict plus 'C_m0', 'C_m0_row' (object) and 'delta_x_m'.
     """
-    coded = _diagram(x, M, **shape_options)
+    compact = _compact(x, M)  # once for the diagram and the deflection
+    coded = _diagram_compact(*compact, **shape_options)
     shape = _with_texts(coded)
     E, I_i = np.asarray(E, dtype=float), np.asarray(I_i, dtype=float)
-    delta = chord_deflection(x, M, E * I_i, curved=coded["load_code"] != _L_CONCENTRATED)
+    delta = _chord_deflection_compact(*compact, E * I_i,
+                                      curved=coded["load_code"] != _L_CONCENTRATED)
     lin = C_mi_0_linear(shape["psi"], N_Ed, N_cr_i)
     gen = C_mi_0_general(delta, shape["M_max_Nm"], E, I_i, L, N_Ed, N_cr_i)
     kind = coded["shape_code"]
