@@ -115,7 +115,7 @@ def _member_grid(forces: pd.DataFrame, members: Members, element_length: pd.Seri
     x_el = forces["x_m"].to_numpy(float)
     x = el_x0[element] + np.where(flipped, el_length[element] - x_el, x_el)
     key = member.astype(np.int64) * max(len(combination_names), 1) + combination
-    order = None if _is_sorted(key, x) else np.lexsort((x, key))  # usually already in order
+    order = None if _is_sorted(key, x) else _sort_order(key, x)  # usually already in order
     if order is not None:
         key = key[order]
     starts = np.ones(len(key), dtype=bool)
@@ -136,7 +136,12 @@ def _member_grid(forces: pd.DataFrame, members: Members, element_length: pd.Seri
         if order is not None:
             values = values[order]
         if full:
-            grid = np.array(values, dtype=float, copy=True).reshape(n_rows, n_stations)
+            # a view of the forces table where no sign or order changed: nothing writes into
+            # the rows' force arrays, and a read-only view makes sure nothing can
+            grid = np.asarray(values, dtype=float).reshape(n_rows, n_stations)
+            if not grid.flags.owndata and grid.flags.writeable:
+                grid = grid.view()
+                grid.flags.writeable = False
         else:
             grid = np.full((n_rows, n_stations), np.nan)
             grid[row, station] = values
@@ -149,11 +154,26 @@ def _member_grid(forces: pd.DataFrame, members: Members, element_length: pd.Seri
     at_first = first if order is None else order[first]
     member_code = member[at_first]
     combination_code = combination[at_first]
-    keys = pd.DataFrame({"member": member_index.to_numpy()[member_code],
-                         "combination": np.asarray(combination_names)[combination_code],
+    # ids as categoricals: no text array of every row is built (code -1 would be the last id,
+    # as plain indexing gives)
+    member_ids = pd.Categorical.from_codes(
+        np.where(member_code < 0, member_code + len(member_index), member_code),
+        categories=member_index)
+    combination_ids = pd.Categorical.from_codes(combination_code,
+                                                categories=pd.Index(combination_names))
+    keys = pd.DataFrame({"member": member_ids, "combination": combination_ids,
                          "member_code": member_code, "combination_code": combination_code})
     keys.attrs["combinations"] = np.asarray(combination_names)
     return keys, arrays, valid
+
+
+def _sort_order(key: np.ndarray, x: np.ndarray) -> np.ndarray:
+    """np.lexsort((x, key)): a stable sort on the key alone where x already rises within every
+    key (the usual case: stations in order, rows not), else the two-key sort."""
+    order = np.argsort(key, kind="stable")
+    if _is_sorted(key[order], x[order]):
+        return order
+    return np.lexsort((x, key))
 
 
 def _is_sorted(key: np.ndarray, x: np.ndarray) -> bool:
