@@ -177,10 +177,19 @@ class _Coded:
         self.codes, self.texts = codes, np.array(texts, dtype=object)
 
 
+class _Later:
+    """An elementwise function of (R, S) values, applied only at the governing station."""
+
+    def __init__(self, function, *arrays) -> None:
+        self.function, self.arrays = function, arrays
+
+
 def _pick(c: _Rows, value, rows: np.ndarray, idx: np.ndarray, flat: np.ndarray) -> np.ndarray:
     """One station per row (idx) of a value that broadcasts to (R, S)."""
     if isinstance(value, _Coded):
         return value.texts[_pick(c, value.codes, rows, idx, flat)]
+    if isinstance(value, _Later):
+        return value.function(*(_pick(c, v, rows, idx, flat) for v in value.arrays))
     v = np.asarray(value)
     if v.shape == (c.R, c.S) and v.flags.c_contiguous:
         return v.reshape(-1)[flat]
@@ -213,6 +222,10 @@ def _block(c: _Rows, check: str, clause: str, util: np.ndarray, reason: _Reasons
     return CheckBlock(check=check, clause=clause, utilisation=u,
                       x=_pick(c, c.rows.x, rows, idx, flat), applies=np.asarray(applies, bool),
                       reason=reason_row, values=vals)
+
+
+def _where_nan(keep: np.ndarray, values: np.ndarray) -> np.ndarray:
+    return np.where(keep, values, np.nan)
 
 
 def _util(demand: np.ndarray, resistance: np.ndarray) -> np.ndarray:
@@ -358,18 +371,31 @@ def _bending_and_axial(c: _Rows, sv: dict[str, np.ndarray]) -> CheckBlock:
     a = np.where(is_I, cs.a_I(A, b, t_f), np.nan)
     a_w = np.where(is_RHS, cs.a_w_RHS(A, b, t), np.nan)
     a_f = np.where(is_RHS, cs.a_f_RHS(A, h, t), np.nan)
-    M_N_y_I = np.where(cs.no_reduction_y_I(N, N_pl, h_w, t_w, c.f_y, gamma_M0=c.gM0), M_pl_y,
-                       cs.M_N_y_Rd_I(M_pl_y, n, a))
-    M_N_z_I = np.where(cs.no_reduction_z_I(N, h_w, t_w, c.f_y, gamma_M0=c.gM0), M_pl_z,
-                       cs.M_N_z_Rd_I(M_pl_z, n, a))
+    # the M_N formulas and exponents of each shape, worked out on that shape's rows only;
     # without geometry only the single-action cases are open: with N = 0, M_N = M_pl and
     # (6.41) with alpha = beta = 1; with N and M together the formulas are needed
     other = np.where(N == 0.0, 1.0, np.nan)
-    M_N_y = np.select([is_I, is_RHS, is_CHS], [M_N_y_I, cs.M_N_y_Rd_RHS(M_pl_y, n, a_w),
-                                               cs.M_N_Rd_CHS(M_pl_y, n)], M_pl_y * other)
-    M_N_z = np.select([is_I, is_RHS, is_CHS], [M_N_z_I, cs.M_N_z_Rd_RHS(M_pl_z, n, a_f),
-                                               cs.M_N_Rd_CHS(M_pl_z, n)], M_pl_z * other)
-    alpha, beta = cs.alpha_beta(shape, n)
+    M_N_y, M_N_z = M_pl_y * other, M_pl_z * other
+    alpha, beta = np.ones((c.R, c.S)), np.ones((c.R, c.S))
+    for kind, mask in (("I", is_I), ("RHS", is_RHS), ("CHS", is_CHS)):
+        r = np.flatnonzero(mask[:, 0])
+        if not len(r):
+            continue
+        n_r, f_y = n[r], c.f_y[r]
+        if kind == "I":
+            N_r, h_w_r, t_w_r = N[r], h_w[r], t_w[r]
+            M_N_y[r] = np.where(
+                cs.no_reduction_y_I(N_r, N_pl[r], h_w_r, t_w_r, f_y, gamma_M0=c.gM0), M_pl_y[r],
+                cs.M_N_y_Rd_I(M_pl_y[r], n_r, a[r]))
+            M_N_z[r] = np.where(cs.no_reduction_z_I(N_r, h_w_r, t_w_r, f_y, gamma_M0=c.gM0),
+                                M_pl_z[r], cs.M_N_z_Rd_I(M_pl_z[r], n_r, a[r]))
+        elif kind == "RHS":
+            M_N_y[r] = cs.M_N_y_Rd_RHS(M_pl_y[r], n_r, a_w[r])
+            M_N_z[r] = cs.M_N_z_Rd_RHS(M_pl_z[r], n_r, a_f[r])
+        else:
+            M_N_y[r] = cs.M_N_Rd_CHS(M_pl_y[r], n_r)
+            M_N_z[r] = cs.M_N_Rd_CHS(M_pl_z[r], n_r)
+        alpha[r], beta[r] = cs.alpha_beta(shape[r], n_r)
     u_pl = cs.utilisation_N_M(n, My, M_N_y, Mz, M_N_z, alpha, beta, M_pl_y, M_pl_z)
     sigma = cs.sigma_x_Ed(N, My, Mz, A, c.p("W_el_y"), c.p("W_el_z"), circular=is_CHS)
     u_el = sigma / (c.f_y / c.gM0)
@@ -392,10 +418,10 @@ def _bending_and_axial(c: _Rows, sv: dict[str, np.ndarray]) -> CheckBlock:
          "RHS (6.39)-(6.41)", "CHS M_pl (1 - n^1.7), (6.41)", "single action, (6.41) with 1, 1"])
     pl = np.where(c.plastic, 1.0, np.nan)  # plastic quantities only where they were used
     values = {"N_Ed_N": N, "N_pl_Rd_N": N_pl, "n": n, "a": a, "a_w": a_w, "a_f": a_f,
-              "M_y_Ed_Nm": My, "M_pl_y_Rd_Nm": M_pl_y, "M_N_y_Rd_Nm": M_N_y * pl,
-              "M_z_Ed_Nm": Mz, "M_pl_z_Rd_Nm": M_pl_z, "M_N_z_Rd_Nm": M_N_z * pl,
-              "alpha": alpha * pl, "beta": beta * pl,
-              "sigma_x_Ed_Pa": np.where(c.elastic, sigma, np.nan), "rho": sv["rho"],
+              "M_y_Ed_Nm": My, "M_pl_y_Rd_Nm": M_pl_y, "M_N_y_Rd_Nm": _Later(np.multiply, M_N_y, pl),
+              "M_z_Ed_Nm": Mz, "M_pl_z_Rd_Nm": M_pl_z, "M_N_z_Rd_Nm": _Later(np.multiply, M_N_z, pl),
+              "alpha": _Later(np.multiply, alpha, pl), "beta": _Later(np.multiply, beta, pl),
+              "sigma_x_Ed_Pa": _Later(_where_nan, c.elastic, sigma), "rho": sv["rho"],
               "method": method, **c.common()}
     return _block(c, "bending and axial force", "6.2.9", util, reason, applies, values)
 
