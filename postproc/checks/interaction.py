@@ -90,9 +90,8 @@ def _design_values(rows: MemberRows) -> dict[str, np.ndarray]:
 
 def _section_kind(shape: np.ndarray) -> np.ndarray:
     shape = np.asarray(shape, dtype=object)
-    return np.where(shape == "I", annex_b.I_SECTION,
-                    np.where((shape == "RHS") | (shape == "CHS"), annex_b.HOLLOW,
-                             annex_b.UNKNOWN_SHAPE)).astype(object)
+    kinds = np.array([annex_b.UNKNOWN_SHAPE, annex_b.I_SECTION, annex_b.HOLLOW], dtype=object)
+    return kinds[np.where(shape == "I", 1, np.where((shape == "RHS") | (shape == "CHS"), 2, 0))]
 
 
 def _common(rows: MemberRows) -> dict:

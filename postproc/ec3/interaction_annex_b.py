@@ -190,5 +190,5 @@ def k_factors_annex_b(*, C_my: np.ndarray, C_mz: np.ndarray, C_mLT: np.ndarray,
     twist = np.asarray(torsion_susceptible, dtype=bool)
     k_zy = np.where(twist, k_zy_table_b2(C_mLT, lambda_bar_z, n_z, section_class),
                     k_zy_table_b1(k_yy, section_class))
-    table = np.where(twist, "B.2", "B.1").astype(object)
+    table = np.array(["B.1", "B.2"], dtype=object)[twist.astype(np.int8)]
     return {"k_yy": k_yy, "k_yz": k_yz, "k_zy": k_zy, "k_zz": k_zz, "table": table}
