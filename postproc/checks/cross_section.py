@@ -418,8 +418,10 @@ def _bending_and_axial(c: _Rows, sv: dict[str, np.ndarray]) -> CheckBlock:
          "RHS (6.39)-(6.41)", "CHS M_pl (1 - n^1.7), (6.41)", "single action, (6.41) with 1, 1"])
     pl = np.where(c.plastic, 1.0, np.nan)  # plastic quantities only where they were used
     values = {"N_Ed_N": N, "N_pl_Rd_N": N_pl, "n": n, "a": a, "a_w": a_w, "a_f": a_f,
-              "M_y_Ed_Nm": My, "M_pl_y_Rd_Nm": M_pl_y, "M_N_y_Rd_Nm": _Later(np.multiply, M_N_y, pl),
-              "M_z_Ed_Nm": Mz, "M_pl_z_Rd_Nm": M_pl_z, "M_N_z_Rd_Nm": _Later(np.multiply, M_N_z, pl),
+              "M_y_Ed_Nm": My, "M_pl_y_Rd_Nm": M_pl_y,
+              "M_N_y_Rd_Nm": _Later(np.multiply, M_N_y, pl),
+              "M_z_Ed_Nm": Mz, "M_pl_z_Rd_Nm": M_pl_z,
+              "M_N_z_Rd_Nm": _Later(np.multiply, M_N_z, pl),
               "alpha": _Later(np.multiply, alpha, pl), "beta": _Later(np.multiply, beta, pl),
               "sigma_x_Ed_Pa": _Later(_where_nan, c.elastic, sigma), "rho": sv["rho"],
               "method": method, **c.common()}
