@@ -217,12 +217,15 @@ def _largest_eigenvalue(P: np.ndarray, n: int, index: np.ndarray, *, scale: np.n
     diag = index[:: n + 1]
     identity = index.size == P.shape[1] and np.array_equal(index, np.arange(index.size))
     i_up, l_up = np.triu_indices(n)
+    i_up, l_up = i_up.tolist(), l_up.tolist()
 
     def entries(sel) -> np.ndarray:  # the (packed or full) entries of the rows sel
         if scale is None:
             return P[sel]
-        A = scale[sel][:, i_up]
-        A *= scale[sel][:, l_up]
+        s_sel = scale[sel]
+        A = np.empty((s_sel.shape[0], len(i_up)))
+        for q, (i, l) in enumerate(zip(i_up, l_up)):  # column by column: n (n + 1) / 2 of them
+            np.multiply(s_sel[:, i], s_sel[:, l], out=A[:, q])
         A *= P[sel]  # P_ij (s_i s_j), as P * (s s^T) of the full matrices
         return A
 
@@ -236,12 +239,11 @@ def _largest_eigenvalue(P: np.ndarray, n: int, index: np.ndarray, *, scale: np.n
             t += A[:, k]
         trace[start:stop] = t
         safe = np.where(t > 0, t, 1.0)
-        full = (A / safe[:, None]).astype(np.float32)
+        # entry-major (n*n, rows): one vector over rows per matrix entry, contiguous
+        flat = np.ascontiguousarray((A / safe[:, None]).astype(np.float32).T)
         if not identity:
-            full = full[:, index]
-        flat = full.T  # (n*n, rows): one vector over rows per matrix entry
-        frob2 = (flat * flat).sum(axis=0)
-        flat = np.ascontiguousarray(flat)  # entry-major in memory too: the products stream
+            flat = flat[index]
+        frob2 = _pairwise_sum(flat * flat)
         x = np.ones((n, stop - start), dtype=np.float32)
         for _ in range(iterations):
             x = _matvec(flat, x, n)
@@ -323,6 +325,30 @@ def _positive_definite(p_f: np.ndarray, n: int) -> np.ndarray:
             off = p_f[i * n + jj] - sum(L[i * n + k] * L[jj * n + k] for k in range(jj))
             L[i * n + jj] = off / root
     return ok & np.isfinite(p_f).all(axis=0)
+
+
+def _pairwise_sum(a: np.ndarray) -> np.ndarray:
+    """Sum over the first axis of a (N, rows), in the order numpy's pairwise summation adds N
+    contiguous numbers (eight running sums, then a tree; halves beyond 128), so the result is
+    the same as a sum over entries stored row-major."""
+    N = a.shape[0]
+    if N < 8:
+        res = a[0].copy()
+        for k in range(1, N):
+            res += a[k]
+        return res
+    if N <= 128:
+        r = [a[j].copy() for j in range(8)]
+        for i in range(8, N - N % 8, 8):
+            for j in range(8):
+                r[j] += a[i + j]
+        res = ((r[0] + r[1]) + (r[2] + r[3])) + ((r[4] + r[5]) + (r[6] + r[7]))
+        for i in range(N - N % 8, N):
+            res += a[i]
+        return res
+    half = N // 2
+    half -= half % 8
+    return _pairwise_sum(a[:half]) + _pairwise_sum(a[half:])
 
 
 def _matvec(flat: np.ndarray, x: np.ndarray, n: int) -> np.ndarray:
