@@ -105,9 +105,16 @@ class CheckBlock:
         return np.where(~evaluated, NOT_EVALUATED, np.where(over, FAIL, PASS)).astype(object)
 
 
-def no_reason(n: int) -> np.ndarray:
-    """An (n,) object array of empty reasons."""
-    return np.full(n, "", dtype=object)
+def row_any(mask: np.ndarray) -> np.ndarray:
+    """(R,) True where any station of an (R, S) boolean array is True. The same as
+    mask.any(axis=1), station by station: numpy reduces a short last axis slowly."""
+    mask = np.asarray(mask, dtype=bool)
+    if mask.ndim != 2 or mask.shape[1] > 16 or mask.shape[1] == 0:
+        return mask.any(axis=-1)
+    out = mask[:, 0].copy()
+    for j in range(1, mask.shape[1]):
+        out |= mask[:, j]
+    return out
 
 
 def governing(utilisation: np.ndarray, x: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
@@ -116,18 +123,28 @@ def governing(utilisation: np.ndarray, x: np.ndarray) -> tuple[np.ndarray, np.nd
     Returns (utilisation (R,), x (R,), station index (R,)). A row whose stations are all NaN gets
     NaN; a NaN at a real station makes the whole row NaN (never a silent pass).
     """
-    filled = np.where(np.isnan(utilisation), -np.inf, utilisation)
-    idx = np.argmax(filled, axis=1)
-    rows = np.arange(utilisation.shape[0])
-    util = utilisation[rows, idx]
-    nan_at_real = (np.isnan(utilisation) & ~np.isnan(x)).any(axis=1)
-    util = np.where(nan_at_real, np.nan, util)
-    return util, x[rows, idx], idx
+    nan = np.isnan(utilisation)
+    idx = np.argmax(np.where(nan, -np.inf, utilisation) if nan.any() else utilisation, axis=1)
+    util = at_station(utilisation, idx)
+    nan_at_real = row_any(nan & ~np.isnan(x))
+    if nan_at_real.any():
+        util = np.where(nan_at_real, np.nan, util)
+    return util, at_station(x, idx), idx
 
 
 def at_station(values: np.ndarray, idx: np.ndarray) -> np.ndarray:
     """Pick one station per row from an (R, S) array."""
+    values = np.asarray(values)
+    if values.ndim == 2 and values.flags.c_contiguous:
+        return values.reshape(-1)[np.arange(values.shape[0]) * values.shape[1] + idx]
     return values[np.arange(values.shape[0]), idx]
+
+
+def no_reason(n: int) -> np.ndarray:
+    """An (n,) object array of empty reasons."""
+    out = np.empty(n, dtype=object)
+    out.fill("")
+    return out
 
 
 def _slice_value(value, a: int, b: int, n: int):

@@ -32,7 +32,7 @@ import numpy as np
 
 from ..ec3 import cross_section as cs
 from ..errors import InputError
-from .base import CheckBlock, MemberRows, at_station
+from .base import CheckBlock, MemberRows, at_station, no_reason, row_any
 
 NOISE = 1e-6
 """Forces below NOISE x (A f_y, W f_y, ...) are numerical noise and count as 0."""
@@ -129,8 +129,8 @@ class _Rows:
         if self.all_valid:
             if mask.shape == (self.R, 1):
                 return mask[:, 0].copy()
-            return np.broadcast_to(mask, (self.R, self.S)).any(axis=1)
-        return (np.broadcast_to(mask, (self.R, self.S)) & self.valid).any(axis=1)
+            return row_any(np.broadcast_to(mask, (self.R, self.S)))
+        return row_any(np.broadcast_to(mask, (self.R, self.S)) & self.valid)
 
     def class_cases(self) -> list[tuple[np.ndarray, str]]:
         if self._class_cases is None:
@@ -200,19 +200,21 @@ def _pick(c: _Rows, value, rows: np.ndarray, idx: np.ndarray, flat: np.ndarray) 
 
 def _block(c: _Rows, check: str, clause: str, util: np.ndarray, reason: _Reasons,
            applies: np.ndarray, values: dict[str, np.ndarray],
-           nan_station: np.ndarray | None = None) -> CheckBlock:
+           nan_station=None) -> CheckBlock:
     """Reduce (R, S) results to the governing station per row; a NaN at a real station makes the
-    row not evaluated, reported at that station (or at `nan_station`)."""
+    row not evaluated, reported at that station (or at `nan_station`: (R,) station indices, or a
+    function giving them, called only when some row has a NaN)."""
     util = np.broadcast_to(util, (c.R, c.S))
     nan = np.isnan(util)
     idx = np.argmax(np.where(nan, -np.inf, util) if nan.any() else util, axis=1)
     rows = np.arange(c.R)
     u = util[rows, idx]
     nan_real = nan & c.valid
-    has_nan = nan_real.any(axis=1)
-    reason_row = np.full(c.R, "", dtype=object)
+    has_nan = row_any(nan_real)
+    reason_row = no_reason(c.R)
     if has_nan.any():
-        first = np.argmax(nan_real, axis=1) if nan_station is None else nan_station
+        first = (np.argmax(nan_real, axis=1) if nan_station is None
+                 else nan_station() if callable(nan_station) else nan_station)
         idx = np.where(has_nan, first, idx)
         u = np.where(has_nan, np.nan, u)
         hit = np.flatnonzero(has_nan)
@@ -467,7 +469,9 @@ def _torsion(c: _Rows) -> CheckBlock:
     nan_T = c.nan_at(c.T)
     reason = _reasons(util, [(nan_T, NAN_FORCE), (open_felt, TORSION)])
     applies = c.any_(felt) | c.any_(nan_T)
-    worst = np.argmax(np.where(c.valid, np.nan_to_num(np.abs(c.T), nan=np.inf), -1.0), axis=1)
+    def worst() -> np.ndarray:  # where a NaN row is reported: its largest |T_Ed|, NaN first
+        return np.argmax(np.where(c.valid, np.nan_to_num(np.abs(c.T), nan=np.inf), -1.0), axis=1)
+
     values = {"T_Ed_Nm": c.T, "tau_t_Ed_Pa": tau, "tau_t_ratio": tau_ratio,
               "V_pl_T_z_Rd_N": V_pl_T["z"], "V_pl_T_y_Rd_N": V_pl_T["y"],
               "I_t_m4": c.p("I_t"), **c.common()}
