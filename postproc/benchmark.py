@@ -134,15 +134,15 @@ def run_checks(frame: Frame, forces: pd.DataFrame, lengths: pd.DataFrame,
             kept = Kept([b.check for b in blocks], np.full((n, len(blocks)), np.nan),
                         np.full((n, len(blocks)), -1, dtype=np.int8))
         stop = start + part.n_rows
-        for k, block in enumerate(blocks):
-            applies = np.asarray(block.applies, bool)
-            util = np.asarray(block.utilisation, float)
-            evaluated = ~np.isnan(util) & (np.asarray(block.reason, dtype=object) == "")
-            code = np.where(evaluated, np.where(util > limit, STATUS_CODES["fail"],
-                                                STATUS_CODES["pass"]),
-                            STATUS_CODES["not evaluated"])
-            kept.utilisation[start:stop, k] = np.where(applies, util, np.nan)
-            kept.status[start:stop, k] = np.where(applies, code, -1)
+        util = np.stack([np.asarray(b.utilisation, float) for b in blocks], axis=1)
+        applies = np.stack([np.asarray(b.applies, bool) for b in blocks], axis=1)
+        no_reason = np.stack([np.asarray(b.reason, dtype=object) == "" for b in blocks], axis=1)
+        evaluated = ~np.isnan(util) & no_reason
+        code = np.where(evaluated, np.where(util > limit, STATUS_CODES["fail"],
+                                            STATUS_CODES["pass"]),
+                        STATUS_CODES["not evaluated"])
+        kept.utilisation[start:stop] = np.where(applies, util, np.nan)
+        kept.status[start:stop] = np.where(applies, code, -1)
         start = stop
         timings[KEEP_STAGE] = timings.get(KEEP_STAGE, 0.0) + time.perf_counter() - t0
     return kept
