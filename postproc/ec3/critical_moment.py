@@ -578,7 +578,10 @@ def _station_patterns(key: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     against their pattern, and any collision falls back to sorting whole rows."""
     finite = np.where(np.isinf(key), 7.0, key)
     weights = np.cos(np.arange(1, key.shape[1] + 1) * 1.2345) + 2.0  # distinct, irrational-ish
-    _, first, inverse = np.unique(finite @ weights, return_index=True, return_inverse=True)
+    projection = finite[:, 0] * weights[0]
+    for k in range(1, key.shape[1]):  # over stations (no BLAS call: it would spread over cores)
+        projection += finite[:, k] * weights[k]
+    _, first, inverse = np.unique(projection, return_index=True, return_inverse=True)
     patterns = key[first]
     if np.all(key == patterns[inverse]):
         return patterns, inverse.reshape(-1)
