@@ -223,7 +223,8 @@ def _segments(rows: MemberRows, todo: np.ndarray, n_seg: np.ndarray, L_LT: np.nd
     C_1 = np.where(no_moment, 1.0, M_cr / M_cr_0)
     W_y, f_y = out["W_y_m3"][seg_row], np.asarray(rows.f_y, float)[seg_row]
     lam = lt.lambda_bar_LT(W_y, f_y, M_cr)
-    alpha = lt.imperfection_factor_LT(curve[seg_row])
+    group = np.repeat(np.arange(todo.size), counts)  # position in `todo` of each segment's row
+    alpha = lt.imperfection_factor_LT(curve[todo])[group]  # per row, not per segment
     lam_0 = 0.2 if general else st.lambda_LT_0
     if general:
         chi = lt.chi_LT_general(lam, alpha)
@@ -241,7 +242,6 @@ def _segments(rows: MemberRows, todo: np.ndarray, n_seg: np.ndarray, L_LT: np.nd
         util = M_Ed / lt.M_b_Rd(chi_used, W_y, f_y, gamma_M1=st.gamma_M1)
     util = np.where(no_moment, 0.0, util)
     # the governing segment per row: highest utilisation, a NaN anywhere makes the row NaN
-    group = np.repeat(np.arange(todo.size), counts)
     best = np.maximum.reduceat(util, first)[group]
     hits = np.flatnonzero((util == best) | np.isnan(best))
     _, first_hit = np.unique(group[hits], return_index=True)
