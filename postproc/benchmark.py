@@ -12,8 +12,10 @@ the governing utilisation (float64) and status (int8) of every row and check. No
 intermediate values outlive the chunk, so memory does not grow with the full set of values. Not
 timed: making the synthetic model, writing the CSV, and the results table (one long DataFrame of
 every intermediate value, which the normal run builds through `run_checks`).
-Stage times are summed over the worker threads (a thread per core), so with two cores they add
-up to more than the wall time of the checks.
+Printed per stage: member rows (main thread), then, summed over the worker threads (a thread per
+core, so with two cores they add up to more than the wall time): section class per station with
+the member buckling values, each check family, and keeping the utilisation and status (worked
+out on the worker, copied into the run's arrays on the main thread).
 Run: `make bench` (or `python -m postproc.benchmark --rows 200000` for a quicker look).
 The synthetic members are random but physical: rolled I sections of the catalogue, lengths 3-9 m,
 end moments and axial forces scaled to their resistances. Member and combination ids are held as
@@ -42,7 +44,10 @@ from .settings import DesignSettings
 
 STATIONS = 5
 ROWS_STAGE = "member rows"
-KEEP_STAGE = "keep utilisation and status"
+KEEP_STAGE = "keep"
+STAGE_LABELS = {ROWS_STAGE: "member rows (forces table -> padded arrays)",
+                "classification and buckling values": "section class, overrides, buckling values",
+                KEEP_STAGE: "keep utilisation and status per row and check"}
 STATUS_CODES = {"pass": 0, "fail": 1, "not evaluated": 2}
 """Status per row and check as int8; -1 where the check does not apply."""
 DESIGNATIONS = ["IPE 200", "IPE 300", "IPE 400", "HEA 200", "HEA 300", "HEB 200", "HEB 300",
@@ -125,15 +130,10 @@ def run_checks(frame: Frame, forces: pd.DataFrame, lengths: pd.DataFrame,
     rows = build_member_rows(frame, forces, members, settings, lengths)
     timings[ROWS_STAGE] = timings.get(ROWS_STAGE, 0.0) + time.perf_counter() - t0
     n = rows.n_rows
-    kept: Kept | None = None
-    start = 0
     limit = settings.utilisation_limit
-    for part, blocks in iter_checks(rows, CHECK_FAMILIES, timings=timings):
-        t0 = time.perf_counter()
-        if kept is None:
-            kept = Kept([b.check for b in blocks], np.full((n, len(blocks)), np.nan),
-                        np.full((n, len(blocks)), -1, dtype=np.int8))
-        stop = start + part.n_rows
+
+    def digest(part, blocks) -> tuple[list[str], np.ndarray, np.ndarray]:
+        """Governing utilisation and status codes of a chunk, (rows, checks); on the worker."""
         util = np.stack([np.asarray(b.utilisation, float) for b in blocks], axis=1)
         applies = np.stack([np.asarray(b.applies, bool) for b in blocks], axis=1)
         no_reason = np.stack([np.asarray(b.reason, dtype=object) == "" for b in blocks], axis=1)
@@ -141,8 +141,20 @@ def run_checks(frame: Frame, forces: pd.DataFrame, lengths: pd.DataFrame,
         code = np.where(evaluated, np.where(util > limit, STATUS_CODES["fail"],
                                             STATUS_CODES["pass"]),
                         STATUS_CODES["not evaluated"])
-        kept.utilisation[start:stop] = np.where(applies, util, np.nan)
-        kept.status[start:stop] = np.where(applies, code, -1)
+        return ([b.check for b in blocks], np.where(applies, util, np.nan),
+                np.where(applies, code, -1).astype(np.int8))
+
+    kept: Kept | None = None
+    start = 0
+    for part, (checks, util, status) in iter_checks(rows, CHECK_FAMILIES, timings=timings,
+                                                    keep=digest):
+        t0 = time.perf_counter()
+        if kept is None:
+            kept = Kept(checks, np.full((n, len(checks)), np.nan),
+                        np.full((n, len(checks)), -1, dtype=np.int8))
+        stop = start + part.n_rows
+        kept.utilisation[start:stop] = util
+        kept.status[start:stop] = status
         start = stop
         timings[KEEP_STAGE] = timings.get(KEEP_STAGE, 0.0) + time.perf_counter() - t0
     return kept
@@ -175,9 +187,11 @@ def main(argv: list[str] | None = None) -> None:
               f"family, keeping utilisation and status per row and check): {t_check:.2f} s, "
               f"{n_rows / t_check:,.0f} member-combinations/s, {kept.n_results:,} check rows, "
               f"ratio to the CSV read {t_check / t_read:.2f} (target <= 3)")
-        print("  stage times (summed over threads):")
+        print("  stage times (member rows on the main thread; the rest summed over the worker "
+              "threads, so they add up to more than the wall time):")
         for stage, seconds in timings.items():
-            print(f"    {stage:<38} {seconds:7.2f} s  {seconds / t_read:5.2f} x read")
+            label = STAGE_LABELS.get(stage, stage)
+            print(f"    {label:<52} {seconds:7.2f} s  {seconds / t_read:5.2f} x read")
         del kept
     peak = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss / 1024 ** 2
     print(f"peak memory (max resident set): {peak:.2f} GiB (target < 4)")

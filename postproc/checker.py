@@ -117,8 +117,9 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
 
 def iter_checks(rows: MemberRows, families: list[CheckFamily], *,
                 overrides: pd.DataFrame | None = None, chunk_rows: int = CHUNK_ROWS,
-                threads: int | None = None, timings: dict[str, float] | None = None
-                ) -> Iterator[tuple[MemberRows, list[CheckBlock]]]:
+                threads: int | None = None, timings: dict[str, float] | None = None,
+                keep: Callable[[MemberRows, list[CheckBlock]], object] | None = None
+                ) -> Iterator[tuple[MemberRows, object]]:
     """Section classes, member buckling values and every check family, chunk by chunk.
 
     Rows are independent, so they are cut into chunks that fit the processor caches and run on
@@ -129,7 +130,11 @@ def iter_checks(rows: MemberRows, families: list[CheckFamily], *,
 
     timings: if given, the seconds spent in each stage are added to it, summed over the worker
         threads: 'classification and buckling values' (section class per station, member
-        overrides, member buckling values) and one entry per family (the family's __name__).
+        overrides, member buckling values), one entry per family (the family's __name__) and
+        'keep' (the time of `keep`).
+    keep: if given, applied to (rows, blocks) of each chunk on the worker thread, and the chunk
+        yields (rows, keep(rows, blocks)) instead: the blocks are dropped there, so a caller
+        that keeps a digest never holds a chunk's full blocks on its own thread.
     """
     n = rows.n_rows
     bounds = [(a, min(a + chunk_rows, n)) for a in range(0, n, chunk_rows)] or [(0, 0)]
@@ -149,7 +154,12 @@ def iter_checks(rows: MemberRows, families: list[CheckFamily], *,
             t0 = time.perf_counter()
             blocks.extend(family(part))
             add(getattr(family, "__name__", str(family)), time.perf_counter() - t0)
-        return part, blocks
+        if keep is None:
+            return part, blocks
+        t0 = time.perf_counter()
+        kept = keep(part, blocks)
+        add("keep", time.perf_counter() - t0)
+        return part, kept
 
     workers = min(threads or os.cpu_count() or 1, len(bounds))
     if workers <= 1:
