@@ -203,8 +203,9 @@ def largest_eigenvalue_psd(A: np.ndarray, *, iterations: int = 8,
                                tol=tol)
 
 
-def _largest_eigenvalue(P: np.ndarray, n: int, index: np.ndarray, *, scale: np.ndarray | None = None,
-                        iterations: int = 8, tol: float = 1e-4) -> np.ndarray:
+def _largest_eigenvalue(P: np.ndarray, n: int, index: np.ndarray, *,
+                        scale: np.ndarray | None = None, iterations: int = 8,
+                        tol: float = 1e-4) -> np.ndarray:
     """`largest_eigenvalue_psd` of matrices given by their entries P (R, k): entry (i, j) of row
     r's matrix is P[r, index[i * n + j]] (index = arange(n * n) for full row-major matrices, or
     `_full_index(n)` for packed upper triangles, which halves the work of building them).
@@ -487,7 +488,9 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
     I_mm = np.empty((R, n * n)) if need_I else None
     by_pattern = patterns.shape[0] <= _MAX_GROUPS
     packed = packed and by_pattern
-    I_sq = np.empty((R, n * (n + 1) // 2 if packed else n * n)) if with_square else None
+    one = patterns.shape[0] == 1
+    I_sq = (np.empty((R, n * (n + 1) // 2 if packed else n * n))
+            if with_square and not (packed and one) else None)
     i_up, l_up = np.triu_indices(n)
     full_index = _full_index(n)  # upper triangle to full matrix
     F_ss = np.empty((R, n * n)) if with_point_loads else None
