@@ -331,12 +331,18 @@ def _shear_reduction(c: _Rows) -> dict[str, np.ndarray]:
     for axis, V in (("z", c.Vz), ("y", c.Vy)):
         _, V_pl, ratio = _shear_parts(c, axis)
         out[f"V_pl_{axis}_Rd_N"] = V_pl
-        out[f"rho_{axis}"] = np.where(V == 0.0, 0.0, cs.rho_shear(V, V_pl))
+        idle = V == 0.0
+        out[f"rho_{axis}"] = (np.zeros((c.R, c.S)) if idle.all()  # e.g. no V_y in a plane frame
+                              else np.where(idle, 0.0, cs.rho_shear(V, V_pl)))
         slender |= (ratio > 1.0) & (V != 0.0)
     W_y = np.where(c.plastic, c.p("W_pl_y"), np.where(c.elastic, c.p("W_el_y"), np.nan))
     W_z = np.where(c.plastic, c.p("W_pl_z"), np.where(c.elastic, c.p("W_el_z"), np.nan))
-    A_w, W_w_y, W_w_z = cs.web_part(c.shape, c.p("h"), c.p("b"), c.p("t_w"), c.p("t_f"),
-                                    c.p("t"), c.plastic)
+    # the web part per row, plastic and elastic, then the class's one at each station
+    dims = (c.shape, c.p("h"), c.p("b"), c.p("t_w"), c.p("t_f"), c.p("t"))
+    A_w, W_w_y_pl, W_w_z_pl = cs.web_part(*dims, True)
+    _, W_w_y_el, W_w_z_el = cs.web_part(*dims, False)
+    W_w_y = np.where(c.plastic, W_w_y_pl, W_w_y_el)
+    W_w_z = np.where(c.plastic, W_w_z_pl, W_w_z_el)
     N_V, M_y_V, M_z_V = cs.reduced_for_shear(c.p("A"), W_y, W_z, A_w, W_w_y, W_w_z,
                                              out["rho_z"], out["rho_y"], c.f_y, gamma_M0=c.gM0)
     out.update(N_V_Rd_N=N_V, M_y_V_Rd_Nm=M_y_V, M_z_V_Rd_Nm=M_z_V, slender=slender,
