@@ -54,7 +54,12 @@ def _add(reason: np.ndarray, mask: np.ndarray, text: str | np.ndarray) -> None:
 def _nan_max(values: np.ndarray) -> np.ndarray:
     """Row-wise max ignoring NaN; NaN for an all-NaN row."""
     filled = np.where(np.isnan(values), -np.inf, values)
-    out = filled.max(axis=1) if values.shape[1] else np.full(values.shape[0], -np.inf)
+    if values.shape[1] == 0:
+        out = np.full(values.shape[0], -np.inf)
+    else:  # column by column: a handful of stations (max is exact in any order)
+        out = filled[:, 0].copy()
+        for k in range(1, values.shape[1]):
+            np.maximum(out, filled[:, k], out=out)
     return np.where(np.isinf(out), np.nan, out)
 
 

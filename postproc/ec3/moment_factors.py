@@ -57,6 +57,63 @@ _ROW_TEXTS = np.concatenate([np.array(["not readable", "B.3 linear, -1 <= psi <=
                                        "no moment, C_m = 1.0"], dtype=object), _ROWS_S, _ROWS_H])
 
 
+# Reductions along rows of a handful of stations, column by column: the same results as numpy's
+# reductions along axis 1 (max and logical or are exact, integer sums too, and a float sum of
+# fewer than eight numbers is added in order there as well), at a fraction of their cost on
+# rows this short.
+_FEW = 8
+
+
+def _row_max(a: np.ndarray) -> np.ndarray:
+    """a.max(axis=1)."""
+    if not 0 < a.shape[1] < _FEW:
+        return a.max(axis=1)
+    out = a[:, 0].copy()
+    for k in range(1, a.shape[1]):
+        np.maximum(out, a[:, k], out=out)
+    return out
+
+
+def _row_any(a: np.ndarray) -> np.ndarray:
+    """a.any(axis=1) of a boolean array."""
+    if not 0 < a.shape[1] < _FEW:
+        return a.any(axis=1)
+    out = a[:, 0].copy()
+    for k in range(1, a.shape[1]):
+        out |= a[:, k]
+    return out
+
+
+def _row_sum(a: np.ndarray) -> np.ndarray:
+    """a.sum(axis=1) (booleans counted as integers)."""
+    if not 0 < a.shape[1] < _FEW:
+        return a.sum(axis=1)
+    out = a[:, 0].astype(np.intp if a.dtype == bool else a.dtype)
+    for k in range(1, a.shape[1]):
+        out += a[:, k]
+    return out
+
+
+def _row_argmax(a: np.ndarray) -> np.ndarray:
+    """np.argmax(a, axis=1) of an array without NaN (the first of equal largest values)."""
+    if not 0 < a.shape[1] < _FEW:
+        return np.argmax(a, axis=1)
+    idx = np.zeros(a.shape[0], dtype=np.intp)
+    best = a[:, 0].copy()
+    for k in range(1, a.shape[1]):
+        idx[a[:, k] > best] = k
+        np.maximum(best, a[:, k], out=best)
+    return idx
+
+
+def _row_cumsum(a: np.ndarray) -> np.ndarray:
+    """np.cumsum(a, axis=1) (a running sum, added in order as numpy does)."""
+    out = a.copy()
+    for k in range(1, a.shape[1]):
+        out[:, k] += out[:, k - 1]
+    return out
+
+
 def _codes(values: np.ndarray, table: np.ndarray) -> np.ndarray:
     """Integer codes of text values in `table`; -1 for anything else."""
     values = np.asarray(values, dtype=object)
@@ -72,14 +129,14 @@ def _compact(x: np.ndarray, M: np.ndarray
     x = np.atleast_2d(np.asarray(x, dtype=float))
     M = np.atleast_2d(np.asarray(M, dtype=float))
     real = ~np.isnan(x)
-    bad = (real & np.isnan(M)).any(axis=1)  # a station without a moment: diagram incomplete
+    bad = _row_any(real & np.isnan(M))  # a station without a moment: diagram incomplete
     key = np.where(real, x, np.inf)
     xs, Ms = np.where(real, x, np.nan), np.where(real, M, np.nan)
     if not np.all(key[:, 1:] >= key[:, :-1]):  # rows usually arrive in order: then no sort
         order = np.argsort(key, axis=1, kind="stable")
         xs = np.take_along_axis(xs, order, axis=1)
         Ms = np.take_along_axis(Ms, order, axis=1)
-    n = real.sum(axis=1)
+    n = _row_sum(real)
     return xs, Ms, n, bad | (n < 2)
 
 
@@ -134,7 +191,7 @@ def _diagram_compact(xs: np.ndarray, Ms: np.ndarray, n: np.ndarray, bad: np.ndar
     rows = np.arange(R)
     M_a, M_b = Ms[:, 0], _last(Ms, n)
     x_a, x_b = xs[:, 0], _last(xs, n)
-    M_max = np.where(np.isnan(Ms), -np.inf, np.abs(Ms)).max(axis=1)
+    M_max = _row_max(np.where(np.isnan(Ms), -np.inf, np.abs(Ms)))
     M_max = np.where(bad, np.nan, M_max)
     scale = np.where(M_max > 0, M_max, 1.0)
 
@@ -148,7 +205,7 @@ def _diagram_compact(xs: np.ndarray, Ms: np.ndarray, n: np.ndarray, bad: np.ndar
         chord = M_a[:, None] + (M_b - M_a)[:, None] * (xs - x_a[:, None]) / span[:, None]
     dev = Ms - chord
     dev_abs = np.where(np.isnan(dev), -np.inf, np.abs(dev))
-    k_peak = np.argmax(dev_abs, axis=1)
+    k_peak = _row_argmax(dev_abs)
     dev_max = dev_abs[rows, k_peak]
     side = np.sign(dev[rows, k_peak])  # +1: span load pushes M up, -1: down
     linear = dev_max <= linear_tol * scale
@@ -156,7 +213,7 @@ def _diagram_compact(xs: np.ndarray, Ms: np.ndarray, n: np.ndarray, bad: np.ndar
 
     # Span moment: the moment furthest from the chord, or the interior peak on that side.
     signed = np.where(np.isnan(Ms), -np.inf, side[:, None] * Ms)
-    k_ext = np.argmax(signed, axis=1)
+    k_ext = _row_argmax(signed)
     interior_peak = (k_ext > 0) & (k_ext < n - 1) & (
         signed[rows, k_ext] > np.maximum(side * M_a, side * M_b) + linear_tol * scale)
     M_s = np.where(interior_peak, Ms[rows, k_ext], Ms[rows, k_peak])
@@ -200,7 +257,7 @@ def _span_load(xs: np.ndarray, Ms: np.ndarray, n: np.ndarray,
     for k in range(1, slope.shape[1]):
         filled[:, k] = np.where(real[:, k], slope[:, k], filled[:, k - 1])
     jump = np.abs(np.nan_to_num(np.diff(filled, axis=1), nan=0.0))
-    total = jump.sum(axis=1)
+    total = _row_sum(jump)
     if jump.shape[1] >= 2:
         # largest of the neighbouring pairs and of the single jumps, column by column (a few
         # columns: cheaper than reductions along rows this short)
@@ -211,7 +268,7 @@ def _span_load(xs: np.ndarray, Ms: np.ndarray, n: np.ndarray,
             np.maximum(pair, jump[:, k], out=pair)
     else:
         pair = jump.max(axis=1, initial=0.0)
-    n_interior = real.sum(axis=1) - 1  # distinct interior stations
+    n_interior = _row_sum(real) - 1  # distinct interior stations
     concentrated = pair >= concentrated_share * total
     out = np.where(concentrated, _L_CONCENTRATED, _L_DISTRIBUTED).astype(np.int8)
     out[n_interior < 3] = _L_UNDETERMINED
@@ -359,14 +416,14 @@ def _chord_deflection_compact(xs: np.ndarray, Ms: np.ndarray, n: np.ndarray, bad
         bulge = np.where(np.asarray(curved, dtype=bool)[:, None], mean, 0.0)
     # Rotation and deflection at each station: linear part plus the parabola's share.
     d_theta = dx * (k0 + k1) / 2 - bulge * dx ** 3 / 12
-    theta = np.concatenate([np.zeros((R, 1)), np.cumsum(d_theta, axis=1)], axis=1)
+    theta = np.concatenate([np.zeros((R, 1)), _row_cumsum(d_theta)], axis=1)
     d_w = theta[:, :-1] * dx + dx ** 2 * (2 * k0 + k1) / 6 - bulge * dx ** 4 / 24
-    w = np.concatenate([np.zeros((R, 1)), np.cumsum(d_w, axis=1)], axis=1)
+    w = np.concatenate([np.zeros((R, 1)), _row_cumsum(d_w)], axis=1)
     x_a, x_b = xs[:, :1], _last(xs, n)[:, None]
     w_b = _last(w, n)[:, None]
     with np.errstate(invalid="ignore", divide="ignore"):
         rel = w - w_b * (xs - x_a) / (x_b - x_a)
-    delta = np.max(np.where(np.isnan(xs), -np.inf, np.abs(rel)), axis=1)
+    delta = _row_max(np.where(np.isnan(xs), -np.inf, np.abs(rel)))
     return np.where(bad, np.nan, delta)
 
 
