@@ -52,8 +52,8 @@ def _member_class(rows: MemberRows) -> np.ndarray:
         return np.full(rows.n_rows, np.nan)
     cls = np.where(rows.valid, np.asarray(cls, float), np.nan)
     unknown = ((cls == 0) | np.isnan(cls)) & rows.valid
-    worst = np.max(np.where(np.isnan(cls), 0.0, cls), axis=1)
-    return np.where(unknown.any(axis=1) | (worst == 0), np.nan, worst)
+    worst = cm._row_max(np.where(np.isnan(cls), 0.0, cls))
+    return np.where(cm._row_any(unknown) | (worst == 0), np.nan, worst)
 
 
 def _info(rows: MemberRows, key: str, default: float) -> np.ndarray:
@@ -340,8 +340,8 @@ def lateral_torsional_checks(rows: MemberRows) -> list[CheckBlock]:
     b = _buckling(rows)
     st = rows.settings
     My = np.where(rows.valid, rows.My, 0.0)
-    nan_force = (np.isnan(rows.My) & rows.valid).any(axis=1)
-    bent = (np.abs(np.nan_to_num(My)) > 0).any(axis=1) | nan_force
+    nan_force = cm._row_any(np.isnan(rows.My) & rows.valid)
+    bent = cm._row_any(np.abs(np.nan_to_num(My)) > 0) | nan_force
     applies = bent & np.asarray(b["ltb_susceptible"], bool)
     reason = np.asarray(b.get("reason_LT", b["reason"]), dtype=object).copy()
     _add(reason, nan_force, "bending moment M_y not known at some station")
