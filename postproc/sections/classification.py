@@ -336,25 +336,31 @@ def section_class(section: dict[str, np.ndarray], f_y: np.ndarray, N_Ed: np.ndar
     by_row = len(out_shape) == 2 and shape_arr.shape == (out_shape[0], 1)
 
     def only(sel: Array, arr: Array) -> Array:
-        """The elements of `arr` (broadcast to the output) where `sel` holds: whole rows when
-        `sel` selects rows, otherwise a flat array."""
+        """The elements of `arr` (broadcast to the output) where `sel` holds: whole rows (sel
+        holds row numbers) when the shape varies by row, otherwise a flat array."""
         if by_row:
             if arr.ndim == 2 and arr.shape[0] == out_shape[0]:
-                return arr[sel]
+                return np.take(arr, sel, axis=0)  # much faster than arr[sel] for many rows
             if arr.ndim < 2 or arr.shape[0] == 1:
                 return arr
         return np.broadcast_to(arr, out_shape)[sel]
 
-    def put(target: Array, sel: Array, values: Array | int) -> None:
+    def put(target: Array, at: Array, values: Array | int) -> None:
+        """target[sel] = values, through flat positions `at` when whole rows are set."""
         if by_row:
-            target[sel] = np.broadcast_to(values, (int(sel.sum()), out_shape[1]))
+            target.reshape(-1)[at] = np.broadcast_to(values, (len(at) // out_shape[1],
+                                                              out_shape[1])).reshape(-1)
         else:
-            target[sel] = values
+            target[at] = values
 
     # each shape is classified on its own elements only (every operation is elementwise)
     for kind in ("I", "RHS", "CHS"):
-        sel = shape_arr[:, 0] == kind if by_row else np.broadcast_to(shape_arr == kind, out_shape)
-        if not sel.any():
+        if by_row:
+            sel = np.flatnonzero(shape_arr[:, 0] == kind)
+            at = (sel[:, None] * out_shape[1] + np.arange(out_shape[1])).reshape(-1)
+        else:
+            sel = at = np.broadcast_to(shape_arr == kind, out_shape)
+        if not (sel.size if by_row else sel.any()):
             continue
         sub = {k: only(sel, v) for k, v in s.items()}
         f_y_s = only(sel, f_y)
@@ -363,14 +369,14 @@ def section_class(section: dict[str, np.ndarray], f_y: np.ndarray, N_Ed: np.ndar
             if kind == "I":
                 web, flange = _i_classes(*args)
                 worst, _, flange_governs = _worse(web, flange)
-                put(cls, sel, worst)
-                put(part, sel, np.where(flange_governs, _FLANGE, _WEB))
+                put(cls, at, worst)
+                put(part, at, np.where(flange_governs, _FLANGE, _WEB))
             elif kind == "RHS":
-                put(cls, sel, _rhs_classes(*args)[0])
-                put(part, sel, _WALL)
+                put(cls, at, _rhs_classes(*args)[0])
+                put(part, at, _WALL)
             else:
-                put(cls, sel, _chs_class(*args))
-                put(part, sel, _WALL)
+                put(cls, at, _chs_class(*args))
+                put(part, at, _WALL)
 
     given = np.broadcast_to(s["given_class"], out_shape)
     has_given = ~np.isnan(given)

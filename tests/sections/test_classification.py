@@ -323,3 +323,27 @@ def test_rhs_walls_compression_and_bending(ratio, expected):
     # elastic: sigma_bend = 3 N_c / A gives psi = -0.5, class 3 limit 83.2, far above these ratios
     My = 3 * N_c / sec["A"][0] * sec["I_y"][0] / (c / 2)
     assert classify(sec, N=-N_c, My=My) == (expected, "wall")
+
+
+def test_rows_of_mixed_shapes_match_one_row_at_a_time() -> None:
+    """Rows of several shapes against stations (section (R, 1), forces (R, S)), the CHS on the
+    first row only, give what each row gives on its own."""
+    table = build_sections(pd.DataFrame({
+        "section": ["IPE 300", "SHS 150x150x5", "CHS 168.3x8", "HEA 200"],
+        "designation": ["IPE 300", "SHS 150x150x5", "CHS 168.3x8", "HEA 200"]}))
+    order = ["CHS 168.3x8", "IPE 300", "SHS 150x150x5", "SHS 150x150x5", "HEA 200",
+             "SHS 150x150x5"]
+    rows = table.loc[order]
+    section = {k: rows[k].to_numpy()[:, None] for k in rows.columns}
+    f_y = np.full((len(order), 1), 355e6)
+    rng = np.random.default_rng(3)
+    N = rng.uniform(-2e6, 5e5, (len(order), 4))
+    My = rng.uniform(-2e5, 2e5, (len(order), 4))
+    Mz = rng.uniform(-2e4, 2e4, (len(order), 4)) * (rng.random((len(order), 1)) > 0.5)
+    cls, part = section_class(section, f_y, N, My, Mz)
+    assert cls.shape == part.shape == N.shape
+    for i in range(len(order)):
+        one = {k: v[i] for k, v in section.items()}
+        cls_i, part_i = section_class(one, f_y[i], N[i], My[i], Mz[i])
+        np.testing.assert_array_equal(cls[i], cls_i)
+        assert list(part[i]) == list(part_i)
