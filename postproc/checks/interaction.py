@@ -116,6 +116,8 @@ def _common(rows: MemberRows) -> dict:
     res = annex_b.resistances_table_6_7(cls, rows.f_y, sec["A"], sec["W_pl_y"], sec["W_pl_z"],
                                         sec["W_el_y"], sec["W_el_z"])
     x_seg, seg_note = _ltb_segment_moments(rows, b)
+    # each member diagram read once, for both annexes
+    diagrams = {"y": mf.read_diagram(rows.x, rows.My), "z": mf.read_diagram(rows.x, rows.Mz)}
 
     reason = no_reason(R)
     # The reasons of the values used here: flexural buckling about both axes and LTB where the
@@ -137,7 +139,7 @@ def _common(rows: MemberRows) -> dict:
     beyond = d["N_Ed"] >= N_cr_min
     return {"b": b, "d": d, "sec": sec, "cls": cls, "twist": twist, "ltb": ltb, "chi_LT": chi_LT,
             "res": res, "x_seg": x_seg, "seg_note": seg_note, "reason": reason,
-            "beyond": beyond, "N_cr_min": N_cr_min}
+            "beyond": beyond, "N_cr_min": N_cr_min, "diagrams": diagrams}
 
 
 def _finish(rows: MemberRows, c: dict, eq: dict[str, np.ndarray], label: str, clause: str,
@@ -195,8 +197,10 @@ def _diagram_values(tag: str, shape: dict[str, np.ndarray]) -> dict[str, np.ndar
 def _annex_b_blocks(rows: MemberRows, c: dict, suffix: str) -> list[CheckBlock]:
     d, b = c["d"], c["b"]
     R = rows.n_rows
-    f_y = mf.C_m_annex_b(rows.x, rows.My, sway=rows.info.get("sway_y"))
-    f_z = mf.C_m_annex_b(rows.x, rows.Mz, sway=rows.info.get("sway_z"))
+    f_y = mf.C_m_annex_b(rows.x, rows.My, sway=rows.info.get("sway_y"),
+                         diagram=c["diagrams"]["y"])
+    f_z = mf.C_m_annex_b(rows.x, rows.Mz, sway=rows.info.get("sway_z"),
+                         diagram=c["diagrams"]["z"])
     f_LT = mf.C_m_annex_b(c["x_seg"], rows.My, sway=np.zeros(R, dtype=bool))
     g = rows.settings.gamma_M1
     chi_y, chi_z = np.asarray(b["chi_y"], float), np.asarray(b["chi_z"], float)
@@ -232,9 +236,9 @@ def _annex_a_blocks(rows: MemberRows, c: dict, suffix: str) -> list[CheckBlock]:
     N_cr_z = np.asarray(b["N_cr_z_N"], float)
     N_cr_T = np.asarray(b["N_cr_T_N"], float)
     f_y0 = mf.C_mi_0_annex_a(rows.x, rows.My, E=rows.E, I_i=sec["I_y"], L=rows.length,
-                             N_Ed=N_Ed, N_cr_i=N_cr_y)
+                             N_Ed=N_Ed, N_cr_i=N_cr_y, diagram=c["diagrams"]["y"])
     f_z0 = mf.C_mi_0_annex_a(rows.x, rows.Mz, E=rows.E, I_i=sec["I_z"], L=rows.length,
-                             N_Ed=N_Ed, N_cr_i=N_cr_z)
+                             N_Ed=N_Ed, N_cr_i=N_cr_z, diagram=c["diagrams"]["z"])
     plastic = (cls == 1) | (cls == 2)
     W_y = np.where(plastic, sec["W_pl_y"], sec["W_el_y"])
     twist = c["twist"]

@@ -341,8 +341,15 @@ def sway_flags(sway: np.ndarray | None, n: int) -> tuple[np.ndarray, np.ndarray]
     return known, flag
 
 
+def read_diagram(x: np.ndarray, M: np.ndarray, **shape_options: float) -> tuple:
+    """A moment diagram read once (stations in order, shape and span load as codes), to pass as
+    `diagram=` to `C_m_annex_b` and `C_mi_0_annex_a` when both need the same diagram."""
+    compact = _compact(x, M)
+    return compact, _diagram_compact(*compact, **shape_options)
+
+
 def C_m_annex_b(x: np.ndarray, M: np.ndarray, *, sway: np.ndarray | None = None,
-                **shape_options: float) -> dict[str, np.ndarray]:
+                diagram: tuple | None = None, **shape_options: float) -> dict[str, np.ndarray]:
     """EN 1993-1-1:2005, Annex B, Table B.3.
 
     C_my, C_mz or C_mLT from a sampled moment diagram.
@@ -352,13 +359,14 @@ def C_m_annex_b(x: np.ndarray, M: np.ndarray, *, sway: np.ndarray | None = None,
         sway: (R,) flags, True where the member buckles about this axis in a sway mode (then
             C_m = 0.9, Table B.3 note); NaN or None entries (or sway=None) where not known: the
             larger of 0.9 and the non-sway factor is used. For C_mLT (no sway rule) pass all False.
+        diagram: `read_diagram(x, M, **shape_options)` when it is at hand (else read here).
         shape_options: passed to `diagram_shape`.
 
     Returns:
         the `diagram_shape` dict plus 'C_m_non_sway', 'C_m', 'C_m_row' (object) and 'sway'
         (object: 'sway', 'non-sway' or 'not known').
     """
-    coded = _diagram(x, M, **shape_options)
+    coded = (diagram or read_diagram(x, M, **shape_options))[1]
     C, row = _table_b3(coded["psi"], coded["alpha_s"], coded["alpha_h"], coded["shape_code"],
                        coded["load_code"])
     shape = _with_texts(coded)
@@ -453,7 +461,8 @@ def C_mi_0_general(delta_x: np.ndarray, M_i_Ed: np.ndarray, E: np.ndarray, I_i: 
 
 def C_mi_0_annex_a(x: np.ndarray, M: np.ndarray, *, E: np.ndarray, I_i: np.ndarray,
                    L: np.ndarray, N_Ed: np.ndarray, N_cr_i: np.ndarray,
-                   **shape_options: float) -> dict[str, np.ndarray]:
+                   diagram: tuple | None = None, **shape_options: float
+                   ) -> dict[str, np.ndarray]:
     """EN 1993-1-1:2005, Annex A, Table A.2.
 
     C_my,0 or C_mz,0 from a sampled moment diagram.
@@ -463,11 +472,13 @@ def C_mi_0_annex_a(x: np.ndarray, M: np.ndarray, *, E: np.ndarray, I_i: np.ndarr
     as concentrated). A diagram with no moment takes psi = 1 (the end-moment
     row with equal end moments).
 
+    `diagram` may pass `read_diagram(x, M, **shape_options)` when it is at hand.
+
     Returns:
         the `diagram_shape` dict plus 'C_m0', 'C_m0_row' (object) and 'delta_x_m'.
     """
-    compact = _compact(x, M)  # once for the diagram and the deflection
-    coded = _diagram_compact(*compact, **shape_options)
+    # read once for the shape and the deflection
+    compact, coded = diagram or read_diagram(x, M, **shape_options)
     shape = _with_texts(coded)
     E, I_i = np.asarray(E, dtype=float), np.asarray(I_i, dtype=float)
     delta = _chord_deflection_compact(*compact, E * I_i,
