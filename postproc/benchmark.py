@@ -11,7 +11,8 @@ station and the member buckling values, every check family, and keeping what a l
 the governing utilisation (float64) and status (int8) of every row and check. No chunk's
 intermediate values outlive the chunk, so memory does not grow with the full set of values. Not
 timed: making the synthetic model, writing the CSV, and the results table (one long DataFrame of
-every intermediate value, which the normal run builds through `run_checks`).
+every intermediate value, which a normal run builds with `postproc.checker.run_checks` and
+`results_table`).
 Printed per stage: member rows (main thread), then, summed over the worker threads (a thread per
 core, so with two cores they add up to more than the wall time): section class per station with
 the member buckling values, each check family, and keeping the utilisation and status (worked
