@@ -485,6 +485,7 @@ def _torsion(c: _Rows) -> CheckBlock:
     nan_T = c.nan_at(c.T)
     reason = _reasons(util, [(nan_T, NAN_FORCE), (open_felt, TORSION)])
     applies = c.any_(felt) | c.any_(nan_T)
+
     def worst() -> np.ndarray:  # where a NaN row is reported: its largest |T_Ed|, NaN first
         return np.argmax(np.where(c.valid, np.nan_to_num(np.abs(c.T), nan=np.inf), -1.0), axis=1)
 
