@@ -11,6 +11,8 @@ from dataclasses import dataclass, field, fields
 
 import numpy as np
 
+from ..row_reductions import row_any
+
 from ..settings import DesignSettings
 
 PASS, FAIL, NOT_EVALUATED = "pass", "fail", "not evaluated"
@@ -104,17 +106,6 @@ class CheckBlock:
         over = evaluated & (np.nan_to_num(self.utilisation, nan=0.0) > limit)
         return np.where(~evaluated, NOT_EVALUATED, np.where(over, FAIL, PASS)).astype(object)
 
-
-def row_any(mask: np.ndarray) -> np.ndarray:
-    """(R,) True where any station of an (R, S) boolean array is True. The same as
-    mask.any(axis=1), station by station: numpy reduces a short last axis slowly."""
-    mask = np.asarray(mask, dtype=bool)
-    if mask.ndim != 2 or mask.shape[1] > 16 or mask.shape[1] == 0:
-        return mask.any(axis=-1)
-    out = mask[:, 0].copy()
-    for j in range(1, mask.shape[1]):
-        out |= mask[:, j]
-    return out
 
 
 def governing(utilisation: np.ndarray, x: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:

@@ -37,6 +37,11 @@ from __future__ import annotations
 
 import numpy as np
 
+from ..row_reductions import row_all as _row_all
+from ..row_reductions import row_any as _row_any
+from ..row_reductions import row_max as _row_max
+from ..row_reductions import row_sum as _row_count
+
 N_TERMS = 8  # sine terms per field: within about 1 % of 24 terms (see the tests)
 _MAX_GROUPS = 64  # beyond this many station patterns, integrate row by row instead
 _ROWS_PER_BLOCK = 65536  # rows per block of M_cr
@@ -44,50 +49,10 @@ _BLOCK = 16384  # rows per block of the power iteration (fits in cache)
 _SERIAL_PRODUCT = 1 << 18  # m * n * k up to which the BLAS keeps a matrix product on one thread
 
 
-# Reductions along rows of a handful of stations, column by column: the same results as numpy's
-# reductions along axis 1 (max, and, or and integer counts are exact in any order), at a
-# fraction of their cost on rows this short.
-_FEW = 8
 
 
-def _row_max(a: np.ndarray) -> np.ndarray:
-    """a.max(axis=1)."""
-    if not 0 < a.shape[1] < _FEW:
-        return a.max(axis=1)
-    out = a[:, 0].copy()
-    for k in range(1, a.shape[1]):
-        np.maximum(out, a[:, k], out=out)
-    return out
 
 
-def _row_any(a: np.ndarray) -> np.ndarray:
-    """a.any(axis=1) of a boolean array."""
-    if not 0 < a.shape[1] < _FEW:
-        return a.any(axis=1)
-    out = a[:, 0].copy()
-    for k in range(1, a.shape[1]):
-        out |= a[:, k]
-    return out
-
-
-def _row_all(a: np.ndarray) -> np.ndarray:
-    """a.all(axis=1) of a boolean array."""
-    if not 0 < a.shape[1] < _FEW:
-        return a.all(axis=1)
-    out = a[:, 0].copy()
-    for k in range(1, a.shape[1]):
-        out &= a[:, k]
-    return out
-
-
-def _row_count(a: np.ndarray) -> np.ndarray:
-    """a.sum(axis=1) of a boolean array."""
-    if not 0 < a.shape[1] < _FEW:
-        return a.sum(axis=1)
-    out = a[:, 0].astype(np.intp)
-    for k in range(1, a.shape[1]):
-        out += a[:, k]
-    return out
 
 
 def M_cr_0(L: np.ndarray, E: np.ndarray, G: np.ndarray, I_z: np.ndarray, I_t: np.ndarray,

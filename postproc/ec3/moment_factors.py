@@ -26,6 +26,12 @@ from __future__ import annotations
 import numpy as np
 import pandas as pd
 
+from ..row_reductions import row_any as _row_any
+from ..row_reductions import row_argmax as _row_argmax
+from ..row_reductions import row_cumsum as _row_cumsum
+from ..row_reductions import row_max as _row_max
+from ..row_reductions import row_sum as _row_sum
+
 LINEAR, SPAN_SMALLER, SPAN_LARGER, NO_MOMENT, INVALID = (
     "linear", "span moment smaller than end moment", "span moment larger than end moment",
     "no moment", "diagram not readable")
@@ -57,61 +63,11 @@ _ROW_TEXTS = np.concatenate([np.array(["not readable", "B.3 linear, -1 <= psi <=
                                        "no moment, C_m = 1.0"], dtype=object), _ROWS_S, _ROWS_H])
 
 
-# Reductions along rows of a handful of stations, column by column: the same results as numpy's
-# reductions along axis 1 (max and logical or are exact, integer sums too, and a float sum of
-# fewer than eight numbers is added in order there as well), at a fraction of their cost on
-# rows this short.
-_FEW = 8
 
 
-def _row_max(a: np.ndarray) -> np.ndarray:
-    """a.max(axis=1)."""
-    if not 0 < a.shape[1] < _FEW:
-        return a.max(axis=1)
-    out = a[:, 0].copy()
-    for k in range(1, a.shape[1]):
-        np.maximum(out, a[:, k], out=out)
-    return out
 
 
-def _row_any(a: np.ndarray) -> np.ndarray:
-    """a.any(axis=1) of a boolean array."""
-    if not 0 < a.shape[1] < _FEW:
-        return a.any(axis=1)
-    out = a[:, 0].copy()
-    for k in range(1, a.shape[1]):
-        out |= a[:, k]
-    return out
 
-
-def _row_sum(a: np.ndarray) -> np.ndarray:
-    """a.sum(axis=1) (booleans counted as integers)."""
-    if not 0 < a.shape[1] < _FEW:
-        return a.sum(axis=1)
-    out = a[:, 0].astype(np.intp if a.dtype == bool else a.dtype)
-    for k in range(1, a.shape[1]):
-        out += a[:, k]
-    return out
-
-
-def _row_argmax(a: np.ndarray) -> np.ndarray:
-    """np.argmax(a, axis=1) of an array without NaN (the first of equal largest values)."""
-    if not 0 < a.shape[1] < _FEW:
-        return np.argmax(a, axis=1)
-    idx = np.zeros(a.shape[0], dtype=np.intp)
-    best = a[:, 0].copy()
-    for k in range(1, a.shape[1]):
-        idx[a[:, k] > best] = k
-        np.maximum(best, a[:, k], out=best)
-    return idx
-
-
-def _row_cumsum(a: np.ndarray) -> np.ndarray:
-    """np.cumsum(a, axis=1) (a running sum, added in order as numpy does)."""
-    out = a.copy()
-    for k in range(1, a.shape[1]):
-        out[:, k] += out[:, k - 1]
-    return out
 
 
 def _codes(values: np.ndarray, table: np.ndarray) -> np.ndarray:
