@@ -1,4 +1,8 @@
-"""End to end: the command line on the bundled CSV example and on broken copies of it."""
+"""End to end: the command line on the bundled CSV example and on broken copies of it.
+
+No outside value is compared here: the source of every expected number is the run's own
+utilisation table (the summary must be a view of it, never a second computation).
+"""
 
 from __future__ import annotations
 
