@@ -106,6 +106,7 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
     rows, blocks = run_checks(rows, families or CHECK_FAMILIES, overrides=overrides)
     table = results_table(rows, blocks, settings.utilisation_limit)
     table = _mark_unusable_combinations(table, per_combination, combos, members)
+    table = _explain_missing_lengths(table, lengths)
     if "path" in per_combination and len(table):
         # the analysis path of 5.2.1/5.2.2 that each row's forces went through
         position = list(table.columns).index("reason") + 1
@@ -193,6 +194,29 @@ def run_checks(rows: MemberRows, families: list[CheckFamily], *,
     joined_rows = rows_concat([p for p, _ in parts])
     blocks = [block_concat([p[1][k] for p in parts]) for k in range(len(parts[0][1]))]
     return joined_rows, blocks
+
+
+MISSING_LENGTH_ORIGIN = {"L_cr,y not known": "origin_y", "L_cr,z not known": "origin_z",
+                         "L_LT not known": "origin_LT", "L_cr,T not known": "origin_T"}
+
+
+def _explain_missing_lengths(table: pd.DataFrame, lengths: pd.DataFrame) -> pd.DataFrame:
+    """Where a check stops on an unknown length, add why the graph layer could not find it
+    (e.g. no restraint at a member end) so the user knows which override to give."""
+    if not len(table) or lengths is None or not len(lengths):
+        return table
+    reason = table["reason"].astype(str)
+    for marker, origin in MISSING_LENGTH_ORIGIN.items():
+        hit = reason.str.contains(marker, regex=False).to_numpy()
+        if not hit.any() or origin not in lengths:
+            continue
+        why = (table.loc[hit, ["member", "combination"]]
+               .merge(lengths[["member", "combination", origin]], how="left",
+                      on=["member", "combination"])[origin].fillna("").astype(str).to_numpy())
+        extra = np.where(why != "", " (" + why + ")", "")
+        table.loc[hit, "reason"] = (reason[hit].to_numpy() + extra).astype(object)
+        reason = table["reason"].astype(str)
+    return table
 
 
 def _length_overrides(overrides: pd.DataFrame | None) -> pd.DataFrame | None:
