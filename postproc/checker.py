@@ -92,6 +92,13 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
     uls = combos.index[(combos["kind"] == "ULS") & (combos["status"] == "ok")]
     forces = results.forces[results.forces["combination"].isin(uls)]
     uls_results = replace(results, forces=forces, combinations=combos.loc[uls])
+    if forces.empty:  # nothing to check: every member is reported, none passes
+        table = _mark_unusable_combinations(pd.DataFrame(columns=KEY_COLUMNS), pd.DataFrame(),
+                                            combos, members)
+        return CheckOutcome(table=_mark_unchecked_members(table, members), members=members,
+                            stability=pd.DataFrame(index=pd.Index([], name="combination")),
+                            lengths=pd.DataFrame(columns=["member", "combination"]),
+                            settings=settings, combinations=combos)
 
     alpha = stability.critical_load_factors(frame, uls_results, members)
     paths = stability.analysis_path(alpha, uls_results.combinations)
@@ -107,6 +114,7 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
     table = results_table(rows, blocks, settings.utilisation_limit)
     table = _mark_unusable_combinations(table, per_combination, combos, members)
     table = _explain_missing_lengths(table, lengths)
+    table = _mark_unchecked_members(table, members)
     if "path" in per_combination and len(table):
         # the analysis path of 5.2.1/5.2.2 that each row's forces went through
         position = list(table.columns).index("reason") + 1
@@ -194,6 +202,20 @@ def run_checks(rows: MemberRows, families: list[CheckFamily], *,
     joined_rows = rows_concat([p for p, _ in parts])
     blocks = [block_concat([p[1][k] for p in parts]) for k in range(len(parts[0][1]))]
     return joined_rows, blocks
+
+
+def _mark_unchecked_members(table: pd.DataFrame, members: Members) -> pd.DataFrame:
+    """A member with no checked combination at all (no ULS forces, every analysis failed) gets a
+    row of its own, not evaluated, so a run that checked nothing can never look like a pass."""
+    checked = set(table["member"]) if len(table) else set()
+    missing = [m for m in members.members.index if m not in checked]
+    if not missing:
+        return table
+    extra = pd.DataFrame({"member": missing, "combination": "", "check": "forces",
+                          "clause": "6.1", "x_m": np.nan, "utilisation": np.nan,
+                          "status": NOT_EVALUATED,
+                          "reason": "no ULS combination with forces for this member"})
+    return pd.concat([table, extra], ignore_index=True, sort=False) if len(table) else extra
 
 
 MISSING_LENGTH_ORIGIN = {"L_cr,y not known": "origin_y", "L_cr,z not known": "origin_z",

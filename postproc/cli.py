@@ -79,7 +79,8 @@ def _run(project: Path, out: Path, *, quiet: bool) -> int:
         stability = outcome.stability.reset_index()
         columns = [c for c in ("combination", "alpha_cr", "sway_mode", "path") if c in stability]
         print(f"\nFrame stability per combination (EN 1993-1-1 5.2.1, 5.2.2):")
-        print(stability[columns].to_string(index=False, float_format=lambda v: f"{v:.2f}"))
+        print(stability[columns].to_string(index=False, float_format=lambda v: f"{v:.2f}")
+              if len(stability) else "  none: no ULS combination with forces")
         print()
         for name, what in OUTPUT_FILES.items():
             print(f"  {out / name}: {what}")

@@ -54,3 +54,12 @@ def test_second_order_needed_marks_every_row_of_that_combination() -> None:
     assert rows["reason"].str.contains("alpha_cr").all()
     others = outcome.table[outcome.table["combination"] != target]
     assert (others["status"] != "not evaluated").any()
+
+
+def test_a_run_without_uls_forces_is_not_a_pass() -> None:
+    project, frame, results = _demo()
+    combos = results.combinations.assign(kind="SLS")
+    outcome = _check(project, frame, replace(results, combinations=combos))
+    assert len(outcome.table) == len(outcome.members.members)
+    assert (outcome.table["status"] == "not evaluated").all()
+    assert outcome.exit_code == 3
