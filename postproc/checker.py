@@ -114,7 +114,7 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
     table = results_table(rows, blocks, settings.utilisation_limit)
     table = _mark_unusable_combinations(table, per_combination, combos, members)
     table = _explain_missing_lengths(table, lengths)
-    table = _mark_unchecked_members(table, members)
+    table = _mark_unchecked_members(table, members, set(rows.member))
     if "path" in per_combination and len(table):
         # the analysis path of 5.2.1/5.2.2 that each row's forces went through
         position = list(table.columns).index("reason") + 1
@@ -204,17 +204,24 @@ def run_checks(rows: MemberRows, families: list[CheckFamily], *,
     return joined_rows, blocks
 
 
-def _mark_unchecked_members(table: pd.DataFrame, members: Members) -> pd.DataFrame:
-    """A member with no checked combination at all (no ULS forces, every analysis failed) gets a
-    row of its own, not evaluated, so a run that checked nothing can never look like a pass."""
+def _mark_unchecked_members(table: pd.DataFrame, members: Members,
+                            with_forces: set | None = None) -> pd.DataFrame:
+    """Every member appears in the table. A member with no ULS forces at all (no combination,
+    every analysis failed) gets a not-evaluated row, so a run that checked nothing can never look
+    like a pass; a member whose forces are zero everywhere gets a 'no internal forces' row with
+    utilisation 0."""
     checked = set(table["member"]) if len(table) else set()
     missing = [m for m in members.members.index if m not in checked]
     if not missing:
         return table
-    extra = pd.DataFrame({"member": missing, "combination": "", "check": "forces",
-                          "clause": "6.1", "x_m": np.nan, "utilisation": np.nan,
-                          "status": NOT_EVALUATED,
-                          "reason": "no ULS combination with forces for this member"})
+    loaded = np.array([with_forces is not None and m in with_forces for m in missing])
+    extra = pd.DataFrame({
+        "member": missing, "combination": "", "check": np.where(loaded, "no internal forces",
+                                                                "forces"),
+        "clause": "6.1", "x_m": np.nan, "utilisation": np.where(loaded, 0.0, np.nan),
+        "status": np.where(loaded, PASS, NOT_EVALUATED).astype(object),
+        "reason": np.where(loaded, "", "no ULS combination with forces for this member"
+                           ).astype(object)})
     return pd.concat([table, extra], ignore_index=True, sort=False) if len(table) else extra
 
 

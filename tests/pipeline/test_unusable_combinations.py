@@ -63,3 +63,14 @@ def test_a_run_without_uls_forces_is_not_a_pass() -> None:
     assert len(outcome.table) == len(outcome.members.members)
     assert (outcome.table["status"] == "not evaluated").all()
     assert outcome.exit_code == 3
+
+
+def test_a_member_without_internal_forces_is_listed_with_zero_utilisation() -> None:
+    project, frame, results = _demo()
+    forces = results.forces.copy()
+    cols = ["N_N", "Vy_N", "Vz_N", "T_Nm", "My_Nm", "Mz_Nm"]
+    forces.loc[forces["element"] == "C12", cols] = 0.0
+    outcome = _check(project, frame, replace(results, forces=forces))
+    rows = outcome.table[outcome.table["member"] == "C12"]
+    assert list(rows["check"]) == ["no internal forces"]
+    assert rows["utilisation"].iloc[0] == 0.0 and rows["status"].iloc[0] == "pass"
