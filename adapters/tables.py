@@ -10,6 +10,7 @@ from __future__ import annotations
 
 import re
 from pathlib import Path
+from typing import Callable
 
 import numpy as np
 import pandas as pd
@@ -60,6 +61,19 @@ class Table:
         # data row k (0-based) sits on spreadsheet row k + 2 (the header is row 1)
         self.rows = np.arange(len(raw)) + 2
 
+    def refuse(self, mask, field: str, message: Callable[[int], str]) -> None:
+        """Raise InputError at the first row where `mask` holds, naming file, row and field."""
+        mask = np.asarray(mask, dtype=bool)
+        if mask.any():
+            k = int(mask.argmax())
+            raise InputError(message(k), file=self.name, row=int(self.rows[k]), field=field)
+
+    def refuse_unknown(self, values: pd.Series, known, field: str, what: str) -> None:
+        """Refuse the first value that is not among `known` ("unknown node 'N9'")."""
+        values = pd.Series(np.asarray(values, dtype=object))
+        self.refuse(~values.isin(known).to_numpy(), field,
+                    lambda k: f"unknown {what} {values.iloc[k]!r}")
+
     def require(self, *columns: str) -> None:
         for column in columns:
             if column not in self.frame.columns:
@@ -94,10 +108,7 @@ class Table:
         empty = (text == "").to_numpy()
         bad = np.isnan(values) & ~empty if not required else np.isnan(values)
         bad |= np.isinf(values)
-        if bad.any():
-            k = int(bad.argmax())
-            raise InputError(f"not a number: {text.iloc[k]!r}", file=self.name,
-                             row=int(self.rows[k]), field=column)
+        self.refuse(bad, column, lambda k: f"not a number: {text.iloc[k]!r}")
         values = np.where(empty, default, values)
         if kind is not None:
             unit = self.column_units.get(column) or self.units[kind]
@@ -106,11 +117,7 @@ class Table:
 
     def unique_ids(self, column: str) -> pd.Series:
         ids = self.text(column)
-        dup = ids.duplicated()
-        if dup.any():
-            k = int(dup.to_numpy().argmax())
-            raise InputError(f"duplicate id {ids.iloc[k]!r}", file=self.name, row=int(self.rows[k]),
-                             field=column)
+        self.refuse(ids.duplicated().to_numpy(), column, lambda k: f"duplicate id {ids.iloc[k]!r}")
         return ids
 
 
@@ -133,7 +140,8 @@ def load(project, project_path: Path | None = None) -> tuple[Frame, Results]:
         factor(kind, unit, file=str(project.path), field=f"model.units.{kind}")
     ndm = int(model.get("ndm", 2))
     if ndm not in (2, 3):
-        raise InputError(f"ndm must be 2 or 3, got {ndm}", file=str(project.path), field="model.ndm")
+        raise InputError(f"ndm must be 2 or 3, got {ndm}", file=str(project.path),
+                         field="model.ndm")
     files = {key: folder / model.get(key, default) for key, default in FILES.items()}
     default_grade = project.settings.default_grade
 
@@ -149,7 +157,8 @@ def load(project, project_path: Path | None = None) -> tuple[Frame, Results]:
                          field="model.imperfections_in_forces")
     results = _results(files, units, frame, project)
     combos = results.combinations.copy()
-    given = combos["imperfections"] if "imperfections" in combos else pd.Series(np.nan, combos.index)
+    given = (combos["imperfections"] if "imperfections" in combos
+             else pd.Series(np.nan, combos.index))
     combos["imperfections"] = given.fillna(float(imperfections)).astype(bool)
     results = Results(forces=results.forces, combinations=combos[COMBINATION_COLUMNS],
                       displacements=results.displacements)
@@ -177,29 +186,18 @@ def _elements(table: Table, nodes: pd.DataFrame, sections: pd.DataFrame,
     ids = table.unique_ids("element")
     node_i, node_j = table.text("node_i"), table.text("node_j")
     for column, ends in (("node_i", node_i), ("node_j", node_j)):
-        unknown = ~ends.isin(nodes.index)
-        if unknown.any():
-            k = int(unknown.to_numpy().argmax())
-            raise InputError(f"unknown node {ends.iloc[k]!r}", file=table.name,
-                             row=int(table.rows[k]), field=column)
+        table.refuse_unknown(ends, nodes.index, column, "node")
     section = table.text("section")
-    unknown = ~section.isin(sections.index)
-    if unknown.any():
-        k = int(unknown.to_numpy().argmax())
-        raise InputError(f"unknown section {section.iloc[k]!r} (not in the sections table)",
-                         file=table.name, row=int(table.rows[k]), field="section")
+    table.refuse(~section.isin(sections.index).to_numpy(), "section",
+                 lambda k: f"unknown section {section.iloc[k]!r} (not in the sections table)")
     grade = table.text("grade", required=False).replace("", default_grade)
     for k, name in enumerate(grade.unique()):
         first = int((grade == name).to_numpy().argmax())
         materials.grade_name(name, file=table.name, row=int(table.rows[first]), field="grade")
     xyz = nodes[["x_m", "y_m", "z_m"]]
     length = np.linalg.norm(xyz.loc[node_j].to_numpy() - xyz.loc[node_i].to_numpy(), axis=1)
-    short = length < 1e-6
-    if short.any():
-        k = int(short.argmax())
-        raise InputError(f"zero-length element: both ends at the same point "
-                         f"({node_i.iloc[k]}, {node_j.iloc[k]})", file=table.name,
-                         row=int(table.rows[k]), field="node_j")
+    table.refuse(length < 1e-6, "node_j", lambda k: "zero-length element: both ends at the same "
+                 f"point ({node_i.iloc[k]}, {node_j.iloc[k]})")
     elements = pd.DataFrame({
         "node_i": node_i.to_numpy(), "node_j": node_j.to_numpy(), "section": section.to_numpy(),
         "grade": grade.to_numpy(),
@@ -217,11 +215,7 @@ def _supports(path: Path, units: dict, nodes: pd.DataFrame, ndm: int) -> pd.Data
         return pd.DataFrame(columns, index=pd.Index([], name="node"))
     table = Table(path, units)
     ids = table.unique_ids("node")
-    unknown = ~ids.isin(nodes.index)
-    if unknown.any():
-        k = int(unknown.to_numpy().argmax())
-        raise InputError(f"unknown node {ids.iloc[k]!r}", file=table.name, row=int(table.rows[k]),
-                         field="node")
+    table.refuse_unknown(ids, nodes.index, "node", "node")
     planar = ("ux", "uy", "rz")
     data = {}
     for c in SUPPORT_FIELDS:
@@ -229,11 +223,8 @@ def _supports(path: Path, units: dict, nodes: pd.DataFrame, ndm: int) -> pd.Data
         values = table.number(c, required=False, default=0.0 if not needed else np.nan)
         if needed and not table.has(c):
             table.require(c)
-        bad = ~np.isin(values, (0.0, 1.0))
-        if bad.any():
-            k = int(bad.argmax())
-            raise InputError("must be 1 (restrained) or 0 (free)", file=table.name,
-                             row=int(table.rows[k]), field=c)
+        table.refuse(~np.isin(values, (0.0, 1.0)), c,
+                     lambda k: "must be 1 (restrained) or 0 (free)")
         data[c] = values.astype(bool)
     if ndm == 2:  # out-of-plane freedoms of a plane frame are restrained by definition
         data["uz"] = data["rx"] = data["ry"] = np.ones(len(ids), dtype=bool)
@@ -247,11 +238,7 @@ def _results(files: dict, units: dict, frame: Frame, project) -> Results:
     table.require(key, "element", "x")
     required = FORCES_2D_REQUIRED if frame.ndm == 2 else tuple(FORCE_FIELDS)
     data = {key: table.text(key).to_numpy(), "element": table.text("element").to_numpy()}
-    unknown = ~pd.Series(data["element"]).isin(frame.elements.index)
-    if unknown.any():
-        k = int(unknown.to_numpy().argmax())
-        raise InputError(f"unknown element {data['element'][k]!r}", file=table.name,
-                         row=int(table.rows[k]), field="element")
+    table.refuse_unknown(data["element"], frame.elements.index, "element", "element")
     data["x_m"] = table.number("x", "length")
     for name, (column, kind) in FORCE_FIELDS.items():
         data[column] = table.number(name, kind, required=name in required, default=0.0)
@@ -280,13 +267,12 @@ def _check_stations(forces: pd.DataFrame, frame: Frame, table: Table) -> None:
                             axis=1)
     x = forces["x_m"].to_numpy()
     outside = (x < -1e-6) | (x > length * (1 + 1e-6) + 1e-6)
-    if outside.any():
-        k = int(outside.argmax())
-        raise InputError(f"station x = {x[k]:g} m lies outside the element (length {length[k]:g} m)",
-                         file=table.name, row=int(table.rows[k]), field="x")
+    table.refuse(outside, "x", lambda k: f"station x = {x[k]:g} m lies outside the element "
+                 f"(length {length[k]:g} m)")
 
 
-def _combination_table(path: Path, units: dict, present: np.ndarray, forces_file: str) -> pd.DataFrame:
+def _combination_table(path: Path, units: dict, present: np.ndarray,
+                       forces_file: str) -> pd.DataFrame:
     """combinations.csv (optional when forces are per combination): combination, kind, analysis."""
     if path.is_file():
         table = Table(path, units)
@@ -300,22 +286,17 @@ def _combination_table(path: Path, units: dict, present: np.ndarray, forces_file
             if av not in ("first-order", "second-order"):
                 raise InputError(f"analysis must be first-order or second-order, got {av!r}",
                                  file=table.name, row=int(table.rows[k]), field="analysis")
-        without = ~ids.isin(present)
-        if without.any():
-            k = int(without.to_numpy().argmax())
-            raise InputError(f"combination {ids.iloc[k]!r} has no forces in {forces_file}",
-                             file=table.name, row=int(table.rows[k]), field="combination")
+        table.refuse(~ids.isin(present).to_numpy(), "combination",
+                     lambda k: f"combination {ids.iloc[k]!r} has no forces in {forces_file}")
         extra = sorted(set(present) - set(ids))
         if extra:
             raise InputError(f"combination(s) {', '.join(extra)} have forces but are not listed "
                              f"in {table.name}", file=forces_file, field="combination")
         index = ids.to_numpy()
         imperfections = table.number("imperfections", required=False)
-        bad = ~np.isnan(imperfections) & ~np.isin(imperfections, (0.0, 1.0))
-        if bad.any():
-            k = int(bad.argmax())
-            raise InputError("imperfections must be 1 (the forces carry the frame imperfection) "
-                             "or 0", file=table.name, row=int(table.rows[k]), field="imperfections")
+        table.refuse(~np.isnan(imperfections) & ~np.isin(imperfections, (0.0, 1.0)),
+                     "imperfections", lambda k: "imperfections must be 1 (the forces carry the "
+                     "frame imperfection) or 0")
     else:
         index = np.asarray(present)
         kind = pd.Series(["ULS"] * len(index))
@@ -341,24 +322,15 @@ def _combine(case_forces: pd.DataFrame, files: dict, units: dict, project,
         factors = pd.DataFrame({"combination": table.text("combination").to_numpy(),
                                 "load_case": table.text("load_case").to_numpy(),
                                 "factor": table.number("factor")})
-        factors["kind"] = table.text("kind", required=False).replace("", "ULS").str.upper().to_numpy()
-        unknown = ~factors["load_case"].isin(present)
-        if unknown.any():
-            k = int(unknown.to_numpy().argmax())
-            raise InputError(f"load case {factors['load_case'].iloc[k]!r} has no forces in "
-                             f"{forces_file}", file=table.name, row=int(table.rows[k]),
-                             field="load_case")
+        kind = table.text("kind", required=False).replace("", "ULS").str.upper()
+        factors["kind"] = kind.to_numpy()
+        _refuse_cases_without_forces(table, factors["load_case"], present, forces_file)
     elif cases_path.is_file():
         table = Table(cases_path, units)
         ids = table.unique_ids("load_case")
         cases = pd.DataFrame({"load_case": ids.to_numpy(),
                               "category": table.text("category").to_numpy()})
-        without = ~cases["load_case"].isin(present)
-        if without.any():
-            k = int(without.to_numpy().argmax())
-            raise InputError(f"load case {cases['load_case'].iloc[k]!r} has no forces in "
-                             f"{forces_file}", file=table.name, row=int(table.rows[k]),
-                             field="load_case")
+        _refuse_cases_without_forces(table, cases["load_case"], present, forces_file)
         method = project.raw.get("combinations", {}).get("method", "6.10")
         try:
             factors = loads.uls_combinations(cases, method=method)
@@ -376,17 +348,19 @@ def _combine(case_forces: pd.DataFrame, files: dict, units: dict, project,
     return forces, combinations
 
 
+def _refuse_cases_without_forces(table: Table, cases: pd.Series, present: set,
+                                 forces_file: str) -> None:
+    table.refuse(~cases.isin(present).to_numpy(), "load_case",
+                 lambda k: f"load case {cases.iloc[k]!r} has no forces in {forces_file}")
+
+
 def _displacements(path: Path, units: dict, frame: Frame) -> pd.DataFrame | None:
     if not path.is_file():
         return None
     table = Table(path, units)
     table.require("combination", "node")
     nodes = table.text("node")
-    unknown = ~nodes.isin(frame.nodes.index)
-    if unknown.any():
-        k = int(unknown.to_numpy().argmax())
-        raise InputError(f"unknown node {nodes.iloc[k]!r}", file=table.name,
-                         row=int(table.rows[k]), field="node")
+    table.refuse_unknown(nodes, frame.nodes.index, "node", "node")
     data = {"combination": table.text("combination").to_numpy(), "node": nodes.to_numpy()}
     for column in DISPLACEMENT_COLUMNS:
         name = column.split("_")[0]
