@@ -24,27 +24,6 @@ FLIP_SIGN = {"Vz_N", "Mz_Nm"}
 LENGTH_KEYS = ("L_cr_y", "L_cr_z", "L_cr_T", "L_LT")
 
 
-def member_forces(forces: pd.DataFrame, members: Members,
-                  element_length: pd.Series) -> pd.DataFrame:
-    """Element forces re-expressed along design members.
-
-    Args:
-        forces: the Results forces table.
-        members: the design members.
-        element_length: element id -> length in m (from the frame geometry).
-
-    Returns columns member, combination, x_m (from the member start), and the force columns,
-    sorted by member, combination, x_m.
-    """
-    grid = _member_grid(forces, members, element_length)
-    keys, arrays, valid = grid
-    n = valid.sum(axis=1)
-    out = {"member": np.repeat(keys["member"].to_numpy(), n),
-           "combination": np.repeat(keys["combination"].to_numpy(), n)}
-    for column, values in arrays.items():
-        out[column] = values[valid]
-    return pd.DataFrame(out)
-
 
 def _codes(values: pd.Series | np.ndarray, index: pd.Index, what: str) -> np.ndarray:
     """Position of each value (as text) in `index`; KeyError naming the first unknown one. A

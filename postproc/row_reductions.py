@@ -17,36 +17,29 @@ def _short(a: np.ndarray) -> bool:
     return a.ndim == 2 and 0 < a.shape[1] < FEW
 
 
-def row_max(a: np.ndarray) -> np.ndarray:
-    """a.max(axis=1)."""
-    if not _short(a):
-        return a.max(axis=-1)
+def _fold(a: np.ndarray, ufunc: np.ufunc) -> np.ndarray:
+    """ufunc.reduce(a, axis=1), column by column, into a fresh array."""
     out = a[:, 0].copy()
     for k in range(1, a.shape[1]):
-        np.maximum(out, a[:, k], out=out)
+        ufunc(out, a[:, k], out=out)
     return out
+
+
+def row_max(a: np.ndarray) -> np.ndarray:
+    """a.max(axis=1)."""
+    return _fold(a, np.maximum) if _short(a) else a.max(axis=-1)
 
 
 def row_any(a: np.ndarray) -> np.ndarray:
     """a.any(axis=1) of a boolean array."""
     a = np.asarray(a, dtype=bool)
-    if not _short(a):
-        return a.any(axis=-1)
-    out = a[:, 0].copy()
-    for k in range(1, a.shape[1]):
-        out |= a[:, k]
-    return out
+    return _fold(a, np.logical_or) if _short(a) else a.any(axis=-1)
 
 
 def row_all(a: np.ndarray) -> np.ndarray:
     """a.all(axis=1) of a boolean array."""
     a = np.asarray(a, dtype=bool)
-    if not _short(a):
-        return a.all(axis=-1)
-    out = a[:, 0].copy()
-    for k in range(1, a.shape[1]):
-        out &= a[:, k]
-    return out
+    return _fold(a, np.logical_and) if _short(a) else a.all(axis=-1)
 
 
 def row_sum(a: np.ndarray) -> np.ndarray:

@@ -42,6 +42,16 @@ def resistances_table_6_7(section_class: np.ndarray, f_y: np.ndarray, A: np.ndar
             "Delta_M_y_Ed_Nm": zero, "Delta_M_z_Ed_Nm": zero}
 
 
+def _interaction_terms(N_Ed, M_y, M_z, chi, chi_LT, k_y, k_z, N_Rk, M_y_Rk, M_z_Rk,
+                       gamma_M1) -> dict[str, np.ndarray]:
+    """The three terms of eq. (6.61) or (6.62) and their sum (moments include Delta M)."""
+    with np.errstate(invalid="ignore", divide="ignore"):
+        t_N = N_Ed / (chi * N_Rk / gamma_M1)
+        t_My = k_y * M_y / (chi_LT * M_y_Rk / gamma_M1)
+        t_Mz = k_z * M_z / (M_z_Rk / gamma_M1)
+    return {"term_N": t_N, "term_M_y": t_My, "term_M_z": t_Mz, "total": t_N + t_My + t_Mz}
+
+
 def interaction_6_61(N_Ed: np.ndarray, M_y_Ed: np.ndarray, M_z_Ed: np.ndarray, *,
                      chi_y: np.ndarray, chi_LT: np.ndarray, k_yy: np.ndarray, k_yz: np.ndarray,
                      N_Rk: np.ndarray, M_y_Rk: np.ndarray, M_z_Rk: np.ndarray,
@@ -55,11 +65,8 @@ def interaction_6_61(N_Ed: np.ndarray, M_y_Ed: np.ndarray, M_z_Ed: np.ndarray, *
     Returns:
         dict of (R,) arrays: 'term_N', 'term_M_y', 'term_M_z' and their sum 'total'.
     """
-    with np.errstate(invalid="ignore", divide="ignore"):
-        t_N = N_Ed / (chi_y * N_Rk / gamma_M1)
-        t_My = k_yy * (M_y_Ed + Delta_M_y_Ed) / (chi_LT * M_y_Rk / gamma_M1)
-        t_Mz = k_yz * (M_z_Ed + Delta_M_z_Ed) / (M_z_Rk / gamma_M1)
-    return {"term_N": t_N, "term_M_y": t_My, "term_M_z": t_Mz, "total": t_N + t_My + t_Mz}
+    return _interaction_terms(N_Ed, M_y_Ed + Delta_M_y_Ed, M_z_Ed + Delta_M_z_Ed, chi_y, chi_LT,
+                              k_yy, k_yz, N_Rk, M_y_Rk, M_z_Rk, gamma_M1)
 
 
 def interaction_6_62(N_Ed: np.ndarray, M_y_Ed: np.ndarray, M_z_Ed: np.ndarray, *,
@@ -75,11 +82,8 @@ def interaction_6_62(N_Ed: np.ndarray, M_y_Ed: np.ndarray, M_z_Ed: np.ndarray, *
     Returns:
         dict of (R,) arrays: 'term_N', 'term_M_y', 'term_M_z' and their sum 'total'.
     """
-    with np.errstate(invalid="ignore", divide="ignore"):
-        t_N = N_Ed / (chi_z * N_Rk / gamma_M1)
-        t_My = k_zy * (M_y_Ed + Delta_M_y_Ed) / (chi_LT * M_y_Rk / gamma_M1)
-        t_Mz = k_zz * (M_z_Ed + Delta_M_z_Ed) / (M_z_Rk / gamma_M1)
-    return {"term_N": t_N, "term_M_y": t_My, "term_M_z": t_Mz, "total": t_N + t_My + t_Mz}
+    return _interaction_terms(N_Ed, M_y_Ed + Delta_M_y_Ed, M_z_Ed + Delta_M_z_Ed, chi_z, chi_LT,
+                              k_zy, k_zz, N_Rk, M_y_Rk, M_z_Rk, gamma_M1)
 
 
 def n_ratio(N_Ed: np.ndarray, chi: np.ndarray, N_Rk: np.ndarray, *,
