@@ -244,19 +244,25 @@ def _results(files: dict, units: dict, frame: Frame, project) -> Results:
     forces = pd.DataFrame(data)
     _check_stations(forces, frame, table)
 
+    factors, notes = None, ()
     if key == "load_case":
-        forces, combinations, notes = _combine(forces, table, files, units, project)
+        forces, factors = _combine(forces, table, files, units, project)
+        notes = (factors.attrs["note"],)
+        kinds = factors.groupby("combination", sort=False)["kind"].first()
+        combinations = pd.DataFrame({"kind": kinds.to_numpy(), "analysis": "first-order",
+                                     "status": "ok", "message": ""},
+                                    index=pd.Index(kinds.index.to_numpy(), name="combination"))
     else:
         _refuse_load_cases_with_combinations(table, files, units, project)
         combinations = _combination_table(files["combinations"], units,
                                           forces["combination"].unique(), table.name)
-        notes = ()
     missing = sorted(set(frame.elements.index) - set(forces["element"]))
     if missing:
         raise InputError(f"element(s) with no forces at all: {', '.join(missing[:10])}"
                          f"{' ...' if len(missing) > 10 else ''}", file=table.name, field="element")
     forces = forces.sort_values(["combination", "element", "x_m"], kind="stable")
-    displacements = _displacements(files["displacements"], units, frame)
+    displacements = _displacements(files["displacements"], units, frame, combinations.index,
+                                   factors)
     return Results(forces=forces.reset_index(drop=True), combinations=combinations,
                    displacements=displacements, notes=notes)
 
@@ -369,9 +375,10 @@ def _combination_table(path: Path, units: dict, present: np.ndarray,
 
 
 def _combine(case_forces: pd.DataFrame, forces: Table, files: dict, units: dict, project
-             ) -> tuple[pd.DataFrame, pd.DataFrame, tuple[str, ...]]:
+             ) -> tuple[pd.DataFrame, pd.DataFrame]:
     """Forces per load case: the combinations of `loads.project_combinations` (EN 1990 from the
-    load case categories, [combinations.extra], combinations.csv factors), superposed."""
+    load case categories, [combinations.extra], combinations.csv factors), superposed; returns
+    the combined forces and the long factors table."""
     from postproc import loads
 
     project_file = str(project.path)
@@ -400,12 +407,7 @@ def _combine(case_forces: pd.DataFrame, forces: Table, files: dict, units: dict,
         forces.refuse(~case_forces["load_case"].isin(used).to_numpy(), "load_case",
                       lambda k: f"load case {case_forces['load_case'].iloc[k]!r} has forces but "
                       "no combination uses it (give it a category, or a factor in a combination)")
-    combined = loads.superpose(case_forces, factors)
-    kinds = factors.groupby("combination", sort=False)["kind"].first()
-    combinations = pd.DataFrame({"kind": kinds.to_numpy(), "analysis": "first-order",
-                                 "status": "ok", "message": ""},
-                                index=pd.Index(kinds.index.to_numpy(), name="combination"))
-    return combined, combinations, (factors.attrs["note"],)
+    return loads.superpose(case_forces, factors), factors
 
 
 def _load_case_categories(files: dict, units: dict, project, present: set
@@ -474,19 +476,49 @@ def _refuse_cases_without_forces(table: Table, cases: pd.Series, present: set,
                  lambda k: f"load case {cases.iloc[k]!r} has no forces in {forces_file}")
 
 
-def _displacements(path: Path, units: dict, frame: Frame) -> pd.DataFrame | None:
+def _displacements(path: Path, units: dict, frame: Frame, combinations: pd.Index,
+                   factors: pd.DataFrame | None) -> pd.DataFrame | None:
+    """displacements.csv, by the same case column as the forces: per combination (names of the
+    combinations checked), or per load case where the forces are (superposed with their
+    factors)."""
+    from postproc import loads
+
     if not path.is_file():
         return None
     table = Table(path, units)
-    table.require("combination", "node")
+    key = _case_column(table)
+    table.require(key, "node")
     nodes = table.text("node")
     table.refuse_unknown(nodes, frame.nodes.index, "node", "node")
-    data = {"combination": table.text("combination").to_numpy(), "node": nodes.to_numpy()}
+    cases = table.text(key)
+    data = {key: cases.to_numpy(), "node": nodes.to_numpy()}
     for column in DISPLACEMENT_COLUMNS:
         name = column.split("_")[0]
         kind = "length" if name.startswith("u") else None
         data[column] = table.number(name, kind, required=False, default=0.0)
-    return pd.DataFrame(data)
+    displacements = pd.DataFrame(data)
+    if key == "combination":
+        table.refuse(~cases.isin(combinations).to_numpy(), "combination",
+                     lambda k: f"combination {cases.iloc[k]!r} is not one of the combinations "
+                     "checked" + (" (the forces are per load case: give displacements per "
+                                  "load_case, they are combined as the forces are)"
+                                  if factors is not None else ""))
+        return displacements
+    if factors is None:
+        raise InputError("displacements per load case, but the forces are per combination: use "
+                         "the header combination here too", file=table.name, field="load_case")
+    table.refuse(~cases.isin(set(factors["load_case"])).to_numpy(), "load_case",
+                 lambda k: f"load case {cases.iloc[k]!r} is used by no combination")
+    missing = sorted(set(factors["load_case"]) - set(cases))
+    if missing:
+        raise InputError(f"load case(s) {', '.join(missing)} have forces but no displacements",
+                         file=table.name, field="load_case")
+    try:
+        return loads.superpose(displacements, factors, keys=("node",),
+                               columns=DISPLACEMENT_COLUMNS)
+    except InputError as exc:  # superpose names the station field of forces
+        raise InputError(exc.message, file=table.name,
+                         field="node" if exc.field == "x_m" else exc.field) from None
 
 
 __all__ = ["load", "FILES", "FORCE_FIELDS", "FORCE_COLUMNS"]

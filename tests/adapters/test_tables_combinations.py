@@ -247,3 +247,32 @@ def test_load_case_used_by_no_combination_is_refused(demo: Path) -> None:
     error = _refused(demo)
     assert Path(error.file).name == "forces.csv" and error.field == "load_case"
     assert "'W'" in str(error)
+
+
+# ----------------------------------------------------------------- displacements.csv
+
+def _displacements(demo: Path, header: str, values: dict[str, float]) -> None:
+    nodes = pd.read_csv(demo / "tables" / "nodes.csv")["node"]
+    rows = [f"{header},node,ux [m],uy [m],rz"]
+    rows += [f"{case},{node},{ux},0,0" for case, ux in values.items() for node in nodes]
+    (demo / "tables" / "displacements.csv").write_text("\n".join(rows) + "\n")
+
+
+def test_displacements_per_load_case_are_combined_like_the_forces(demo: Path) -> None:
+    """Linear superposition by hand: 1.35 * 0.001 + 1.50 * 0.003 = 0.00585 m."""
+    _displacements(demo, "load_case", {"G": 0.001, "Q": 0.002, "S": 0.003, "W": 0.004})
+    _, results = _load(demo)
+    d = results.displacements
+    ux = d[d["combination"] == "ULS 1.35 G + 1.50 S"]["ux_m"]
+    assert len(ux) == len(pd.read_csv(demo / "tables" / "nodes.csv"))
+    assert ux.to_numpy() == pytest.approx(0.00585, rel=1e-12)
+    assert set(d["combination"]) == set(results.combinations.index)
+
+
+def test_displacements_must_match_the_combinations(demo: Path) -> None:
+    _displacements(demo, "combination", {"G": 0.001})  # a load case name, not a combination
+    error = _refused(demo)
+    assert Path(error.file).name == "displacements.csv" and error.field == "combination"
+    _displacements(demo, "load_case", {"G": 0.001, "Q": 0.002, "S": 0.003})
+    error = _refused(demo)
+    assert Path(error.file).name == "displacements.csv" and "W" in str(error)
