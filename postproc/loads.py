@@ -67,6 +67,8 @@ CATEGORIES = (PERMANENT, *PSI)
 METHODS = ("6.10", "6.10ab")
 FAVOURABLE_PERMANENT = ("wind", "all", "none")
 FACTORS_COLUMNS = ["combination", "load_case", "factor", "kind"]
+# EN 1990:2002, Table A1.2(B), recommended values (NDPs)
+TABLE_A1_2B = {"gamma_G_sup": 1.35, "gamma_G_inf": 1.00, "gamma_Q": 1.50, "xi": 0.85}
 MAX_COMBINATIONS = 2000  # generated per kind (ULS, SLS) unless [combinations] max_combinations
 
 
@@ -231,8 +233,10 @@ def _refuse_too_many(count: int, limit: int, what: str) -> None:
             "raise max_combinations", field="combinations.max_combinations")
 
 
-def uls_combinations(cases: pd.DataFrame, *, method: str = "6.10", gamma_G_sup: float = 1.35,
-                     gamma_G_inf: float = 1.00, gamma_Q: float = 1.50, xi: float = 0.85,
+def uls_combinations(cases: pd.DataFrame, *, method: str = "6.10",
+                     gamma_G_sup: float = TABLE_A1_2B["gamma_G_sup"],
+                     gamma_G_inf: float = TABLE_A1_2B["gamma_G_inf"],
+                     gamma_Q: float = TABLE_A1_2B["gamma_Q"], xi: float = TABLE_A1_2B["xi"],
                      psi: Mapping[str, tuple[float, float, float]] | None = None,
                      favourable_permanent: str = "wind",
                      limit: int = MAX_COMBINATIONS) -> pd.DataFrame:
@@ -389,6 +393,9 @@ def project_combinations(cases: pd.DataFrame | None, settings: Mapping, *,
         The long factors table; a combination name given twice is an error. `attrs['note']`
         says how many combinations were generated, dropped as identical, and given explicitly.
     """
+    if not isinstance(settings, Mapping):
+        raise InputError("[combinations] is a table of settings (method = \"6.10\", ...)",
+                         file=file, field="combinations")
     unknown = sorted(set(settings) - set(COMBINATION_KEYS))
     if unknown:
         raise InputError(f"unknown key(s) {', '.join(unknown)}; known: "
@@ -452,7 +459,16 @@ def project_combinations(cases: pd.DataFrame | None, settings: Mapping, *,
                          "[combinations.extra] or combinations.csv", file=file,
                          field="combinations")
     n_explicit = sum(g["combination"].nunique() for g in given)
-    factors.attrs["note"] = combination_note(counts, n_explicit)
+    note = combination_note(counts, n_explicit)
+    if method != "none":
+        used = {"method": method, "sls": str(sls).lower(),
+                "favourable_permanent": settings.get("favourable_permanent", "wind"),
+                **{k: f"{v:.2f}" for k, v in {**TABLE_A1_2B, **ndp}.items()},
+                "max_combinations": limit}
+        if method == "6.10":
+            del used["xi"]
+        note += "; settings: " + ", ".join(f"{k} {v}" for k, v in used.items())
+    factors.attrs["note"] = note
     return factors
 
 

@@ -208,6 +208,8 @@ def test_combination_settings_are_used(demo: Path) -> None:
     names = set(results.combinations.index)
     assert "ULS 1.20 G" in names and "ULS 1.20 G + 1.40 S" in names
     assert "ULS check" in names and set(results.combinations["kind"]) == {"ULS"}
+    assert any("gamma_G_sup 1.20" in n and "gamma_Q 1.40" in n and "sls false" in n
+               for n in results.notes)  # the settings used are echoed
     g = _forces(demo).query("load_case == 'G'")
     got = results.forces.query("combination == 'ULS 1.20 G'")
     assert got["My_Nm"].to_numpy() == pytest.approx(1.2e3 * g.sort_values(
