@@ -13,7 +13,7 @@ in the sign convention of `postproc.results`. The project keys are documented in
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from pathlib import Path
 
 import numpy as np
@@ -118,6 +118,7 @@ def load(project: dict, project_path: Path) -> tuple[Frame, Results]:
                          file=file, field="model.major_axis")
     cases = load_cases(project.get("load_cases", {}), captured.patterns, file=file)
     factors = loads.project_combinations(cases, project.get("combinations", {}), file=file)
+    notes = (factors.attrs["note"],)
     frame = build_frame(captured, model, project, watched, major_axis=opt.major_axis, file=file,
                         script=opt.script)
     clear_patterns(ops)
@@ -147,47 +148,16 @@ def load(project: dict, project_path: Path) -> tuple[Frame, Results]:
     analysis = ["second-order" if pdelta else "first-order"] * len(names)
     results = _results(captured, matrix, patterns, names, set_kinds, analysis, sets,
                        stations=opt.stations, major_axis=opt.major_axis)
-    return frame, results
+    if pdelta:
+        notes += (f"{len(names)} P-delta analyses: a ULS combination without horizontal load is "
+                  "run once per sway direction",)
+    return frame, replace(results, notes=notes)
 
 
 def load_cases(table: dict, patterns: list[str], *, file: str) -> pd.DataFrame:
     """[load_cases]: name = "category" or {category, pattern, group, psi_0}; every load pattern
-    of the model needs exactly one load case (else InputError)."""
-    records = []
-    for name, spec in table.items():
-        where = f"load_cases.{name}"
-        if isinstance(spec, str):
-            spec = {"category": spec}
-        if not isinstance(spec, dict) or "category" not in spec:
-            raise InputError("give the category, e.g. dead = { category = \"permanent\", "
-                             "pattern = 1 } or \"1\" = \"permanent\"", file=file, field=where)
-        unknown = sorted(set(spec) - {"category", "pattern", "group", "psi_0"})
-        if unknown:
-            raise InputError(f"unknown key(s) {', '.join(unknown)}; known: category, pattern, "
-                             "group, psi_0", file=file, field=where)
-        pattern = str(spec.get("pattern", name))
-        if pattern not in patterns:
-            raise InputError(f"load pattern {pattern} is not in the model (its patterns: "
-                             f"{', '.join(patterns) or 'none'})", file=file, field=where)
-        psi_0 = spec.get("psi_0", np.nan)
-        if not isinstance(psi_0, (int, float)) or isinstance(psi_0, bool):
-            raise InputError(f"psi_0 = {psi_0!r} must be a number from 0 to 1", file=file,
-                             field=f"{where}.psi_0")
-        records.append({"load_case": str(name), "category": spec["category"], "pattern": pattern,
-                        "group": str(spec.get("group", "")), "psi_0": float(psi_0)})
-    cases = pd.DataFrame.from_records(
-        records, columns=["load_case", "category", "pattern", "group", "psi_0"])
-    missing = [p for p in patterns if p not in set(cases["pattern"])]
-    if missing:
-        raise InputError(f"load pattern(s) {', '.join(missing)} of the model have no category; "
-                         f"add e.g. \"{missing[0]}\" = \"permanent\" under [load_cases] "
-                         "(categories: "
-                         f"{', '.join(loads.CATEGORIES)})", file=file, field="load_cases")
-    twice = cases["pattern"].duplicated()
-    if twice.any():
-        raise InputError(f"load pattern {cases['pattern'][twice].iloc[0]} is named by two load "
-                         "cases", file=file, field="load_cases")
-    return loads.check_cases(cases, file=file).assign(pattern=cases["pattern"].to_numpy())
+    of the model needs exactly one load case (else InputError). See `loads.load_case_table`."""
+    return loads.load_case_table(table, file=file, patterns=patterns)
 
 
 def build_frame(captured: Captured, model: dict, project: dict, watched, *, major_axis: str,

@@ -161,7 +161,7 @@ def load(project, project_path: Path | None = None) -> tuple[Frame, Results]:
              else pd.Series(np.nan, combos.index))
     combos["imperfections"] = given.fillna(float(imperfections)).astype(bool)
     results = Results(forces=results.forces, combinations=combos[COMBINATION_COLUMNS],
-                      displacements=results.displacements)
+                      displacements=results.displacements, notes=results.notes)
     return frame, results
 
 
@@ -233,8 +233,7 @@ def _supports(path: Path, units: dict, nodes: pd.DataFrame, ndm: int) -> pd.Data
 
 def _results(files: dict, units: dict, frame: Frame, project) -> Results:
     table = Table(files["forces"], units)
-    by_case = table.has("load_case") and not table.has("combination")
-    key = "load_case" if by_case else "combination"
+    key = _case_column(table)
     table.require(key, "element", "x")
     required = FORCES_2D_REQUIRED if frame.ndm == 2 else tuple(FORCE_FIELDS)
     data = {key: table.text(key).to_numpy(), "element": table.text("element").to_numpy()}
@@ -245,9 +244,16 @@ def _results(files: dict, units: dict, frame: Frame, project) -> Results:
     forces = pd.DataFrame(data)
     _check_stations(forces, frame, table)
 
-    if by_case:
-        forces, combinations = _combine(forces, files, units, project, table.name)
+    factors, notes = None, ()
+    if key == "load_case":
+        forces, factors = _combine(forces, table, files, units, project)
+        notes = (factors.attrs["note"],)
+        kinds = factors.groupby("combination", sort=False)["kind"].first()
+        combinations = pd.DataFrame({"kind": kinds.to_numpy(), "analysis": "first-order",
+                                     "status": "ok", "message": ""},
+                                    index=pd.Index(kinds.index.to_numpy(), name="combination"))
     else:
+        _refuse_load_cases_with_combinations(table, files, units, project)
         combinations = _combination_table(files["combinations"], units,
                                           forces["combination"].unique(), table.name)
     missing = sorted(set(frame.elements.index) - set(forces["element"]))
@@ -255,9 +261,23 @@ def _results(files: dict, units: dict, frame: Frame, project) -> Results:
         raise InputError(f"element(s) with no forces at all: {', '.join(missing[:10])}"
                          f"{' ...' if len(missing) > 10 else ''}", file=table.name, field="element")
     forces = forces.sort_values(["combination", "element", "x_m"], kind="stable")
-    displacements = _displacements(files["displacements"], units, frame)
+    displacements = _displacements(files["displacements"], units, frame, combinations.index,
+                                   factors)
     return Results(forces=forces.reset_index(drop=True), combinations=combinations,
-                   displacements=displacements)
+                   displacements=displacements, notes=notes)
+
+
+def _case_column(table: Table) -> str:
+    """'load_case' (forces per load case) or 'combination' (per combination), never both."""
+    if table.has("load_case") and table.has("combination"):
+        raise InputError("has both a 'load_case' and a 'combination' column; give forces per "
+                         "load case (column load_case) or per combination (column combination)",
+                         file=table.name, field="combination")
+    if not table.has("load_case") and not table.has("combination"):
+        raise InputError("needs a 'load_case' column (forces per load case) or a 'combination' "
+                         "column (forces per combination, listed in combinations.csv)",
+                         file=table.name, field="load_case")
+    return "load_case" if table.has("load_case") else "combination"
 
 
 def _check_stations(forces: pd.DataFrame, frame: Frame, table: Table) -> None:
@@ -271,81 +291,183 @@ def _check_stations(forces: pd.DataFrame, frame: Frame, table: Table) -> None:
                  f"(length {length[k]:g} m)")
 
 
+COMBINATION_LIST_COLUMNS = ("combination", "kind", "analysis", "imperfections")
+COMBINATION_FACTOR_COLUMNS = ("combination", "load_case", "factor", "kind")
+LOAD_CASE_COLUMNS = ("load_case", "category", "group", "psi_0")
+
+
+def _refuse_columns(table: Table, known: tuple[str, ...], why: str) -> None:
+    unknown = [c for c in table.frame.columns if c not in known]
+    if unknown:
+        raise InputError(f"unknown column(s) {', '.join(unknown)}; known: {', '.join(known)}"
+                         f"{why}", file=table.name, field=unknown[0])
+
+
+def _refuse_load_cases_with_combinations(forces: Table, files: dict, units: dict,
+                                         project) -> None:
+    """Forces per combination: no load case table, no [load_cases] or [combinations] settings,
+    since none of them could be applied and none may be ignored."""
+    project_file = str(project.path)
+    names = set(forces.frame["combination"])
+    sources = []
+    if files["load_cases"].is_file():
+        sources.append((files["load_cases"].name, set(Table(files["load_cases"], units)
+                                                      .frame.get("load_case", []))))
+    if "load_cases" in project.raw:
+        sources.append(("[load_cases] of the project file", set(map(str,
+                                                                    project.raw["load_cases"]))))
+    for source, cases in sources:
+        if names and names <= cases:
+            raise InputError(f"the 'combination' column holds {', '.join(sorted(names)[:6])}, "
+                             f"the load cases of {source}: forces per load case take the header "
+                             "load_case, and the combinations are then built from them",
+                             file=forces.name, field="combination")
+        raise InputError(f"forces are given per combination (header 'combination'), so the load "
+                         f"cases of {source} cannot be used: remove them, or give forces per "
+                         "load case (header load_case)", file=forces.name, field="combination")
+    given = project.raw.get("combinations", {})
+    if given:
+        raise InputError(f"forces are given per combination (header 'combination' in "
+                         f"{forces.name}), so [combinations] ({', '.join(given)}) cannot be "
+                         "applied: remove it, or give forces per load case", file=project_file,
+                         field="combinations")
+    path = files["combinations"]
+    if not path.is_file():
+        raise InputError(f"forces are given per combination (header 'combination'), so "
+                         f"{path.name} must list each one (combination, kind ULS or SLS, "
+                         "analysis first-order or second-order); forces per load case take the "
+                         "header load_case", file=forces.name, field="combination")
+    listing = Table(path, units)
+    if listing.has("load_case") or listing.has("factor"):
+        raise InputError(f"gives factors per load case (load_case, factor), but {forces.name} "
+                         "holds forces per combination (header 'combination'): if the forces are "
+                         "per load case, name that column load_case", file=listing.name,
+                         field="load_case" if listing.has("load_case") else "factor")
+
+
 def _combination_table(path: Path, units: dict, present: np.ndarray,
                        forces_file: str) -> pd.DataFrame:
-    """combinations.csv (optional when forces are per combination): combination, kind, analysis."""
-    if path.is_file():
-        table = Table(path, units)
-        ids = table.unique_ids("combination")
-        kind = table.text("kind", required=False).replace("", "ULS").str.upper()
-        analysis = table.text("analysis", required=False).replace("", "first-order")
-        for k, (kv, av) in enumerate(zip(kind, analysis)):
-            if kv not in ("ULS", "SLS"):
-                raise InputError(f"kind must be ULS or SLS, got {kv!r}", file=table.name,
-                                 row=int(table.rows[k]), field="kind")
-            if av not in ("first-order", "second-order"):
-                raise InputError(f"analysis must be first-order or second-order, got {av!r}",
-                                 file=table.name, row=int(table.rows[k]), field="analysis")
-        table.refuse(~ids.isin(present).to_numpy(), "combination",
-                     lambda k: f"combination {ids.iloc[k]!r} has no forces in {forces_file}")
-        extra = sorted(set(present) - set(ids))
-        if extra:
-            raise InputError(f"combination(s) {', '.join(extra)} have forces but are not listed "
-                             f"in {table.name}", file=forces_file, field="combination")
-        index = ids.to_numpy()
-        imperfections = table.number("imperfections", required=False)
-        table.refuse(~np.isnan(imperfections) & ~np.isin(imperfections, (0.0, 1.0)),
-                     "imperfections", lambda k: "imperfections must be 1 (the forces carry the "
-                     "frame imperfection) or 0")
-    else:
-        index = np.asarray(present)
-        kind = pd.Series(["ULS"] * len(index))
-        analysis = pd.Series(["first-order"] * len(index))
-        imperfections = np.full(len(index), np.nan)
-    frame = pd.DataFrame({"kind": kind.to_numpy(), "analysis": analysis.to_numpy(),
-                          "imperfections": imperfections, "status": "ok", "message": ""},
-                         index=pd.Index(index, name="combination"))
-    return frame
+    """combinations.csv listing the combinations of forces given per combination: combination,
+    kind, analysis, imperfections; exactly the combinations of the forces table."""
+    table = Table(path, units)
+    _refuse_columns(table, COMBINATION_LIST_COLUMNS, " (forces are given per combination)")
+    ids = table.unique_ids("combination")
+    kind = table.text("kind", required=False).replace("", "ULS").str.upper()
+    analysis = table.text("analysis", required=False).replace("", "first-order")
+    table.refuse(~kind.isin(("ULS", "SLS")).to_numpy(), "kind",
+                 lambda k: f"kind must be ULS or SLS, got {kind.iloc[k]!r}")
+    table.refuse(~analysis.isin(("first-order", "second-order")).to_numpy(), "analysis",
+                 lambda k: "analysis must be first-order or second-order, got "
+                 f"{analysis.iloc[k]!r}")
+    table.refuse(~ids.isin(present).to_numpy(), "combination",
+                 lambda k: f"combination {ids.iloc[k]!r} has no forces in {forces_file}")
+    extra = sorted(set(present) - set(ids))
+    if extra:
+        raise InputError(f"combination(s) {', '.join(extra)} have forces but are not listed "
+                         f"in {table.name}", file=forces_file, field="combination")
+    imperfections = table.number("imperfections", required=False)
+    table.refuse(~np.isnan(imperfections) & ~np.isin(imperfections, (0.0, 1.0)),
+                 "imperfections", lambda k: "imperfections must be 1 (the forces carry the "
+                 "frame imperfection) or 0")
+    return pd.DataFrame({"kind": kind.to_numpy(), "analysis": analysis.to_numpy(),
+                         "imperfections": imperfections, "status": "ok", "message": ""},
+                        index=pd.Index(ids.to_numpy(), name="combination"))
 
 
-def _combine(case_forces: pd.DataFrame, files: dict, units: dict, project,
-             forces_file: str) -> tuple[pd.DataFrame, pd.DataFrame]:
-    """Forces per load case: build combinations (EN 1990) or read explicit factors, superpose."""
+def _combine(case_forces: pd.DataFrame, forces: Table, files: dict, units: dict, project
+             ) -> tuple[pd.DataFrame, pd.DataFrame]:
+    """Forces per load case: the combinations of `loads.project_combinations` (EN 1990 from the
+    load case categories, [combinations.extra], combinations.csv factors), superposed; returns
+    the combined forces and the long factors table."""
     from postproc import loads
 
-    cases_path, combos_path = files["load_cases"], files["combinations"]
+    project_file = str(project.path)
     present = set(case_forces["load_case"])
-    factors = None
-    if combos_path.is_file():
-        table = Table(combos_path, units)
-        table.require("combination", "load_case", "factor")
-        factors = pd.DataFrame({"combination": table.text("combination").to_numpy(),
-                                "load_case": table.text("load_case").to_numpy(),
-                                "factor": table.number("factor")})
-        kind = table.text("kind", required=False).replace("", "ULS").str.upper()
-        factors["kind"] = kind.to_numpy()
-        _refuse_cases_without_forces(table, factors["load_case"], present, forces_file)
-    elif cases_path.is_file():
-        table = Table(cases_path, units)
-        ids = table.unique_ids("load_case")
-        cases = pd.DataFrame({"load_case": ids.to_numpy(),
-                              "category": table.text("category").to_numpy()})
-        _refuse_cases_without_forces(table, cases["load_case"], present, forces_file)
-        method = project.raw.get("combinations", {}).get("method", "6.10")
-        try:
-            factors = loads.uls_combinations(cases, method=method)
-        except InputError as exc:
-            raise InputError(str(exc), file=table.name) from None
-    else:
-        raise InputError(f"forces are given per load_case, so {cases_path.name} (load_case, "
-                         f"category) or {combos_path.name} (combination, load_case, factor) "
-                         "is needed", file=forces_file, field="load_case")
-    forces = loads.superpose(case_forces, factors)
-    kinds = factors.groupby("combination", sort=False)["kind"].first()
-    combinations = pd.DataFrame({"kind": kinds.to_numpy(), "analysis": "first-order",
-                                 "status": "ok", "message": ""},
-                                index=pd.Index(kinds.index.to_numpy(), name="combination"))
-    return forces, combinations
+    cases, cases_source = _load_case_categories(files, units, project, present)
+    explicit = None
+    if files["combinations"].is_file():
+        explicit = _combination_factors(Table(files["combinations"], units), present,
+                                        forces.name)
+    if cases is None and explicit is None and "extra" not in project.raw.get("combinations", {}):
+        raise InputError(f"forces are given per load_case, so the load cases need categories "
+                         f"({files['load_cases'].name}: load_case, category; or [load_cases] in "
+                         f"the project file) or explicit combinations ({files['combinations'].name}"
+                         ": combination, load_case, factor; or [combinations.extra])",
+                         file=forces.name, field="load_case")
+    if cases is not None:
+        named = case_forces["load_case"]
+        forces.refuse(~named.isin(set(cases["load_case"])).to_numpy(), "load_case",
+                      lambda k: f"load case {named.iloc[k]!r} has forces but no category in "
+                      f"{cases_source}")
+    factors = loads.project_combinations(cases, project.raw.get("combinations", {}),
+                                         file=project_file, known_cases=sorted(present),
+                                         explicit=explicit)
+    if cases is None:
+        used = set(factors["load_case"])
+        forces.refuse(~case_forces["load_case"].isin(used).to_numpy(), "load_case",
+                      lambda k: f"load case {case_forces['load_case'].iloc[k]!r} has forces but "
+                      "no combination uses it (give it a category, or a factor in a combination)")
+    return loads.superpose(case_forces, factors), factors
+
+
+def _load_case_categories(files: dict, units: dict, project, present: set
+                          ) -> tuple[pd.DataFrame | None, str]:
+    """The load case table from load_cases.csv or the project's [load_cases] (not both), every
+    load case with forces; None where neither is given."""
+    from postproc import loads
+
+    path, project_file = files["load_cases"], str(project.path)
+    in_project = "load_cases" in project.raw
+    if path.is_file() and in_project:
+        raise InputError(f"load cases are given both here and in {path}; keep one",
+                         file=project_file, field="load_cases")
+    if in_project:
+        cases = loads.load_case_table(project.raw["load_cases"], file=project_file)
+        missing = sorted(set(cases["load_case"]) - present)
+        if missing:
+            raise InputError(f"load case {missing[0]!r} has no forces in {files['forces'].name}",
+                             file=project_file, field=f"load_cases.{missing[0]}")
+        return cases, "[load_cases] of the project file"
+    if not path.is_file():
+        return None, ""
+    table = Table(path, units)
+    _refuse_columns(table, LOAD_CASE_COLUMNS, "")
+    ids = table.unique_ids("load_case")
+    data = {"load_case": ids.to_numpy(), "category": table.text("category").to_numpy(),
+            "group": table.text("group", required=False).to_numpy()}
+    if table.has("psi_0"):
+        data["psi_0"] = table.number("psi_0", required=False)
+    cases = loads.check_cases(pd.DataFrame(data), file=table.name, rows=table.rows)
+    _refuse_cases_without_forces(table, cases["load_case"], present, files["forces"].name)
+    return cases, path.name
+
+
+def _combination_factors(table: Table, present: set, forces_file: str) -> pd.DataFrame:
+    """combinations.csv with forces per load case: combination, load_case, factor, kind."""
+    if not (table.has("load_case") and table.has("factor")):
+        raise InputError(f"{forces_file} holds forces per load case (header load_case), so this "
+                         "table must give factors: combination, load_case, factor, optional "
+                         "kind; if the forces are per combination, name that column combination",
+                         file=table.name, field="load_case" if not table.has("load_case")
+                         else "factor")
+    _refuse_columns(table, COMBINATION_FACTOR_COLUMNS, " (with forces per load case the "
+                    "combinations are superposed first-order results)")
+    factors = pd.DataFrame({"combination": table.text("combination").to_numpy(),
+                            "load_case": table.text("load_case").to_numpy(),
+                            "factor": table.number("factor")})
+    kind = table.text("kind", required=False).replace("", "ULS").str.upper()
+    table.refuse(~kind.isin(("ULS", "SLS")).to_numpy(), "kind",
+                 lambda k: f"kind must be ULS or SLS, got {kind.iloc[k]!r}")
+    factors["kind"] = kind.to_numpy()
+    table.refuse(factors.duplicated(["combination", "load_case"]).to_numpy(), "load_case",
+                 lambda k: f"load case {factors['load_case'].iloc[k]!r} appears twice in "
+                 f"combination {factors['combination'].iloc[k]!r}")
+    first_kind = factors.groupby("combination")["kind"].transform("first")
+    table.refuse((factors["kind"] != first_kind).to_numpy(), "kind",
+                 lambda k: f"combination {factors['combination'].iloc[k]!r} has rows of both "
+                 "kinds (ULS and SLS)")
+    _refuse_cases_without_forces(table, factors["load_case"], present, forces_file)
+    return factors
 
 
 def _refuse_cases_without_forces(table: Table, cases: pd.Series, present: set,
@@ -354,19 +476,49 @@ def _refuse_cases_without_forces(table: Table, cases: pd.Series, present: set,
                  lambda k: f"load case {cases.iloc[k]!r} has no forces in {forces_file}")
 
 
-def _displacements(path: Path, units: dict, frame: Frame) -> pd.DataFrame | None:
+def _displacements(path: Path, units: dict, frame: Frame, combinations: pd.Index,
+                   factors: pd.DataFrame | None) -> pd.DataFrame | None:
+    """displacements.csv, by the same case column as the forces: per combination (names of the
+    combinations checked), or per load case where the forces are (superposed with their
+    factors)."""
+    from postproc import loads
+
     if not path.is_file():
         return None
     table = Table(path, units)
-    table.require("combination", "node")
+    key = _case_column(table)
+    table.require(key, "node")
     nodes = table.text("node")
     table.refuse_unknown(nodes, frame.nodes.index, "node", "node")
-    data = {"combination": table.text("combination").to_numpy(), "node": nodes.to_numpy()}
+    cases = table.text(key)
+    data = {key: cases.to_numpy(), "node": nodes.to_numpy()}
     for column in DISPLACEMENT_COLUMNS:
         name = column.split("_")[0]
         kind = "length" if name.startswith("u") else None
         data[column] = table.number(name, kind, required=False, default=0.0)
-    return pd.DataFrame(data)
+    displacements = pd.DataFrame(data)
+    if key == "combination":
+        table.refuse(~cases.isin(combinations).to_numpy(), "combination",
+                     lambda k: f"combination {cases.iloc[k]!r} is not one of the combinations "
+                     "checked" + (" (the forces are per load case: give displacements per "
+                                  "load_case, they are combined as the forces are)"
+                                  if factors is not None else ""))
+        return displacements
+    if factors is None:
+        raise InputError("displacements per load case, but the forces are per combination: use "
+                         "the header combination here too", file=table.name, field="load_case")
+    table.refuse(~cases.isin(set(factors["load_case"])).to_numpy(), "load_case",
+                 lambda k: f"load case {cases.iloc[k]!r} is used by no combination")
+    missing = sorted(set(factors["load_case"]) - set(cases))
+    if missing:
+        raise InputError(f"load case(s) {', '.join(missing)} have forces but no displacements",
+                         file=table.name, field="load_case")
+    try:
+        return loads.superpose(displacements, factors, keys=("node",),
+                               columns=DISPLACEMENT_COLUMNS)
+    except InputError as exc:  # superpose names the station field of forces
+        raise InputError(exc.message, file=table.name,
+                         field="node" if exc.field == "x_m" else exc.field) from None
 
 
 __all__ = ["load", "FILES", "FORCE_FIELDS", "FORCE_COLUMNS"]

@@ -75,6 +75,8 @@ def _run(project: Path, out: Path, *, quiet: bool) -> int:
         print(f"{output.project.title}: {len(summary)} members, "
               f"{outcome.table['combination'].nunique()} combinations, "
               f"{len(outcome.table)} checks")
+        for note in output.results.notes:
+            print(f"  {note}")
         print(shown.to_string(index=False, float_format=lambda v: f"{v:.3f}"))
         stability = outcome.stability.reset_index()
         columns = [c for c in ("combination", "alpha_cr", "sway_mode", "path") if c in stability]

@@ -12,7 +12,7 @@ class InputError(FramesweepError):
 
     def __init__(self, message: str, *, file: str | None = None, row: int | None = None,
                  field: str | None = None) -> None:
-        self.file, self.row, self.field = file, row, field
+        self.message, self.file, self.row, self.field = message, file, row, field
         where = []
         if file is not None:
             where.append(str(file))

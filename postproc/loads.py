@@ -8,19 +8,27 @@ tables) with a category that fixes its partial and combination factors:
   (EN 1991-1-1 categories A to H), 'snow' (sites at altitude H <= 1000 m), 'snow_high' (H > 1000 m
   and Finland, Iceland, Norway, Sweden), 'wind', 'temperature'.
 
-Rules used to build ULS combinations (say so in the report):
+Rules used to build ULS combinations (EN 1990:2002, 6.4.3.2 and Table A1.2(B)):
 
-1. Every variable load case leads in turn; every other variable load case accompanies it with
-   psi_0. Load cases of one `group` exclude each other (wind from +X and from -X): a combination
-   holds at most one of them, and each is tried in turn (one combination per choice).
+1. Every variable load case leads in turn. The accompanying ones are taken in every set that can
+   act together: an accompanying action that is favourable takes gamma_Q = 0 (Table A1.2(B),
+   note 2), so leaving it out must be tried as well as keeping it (gamma_Q psi_0).
+   Each ungrouped load case is in or out; from each exclusive `group` (wind from +X and from -X)
+   none or one is in. Load cases of the leading case's group stay out.
 2. All permanent load cases take the same factor within a combination (one source, Table A1.2(B)
-   note 3): gamma_G,sup, plus a second combination with gamma_G,inf where the permanent action may
-   be favourable. `favourable_permanent` says where: 'wind' (default: a leading wind action, the
-   uplift and overturning case, with no accompanying variable action since those would be
-   favourable too and take gamma_Q = 0), 'all' (every leading action), or 'none'.
+   note 3): gamma_G,sup, and also gamma_G,inf where the permanent action may be favourable.
+   `favourable_permanent` says where: 'wind' (default: every combination led by a wind action,
+   and in eq. (6.10a) every one holding a wind action), 'all' (every combination with a variable
+   action), or 'none'. The gamma_G,inf combinations take the same sets of accompanying actions.
 3. A permanent-only combination (gamma_G,sup times every permanent case) is always included.
-4. Method '6.10': eq. (6.10). Method '6.10ab': eq. (6.10a) once (every variable action with
-   psi_0) and eq. (6.10b) per leading action (xi gamma_G,sup on unfavourable permanent actions).
+4. Method '6.10': eq. (6.10). Method '6.10ab': eq. (6.10a) with every set of accompanying actions
+   (each with psi_0), and eq. (6.10b) per leading action (xi gamma_G,sup on unfavourable permanent
+   actions, gamma_G,inf unreduced on favourable ones).
+5. Pruning: only combinations whose factors come out identical to an earlier one (for example a
+   psi_0 = 0 action left in or out) are dropped; that is the only pruning, since a combination
+   with any different factor may govern some member. The count of generated and dropped ones is
+   kept (`counts`). More than `limit` generated combinations is an error that says how to reduce
+   them (groups, explicit combinations) or raise the limit.
 
 Factors tables are long: columns combination, load_case, factor, kind ('ULS' or 'SLS'); zero
 factors are left out. Names spell out the factors ("ULS 1.35 dead + 1.50 floor + 0.90 wind_x").
@@ -29,7 +37,8 @@ factors are left out. Names spell out the factors ("ULS 1.35 dead + 1.50 floor +
 from __future__ import annotations
 
 import itertools
-from collections.abc import Iterable, Mapping
+import math
+from collections.abc import Iterable, Mapping, Sequence
 
 import numpy as np
 import pandas as pd
@@ -58,6 +67,9 @@ CATEGORIES = (PERMANENT, *PSI)
 METHODS = ("6.10", "6.10ab")
 FAVOURABLE_PERMANENT = ("wind", "all", "none")
 FACTORS_COLUMNS = ["combination", "load_case", "factor", "kind"]
+# EN 1990:2002, Table A1.2(B), recommended values (NDPs)
+TABLE_A1_2B = {"gamma_G_sup": 1.35, "gamma_G_inf": 1.00, "gamma_Q": 1.50, "xi": 0.85}
+MAX_COMBINATIONS = 2000  # generated per kind (ULS, SLS) unless [combinations] max_combinations
 
 
 def psi_factors(categories: Iterable[str], *, psi: Mapping[str, tuple[float, float, float]] | None
@@ -70,10 +82,13 @@ def psi_factors(categories: Iterable[str], *, psi: Mapping[str, tuple[float, flo
     return np.array([table[c] if c in table else (np.nan,) * 3 for c in categories], dtype=float)
 
 
-def check_cases(cases: pd.DataFrame, *, file: str | None = None) -> pd.DataFrame:
+def check_cases(cases: pd.DataFrame, *, file: str | None = None, rows: Sequence[int] | None = None,
+                field_prefix: str | None = None) -> pd.DataFrame:
     """Validate a load case table (load_case, category, optional group and psi_0); return a copy.
 
-    Raises InputError naming the row, the field, the value and the allowed values.
+    Raises InputError naming the place, the field, the value and the allowed values. The place
+    is `rows[k]` (a table's own row numbers; default k + 1) or, with `field_prefix`, the field
+    `<field_prefix>.<load case>.<column>` (a project file table).
     """
     for column in ("load_case", "category"):
         if column not in cases.columns:
@@ -83,21 +98,32 @@ def check_cases(cases: pd.DataFrame, *, file: str | None = None) -> pd.DataFrame
     if "group" not in out.columns:
         out["group"] = ""
     out["group"] = out["group"].fillna("").astype(str)
+
+    def refuse(k: int, column: str, message: str) -> None:
+        if field_prefix is not None:
+            raise InputError(message, file=file,
+                             field=f"{field_prefix}.{out['load_case'].iloc[k]}.{column}")
+        row = int(rows[k]) if rows is not None else k + 1
+        raise InputError(message, file=file, row=row, field=column)
+
     for k, (name, category) in enumerate(zip(out["load_case"], out["category"])):
         if not isinstance(category, str) or category not in CATEGORIES:
-            raise InputError(f"load case {name!r} has category {category!r}; allowed: "
-                             f"{', '.join(CATEGORIES)}", file=file, row=k + 1, field="category")
+            refuse(k, "category", f"load case {name!r} has category {category!r}; allowed: "
+                   f"{', '.join(CATEGORIES)}")
     duplicated = out["load_case"].duplicated()
     if duplicated.any():
         k = int(np.argmax(duplicated.to_numpy()))
-        raise InputError(f"load case {out['load_case'].iloc[k]!r} is listed twice", file=file,
-                         row=k + 1, field="load_case")
+        refuse(k, "load_case", f"load case {out['load_case'].iloc[k]!r} is listed twice")
     if "psi_0" in out.columns:
         bad = out["psi_0"].notna() & ~out["psi_0"].between(0.0, 1.0)
         if bad.any():
             k = int(np.argmax(bad.to_numpy()))
-            raise InputError(f"psi_0 = {out['psi_0'].iloc[k]} is outside 0 to 1", file=file,
-                             row=k + 1, field="psi_0")
+            refuse(k, "psi_0", f"psi_0 = {out['psi_0'].iloc[k]} is outside 0 to 1")
+    permanent_group = (out["category"] == PERMANENT) & (out["group"] != "")
+    if permanent_group.any():
+        k = int(np.argmax(permanent_group.to_numpy()))
+        refuse(k, "group", "a permanent load case always acts, so it cannot be in an exclusive "
+               "group")
     return out
 
 
@@ -114,22 +140,106 @@ def _name(kind: str, prefix: str, terms: list[tuple[str, float]]) -> str:
     return f"{kind} {prefix}{body}"
 
 
-def _accompanying_sets(variable: pd.DataFrame, leading: str | None) -> list[list[str]]:
-    """Every way of picking accompanying cases: all ungrouped ones, one per exclusive group."""
+def _choices(variable: pd.DataFrame, leading: str | None) -> list[list[str | None]]:
+    """Independent choices of accompanying cases; None stands for "left out".
+
+    One choice per ungrouped case (the case, or None) and one per exclusive group other than the
+    leading case's (one of its cases, or None). The case comes first so that the full set is the
+    first one `itertools.product` yields.
+    """
     lead_group = ""
     if leading is not None:
         lead_group = variable.loc[variable["load_case"] == leading, "group"].iloc[0]
     others = variable[variable["load_case"] != leading]
-    free = others.loc[others["group"] == "", "load_case"].tolist()
-    choices = [others.loc[others["group"] == g, "load_case"].tolist()
-               for g in others["group"].unique() if g and g != lead_group]
-    return [free + list(pick) for pick in itertools.product(*choices)]
+    free = [[c, None] for c in others.loc[others["group"] == "", "load_case"]]
+    groups = [[*others.loc[others["group"] == g, "load_case"], None]
+              for g in others["group"].unique() if g and g != lead_group]
+    return free + groups
 
 
-def uls_combinations(cases: pd.DataFrame, *, method: str = "6.10", gamma_G_sup: float = 1.35,
-                     gamma_G_inf: float = 1.00, gamma_Q: float = 1.50, xi: float = 0.85,
+def _accompanying_sets(variable: pd.DataFrame, leading: str | None) -> list[list[str]]:
+    """Every set of accompanying cases that can act together (rule 1 of the module docstring)."""
+    return [[c for c in pick if c is not None]
+            for pick in itertools.product(*_choices(variable, leading))]
+
+
+def _set_count(variable: pd.DataFrame, leading: str | None, *, without: set[str] = frozenset()
+               ) -> int:
+    """How many sets `_accompanying_sets` gives, counted without building them; cases in
+    `without` are taken as never present (to count the sets holding none of them)."""
+    return math.prod(sum(c is None or c not in without for c in choice)
+                     for choice in _choices(variable, leading))
+
+
+def _favourable_g(favourable_permanent: str, category: Mapping[str, str], lead: str | None,
+                  others: list[str]) -> bool:
+    """Rule 2: is a gamma_G,inf combination wanted for this leading case and set?"""
+    if favourable_permanent == "all":
+        return lead is not None or bool(others)
+    if favourable_permanent == "wind":
+        return (category[lead] == "wind" if lead is not None
+                else any(category[c] == "wind" for c in others))
+    return False
+
+
+def _check_options(method: str, favourable_permanent: str) -> None:
+    if method not in METHODS:
+        raise InputError(f"combination method {method!r} is not known; use one of "
+                         f"{', '.join(METHODS)}", field="combinations.method")
+    if favourable_permanent not in FAVOURABLE_PERMANENT:
+        raise InputError(f"favourable_permanent {favourable_permanent!r} is not known; use one of "
+                         f"{', '.join(FAVOURABLE_PERMANENT)}",
+                         field="combinations.favourable_permanent")
+
+
+def uls_count(cases: pd.DataFrame, *, method: str = "6.10", favourable_permanent: str = "wind"
+              ) -> int:
+    """How many ULS combinations `uls_combinations` generates before identical ones are dropped.
+
+    Counted from the choices alone (nothing is built), so a limit can be enforced up front.
+    """
+    _check_options(method, favourable_permanent)
+    cases = check_cases(cases)
+    category = dict(zip(cases["load_case"], cases["category"]))
+    variable = cases[cases["category"] != PERMANENT]
+    wind = {c for c, k in category.items() if k == "wind"}
+    count = 1
+    if method == "6.10ab":
+        sets = _set_count(variable, None)
+        count += sets
+        if favourable_permanent == "all":
+            count += sets - 1  # every set but the empty one
+        elif favourable_permanent == "wind":
+            count += sets - _set_count(variable, None, without=wind)
+    for lead in variable["load_case"]:
+        sets = _set_count(variable, lead)
+        count += sets * (2 if _favourable_g(favourable_permanent, category, lead, []) else 1)
+    return count
+
+
+def sls_count(cases: pd.DataFrame) -> int:
+    """How many characteristic SLS combinations are generated before identical ones are dropped."""
+    cases = check_cases(cases)
+    variable = cases[cases["category"] != PERMANENT]
+    return 1 + sum(_set_count(variable, lead) for lead in variable["load_case"])
+
+
+def _refuse_too_many(count: int, limit: int, what: str) -> None:
+    if count > limit:
+        raise InputError(
+            f"{count} {what} combinations would be generated, more than the limit of {limit}: "
+            "put load cases that cannot act together into one group, give the combinations "
+            "explicitly (method = \"none\" with [combinations.extra] or combinations.csv), or "
+            "raise max_combinations", field="combinations.max_combinations")
+
+
+def uls_combinations(cases: pd.DataFrame, *, method: str = "6.10",
+                     gamma_G_sup: float = TABLE_A1_2B["gamma_G_sup"],
+                     gamma_G_inf: float = TABLE_A1_2B["gamma_G_inf"],
+                     gamma_Q: float = TABLE_A1_2B["gamma_Q"], xi: float = TABLE_A1_2B["xi"],
                      psi: Mapping[str, tuple[float, float, float]] | None = None,
-                     favourable_permanent: str = "wind") -> pd.DataFrame:
+                     favourable_permanent: str = "wind",
+                     limit: int = MAX_COMBINATIONS) -> pd.DataFrame:
     """EN 1990:2002, 6.4.3.2, eq. (6.10) or (6.10a)/(6.10b), factors of Table A1.2(B).
 
     Args:
@@ -139,18 +249,14 @@ def uls_combinations(cases: pd.DataFrame, *, method: str = "6.10", gamma_G_sup: 
         gamma_G_sup, gamma_G_inf, gamma_Q, xi: Table A1.2(B) NDPs, recommended values.
         psi: per-category (psi_0, psi_1, psi_2) overriding Table A1.1 (NDP).
         favourable_permanent: where a gamma_G,inf combination is added: 'wind', 'all', 'none'.
+        limit: most combinations that may be generated (InputError beyond it).
 
     Returns:
         Long factors table: combination, load_case, factor, kind ('ULS'); the module docstring
-        gives the rules.
+        gives the rules. `attrs` holds 'generated' and 'identical' (dropped) counts.
     """
-    if method not in METHODS:
-        raise InputError(f"combination method {method!r} is not known; use one of "
-                         f"{', '.join(METHODS)}", field="combinations.method")
-    if favourable_permanent not in FAVOURABLE_PERMANENT:
-        raise InputError(f"favourable_permanent {favourable_permanent!r} is not known; use one of "
-                         f"{', '.join(FAVOURABLE_PERMANENT)}",
-                         field="combinations.favourable_permanent")
+    _refuse_too_many(uls_count(cases, method=method, favourable_permanent=favourable_permanent),
+                     limit, "ULS")
     cases = check_cases(cases)
     psi_0 = dict(zip(cases["load_case"], _psi_0(cases, psi)))
     category = dict(zip(cases["load_case"], cases["category"]))
@@ -173,25 +279,29 @@ def uls_combinations(cases: pd.DataFrame, *, method: str = "6.10", gamma_G_sup: 
     if method == "6.10ab":
         for others in _accompanying_sets(variable, None):
             add("(6.10a) ", gamma_G_sup, None, 0.0, others)
+            if _favourable_g(favourable_permanent, category, None, others):
+                add("(6.10a) ", gamma_G_inf, None, 0.0, others)
+    prefix, g_sup = ("", gamma_G_sup) if method == "6.10" else ("(6.10b) ", xi * gamma_G_sup)
     for lead in variable["load_case"]:
-        for others in _accompanying_sets(variable, lead):
-            if method == "6.10":
-                add("", gamma_G_sup, lead, gamma_Q, others)
-            else:
-                add("(6.10b) ", xi * gamma_G_sup, lead, gamma_Q, others)
-        if favourable_permanent == "all" or (favourable_permanent == "wind"
-                                             and category[lead] == "wind"):
-            add("" if method == "6.10" else "(6.10b) ", gamma_G_inf, lead, gamma_Q, [])
+        sets = _accompanying_sets(variable, lead)
+        for others in sets:
+            add(prefix, g_sup, lead, gamma_Q, others)
+        if _favourable_g(favourable_permanent, category, lead, []):
+            for others in sets:
+                add(prefix, gamma_G_inf, lead, gamma_Q, others)
     return _long(combos, prefixes, "ULS")
 
 
 def sls_characteristic_combinations(cases: pd.DataFrame, *, psi: Mapping[str, tuple[float, float,
-                                    float]] | None = None) -> pd.DataFrame:
+                                    float]] | None = None, limit: int = MAX_COMBINATIONS
+                                    ) -> pd.DataFrame:
     """EN 1990:2002, 6.5.3, eq. (6.14b): characteristic combination, each variable action leading.
 
-    Permanent cases with factor 1, the leading variable case 1, the others psi_0 (rules for
-    groups as in `uls_combinations`). Returns the long factors table with kind 'SLS'.
+    Permanent cases with factor 1, the leading variable case 1, and each set of accompanying
+    cases that can act together with psi_0 (rule 1 of the module docstring: a favourable
+    accompanying action is left out). Returns the long factors table with kind 'SLS'.
     """
+    _refuse_too_many(sls_count(cases), limit, "SLS")
     cases = check_cases(cases)
     psi_0 = dict(zip(cases["load_case"], _psi_0(cases, psi)))
     permanent = cases.loc[cases["category"] == PERMANENT, "load_case"].tolist()
@@ -207,8 +317,11 @@ def sls_characteristic_combinations(cases: pd.DataFrame, *, psi: Mapping[str, tu
 
 
 def _long(combos: list[list[tuple[str, float]]], prefixes: list[str], kind: str) -> pd.DataFrame:
-    """Long factors table from term lists; identical combinations are kept once."""
-    records, seen = [], set()
+    """Long factors table from term lists; identical combinations are kept once.
+
+    `attrs['generated']` and `attrs['identical']` count the term lists and the dropped repeats.
+    """
+    records, seen, names = [], set(), set()
     for terms, prefix in zip(combos, prefixes):
         key = tuple(sorted((c, round(f, 10)) for c, f in terms))
         if key in seen:
@@ -216,10 +329,13 @@ def _long(combos: list[list[tuple[str, float]]], prefixes: list[str], kind: str)
         seen.add(key)
         name = base = _name(kind, prefix, terms)
         k = 2
-        while any(r[0] == name for r in records):  # equal to 2 decimals, different beyond
+        while name in names:  # equal to 2 decimals, different beyond
             name, k = f"{base} ({k})", k + 1
+        names.add(name)
         records += [(name, case, float(f), kind) for case, f in terms]
-    return pd.DataFrame.from_records(records, columns=FACTORS_COLUMNS)
+    table = pd.DataFrame.from_records(records, columns=FACTORS_COLUMNS)
+    table.attrs.update(generated=len(combos), identical=len(combos) - len(seen))
+    return table
 
 
 def explicit_combinations(table: Mapping, *, known_cases: Iterable[str], file: str | None = None,
@@ -251,48 +367,187 @@ def explicit_combinations(table: Mapping, *, known_cases: Iterable[str], file: s
     return pd.DataFrame.from_records(records, columns=FACTORS_COLUMNS)
 
 
-def project_combinations(cases: pd.DataFrame, settings: Mapping, *, file: str | None = None
-                         ) -> pd.DataFrame:
-    """All combinations a project's [combinations] table asks for (see docs/opensees.md).
+GENERATION_KEYS = ("sls", "favourable_permanent", "gamma_G_sup", "gamma_G_inf", "gamma_Q", "xi",
+                   "max_combinations")
+COMBINATION_KEYS = ("method", *GENERATION_KEYS, "extra")
 
-    Keys: method ('6.10', '6.10ab' or 'none' for explicit combinations only), sls (bool, default
-    true), favourable_permanent, gamma_G_sup, gamma_G_inf, gamma_Q, xi, and extra (explicit
-    combinations, merged in; a name already generated is an error).
+
+def project_combinations(cases: pd.DataFrame | None, settings: Mapping, *,
+                         file: str | None = None, known_cases: Iterable[str] | None = None,
+                         explicit: pd.DataFrame | None = None) -> pd.DataFrame:
+    """All combinations a project's [combinations] table asks for (docs/project-file.md).
+
+    Args:
+        cases: the load case table (load_case, category, group, psi_0), or None where no load
+            case has a category (then only explicit combinations are possible).
+        settings: the [combinations] table. Keys: method ('6.10', '6.10ab' or 'none' for
+            explicit combinations only; default '6.10' with categories, else 'none'), sls (bool,
+            default true), favourable_permanent, gamma_G_sup, gamma_G_inf, gamma_Q, xi,
+            max_combinations (per kind, default MAX_COMBINATIONS), and extra (explicit
+            combinations, merged in). A key that cannot be used is an error, never ignored.
+        file: the project file, for messages.
+        known_cases: load cases an explicit combination may name (default: those of `cases`).
+        explicit: more explicit combinations (a long factors table, e.g. from combinations.csv).
+
+    Returns:
+        The long factors table; a combination name given twice is an error. `attrs['note']`
+        says how many combinations were generated, dropped as identical, and given explicitly.
     """
-    known_keys = {"method", "sls", "favourable_permanent", "gamma_G_sup", "gamma_G_inf",
-                  "gamma_Q", "xi", "extra"}
-    unknown = sorted(set(settings) - known_keys)
+    if not isinstance(settings, Mapping):
+        raise InputError("[combinations] is a table of settings (method = \"6.10\", ...)",
+                         file=file, field="combinations")
+    unknown = sorted(set(settings) - set(COMBINATION_KEYS))
     if unknown:
         raise InputError(f"unknown key(s) {', '.join(unknown)}; known: "
-                         f"{', '.join(sorted(known_keys))}", file=file, field="combinations")
-    method = settings.get("method", "6.10")
+                         f"{', '.join(sorted(COMBINATION_KEYS))}", file=file, field="combinations")
+    method = settings.get("method", "6.10" if cases is not None else "none")
+    if method not in (*METHODS, "none"):
+        raise InputError(f"method {method!r} is not known; use one of {', '.join(METHODS)} or "
+                         "'none'", file=file, field="combinations.method")
+    if method != "none" and cases is None:
+        raise InputError(f"method = {method!r} builds combinations from load case categories, "
+                         "but no load case has one: give them (load_cases.csv or [load_cases]) "
+                         "or set method = \"none\"", file=file, field="combinations.method")
+    unused = [k for k in GENERATION_KEYS if k in settings] if method == "none" else []
+    if unused:
+        raise InputError(f"{', '.join(unused)} only act on generated combinations, and none are "
+                         "generated here (method \"none\" or no load case categories); remove "
+                         "it", file=file, field=f"combinations.{unused[0]}")
     ndp = {k: settings[k] for k in ("gamma_G_sup", "gamma_G_inf", "gamma_Q", "xi") if k in settings}
     for k, v in ndp.items():
-        if not isinstance(v, (int, float)) or not 0.0 <= v <= 3.0:
+        if not isinstance(v, (int, float)) or isinstance(v, bool) or not 0.0 <= v <= 3.0:
             raise InputError(f"{k} = {v!r} must be a number from 0 to 3", file=file,
                              field=f"combinations.{k}")
-    parts = []
+    sls = settings.get("sls", True)
+    if not isinstance(sls, bool):
+        raise InputError(f"sls = {sls!r} must be true or false", file=file,
+                         field="combinations.sls")
+    limit = settings.get("max_combinations", MAX_COMBINATIONS)
+    if not isinstance(limit, int) or isinstance(limit, bool) or limit < 1:
+        raise InputError(f"max_combinations = {limit!r} must be a whole number, 1 or more",
+                         file=file, field="combinations.max_combinations")
+    parts, counts = [], []
     try:
         if method != "none":
-            parts.append(uls_combinations(
-                cases, method=method,
-                favourable_permanent=settings.get("favourable_permanent", "wind"), **ndp))
-            if settings.get("sls", True):
-                parts.append(sls_characteristic_combinations(cases))
+            uls = uls_combinations(
+                cases, method=method, limit=limit,
+                favourable_permanent=settings.get("favourable_permanent", "wind"), **ndp)
+            parts.append(uls)
+            counts.append(("ULS", uls))
+            if sls:
+                sls_table = sls_characteristic_combinations(cases, limit=limit)
+                parts.append(sls_table)
+                counts.append(("SLS", sls_table))
     except InputError as exc:
-        raise InputError(str(exc), file=file) from None
-    extra = explicit_combinations(settings.get("extra", {}), known_cases=cases["load_case"],
-                                  file=file)
-    clash = set(extra["combination"]) & set().union(*[set(p["combination"]) for p in parts])
-    if clash:
-        raise InputError(f"combination name(s) {', '.join(sorted(clash))} are also generated; "
-                         "choose another name", file=file, field="combinations.extra")
-    parts.append(extra)
+        raise InputError(exc.message, file=exc.file or file, row=exc.row,
+                         field=exc.field) from None
+    known = cases["load_case"] if known_cases is None else known_cases
+    given = [explicit_combinations(settings.get("extra", {}), known_cases=known, file=file)]
+    if explicit is not None:
+        given.append(explicit[FACTORS_COLUMNS])
+    for extra in given:
+        taken = set().union(*[set(p["combination"]) for p in parts])
+        clash = set(extra["combination"]) & taken
+        if clash:
+            raise InputError(f"combination name(s) {', '.join(sorted(clash))} are given twice "
+                             "(generated, or in [combinations.extra] and combinations.csv); "
+                             "choose another name", file=file, field="combinations.extra")
+        parts.append(extra)
     factors = pd.concat(parts, ignore_index=True)
     if factors.empty:
-        raise InputError("no load combinations: give [load_cases] or [combinations.extra]",
-                         file=file, field="combinations")
+        raise InputError("no load combinations: give load case categories, "
+                         "[combinations.extra] or combinations.csv", file=file,
+                         field="combinations")
+    n_explicit = sum(g["combination"].nunique() for g in given)
+    note = combination_note(counts, n_explicit)
+    if method != "none":
+        used = {"method": method, "sls": str(sls).lower(),
+                "favourable_permanent": settings.get("favourable_permanent", "wind"),
+                **{k: f"{v:.2f}" for k, v in {**TABLE_A1_2B, **ndp}.items()},
+                "max_combinations": limit}
+        if method == "6.10":
+            del used["xi"]
+        note += "; settings: " + ", ".join(f"{k} {v}" for k, v in used.items())
+    factors.attrs["note"] = note
     return factors
+
+
+def combination_note(counts: list[tuple[str, pd.DataFrame]], n_explicit: int) -> str:
+    """One line saying how many combinations were generated, dropped as identical and kept."""
+    parts = [f"{kind} {t.attrs['generated']} generated, {t.attrs['identical']} identical "
+             f"dropped, {t['combination'].nunique()} kept" for kind, t in counts]
+    if counts:
+        parts[0] += (" (EN 1990 6.4.3.2: every leading action with every set of accompanying "
+                     "actions that can act together)")
+    if n_explicit:
+        parts.append(f"{n_explicit} given explicitly")
+    return "load combinations: " + "; ".join(parts)
+
+
+def load_case_table(table: Mapping, *, file: str, patterns: list[str] | None = None
+                    ) -> pd.DataFrame:
+    """The project file's [load_cases]: name = "category" or {category, group, psi_0, pattern}.
+
+    `patterns` are the model's load patterns (OpenSees route): a load case names one with
+    `pattern` (default: its own name), and every pattern needs exactly one load case. Without
+    patterns (tables route) the names are the load cases of the forces table and `pattern` is
+    refused. Returns the checked load case table (load_case, category, group, psi_0 and, with
+    patterns, pattern).
+    """
+    if not isinstance(table, Mapping):
+        raise InputError("[load_cases] is a table: name = \"category\" or { category = ... }",
+                         file=file, field="load_cases")
+    keys = {"category", "group", "psi_0"} | ({"pattern"} if patterns is not None else set())
+    records = []
+    for name, spec in table.items():
+        where = f"load_cases.{name}"
+        if isinstance(spec, str):
+            spec = {"category": spec}
+        if not isinstance(spec, Mapping) or "category" not in spec:
+            example = ("dead = { category = \"permanent\", pattern = 1 } or \"1\" = "
+                       "\"permanent\"" if patterns is not None else
+                       "dead = \"permanent\" or wind_x = { category = \"wind\", group = "
+                       "\"wind\" }")
+            raise InputError(f"give the category, e.g. {example}", file=file, field=where)
+        unknown = sorted(set(spec) - keys)
+        if unknown:
+            why = ("; pattern names an OpenSees load pattern and the tables route has none (the "
+                   "name is the load case of the forces table)" if "pattern" in unknown
+                   and patterns is None else "")
+            raise InputError(f"unknown key(s) {', '.join(unknown)}; known: "
+                             f"{', '.join(sorted(keys))}{why}", file=file, field=where)
+        psi_0 = spec.get("psi_0", np.nan)
+        if not isinstance(psi_0, (int, float)) or isinstance(psi_0, bool):
+            raise InputError(f"psi_0 = {psi_0!r} must be a number from 0 to 1", file=file,
+                             field=f"{where}.psi_0")
+        group = spec.get("group", "")
+        if not isinstance(group, str):
+            raise InputError(f"group = {group!r} must be a name (text)", file=file,
+                             field=f"{where}.group")
+        record = {"load_case": str(name), "category": spec["category"], "group": group,
+                  "psi_0": float(psi_0)}
+        if patterns is not None:
+            pattern = str(spec.get("pattern", name))
+            if pattern not in patterns:
+                raise InputError(f"load pattern {pattern} is not in the model (its patterns: "
+                                 f"{', '.join(patterns) or 'none'})", file=file, field=where)
+            record["pattern"] = pattern
+        records.append(record)
+    columns = ["load_case", "category", "group", "psi_0"] + (["pattern"] if patterns is not None
+                                                             else [])
+    cases = pd.DataFrame.from_records(records, columns=columns)
+    if patterns is not None:
+        missing = [p for p in patterns if p not in set(cases["pattern"])]
+        if missing:
+            raise InputError(f"load pattern(s) {', '.join(missing)} of the model have no "
+                             f"category; add e.g. \"{missing[0]}\" = \"permanent\" under "
+                             f"[load_cases] (categories: {', '.join(CATEGORIES)})", file=file,
+                             field="load_cases")
+        twice = cases["pattern"].duplicated()
+        if twice.any():
+            raise InputError(f"load pattern {cases['pattern'][twice].iloc[0]} is named by two "
+                             "load cases", file=file, field="load_cases")
+    return check_cases(cases, file=file, field_prefix="load_cases")
 
 
 def superpose(case_forces: pd.DataFrame, factors: pd.DataFrame, *,

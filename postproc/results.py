@@ -44,12 +44,15 @@ class Results:
         displacements: columns combination, node, ux_m .. rz_rad; may be empty.
         reactions: columns combination, node, and force and moment components in global axes
             (FX_N, FY_N, FZ_N, MX_Nm, MY_Nm, MZ_Nm); may be empty.
+        notes: lines the adapter wants the user to read about how the results were made
+            (for example how many load combinations were generated and dropped).
     """
 
     forces: pd.DataFrame
     combinations: pd.DataFrame
     displacements: pd.DataFrame | None = None
     reactions: pd.DataFrame | None = None
+    notes: tuple[str, ...] = ()
 
 
 def empty_combinations() -> pd.DataFrame:

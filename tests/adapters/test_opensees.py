@@ -670,3 +670,22 @@ def test_truss_members_carry_axial_force_only(tmp_path):
     moments = results.forces[["Vy_N", "Vz_N", "T_Nm", "My_Nm", "Mz_Nm"]].to_numpy()
     assert not moments.any()
     assert (frame.elements["release_i"] == "My").all()
+
+
+def test_portal_combinations_leave_the_relieving_wind_out():
+    """The bundled portal: snow and roof access in one group, two wind directions in another.
+
+    Hand enumeration, eq. (6.10) (EN 1990 6.4.3.2, Table A1.2(B) note 2: gamma_Q = 0 for a
+    favourable action): permanent only 1; snow leading with wind none / left / right 3; roof
+    access leading 3; each wind leading with roof none / snow / access 3 + 3, access with
+    psi_0 = 0 (Table A1.1, category H) equal to none: 2 identical; the same with gamma_G,inf:
+    6, 2 identical. 19 generated, 15 ULS kept. SLS (eq. 6.14b): 13 generated, 2 identical, 11.
+    """
+    project_file = ROOT / "examples" / "portal_shed" / "project.toml"
+    _, results = opensees.load(tomllib.loads(project_file.read_text()), project_file)
+    kinds = results.combinations["kind"].value_counts()
+    assert (kinds["ULS"], kinds["SLS"]) == (15, 11)
+    names = set(results.combinations.index)
+    assert {"ULS 1.35 dead + 1.50 snow", "ULS 1.35 dead + 1.50 roof_access",
+            "ULS 1.00 dead + 1.50 wind_left + 0.75 snow"} <= names
+    assert "ULS 19 generated, 4 identical dropped, 15 kept" in results.notes[0]

@@ -31,6 +31,29 @@ def _load(folder: Path):
     return tables.load(read_project(folder / "project.toml"))
 
 
+def _per_combination(demo: Path, names: str = "G") -> None:
+    """Turn the demo into forces per combination: load case G relabelled as a combination, no
+    load case table, no [combinations] settings (they act only on forces per load case)."""
+    folder = demo / "tables"
+    raw = pd.read_csv(folder / "forces.csv")
+    raw[raw["load_case"] == "G"].rename(columns={"load_case": "combination"}).to_csv(
+        folder / "forces.csv", index=False)
+    (folder / "load_cases.csv").unlink()
+    _drop_table(demo / "project.toml", "combinations")
+    (folder / "combinations.csv").write_text(f"combination,kind\n{names}\n")
+
+
+def _drop_table(project: Path, name: str) -> None:
+    """Remove the [name] table (up to the next table) from a project file."""
+    lines, out, skipping = project.read_text().splitlines(), [], False
+    for line in lines:
+        if line.startswith("["):
+            skipping = line.strip() == f"[{name}]"
+        if not skipping:
+            out.append(line)
+    project.write_text("\n".join(out) + "\n")
+
+
 def _edit(path: Path, transform) -> None:
     frame = pd.read_csv(path, dtype=str, keep_default_na=False)
     transform(frame).to_csv(path, index=False)
@@ -46,11 +69,9 @@ def test_demo_reads_into_si(demo: Path) -> None:
 
 def test_forces_per_combination_convert_units(demo: Path) -> None:
     """kN -> N and kNm -> Nm by the unit definitions; one combination = one load case x 1.0."""
-    folder = demo / "tables"
-    raw = pd.read_csv(folder / "forces.csv")
-    g = raw[raw["load_case"] == "G"].rename(columns={"load_case": "combination"})
-    g.to_csv(folder / "forces.csv", index=False)
-    (folder / "load_cases.csv").unlink()
+    g = pd.read_csv(demo / "tables" / "forces.csv")
+    g = g[g["load_case"] == "G"]
+    _per_combination(demo, "G,ULS")
     _, results = _load(demo)
     first = results.forces.iloc[0]
     source = g[(g["element"] == first["element"]) & (g["x [m]"] == first["x_m"])].iloc[0]
@@ -60,12 +81,7 @@ def test_forces_per_combination_convert_units(demo: Path) -> None:
 
 
 def test_listed_combination_without_forces_is_refused(demo: Path) -> None:
-    folder = demo / "tables"
-    raw = pd.read_csv(folder / "forces.csv")
-    raw[raw["load_case"] == "G"].rename(columns={"load_case": "combination"}).to_csv(
-        folder / "forces.csv", index=False)
-    (folder / "load_cases.csv").unlink()
-    (folder / "combinations.csv").write_text("combination,kind\nG,ULS\nULS-EMPTY,ULS\n")
+    _per_combination(demo, "G,ULS\nULS-EMPTY,ULS")
     with pytest.raises(InputError) as info:
         _load(demo)
     assert info.value.row == 3 and info.value.field == "combination"
