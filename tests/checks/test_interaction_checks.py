@@ -106,17 +106,33 @@ def test_worked_column_annex_a_and_both() -> None:
 
 
 def test_which_rows_it_applies_to_and_design_values() -> None:
+    """6.3.3 applies wherever a member is bent and could buckle: in compression, or with M_y on
+    a member free to buckle laterally, also without axial force or in tension."""
     x = np.linspace(0, L, S)
     N = np.array([np.full(S, -400e3),                 # compression and bending: applies
-                  np.full(S, +400e3),                 # tension and bending: not here
+                  np.full(S, +400e3),                 # tension and M_y, LTB possible: applies
                   np.full(S, -400e3),                 # compression, no bending: not here
-                  np.linspace(+100e3, -250e3, S)])    # compression at one end only: applies
-    My = np.array([-80e3 * x / L, 80e3 * x / L, 0 * x, 30e3 * (1 - x / L)])
-    blk = interaction_checks(make_rows(N, My, sway_y=np.zeros(4, bool)))[0]
-    assert list(blk.applies) == [True, False, False, True]
-    # N_Ed is the largest compression; M_y,Ed the largest magnitude, sign dropped.
-    np.testing.assert_allclose(blk.values["N_Ed_N"][[0, 3]], [400e3, 250e3])
-    np.testing.assert_allclose(blk.values["M_y_Ed_Nm"][[0, 3]], [80e3, 30e3])
+                  np.linspace(+100e3, -250e3, S),     # compression at one end only: applies
+                  np.zeros(S),                        # M_y without axial force: applies
+                  np.zeros(S),                        # M_z only, no axial force: not here
+                  np.full(S, +400e3)])                # tension and M_y, laterally restrained
+    My = np.array([-80e3 * x / L, 80e3 * x / L, 0 * x, 30e3 * (1 - x / L), 80e3 * x / L, 0 * x,
+                   80e3 * x / L])
+    Mz = np.zeros_like(My)
+    Mz[5] = 5e3
+    b = hand_buckling(7)
+    b["ltb_susceptible"][6] = False
+    blk = interaction_checks(make_rows(N, My, Mz, buckling=b, sway_y=np.zeros(7, bool)))[0]
+    assert list(blk.applies) == [True, True, False, True, True, False, False]
+    # N_Ed is the largest compression; M_y,Ed the largest magnitude, sign dropped; without
+    # compression N_Ed = 0 and the row says why (tension ignored: common practice).
+    np.testing.assert_allclose(blk.values["N_Ed_N"][[0, 1, 3, 4]], [400e3, 0.0, 250e3, 0.0])
+    np.testing.assert_allclose(blk.values["M_y_Ed_Nm"][[0, 1, 3, 4]], [80e3, 80e3, 30e3, 80e3])
+    assert blk.values["N_Ed_basis"][0] == "largest compression"
+    assert blk.values["N_Ed_basis"][1] == "tension ignored: N_Ed = 0 (common practice)"
+    assert blk.values["N_t_Ed_N"][1] == 400e3
+    assert blk.values["N_Ed_basis"][4] == "no axial force"
+    assert blk.values["term_N"][1] == 0.0 and blk.reason[1] == ""
 
 
 def test_not_evaluated_rows_never_pass() -> None:
