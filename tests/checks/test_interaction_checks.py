@@ -310,3 +310,52 @@ def _with_lengths(rows: MemberRows, length: np.ndarray) -> MemberRows:
     from dataclasses import replace
     x = length[:, None] * np.linspace(0, 1, rows.x.shape[1])[None, :]
     return replace(rows, x=x, length=length)
+
+
+# --- settings for the open points of 6.3.3 ----------------------------------------------------
+def _with_settings(rows: MemberRows, **settings) -> MemberRows:
+    from dataclasses import replace
+    return replace(rows, settings=replace(rows.settings, **settings))
+
+
+def test_k_zy_zero_of_the_table_b1_note_only_where_the_setting_allows() -> None:
+    """Note to Table B.1: for I and H sections and rectangular hollow sections under axial
+    compression and uniaxial bending M_y,Ed, k_zy may be 0. Off by default (the table value,
+    0.6 k_yy for class 2, is kept); 'I' takes it for I sections; 'I and RHS' also for RHS;
+    never for CHS, for members susceptible to torsional deformation (Table B.2) or with M_z.
+    Worked column: (6.62) with k_zy = 0 is its axial term alone, n_z = 0.6539 (hand
+    calculation in tests/ec3/test_interaction_annex_b.py)."""
+    twist = np.array([False, False, False, True, False])
+    rows = worked_column(5, torsion_susceptible=twist)
+    shape = np.array(["I", "RHS", "CHS", "I", "I"], dtype=object)
+    rows.section["shape"] = shape
+    Mz = np.zeros_like(rows.My)
+    Mz[4] = 1e3  # biaxial bending: the note does not cover it
+    from dataclasses import replace
+    rows = replace(rows, Mz=Mz)
+    expected = {"off": [False] * 5, "I": [True, False, False, False, False],
+                "I and RHS": [True, True, False, False, False]}
+    for setting, zero in expected.items():
+        v = by_check(interaction_checks(_with_settings(rows, k_zy_zero=setting)))
+        e62 = v["interaction 6.62"]
+        assert list(e62.values["k_zy_zero"]) == zero, setting
+        k_zy, k_yy = e62.values["k_zy"], e62.values["k_yy"]
+        for r in range(5):
+            if zero[r]:
+                assert k_zy[r] == 0.0
+                assert e62.utilisation[r] == pytest.approx(0.6539, rel=HAND)
+            elif not twist[r]:
+                assert k_zy[r] == pytest.approx(0.6 * k_yy[r])  # Table B.1, class 2
+
+
+def test_setting_values_are_checked() -> None:
+    from postproc.errors import InputError
+    with pytest.raises(InputError, match="k_zy_zero"):
+        DesignSettings(k_zy_zero="RHS")
+    with pytest.raises(InputError, match="f_modification"):
+        DesignSettings(f_modification="yes")
+    settings = DesignSettings.from_mapping({"negligible_rules_in_interaction": True,
+                                            "k_zy_zero": "I and RHS", "f_modification": False})
+    echoed = settings.as_dict()  # what settings.csv and the report show
+    assert echoed["negligible_rules_in_interaction"] is True
+    assert echoed["k_zy_zero"] == "I and RHS" and echoed["f_modification"] is False
