@@ -193,8 +193,9 @@ def _common(rows: MemberRows) -> dict:
     beyond = d["N_Ed"] >= N_cr_min
     return {"b": b, "d": d, "sec": sec, "cls": cls, "twist": twist, "ltb": ltb, "chi_LT": chi_LT,
             "chi_y": chi_y, "chi_z": chi_z, "rules": rules, "res": res,
-            "rule_setting": rows.settings.negligible_rules_in_interaction, "x_seg": x_seg, "seg_note": seg_note, "reason": reason,
-            "beyond": beyond, "N_cr_min": N_cr_min, "diagrams": diagrams}
+            "rule_setting": rows.settings.negligible_rules_in_interaction, "x_seg": x_seg,
+            "seg_note": seg_note, "reason": reason, "beyond": beyond, "N_cr_min": N_cr_min,
+            "diagrams": diagrams}
 
 
 def _finish(rows: MemberRows, c: dict, eq: dict[str, np.ndarray], label: str, clause: str,
@@ -238,7 +239,8 @@ def _shared_values(c: dict, k: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
     return {"N_Ed_basis": d["basis"], "N_t_Ed_N": d["N_t_Ed"],
             "chi_y": c["chi_y"], "chi_z": c["chi_z"], "chi_LT": c["chi_LT"],
             "negligible_rules_applied": c["rules"],
-            "negligible_rules_in_interaction": np.full(R, c["rule_setting"]), "lambda_bar_y": np.asarray(b["lambda_bar_y"], float),
+            "negligible_rules_in_interaction": np.full(R, c["rule_setting"]),
+            "lambda_bar_y": np.asarray(b["lambda_bar_y"], float),
             "lambda_bar_z": np.asarray(b["lambda_bar_z"], float),
             "k_yy": k["k_yy"], "k_yz": k["k_yz"], "k_zy": k["k_zy"], "k_zz": k["k_zz"],
             "N_Rk_N": res["N_Rk_N"], "M_y_Rk_Nm": res["M_y_Rk_Nm"], "M_z_Rk_Nm": res["M_z_Rk_Nm"],
