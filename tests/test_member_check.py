@@ -243,3 +243,27 @@ def test_single_member_and_frame_run_agree(tmp_path) -> None:
                                "buckling_curve"].tolist()
     assert buckling == single.loc[["flexural buckling y-y", "flexural buckling z-z"],
                                   "buckling_curve"].tolist() == ["a", "a"]
+
+
+def test_6_3_3_takes_the_segment_that_governs_with_the_computed_chi_LT() -> None:
+    """IPE 400, S355, 8 m, lateral restraint at mid-length (two 4 m segments), N_Ed = 50 kN,
+    M_y from -20 kNm at the start to -40 kNm at mid-length, then -40 kNm uniform. In both
+    segments M_Ed / M_cr <= 0.16, so eq. (6.54) takes chi_LT = 1 in both and reports the first
+    of the two equal segments. Without that rule the uniform half governs (same moment, lower
+    M_cr): 6.3.3 must use its chi_LT, which is that of a 4 m member under the same uniform
+    moment (a reference computed by the single-segment path)."""
+    L, n = 8.0, 33
+    x = np.linspace(0.0, L, n)
+    my = np.interp(x, [0.0, L / 2, L], [-20e3, -40e3, -40e3])
+    out = check_member("IPE 400", "S355", length=L, N_Ed=-50e3, My_diagram=my, stations=n,
+                       L_LT=L / 2, sway_y=False, sway_z=False)
+    half = check_member("IPE 400", "S355", length=L / 2, N_Ed=-50e3, My_ends=(-40e3, -40e3),
+                        L_cr_y=L, L_cr_z=L, L_cr_T=L, sway_y=False, sway_z=False)
+    b = out["buckling"]
+    assert bool(b["ltb_negligible"]) and b["ltb_segment_start_m"] == 0.0
+    assert b["interaction_segment_start_m"] == pytest.approx(L / 2)
+    assert b["chi_LT_interaction"] == pytest.approx(half["buckling"]["chi_LT"], rel=1e-6)
+    assert b["chi_LT_interaction"] < b["chi_LT"]
+    e62 = _row(out["checks"], "interaction 6.62")
+    assert e62["chi_LT"] == pytest.approx(b["chi_LT_interaction"])
+    assert e62["C_mLT"] == pytest.approx(1.0)  # Table B.3, uniform moment in that segment
