@@ -267,3 +267,32 @@ def test_6_3_3_takes_the_segment_that_governs_with_the_computed_chi_LT() -> None
     e62 = _row(out["checks"], "interaction 6.62")
     assert e62["chi_LT"] == pytest.approx(b["chi_LT_interaction"])
     assert e62["C_mLT"] == pytest.approx(1.0)  # Table B.3, uniform moment in that segment
+
+
+def test_beam_in_biaxial_bending_annex_a() -> None:
+    """The IPE 270 beam above (N_Ed = 0) with Annex A. Hand calculation, written out:
+
+    Section (handbook values, from memory): W_el,y = 429 cm3, W_el,z = 62.2 cm3, I_y = 5790 cm4,
+    I_t = 15.9 cm4; M_cr,0 = 80.8 kNm (closed form, uniform moment, L = 5 m); C_1 = 2.53 and
+    chi_LT = 0.8936, M_y,Ed / (chi_LT M_pl,y) = 0.2605, M_z,Ed / M_pl,z = 0.0871 as above.
+    Table A.2: C_my,0 = 0.79 + 0.21 (-0.5) = 0.685; C_mz,0 = 1.0 (N_Ed = 0).
+    lambda_0 = sqrt(171.82 / 80.8) = 1.458 > 0.2 sqrt(2.53) = 0.318; eps_y = M_y,Ed / N_Ed A / W_el,y is
+    unbounded, so C_my = 0.685 + 0.315 * 1 = 1.0; a_LT = 1 - 15.9/5790 = 0.9973;
+    C_mLT = max(1, 1.0^2 * 0.9973) = 1.0. mu_y = mu_z = 1, n_pl = 0.
+    w_y = 484/429 = 1.128, w_z = min(97.0/62.2, 1.5) = 1.5; lambda_z = 2.165 (lambda_z^4 = 21.95).
+    b_LT = 0.5 * 0.9973 * 2.126 * 0.2605 * 0.0871 = 0.0241; C_yy = 1 - 0.128 * 0.0241 = 0.9969.
+    c_LT = 10 * 0.9973 * 2.126 / 26.95 * 0.2605 = 0.2049; C_yz = 1 - 0.5 * 0.2049 = 0.8976.
+    d_LT = 2 * 0.9973 * 1.458 / 22.05 * 0.2605 * 0.0871 = 0.0030; C_zy = 0.9996.
+    e_LT = 1.7 * 0.9973 * 1.458 / 22.05 * 0.2605 = 0.0292; C_zz = 1 - 0.5 * 0.0292 = 0.9854.
+    k_yy = 1 / 0.9969 = 1.0031; k_yz = 1 / 0.8976 * 0.6 sqrt(1.5/1.128) = 0.7708;
+    k_zy = 1 / 0.9996 * 0.6 sqrt(1.128/1.5) = 0.5206; k_zz = 1 / 0.9854 = 1.0148.
+    (6.61) = 1.0031 * 0.2605 + 0.7708 * 0.0871 = 0.3285;
+    (6.62) = 0.5206 * 0.2605 + 1.0148 * 0.0871 = 0.2240.
+    """
+    table = check_member("IPE 270", "S355", length=5.0, N_Ed=0.0, My_ends=(-40e3, 20e3),
+                         Mz_ends=(3e3, 3e3), sway_y=False, sway_z=False,
+                         settings=DesignSettings(annex="A"))["checks"]
+    e61, e62 = _row(table, "interaction 6.61"), _row(table, "interaction 6.62")
+    assert e61["utilisation"] == pytest.approx(0.3285, rel=HAND_CHAIN)
+    assert e62["utilisation"] == pytest.approx(0.2240, rel=HAND_CHAIN)
+    assert e61["C_my"] == pytest.approx(1.0) and e61["k_yy"] == pytest.approx(1.0031, rel=1e-3)
