@@ -16,6 +16,7 @@ from . import materials
 from .checker import CHECK_FAMILIES, _with_member_info, results_table
 from .checks.base import MemberRows
 from .errors import InputError
+from .member_rows import member_properties
 from .sections import build_sections
 from .settings import DesignSettings
 
@@ -80,14 +81,16 @@ def check_member(section: str | dict, grade: str = "S355", *, length: float,
     values = [N_Ed, *np.ravel(my), *np.ravel(mz)]
     if not np.isfinite(values).all():
         raise InputError("forces must be finite numbers", field="N_Ed/My/Mz")
-    f_y, f_u = materials.strengths([grade], np.array([props["t_max"]]))
+    # the frame run's member information (grade, strengths), built by the same function
+    section_arrays, f_y, f_u, member_info = member_properties(sections.iloc[:1], [grade])
     lengths = {}
     for key, value in (("L_cr_y", L_cr_y), ("L_cr_z", L_cr_z), ("L_LT", L_LT), ("L_cr_T", L_cr_T)):
         value = length if value is None else value
         if not value > 0:
             raise InputError(f"{key} must be positive, got {value}", field=key)
         lengths[key] = np.array([float(value)])
-    info = {"ltb_restrained": np.array([ltb_restrained]), "z_g": np.array([float(z_g)])}
+    info = {**member_info, "ltb_restrained": np.array([ltb_restrained]),
+            "z_g": np.array([float(z_g)])}
     if sway_y is not None:
         info["sway_y"] = np.array([sway_y])
     if sway_z is not None:
@@ -97,7 +100,7 @@ def check_member(section: str | dict, grade: str = "S355", *, length: float,
         member=np.array(["member"], dtype=object), combination=np.array(["given"], dtype=object),
         x=row(x), N=row(np.full(stations, N_Ed)), Vy=row(vy), Vz=row(vz),
         T=row(np.zeros(stations)), My=row(my), Mz=row(mz), length=np.array([length]),
-        section={k: np.array([v]) for k, v in props.items()}, f_y=f_y, f_u=f_u,
+        section=section_arrays, f_y=f_y, f_u=f_u,
         E=np.array([materials.E]), G=np.array([materials.G]), lengths=lengths, info=info,
         settings=settings)
     rows = _with_member_info(rows, None)

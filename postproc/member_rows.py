@@ -166,6 +166,29 @@ def _is_sorted(key: np.ndarray, x: np.ndarray) -> bool:
     return not (same & ~(x[1:] >= x[:-1])).any()
 
 
+def member_properties(section_rows: pd.DataFrame, grades: np.ndarray
+                      ) -> tuple[dict[str, np.ndarray], np.ndarray, np.ndarray,
+                                 dict[str, np.ndarray]]:
+    """What every check needs to know about a member besides its forces and lengths.
+
+    The one place that turns a member's section and steel grade into row data, used by the frame
+    run (`build_member_rows`) and by the single-member check (`postproc.member_check`).
+
+    Args:
+        section_rows: one row of the sections table per member (see `postproc.sections`).
+        grades: (M,) the members' steel grades as given.
+
+    Returns:
+        (section columns as (M,) arrays, f_y (M,), f_u (M,) from Table 3.1 by the thickest part,
+        info: 'grade' (M,) the canonical grade name, which selects the S460 column of Table 6.2).
+    """
+    section = {column: section_rows[column].to_numpy() for column in section_rows.columns}
+    grades = pd.Series(np.asarray(grades), dtype=object).astype(str)
+    f_y, f_u = materials.strengths(grades.to_numpy(), section["t_max"].astype(float))
+    canonical = {g: materials.grade_name(g) for g in grades.unique()}
+    return section, f_y, f_u, {"grade": grades.map(canonical).to_numpy()}
+
+
 def build_member_rows(frame: Frame, forces: pd.DataFrame, members: Members,
                       settings: DesignSettings, lengths: pd.DataFrame | None = None,
                       info: dict[str, np.ndarray] | None = None) -> MemberRows:
@@ -189,9 +212,8 @@ def build_member_rows(frame: Frame, forces: pd.DataFrame, members: Members,
     code = keys["member_code"].to_numpy()
     member_table = members.members
     section_rows = sections.loc[member_table["section"].to_numpy()]
-    per_member = {column: section_rows[column].to_numpy() for column in sections.columns}
-    f_y_m, f_u_m = materials.strengths(member_table["grade"].to_numpy(),
-                                       per_member["t_max"].astype(float))
+    per_member, f_y_m, f_u_m, info_m = member_properties(section_rows,
+                                                         member_table["grade"].to_numpy())
     section = {column: values[code] for column, values in per_member.items()}
     f_y, f_u = f_y_m[code], f_u_m[code]
     n = len(keys)
@@ -225,13 +247,11 @@ def build_member_rows(frame: Frame, forces: pd.DataFrame, members: Members,
                     out[~found] = None
                 row_info[column] = out
     # the member's local +z points up (load height above the shear centre is then +z_g), and
-    # its grade (Table 6.2 has its own column for S460)
+    # the member information of member_properties
     axes = member_axes(frame, members.members, members.member_elements)
     z_up_m = axes[:, 2, frame.vertical_axis] > 0.0
     row_info["z_up"] = z_up_m[code]
-    grades = member_table["grade"].astype(str)
-    canonical = {g: materials.grade_name(g) for g in grades.unique()}
-    row_info["grade"] = grades.map(canonical).to_numpy()[code]
+    row_info.update({key: values[code] for key, values in info_m.items()})
     row_info.update(info or {})
     return MemberRows(
         member=keys["member"].to_numpy(), combination=keys["combination"].to_numpy(),

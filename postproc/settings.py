@@ -12,6 +12,7 @@ from .errors import InputError
 
 ANNEXES = ("A", "B", "both")
 LTB_METHODS = ("general", "rolled")
+K_ZY_ZERO = ("off", "I", "I and RHS")
 
 
 @dataclass(frozen=True)
@@ -29,6 +30,16 @@ class DesignSettings:
         eta: shear area factor of 6.2.6(3); 1.0 is the conservative value that 6.2.6(3) allows.
         default_grade: steel grade for elements that name none.
         utilisation_limit: a check fails above this utilisation (1.0).
+        f_modification: 6.3.2.3(2): divide chi_LT by the factor f of eq. (6.58) (True, the
+            clause's "may"); False keeps chi_LT of eq. (6.57). Only with ltb_method 'rolled'.
+        negligible_rules_in_interaction: also apply, inside 6.3.3, the rules by which buckling
+            may be ignored: 6.3.1.2(4) (chi_y or chi_z = 1) and 6.3.2.2(4) (chi_LT = 1). False
+            (default): they apply to their own checks, eqs. (6.46) and (6.54), only, and 6.3.3
+            uses the computed reduction factors.
+        k_zy_zero: the note to Table B.1 (members not susceptible to torsional deformation,
+            axial compression with uniaxial bending M_y,Ed) allows k_zy = 0. 'off' (default)
+            keeps the table value; 'I' takes k_zy = 0 for I and H sections; 'I and RHS' also
+            for rectangular hollow sections. Circular hollow sections always keep it.
     """
 
     gamma_M0: float = 1.00
@@ -41,6 +52,9 @@ class DesignSettings:
     eta: float = 1.0
     default_grade: str = "S355"
     utilisation_limit: float = 1.0
+    f_modification: bool = True
+    negligible_rules_in_interaction: bool = False
+    k_zy_zero: str = "off"
 
     def __post_init__(self) -> None:
         if self.annex not in ANNEXES:
@@ -49,6 +63,13 @@ class DesignSettings:
         if self.ltb_method not in LTB_METHODS:
             raise InputError(f"ltb_method must be one of {', '.join(LTB_METHODS)}, "
                              f"got '{self.ltb_method}'", field="design.ltb_method")
+        if self.k_zy_zero not in K_ZY_ZERO:
+            raise InputError(f"k_zy_zero must be one of {', '.join(repr(k) for k in K_ZY_ZERO)}, "
+                             f"got '{self.k_zy_zero}'", field="design.k_zy_zero")
+        for name in ("f_modification", "negligible_rules_in_interaction"):
+            if not isinstance(getattr(self, name), bool):
+                raise InputError(f"{name} must be true or false, got {getattr(self, name)!r}",
+                                 field=f"design.{name}")
         for name in ("gamma_M0", "gamma_M1", "gamma_M2", "eta"):
             value = getattr(self, name)
             if not (0.5 <= value <= 2.0):

@@ -1,9 +1,12 @@
 """Check family 6.3.3: members in bending and axial compression, eqs. (6.61) and (6.62), with the
 interaction factors of Annex A, Annex B or both (`settings.annex`).
 
-Applies to rows with compression somewhere along the member (N < 0) together with bending
-(M_y or M_z not zero somewhere). Members in tension and bending are left to the cross-section and
-lateral-torsional buckling checks.
+Applies to every row that is bent (M_y or M_z not zero somewhere) and could buckle: with
+compression somewhere along the member (N < 0), or, without compression, where M_y is not zero
+and the member is susceptible to lateral-torsional buckling, so that the interaction of
+lateral-torsional buckling with minor-axis bending is checked for beams too. Without compression
+the equations are used with N_Ed = 0; a member in tension gets no credit for the tension (common
+practice), and the value 'N_Ed_basis' says which case a row is.
 
 Design values, per row: N_Ed = the largest compression along the member (as a positive number),
 M_y,Ed and M_z,Ed = the largest magnitudes along the member. The equivalent moment factors come
@@ -12,6 +15,12 @@ span between the member's end nodes being the one its buckling lengths refer to;
 within the lateral-torsional buckling segment given by the buckling values (the whole member
 where that segment is unknown or holds fewer than two stations). Every choice is echoed in the
 values.
+
+Reduction factors: the computed chi_y, chi_z (eq. 6.49) and chi_LT (6.3.2, the segment that
+governs with it). The rules by which buckling may be ignored, 6.3.1.2(4) and 6.3.2.2(4), belong to
+eqs. (6.46) and (6.54) and are used here only with `settings.negligible_rules_in_interaction`;
+'negligible_rules_applied' says which rule set a factor to 1 in a row. The k_zy = 0 of the note to
+Table B.1 is taken only as `settings.k_zy_zero` allows ('k_zy_zero' says where).
 
 Buckling quantities come from `rows.info['buckling']` when present, else from
 `postproc.checks.member_buckling.buckling_values(rows)`. Optional row data read from `rows.info`:
@@ -25,6 +34,7 @@ from __future__ import annotations
 import numpy as np
 import pandas as pd
 
+from ..ec3 import flexural_buckling as fb
 from ..ec3 import interaction_annex_a as annex_a
 from ..ec3 import interaction_annex_b as annex_b
 from ..ec3 import moment_factors as mf
@@ -66,8 +76,10 @@ def _nan_max(values: np.ndarray) -> np.ndarray:
 def _ltb_segment_moments(rows: MemberRows, b: dict[str, np.ndarray]
                          ) -> tuple[np.ndarray, np.ndarray]:
     """Stations of M_y inside the LTB segment (others NaN) and which diagram was used."""
-    start = np.asarray(b["ltb_segment_start_m"], dtype=float)[:, None]
-    end = np.asarray(b["ltb_segment_end_m"], dtype=float)[:, None]
+    start = np.asarray(b.get("interaction_segment_start_m", b["ltb_segment_start_m"]),
+                       dtype=float)[:, None]
+    end = np.asarray(b.get("interaction_segment_end_m", b["ltb_segment_end_m"]),
+                     dtype=float)[:, None]
     tol = 1e-6 * np.maximum(rows.length, 1.0)[:, None]  # stations at a restraint node count
     inside = (rows.x >= start - tol) & (rows.x <= end + tol)
     distinct = np.where(inside, rows.x, np.nan)
@@ -82,15 +94,53 @@ def _ltb_segment_moments(rows: MemberRows, b: dict[str, np.ndarray]
     return x_seg, note
 
 
+N_BASIS = np.array(["largest compression", "no axial force",
+                    "tension ignored: N_Ed = 0 (common practice)"], dtype=object)
+
+
 def _design_values(rows: MemberRows) -> dict[str, np.ndarray]:
     N = np.where(rows.valid, rows.N, np.nan)
     N_min = -_nan_max(-N)
+    N_max = _nan_max(N)
     M_y = _nan_max(np.abs(np.where(rows.valid, rows.My, np.nan)))
     M_z = _nan_max(np.abs(np.where(rows.valid, rows.Mz, np.nan)))
     compressed = N_min < 0
-    bending = (M_y > 0) | (M_z > 0)
+    tension = ~compressed & (N_max > 0)
     return {"N_Ed": np.where(compressed, -N_min, 0.0), "M_y_Ed": np.nan_to_num(M_y),
-            "M_z_Ed": np.nan_to_num(M_z), "applies": compressed & bending}
+            "M_z_Ed": np.nan_to_num(M_z), "compressed": compressed,
+            "N_t_Ed": np.where(tension, N_max, 0.0),
+            "basis": N_BASIS[np.where(compressed, 0, np.where(tension, 2, 1))]}
+
+
+def _reduction_factors(rows: MemberRows, b: dict[str, np.ndarray], N_Ed: np.ndarray,
+                       ltb: np.ndarray) -> tuple[np.ndarray, ...]:
+    """chi_y, chi_z, chi_LT for 6.3.3 and which 'may be ignored' rule set one of them to 1.
+
+    The computed values by default; with `settings.negligible_rules_in_interaction`, 1 where
+    6.3.1.2(4) (flexural) or 6.3.2.2(4) (lateral-torsional, applied in the buckling values)
+    allows buckling to be ignored.
+    """
+    rule = rows.settings.negligible_rules_in_interaction
+    R = rows.n_rows
+    out, hits = [], []
+    for axis in ("y", "z"):
+        chi = np.asarray(b[f"chi_{axis}"], dtype=float)
+        hit = np.zeros(R, bool)
+        if rule:
+            hit = fb.buckling_negligible(np.asarray(b[f"lambda_bar_{axis}"], float), N_Ed,
+                                         np.asarray(b[f"N_cr_{axis}_N"], float)) & ~np.isnan(chi)
+            chi = np.where(hit, 1.0, chi)
+        out.append(chi)
+        hits.append(hit)
+    chi_LT = np.asarray(b.get("chi_LT_interaction", b["chi_LT"]), dtype=float)
+    chi_LT = np.where(ltb, chi_LT, 1.0)
+    hits.append(ltb & np.asarray(b.get("ltb_negligible_interaction", np.zeros(R, bool)), bool))
+    # which rules set a factor to 1, as text: one code per combination of the three flags
+    code = hits[0] * 1 + hits[1] * 2 + hits[2] * 4
+    labels = ("chi_y = 1 (6.3.1.2(4))", "chi_z = 1 (6.3.1.2(4))", "chi_LT = 1 (6.3.2.2(4))")
+    texts = np.array(["; ".join(t for k, t in enumerate(labels) if c >> k & 1) or "none"
+                      for c in range(8)], dtype=object)
+    return out[0], out[1], chi_LT, texts[code]
 
 
 def _section_kind(shape: np.ndarray) -> np.ndarray:
@@ -112,7 +162,10 @@ def _common(rows: MemberRows) -> dict:
     cls = np.asarray(b["section_class_member"], dtype=float)
     twist = np.asarray(rows.info.get("torsion_susceptible", b["torsion_susceptible"]), dtype=bool)
     ltb = np.asarray(b["ltb_susceptible"], dtype=bool)
-    chi_LT = np.where(ltb, np.asarray(b["chi_LT"], dtype=float), 1.0)
+    # bent and able to buckle: compression, or M_y on a member that can buckle laterally
+    d["applies"] = ((d["M_y_Ed"] > 0) | (d["M_z_Ed"] > 0)) & (
+        d["compressed"] | (ltb & (d["M_y_Ed"] > 0)))
+    chi_y, chi_z, chi_LT, rules = _reduction_factors(rows, b, d["N_Ed"], ltb)
     res = annex_b.resistances_table_6_7(cls, rows.f_y, sec["A"], sec["W_pl_y"], sec["W_pl_z"],
                                         sec["W_el_y"], sec["W_el_z"])
     x_seg, seg_note = _ltb_segment_moments(rows, b)
@@ -128,9 +181,10 @@ def _common(rows: MemberRows) -> dict:
         _add(reason, (given != "") & ~pd.isna(given), given)  # NaN reasons: none
     _add(reason, cls == 4, CLASS_4)
     _add(reason, np.isnan(cls), "section class not known")
-    for key, name in (("chi_y", "chi_y"), ("chi_z", "chi_z"), ("lambda_bar_y", "lambda_bar_y"),
-                      ("lambda_bar_z", "lambda_bar_z")):
-        _add(reason, np.isnan(np.asarray(b[key], dtype=float)),
+    for name, value in (("chi_y", chi_y), ("chi_z", chi_z),
+                        ("lambda_bar_y", np.asarray(b["lambda_bar_y"], dtype=float)),
+                        ("lambda_bar_z", np.asarray(b["lambda_bar_z"], dtype=float))):
+        _add(reason, np.isnan(value),
              f"{name} not available (buckling length or section data missing)")
     _add(reason, np.isnan(chi_LT), "chi_LT not available (LTB length or M_cr missing)")
     # Lowest elastic critical force: flexural, and torsional where the member may twist.
@@ -138,8 +192,10 @@ def _common(rows: MemberRows) -> dict:
     N_cr_min = np.where(twist, np.fmin(N_cr_min, np.asarray(b["N_cr_T_N"], float)), N_cr_min)
     beyond = d["N_Ed"] >= N_cr_min
     return {"b": b, "d": d, "sec": sec, "cls": cls, "twist": twist, "ltb": ltb, "chi_LT": chi_LT,
-            "res": res, "x_seg": x_seg, "seg_note": seg_note, "reason": reason,
-            "beyond": beyond, "N_cr_min": N_cr_min, "diagrams": diagrams}
+            "chi_y": chi_y, "chi_z": chi_z, "rules": rules, "res": res,
+            "rule_setting": rows.settings.negligible_rules_in_interaction, "x_seg": x_seg,
+            "seg_note": seg_note, "reason": reason, "beyond": beyond, "N_cr_min": N_cr_min,
+            "diagrams": diagrams}
 
 
 def _finish(rows: MemberRows, c: dict, eq: dict[str, np.ndarray], label: str, clause: str,
@@ -169,18 +225,22 @@ def _equations(rows: MemberRows, c: dict, k: dict[str, np.ndarray]
                   M_z_Rk=res["M_z_Rk_Nm"], Delta_M_y_Ed=res["Delta_M_y_Ed_Nm"],
                   Delta_M_z_Ed=res["Delta_M_z_Ed_Nm"], gamma_M1=g)
     e61 = annex_b.interaction_6_61(d["N_Ed"], d["M_y_Ed"], d["M_z_Ed"],
-                                   chi_y=np.asarray(b["chi_y"], float), k_yy=k["k_yy"],
+                                   chi_y=c["chi_y"], k_yy=k["k_yy"],
                                    k_yz=k["k_yz"], **common)
     e62 = annex_b.interaction_6_62(d["N_Ed"], d["M_y_Ed"], d["M_z_Ed"],
-                                   chi_z=np.asarray(b["chi_z"], float), k_zy=k["k_zy"],
+                                   chi_z=c["chi_z"], k_zy=k["k_zy"],
                                    k_zz=k["k_zz"], **common)
     return e61, e62
 
 
 def _shared_values(c: dict, k: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
-    b, res = c["b"], c["res"]
-    return {"chi_y": np.asarray(b["chi_y"], float), "chi_z": np.asarray(b["chi_z"], float),
-            "chi_LT": c["chi_LT"], "lambda_bar_y": np.asarray(b["lambda_bar_y"], float),
+    b, res, d = c["b"], c["res"], c["d"]
+    R = res["N_Rk_N"].shape[0]
+    return {"N_Ed_basis": d["basis"], "N_t_Ed_N": d["N_t_Ed"],
+            "chi_y": c["chi_y"], "chi_z": c["chi_z"], "chi_LT": c["chi_LT"],
+            "negligible_rules_applied": c["rules"],
+            "negligible_rules_in_interaction": np.full(R, c["rule_setting"]),
+            "lambda_bar_y": np.asarray(b["lambda_bar_y"], float),
             "lambda_bar_z": np.asarray(b["lambda_bar_z"], float),
             "k_yy": k["k_yy"], "k_yz": k["k_yz"], "k_zy": k["k_zy"], "k_zz": k["k_zz"],
             "N_Rk_N": res["N_Rk_N"], "M_y_Rk_Nm": res["M_y_Rk_Nm"], "M_z_Rk_Nm": res["M_z_Rk_Nm"],
@@ -194,6 +254,18 @@ def _diagram_values(tag: str, shape: dict[str, np.ndarray]) -> dict[str, np.ndar
             f"alpha_h_{tag}": shape["alpha_h"], f"span_load_{tag}": shape["load"]}
 
 
+def _k_zy_zero(rows: MemberRows, c: dict) -> np.ndarray:
+    """Rows where the note to Table B.1 is taken (k_zy = 0), as `settings.k_zy_zero` allows:
+    members not susceptible to torsional deformation, under axial compression and uniaxial
+    bending M_y,Ed (no M_z,Ed anywhere), of the section shapes the setting names."""
+    setting = rows.settings.k_zy_zero
+    shape = np.asarray(rows.section["shape"], dtype=object)
+    named = {"off": np.zeros(shape.shape, bool), "I": shape == "I",
+             "I and RHS": (shape == "I") | (shape == "RHS")}[setting]
+    d = c["d"]
+    return named & ~c["twist"] & d["compressed"] & (d["M_z_Ed"] == 0) & (d["M_y_Ed"] > 0)
+
+
 def _annex_b_blocks(rows: MemberRows, c: dict, suffix: str) -> list[CheckBlock]:
     d, b = c["d"], c["b"]
     R = rows.n_rows
@@ -203,7 +275,7 @@ def _annex_b_blocks(rows: MemberRows, c: dict, suffix: str) -> list[CheckBlock]:
                          diagram=c["diagrams"]["z"])
     f_LT = mf.C_m_annex_b(c["x_seg"], rows.My, sway=np.zeros(R, dtype=bool))
     g = rows.settings.gamma_M1
-    chi_y, chi_z = np.asarray(b["chi_y"], float), np.asarray(b["chi_z"], float)
+    chi_y, chi_z = c["chi_y"], c["chi_z"]
     n_y = annex_b.n_ratio(d["N_Ed"], chi_y, c["res"]["N_Rk_N"], gamma_M1=g)
     n_z = annex_b.n_ratio(d["N_Ed"], chi_z, c["res"]["N_Rk_N"], gamma_M1=g)
     k = annex_b.k_factors_annex_b(
@@ -211,7 +283,7 @@ def _annex_b_blocks(rows: MemberRows, c: dict, suffix: str) -> list[CheckBlock]:
         lambda_bar_y=np.asarray(b["lambda_bar_y"], float),
         lambda_bar_z=np.asarray(b["lambda_bar_z"], float), n_y=n_y, n_z=n_z,
         section_class=c["cls"], section_kind=_section_kind(rows.section["shape"]),
-        torsion_susceptible=c["twist"])
+        torsion_susceptible=c["twist"], k_zy_zero=_k_zy_zero(rows, c))
     reason = c["reason"].copy()
     _add(reason, np.isnan(f_y["C_m"]) | np.isnan(f_z["C_m"]) | np.isnan(f_LT["C_m"]),
          "moment diagram could not be read (missing moments at stations)")
@@ -219,6 +291,7 @@ def _annex_b_blocks(rows: MemberRows, c: dict, suffix: str) -> list[CheckBlock]:
               "C_my": f_y["C_m"], "C_mz": f_z["C_m"], "C_mLT": f_LT["C_m"],
               "C_my_row": f_y["C_m_row"], "C_mz_row": f_z["C_m_row"], "C_mLT_row": f_LT["C_m_row"],
               "sway_y": f_y["sway"], "sway_z": f_z["sway"], "k_table": k["table"],
+              "k_zy_zero": k["k_zy_zero"],
               **_diagram_values("y", f_y), **_diagram_values("z", f_z),
               **_diagram_values("LT", f_LT), "annex": np.full(R, "B", dtype=object)}
     e61, e62 = _equations(rows, c, k)
@@ -246,17 +319,19 @@ def _annex_a_blocks(rows: MemberRows, c: dict, suffix: str) -> list[CheckBlock]:
     lam_0 = np.where(twist, annex_a.lambda_bar_0(W_y, rows.f_y,
                                                  np.asarray(b["M_cr_0_Nm"], float)), 0.0)
     # N_cr,TF = N_cr,T: doubly symmetric sections (see postproc.ec3.interaction_annex_a).
-    limit = annex_a.lambda_bar_0_limit(np.asarray(b["C_1"], float), N_Ed, N_cr_z, N_cr_T)
+    C_1 = np.asarray(b.get("C_1_interaction", b["C_1"]), float)
+    limit = annex_a.lambda_bar_0_limit(C_1, N_Ed, N_cr_z, N_cr_T)
     limit = np.where(twist, limit, 0.0)
     with np.errstate(invalid="ignore", divide="ignore"):
-        eps_y = M_y / N_Ed * sec["A"] / sec["W_el_y"]
+        # N_Ed = 0 (a beam): eps_y unbounded, so C_my tends to 1 (Table A.1)
+        eps_y = np.where(M_y == 0, 0.0, M_y / N_Ed * sec["A"] / sec["W_el_y"])
         a_LT = np.maximum(1 - sec["I_t"] / sec["I_y"], 0.0)
     cm = annex_a.C_m_annex_a(C_my_0=f_y0["C_m0"], C_mz_0=f_z0["C_m0"], lambda_bar_0=lam_0,
                              lambda_bar_0_limit=limit, epsilon_y=eps_y, a_LT=a_LT, N_Ed=N_Ed,
                              N_cr_z=N_cr_z, N_cr_T=N_cr_T)
     aux = annex_a.auxiliary_terms(
-        N_Ed=N_Ed, M_y_Ed=M_y, M_z_Ed=M_z, chi_y=np.asarray(b["chi_y"], float),
-        chi_z=np.asarray(b["chi_z"], float), chi_LT=c["chi_LT"],
+        N_Ed=N_Ed, M_y_Ed=M_y, M_z_Ed=M_z, chi_y=c["chi_y"], chi_z=c["chi_z"],
+        chi_LT=c["chi_LT"],
         lambda_bar_y=np.asarray(b["lambda_bar_y"], float),
         lambda_bar_z=np.asarray(b["lambda_bar_z"], float), lambda_bar_0=lam_0, N_cr_y=N_cr_y,
         N_cr_z=N_cr_z, C_my=cm["C_my"], C_mz=cm["C_mz"], A=sec["A"], f_y=rows.f_y,

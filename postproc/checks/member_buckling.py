@@ -18,8 +18,12 @@ M_Ed / M_b,Rd governs. M_cr of a segment uses the longer of L_LT and the segment
 
 Choices, echoed in the block values: the section class of a member is its worst class along the
 member (W_y by that class); 6.3.2.2(4) uses lambda_LT,0 from the settings with the 6.3.2.3 method
-and 0.2 (the plateau of eq. 6.56) with the general method; chi_y, chi_z, chi_T in the buckling
-values are eq. (6.49) values, and the 6.3.1.2(4) allowance (chi = 1) is applied in the checks only.
+and 0.2 (the plateau of eq. 6.56) with the general method; the factor f of 6.3.2.3(2) is used
+unless `settings.f_modification` is False. The buckling values hold computed reduction factors:
+chi_y, chi_z, chi_T of eq. (6.49) and chi_LT of eq. (6.56) or (6.57)/(6.58). The rules by which
+buckling may be ignored (6.3.1.2(4): chi = 1; 6.3.2.2(4): chi_LT = 1) are applied by the checks
+they belong to, eqs. (6.46) and (6.54); 6.3.3 takes them only with
+`settings.negligible_rules_in_interaction` (the '*_interaction' values say what it uses).
 """
 
 from __future__ import annotations
@@ -66,14 +70,18 @@ def _info(rows: MemberRows, key: str, default: float) -> np.ndarray:
 def buckling_values(rows: MemberRows) -> dict[str, np.ndarray]:
     """Member buckling quantities per row (see the module docstring for the inputs).
 
-    Returns (R,) arrays: chi_y, chi_z, chi_T, chi_LT (1.0 where not susceptible), lambda_bar_y,
+    Returns (R,) arrays: chi_y, chi_z, chi_T, chi_LT (computed, before 6.3.2.2(4); 1.0 where not
+    susceptible), lambda_bar_y,
     lambda_bar_z, lambda_bar_T, lambda_bar_LT, N_cr_y_N, N_cr_z_N, N_cr_T_N, M_cr_Nm, M_cr_0_Nm,
     C_1 (M_cr / M_cr,0; 1.0 where the segment carries no moment or the member is not susceptible),
     curve_y, curve_z, curve_LT (object), ltb_susceptible, torsion_susceptible (bool),
     ltb_segment_start_m, ltb_segment_end_m, section_class_member (float 1 .. 4, NaN unknown),
     reason (object: '' or why some values are NaN), the per-check reasons reason_y, reason_z,
     reason_T, reason_LT, and the intermediate LTB values (alpha_LT, k_c, k_c_case, psi, f,
-    chi_LT_unmodified, M_Ed_LT_Nm, x_LT_m, W_y_m3, n_segments, ltb_negligible, lambda_LT_0).
+    chi_LT_unmodified, M_Ed_LT_Nm, x_LT_m, W_y_m3, n_segments, ltb_negligible, lambda_LT_0), all
+    of the segment that governs eq. (6.54); and what 6.3.3 uses: chi_LT_interaction,
+    ltb_negligible_interaction (6.3.2.2(4) applied there), C_1_interaction and
+    interaction_segment_start_m / _end_m (the segment that governs with that chi_LT).
     chi_y, chi_z and chi_T are eq. (6.49) values; the 6.3.1.2(4) rule is applied by the checks.
     """
     R = rows.n_rows
@@ -178,6 +186,12 @@ def _ltb_values(rows: MemberRows, shape, fab, num, cls, hollow, restrained, comm
         "ltb_segment_start_m": np.zeros(R), "ltb_segment_end_m": length.copy(),
         "n_segments": n_seg, "ltb_negligible": np.zeros(R, bool), "curve_LT": curve,
         "lambda_LT_0": np.full(R, 0.2 if general else st.lambda_LT_0),
+        # what 6.3.3 uses (see _segments): chi_LT, its segment, and whether 6.3.2.2(4) set it 1
+        "chi_LT_interaction": np.where(susceptible, np.nan, 1.0),
+        "C_1_interaction": np.where(susceptible, np.nan, 1.0),
+        "ltb_negligible_interaction": np.zeros(R, bool),
+        "interaction_segment_start_m": np.zeros(R),
+        "interaction_segment_end_m": length.copy(),
     }
     todo = np.flatnonzero(susceptible & (reason == ""))
     if todo.size:
@@ -234,28 +248,46 @@ def _segments(rows: MemberRows, todo: np.ndarray, n_seg: np.ndarray, L_LT: np.nd
     else:
         chi = lt.chi_LT_rolled(lam, alpha, lambda_LT_0=st.lambda_LT_0, beta=st.beta_LT)
         k_c, psi, case = lt.k_c_from_diagram(xi, M, C_1, ends=ends)
-        f = lt.f_modification(lam, k_c)
-        chi_mod = lt.chi_LT_mod(chi, f, lam)
-    negligible = lt.ltb_negligible(lam, M_Ed, M_cr, lambda_LT_0=lam_0)
-    chi_used = np.where(negligible & ~np.isnan(lam), 1.0, chi_mod)
-    with np.errstate(invalid="ignore", divide="ignore"):
-        util = M_Ed / lt.M_b_Rd(chi_used, W_y, f_y, gamma_M1=st.gamma_M1)
-    util = np.where(no_moment, 0.0, util)
-    # the governing segment per row: highest utilisation, a NaN anywhere makes the row NaN
-    best = np.maximum.reduceat(util, first)[group]
-    hits = np.flatnonzero((util == best) | np.isnan(best))
-    _, first_hit = np.unique(group[hits], return_index=True)
-    pick = hits[first_hit]  # one segment per row of `todo`, in order
+        if st.f_modification:  # 6.3.2.3(2) "may": a setting
+            f = lt.f_modification(lam, k_c)
+            chi_mod = lt.chi_LT_mod(chi, f, lam)
+        else:
+            f, chi_mod = np.ones(chi.shape), chi
+    negligible = lt.ltb_negligible(lam, M_Ed, M_cr, lambda_LT_0=lam_0) & ~np.isnan(lam)
+    chi_used = np.where(negligible, 1.0, chi_mod)
+
+    def governing_segment(chi_values: np.ndarray) -> np.ndarray:
+        """Per row of `todo`, the segment with the highest M_Ed / M_b,Rd (a NaN anywhere makes
+        the row's pick NaN-bearing, so it is never a pass)."""
+        with np.errstate(invalid="ignore", divide="ignore"):
+            util = M_Ed / lt.M_b_Rd(chi_values, W_y, f_y, gamma_M1=st.gamma_M1)
+        util = np.where(no_moment, 0.0, util)
+        best = np.maximum.reduceat(util, first)[group]
+        hits = np.flatnonzero((util == best) | np.isnan(best))
+        _, first_hit = np.unique(group[hits], return_index=True)
+        return hits[first_hit]  # one segment per row of `todo`, in order
+
+    # eq. (6.54) with the 6.3.2.2(4) rule: the lateral-torsional buckling check's segment
+    pick = governing_segment(chi_used)
     rows_out = todo
     x_peak = _peak_location(xi[pick], M[pick], ends[pick]) * step[pick] + x_a[pick]
     for key, values in (("M_cr_Nm", M_cr), ("M_cr_0_Nm", M_cr_0), ("C_1", C_1),
-                        ("lambda_bar_LT", lam), ("chi_LT", chi_used), ("chi_LT_unmodified", chi),
+                        ("lambda_bar_LT", lam), ("chi_LT", chi_mod), ("chi_LT_unmodified", chi),
                         ("alpha_LT", alpha), ("k_c", k_c), ("psi", psi), ("f", f),
                         ("k_c_case", case), ("M_Ed_LT_Nm", M_Ed), ("ltb_negligible", negligible)):
         out[key][rows_out] = values[pick]
     out["x_LT_m"][rows_out] = x_peak
     out["ltb_segment_start_m"][rows_out] = x_a[pick]
     out["ltb_segment_end_m"][rows_out] = x_a[pick] + step[pick]
+    # 6.3.3: the computed chi_LT and the segment it governs (the setting may carry the rule in)
+    rule = st.negligible_rules_in_interaction
+    pick = pick if rule else governing_segment(chi_mod)
+    chi_i = (chi_used if rule else chi_mod)[pick]
+    out["chi_LT_interaction"][rows_out] = chi_i
+    out["ltb_negligible_interaction"][rows_out] = negligible[pick] if rule else False
+    out["C_1_interaction"][rows_out] = C_1[pick]
+    out["interaction_segment_start_m"][rows_out] = x_a[pick]
+    out["interaction_segment_end_m"][rows_out] = x_a[pick] + step[pick]
 
 
 def _peak_location(xi: np.ndarray, M: np.ndarray, ends: np.ndarray) -> np.ndarray:
@@ -346,7 +378,10 @@ def lateral_torsional_checks(rows: MemberRows) -> list[CheckBlock]:
     reason = np.asarray(b.get("reason_LT", b["reason"]), dtype=object).copy()
     _add(reason, nan_force, "bending moment M_y not known at some station")
     W_y, f_y = np.asarray(b["W_y_m3"], float), np.asarray(rows.f_y, float)
-    chi_LT = np.asarray(b["chi_LT"], float)
+    chi_computed = np.asarray(b["chi_LT"], float)
+    # 6.3.2.2(4): where lateral-torsional buckling may be ignored, chi_LT = 1 in this check
+    negligible = np.asarray(b["ltb_negligible"], bool)
+    chi_LT = np.where(negligible & ~np.isnan(chi_computed), 1.0, chi_computed)
     M_b = lt.M_b_Rd(chi_LT, W_y, f_y, gamma_M1=st.gamma_M1)
     M_Ed = np.asarray(b["M_Ed_LT_Nm"], float)
     with np.errstate(invalid="ignore", divide="ignore"):
@@ -359,8 +394,10 @@ def lateral_torsional_checks(rows: MemberRows) -> list[CheckBlock]:
               "alpha_LT": b["alpha_LT"], "lambda_LT_0": b["lambda_LT_0"],
               "beta": np.full(R, np.nan if st.ltb_method == "general" else st.beta_LT),
               "chi_LT_unmodified": b["chi_LT_unmodified"], "k_c": b["k_c"],
-              "k_c_case": b["k_c_case"],
-              "psi": b["psi"], "f": b["f"], "ltb_negligible": b["ltb_negligible"], "chi_LT": chi_LT,
+              "k_c_case": b["k_c_case"], "psi": b["psi"],
+              "f_modification": np.full(R, st.f_modification and st.ltb_method != "general"),
+              "f": b["f"], "chi_LT_mod": chi_computed, "ltb_negligible": negligible,
+              "chi_LT": chi_LT,
               "method": np.full(R, "6.3.2.2 general" if st.ltb_method == "general"
                                 else "6.3.2.3 rolled", dtype=object),
               "f_y_Pa": f_y, "gamma_M1": np.full(R, st.gamma_M1), "M_b_Rd_Nm": M_b}

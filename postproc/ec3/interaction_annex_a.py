@@ -49,6 +49,8 @@ def C_m_annex_a(*, C_my_0: np.ndarray, C_mz_0: np.ndarray, lambda_bar_0: np.ndar
     lambda_bar_0 <= limit: C_my = C_my,0, C_mz = C_mz,0, C_mLT = 1.0.
     lambda_bar_0 > limit: C_my = C_my,0 + (1 - C_my,0) sqrt(eps_y) a_LT / (1 + sqrt(eps_y) a_LT),
     C_mz = C_mz,0, C_mLT = C_my^2 a_LT / sqrt((1 - N_Ed/N_cr,z)(1 - N_Ed/N_cr,T)) >= 1.
+    Without axial force eps_y is infinite and the fraction sqrt(eps_y) a_LT / (1 + sqrt(eps_y)
+    a_LT) takes its limit, 1 (0 where a_LT = 0).
 
     Returns:
         dict of (R,) arrays 'C_my', 'C_mz', 'C_mLT' and 'ltb_case' (bool, True where
@@ -56,8 +58,9 @@ def C_m_annex_a(*, C_my_0: np.ndarray, C_mz_0: np.ndarray, lambda_bar_0: np.ndar
     """
     case = lambda_bar_0 > lambda_bar_0_limit
     with np.errstate(invalid="ignore", divide="ignore"):
-        root = np.sqrt(epsilon_y) * a_LT
-        C_my_twist = C_my_0 + (1 - C_my_0) * root / (1 + root)
+        root = np.where(a_LT == 0, 0.0, np.sqrt(epsilon_y) * a_LT)
+        share = np.where(np.isinf(root), 1.0, root / (1 + root))
+        C_my_twist = C_my_0 + (1 - C_my_0) * share
         C_mLT_twist = np.maximum(C_my_twist ** 2 * a_LT
                                  / np.sqrt((1 - N_Ed / N_cr_z) * (1 - N_Ed / N_cr_T)), 1.0)
     unknown = np.isnan(lambda_bar_0) | np.isnan(lambda_bar_0_limit)
@@ -110,7 +113,7 @@ def auxiliary_terms(*, N_Ed: np.ndarray, M_y_Ed: np.ndarray, M_z_Ed: np.ndarray,
         n_pl = N_Ed / (A * f_y / gamma_M1)
         a_LT = np.maximum(1 - I_T / I_y, 0.0)
         lam_max = np.maximum(lambda_bar_y, lambda_bar_z)
-        eps_y = M_y_Ed / N_Ed * A / W_el_y
+        eps_y = np.where(M_y_Ed == 0, 0.0, M_y_Ed / N_Ed * A / W_el_y)  # N_Ed = 0: infinite
         M_pl_y = W_pl_y * f_y / gamma_M0
         M_pl_z = W_pl_z * f_y / gamma_M0
         my = M_y_Ed / (chi_LT * M_pl_y)

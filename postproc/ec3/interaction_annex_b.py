@@ -148,7 +148,7 @@ def k_zy_table_b1(k_yy: np.ndarray, section_class: np.ndarray) -> np.ndarray:
     k_zy = 0.6 k_yy class 1-2, 0.8 k_yy class 3.
 
     The optional k_zy = 0 of the Table B.1 note (I, H and RHS under compression and uniaxial
-    bending M_y) is not taken: the table value is kept, which errs on the safe side.
+    bending M_y) is taken by `k_factors_annex_b` where its caller asks for it.
     """
     c = np.asarray(section_class, dtype=float)
     return np.select([(c == 1) | (c == 2), c == 3], [0.6 * k_yy, 0.8 * k_yy], default=np.nan)
@@ -178,21 +178,28 @@ def k_zy_table_b2(C_mLT: np.ndarray, lambda_bar_z: np.ndarray, n_z: np.ndarray,
 def k_factors_annex_b(*, C_my: np.ndarray, C_mz: np.ndarray, C_mLT: np.ndarray,
                       lambda_bar_y: np.ndarray, lambda_bar_z: np.ndarray, n_y: np.ndarray,
                       n_z: np.ndarray, section_class: np.ndarray, section_kind: np.ndarray,
-                      torsion_susceptible: np.ndarray) -> dict[str, np.ndarray]:
+                      torsion_susceptible: np.ndarray,
+                      k_zy_zero: np.ndarray | bool = False) -> dict[str, np.ndarray]:
     """EN 1993-1-1:2005, Annex B, Tables B.1 and B.2.
 
     k_yy, k_yz, k_zy, k_zz.
 
     Table B.2 (k_zy with C_mLT) where `torsion_susceptible`, Table B.1 elsewhere.
+    `k_zy_zero`: rows where the note to Table B.1 is taken, k_zy = 0 (the note allows it for I,
+    H and rectangular hollow sections under axial compression and uniaxial bending M_y,Ed; the
+    caller decides where). Only Table B.1 rows take it.
 
     Returns:
-        dict of (R,) arrays 'k_yy', 'k_yz', 'k_zy', 'k_zz' and 'table' (object: 'B.1' or 'B.2').
+        dict of (R,) arrays 'k_yy', 'k_yz', 'k_zy', 'k_zz', 'table' (object: 'B.1' or 'B.2') and
+        'k_zy_zero' (bool: where k_zy = 0 was taken).
     """
     k_yy = k_yy_table_b1(C_my, lambda_bar_y, n_y, section_class)
     k_zz = k_zz_table_b1(C_mz, lambda_bar_z, n_z, section_class, section_kind)
     k_yz = k_yz_table_b1(k_zz, section_class)
     twist = np.asarray(torsion_susceptible, dtype=bool)
-    k_zy = np.where(twist, k_zy_table_b2(C_mLT, lambda_bar_z, n_z, section_class),
-                    k_zy_table_b1(k_yy, section_class))
+    zero = np.broadcast_to(np.asarray(k_zy_zero, dtype=bool), twist.shape) & ~twist
+    k_zy_b1 = np.where(zero & ~np.isnan(k_yy), 0.0, k_zy_table_b1(k_yy, section_class))
+    k_zy = np.where(twist, k_zy_table_b2(C_mLT, lambda_bar_z, n_z, section_class), k_zy_b1)
     table = np.array(["B.1", "B.2"], dtype=object)[twist.astype(np.int8)]
-    return {"k_yy": k_yy, "k_yz": k_yz, "k_zy": k_zy, "k_zz": k_zz, "table": table}
+    return {"k_yy": k_yy, "k_yz": k_yz, "k_zy": k_zy, "k_zz": k_zz, "table": table,
+            "k_zy_zero": zero.copy()}

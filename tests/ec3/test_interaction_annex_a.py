@@ -199,3 +199,19 @@ def test_no_axial_force_limit() -> None:
                             C_yz=aux["C_yz"], C_zy=aux["C_zy"], C_zz=aux["C_zz"],
                             section_class=arr(1))
     assert k["k_yy"][0] == pytest.approx(0.79, abs=1e-9)
+
+
+def test_C_my_without_axial_force_takes_its_limit() -> None:
+    """Table A.1 with N_Ed = 0: eps_y = M_y,Ed / N_Ed A / W_el,y is unbounded and
+    sqrt(eps_y) a_LT / (1 + sqrt(eps_y) a_LT) tends to 1, so C_my = 1 where lambda_bar_0 exceeds
+    its limit (0 where a_LT = 0: C_my = C_my,0); C_mLT = C_my^2 a_LT >= 1."""
+    cm = a.C_m_annex_a(C_my_0=arr(0.685, 0.685, 0.685), C_mz_0=arr(1.0, 1.0, 1.0),
+                       lambda_bar_0=arr(1.46, 1.46, 1.46),
+                       lambda_bar_0_limit=arr(0.32, 0.32, 0.32),
+                       epsilon_y=arr(np.inf, np.inf, 0.0), a_LT=arr(0.997, 0.0, 0.997),
+                       N_Ed=arr(0.0, 0.0, 0.0), N_cr_z=arr(N_cr_z, N_cr_z, N_cr_z),
+                       N_cr_T=arr(N_cr_T, N_cr_T, N_cr_T))
+    np.testing.assert_allclose(cm["C_my"], [1.0, 0.685, 0.685], rtol=EXACT)
+    np.testing.assert_allclose(cm["C_mLT"], [1.0, 1.0, 1.0], rtol=EXACT)
+    aux = _aux(N_Ed=arr(0.0), lambda_bar_0=arr(0.0), C_my=arr(1.0))
+    assert np.isinf(aux["epsilon_y"][0]) and aux["n_pl"][0] == 0.0

@@ -92,6 +92,11 @@ def test_table_b2_is_used_only_where_torsion_susceptible() -> None:
     assert list(k["table"]) == ["B.1", "B.2"]
     assert k["k_zy"][0] == pytest.approx(0.6 * k["k_yy"][0], abs=EXACT)          # Table B.1
     assert k["k_zy"][1] == pytest.approx(1 - 0.1 * 0.65 / 0.35, abs=EXACT)       # Table B.2
+    # the note to Table B.1: k_zy may be 0; asked for on both rows, only the B.1 row takes it
+    k0 = b.k_factors_annex_b(torsion_susceptible=np.array([False, True]),
+                             k_zy_zero=np.array([True, True]), **common)
+    assert k0["k_zy"][0] == 0.0 and list(k0["k_zy_zero"]) == [True, False]
+    assert k0["k_zy"][1] == k["k_zy"][1] and k0["k_yy"][0] == k["k_yy"][0]
 
 
 # --- eqs. (6.61) and (6.62) -------------------------------------------------------------------
