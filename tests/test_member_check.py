@@ -227,6 +227,7 @@ def test_single_member_and_frame_run_agree(tmp_path) -> None:
     lines = ["combination,element,x [m],N [kN],Vz [kN],My [kNm]"]
     lines += [f"ULS1,C1,{xi:.6f},-400,12,{12 * xi:.6f}" for xi in x]
     (tables / "forces.csv").write_text("\n".join(lines) + "\n")
+    (tables / "combinations.csv").write_text("combination,kind,analysis\nULS1,ULS,first-order\n")
     (tmp_path / "project.toml").write_text(
         'title = "one column"\n[model]\nsource = "tables"\ndirectory = "tables"\nndm = 2\n'
         '[members.C1]\nL_cr_y = 5.0\nL_cr_z = 5.0\nL_LT = 5.0\nL_cr_T = 5.0\n')
