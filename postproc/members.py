@@ -239,14 +239,16 @@ class _Holding:
                 trans[2] = True
                 rot[:2] = True
             self.support_trans[n], self.support_rot[n] = trans, rot
-        # translations held by global declarations ('X', 'Y', 'Z'; 'all' holds every one)
+        # translations held by global declarations ('X', 'Y', 'Z'); 'all' holds each member
+        # through the node across its axis (y and z), never along it
         self.declared_trans: dict[str, np.ndarray] = {}
+        self.declared_all: set[str] = set()
         self.declared: dict[str, list[tuple[str, str]]] = {}
         for n, d, src in declared[["node", "direction", "source"]].itertuples(index=False):
             self.declared.setdefault(n, []).append((d, src))
             held = self.declared_trans.setdefault(n, np.zeros(3, dtype=bool))
             if d == "all":
-                held[:] = True
+                self.declared_all.add(n)
             elif d in ("X", "Y", "Z"):
                 held["XYZ".index(d)] = True
 
@@ -266,6 +268,10 @@ class _Holding:
             held = self.declared_trans[n] | self.support_trans.get(n, np.zeros(3, dtype=bool))
             if np.sum(v[~held] ** 2) < 0.01:
                 return f"declared at node {n}"
+        if n in self.declared_all:
+            for q in self.at.get(n, []):
+                if (self.unit(n, self.other_end(q, n)) @ v) ** 2 < 0.01:
+                    return f"declared at node {n} (across member {q})"
         return None
 
     def far_end_held(self, q: str, n: str, own: set[str]) -> str | None:

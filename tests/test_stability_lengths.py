@@ -248,3 +248,35 @@ def test_long_frame_mode_length_is_kept_and_shown_capped():
     shown = shown_lengths(out.reset_index(), members).set_index("member")
     assert shown.at["C", "L_cr_y_m"] == pytest.approx(SHOWN_LENGTH_CAP * L)
     assert shown.at["P", "L_cr_y_m"] == out.at["P", "L_cr_y_m"]      # not capped: unchanged
+
+
+# --- a space frame: each axis split at its own points --------------------------------------------
+
+def test_space_frame_beam_held_sideways_at_mid_span_stays_whole():
+    """A 6 m IPE 300 main beam along X, fixed at both ends, with a secondary beam along Y framing
+    in at mid-span from a fixed support: the secondary beam holds the main beam sideways (local
+    y) but not vertically, so the main beam is one member. Hand calculation: about y-y, fixed at
+    both ends and nothing between: k = 0.5 (Euler; eq. (E.1) gives exactly 0.5 at eta = 0, 0),
+    L_cr,y = 3 m. About z-z and for lateral-torsional buckling: spans between lateral
+    restraints, L/2 = 3 m each (k = 1). Twist is held at the forks at the ends only: L_cr,T = 6 m."""
+    nodes = pd.DataFrame([("1", 0, 0, 3), ("2", 3, 0, 3), ("3", 6, 0, 3), ("4", 3, 4, 3)],
+                         columns=["node", "x_m", "y_m", "z_m"]).set_index("node")
+    els = pd.DataFrame([("M1", "1", "2", "IPE 300", "", ""), ("M2", "2", "3", "IPE 300", "", ""),
+                        ("S1", "4", "2", "IPE 300", "", "")],
+                       columns=["element", "node_i", "node_j", "section", "release_i",
+                                "release_j"]).set_index("element")
+    els["grade"] = "S355"
+    for c in ("vz_x", "vz_y", "vz_z"):
+        els[c] = np.nan
+    sup = pd.DataFrame([("1", *FIXED), ("3", *FIXED), ("4", *FIXED)],
+                       columns=["node", "ux", "uy", "uz", "rx", "ry", "rz"]).set_index("node")
+    f = Frame(3, nodes, els, sup.astype(bool), sections())
+    members, _, out = lengths_of(f, forces(f, {"M1": -100e3, "M2": -100e3}))
+    assert set(members.members.index) == {"M1-M2", "S1"}
+    r = members.restraints
+    mid = r[(r["member"] == "M1-M2") & np.isclose(r["x_m"], 3.0)]
+    assert set(mid["direction"]) == {"y"}
+    assert out.at["M1-M2", "L_cr_y_m"] == pytest.approx(3.0, rel=1e-12)
+    assert out.at["M1-M2", "L_cr_z_m"] == pytest.approx(3.0, abs=SPAN_ROUNDING_M)
+    assert out.at["M1-M2", "L_LT_m"] == pytest.approx(3.0, abs=SPAN_ROUNDING_M)
+    assert out.at["M1-M2", "L_cr_T_m"] == pytest.approx(6.0, abs=SPAN_ROUNDING_M)
