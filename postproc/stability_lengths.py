@@ -349,9 +349,9 @@ def buckling_lengths(frame: Frame, members: Members, results: Results, paths: pd
         if long.any():
             # a lightly compressed member: say so beside the (true, if surprising) length
             ratio = frame_len[long] / np.broadcast_to(member_L, long.shape)[long]
-            origin[long] = [f"{o}; {r:.1f} L, more than {SHOWN_LENGTH_CAP:g} L: shown as "
-                            f"{SHOWN_LENGTH_CAP:g} L in the report, the check uses this length"
-                            for o, r in zip(origin[long], ratio)]
+            origin[long] = [f"{o}; {v:.2f} m = {r:.1f} L, more than {SHOWN_LENGTH_CAP:g} L: "
+                            f"shown as {SHOWN_LENGTH_CAP:g} L in the report, the check uses "
+                            f"{v:.2f} m" for o, v, r in zip(origin[long], frame_len[long], ratio)]
         cols[f"L_cr_{axis}_m"] = L
         cols[f"sway_{axis}"] = use_frame | np.where(use_sway, sw_s[:, None], base_s[:, None])
         cols[f"origin_{axis}"] = origin
