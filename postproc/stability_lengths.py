@@ -158,9 +158,20 @@ class _Model:
                 continue
             if len(self.at_node.get(far, [])) == 1 and far not in self.sup.index:
                 continue            # a stub with a free tip turns with the joint: no restraint
-            K_b += FAR_END_FACTOR[sway][self._far_end(other, node, v)] * stiff
+            K_b += FAR_END_FACTOR[sway][self._far_end(other, node, v, q)] * stiff
         eta = (K_c + K_1) / (K_c + K_1 + K_b)
         return float(eta), f"eta = {eta:.2f} at {node}"
+
+    def _toward_end(self, member: str, node: str, q: int) -> bool:
+        """True where element q leads from `node` towards the member's end (else its start)."""
+        mm = self.members.members
+        if node == mm.at[member, "start_node"]:
+            return True
+        if node == mm.at[member, "end_node"]:
+            return False
+        ex = self.maxes[self.index[member], 0]
+        far = self.node_j[q] if self.node_i[q] == node else self.node_i[q]
+        return float((self.xyz.loc[far].to_numpy() - self.xyz.loc[node].to_numpy()) @ ex) > 0
 
     def _arm_length(self, member: str | None, node: str, q: int) -> float:
         """Length of `member` from `node` to its end on element q's side.
@@ -178,24 +189,25 @@ class _Model:
         ex = self.maxes[self.index[member], 0]
         origin = self.xyz.loc[mm.at[member, "start_node"]].to_numpy()
         x_node = float((self.xyz.loc[node].to_numpy() - origin) @ ex)
-        far = self.node_j[q] if self.node_i[q] == node else self.node_i[q]
-        x_far = float((self.xyz.loc[far].to_numpy() - origin) @ ex)
-        return L - x_node if x_far > x_node else x_node
+        return L - x_node if self._toward_end(member, node, q) else x_node
 
-    def _far_end(self, member: str | None, near: str, v: np.ndarray) -> str:
+    def _far_end(self, member: str | None, near: str, v: np.ndarray, q: int) -> str:
+        """Condition of the far end of `member` seen from `near` along element q: 'pinned' (a
+        release, or a support that leaves rotation free with nothing else joined), 'fixed' (a
+        support that holds rotation about v) or 'continuous'."""
         if member is None or member not in self.ends:
             return "continuous"
         mm = self.members.members
-        if near not in (mm.at[member, "start_node"], mm.at[member, "end_node"]):
-            return "continuous"         # the member runs on through the node
-        start = mm.at[member, "start_node"]
-        which = 1 if start == near else 0
+        which = 1 if self._toward_end(member, near, q) else 0
         far = mm.at[member, "start_node" if which == 0 else "end_node"]
         k, end = self.ends[member][which]
         if self.pin[end][k]:
             return "pinned"
         if self.rotation_held(far, v):
             return "fixed"
+        if (far in self.sup.index and bool(self.sup.loc[far].any())
+                and len(self.at_node.get(far, [])) == 1):
+            return "pinned"
         return "continuous"
 
 

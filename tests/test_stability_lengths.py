@@ -280,3 +280,32 @@ def test_space_frame_beam_held_sideways_at_mid_span_stays_whole():
     assert out.at["M1-M2", "L_cr_z_m"] == pytest.approx(3.0, abs=SPAN_ROUNDING_M)
     assert out.at["M1-M2", "L_LT_m"] == pytest.approx(3.0, abs=SPAN_ROUNDING_M)
     assert out.at["M1-M2", "L_cr_T_m"] == pytest.approx(6.0, abs=SPAN_ROUNDING_M)
+
+
+def test_beam_on_a_pinned_support_counts_as_pinned_at_its_far_end():
+    """A braced column, fixed at its foot, rigidly joined at its top to a beam of the same
+    stiffness (HEB 200, 4 m) whose far end sits on a pinned support (rotation free, nothing else
+    joined): Table E.1 (from memory) gives the beam 0.75 I/L (pinned far end), so eta_2 =
+    1 / 1.75 and eq. (E.1) gives 0.6043 L.
+
+    Hand calculation of the exact value: w = A + B x + C cos(a x) + D sin(a x) with w(0) =
+    w'(0) = 0 (fixed foot), w(L) = 0 (held top) and E I w''(L) = -k w'(L), k = 3 E I_b / L_b, so
+    k L / (E I) = 3; the lowest root u = a L of the 4 x 4 determinant is 5.1921, L_cr / L =
+    pi / u = 0.6051. (Taking the far end as continuous, 0.5 I/L, would give 0.6241.)"""
+    L = 4.0
+    nodes = [("1", 0, 0), ("2", 0, L), ("3", L, L)]
+    els = [("C", "1", "2", "HEB 200", "", ""), ("B", "2", "3", "HEB 200", "", "")]
+    f = make_frame(nodes, els, [("1", *FIXED), ("3", *PIN)])
+    members, alpha, out = lengths_of(f, forces(f, {"C": -300e3}))
+
+    def det(u: float, kk: float = 3.0) -> float:
+        c, s = np.cos(u), np.sin(u)
+        return np.linalg.det(np.array([
+            [1.0, 0.0, 1.0, 0.0], [0.0, 1.0, 0.0, u], [1.0, 1.0, c, s],
+            [0.0, kk, -u * u * c - kk * u * s, -u * u * s + kk * u * c]]))
+
+    u = brentq(det, 4.6, 6.2)
+    exact = np.pi / u
+    assert exact == pytest.approx(0.6051, abs=1e-4)
+    assert out.at["C", "L_cr_y_m"] / L == pytest.approx(exact, rel=ANNEX_E_REL)
+    assert "eta = 0.57 at 2" in out.at["C", "origin_y"]
