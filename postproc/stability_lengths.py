@@ -156,11 +156,14 @@ class _Model:
             if abs(u @ ex) >= COLLINEAR_COS * np.linalg.norm(u):
                 K_1 += stiff
                 continue
-            if len(self.at_node.get(far, [])) == 1 and far not in self.sup.index:
+            if len(self.at_node.get(far, [])) == 1 and not self._supported(far):
                 continue            # a stub with a free tip turns with the joint: no restraint
             K_b += FAR_END_FACTOR[sway][self._far_end(other, node, v, q)] * stiff
         eta = (K_c + K_1) / (K_c + K_1 + K_b)
         return float(eta), f"eta = {eta:.2f} at {node}"
+
+    def _supported(self, node: str) -> bool:
+        return node in self.sup.index and bool(self.sup.loc[node].any())
 
     def _toward_end(self, member: str, node: str, q: int) -> bool:
         """True where element q leads from `node` towards the member's end (else its start)."""
@@ -205,8 +208,7 @@ class _Model:
             return "pinned"
         if self.rotation_held(far, v):
             return "fixed"
-        if (far in self.sup.index and bool(self.sup.loc[far].any())
-                and len(self.at_node.get(far, [])) == 1):
+        if self._supported(far) and len(self.at_node.get(far, [])) == 1:
             return "pinned"
         return "continuous"
 
