@@ -11,11 +11,14 @@ Contract (what the checker reads):
   (governs buckling about y-y), 'y' = displacement along local y is prevented (buckling about z-z,
   and lateral restraint for lateral-torsional buckling), 'torsion' = twist is prevented.
 
-Grouping rule (`design_members`): elements are merged through a node when exactly two elements
-meet there, both are collinear (chords within 1 degree), have the same section, grade and
-orientation, neither releases anything at that node, and the node is no support and no declared
-restraint. Everything else is a joint and splits members. `groups` from the project file overrides
-this for the elements it names.
+Grouping rule (`design_members`): two elements are merged through a node when they run straight
+through it (collinear within 1 degree, on opposite sides), have the same section, grade and
+orientation, neither releases anything there, and the node is not held in every direction the
+model bends in (the in-plane direction of a plane frame; local y and z of a space frame).
+Everything else ends a member. So a lateral restraint alone, or a member framing in that holds
+nothing, leaves the member whole: its buckling lengths are split axis by axis at the points that
+hold that axis (`postproc.stability_lengths`). `groups` from the project file overrides this for
+the elements it names.
 
 Kinds, from orientation and connectivity (tilt = angle of the chord from the vertical):
 - 'column': tilt <= 10 degrees.
@@ -26,13 +29,16 @@ Kinds, from orientation and connectivity (tilt = angle of the chord from the ver
   continues upwards from either end node (it lies on the roof line).
 - 'member': anything else (steep rigidly connected diagonals, stair stringers below columns ...).
 
-Restraint points, at every node of a member:
+Restraint points, at every node of a member, per direction ('y', 'z', 'torsion'):
 - supports: a direction is held when the support fixes every translation it has a component
   along; torsion when it fixes rotation about the member axis. A plane model says nothing out of
   plane, so in a plane frame a support node is taken as held out of plane and against twist.
-- members framing in whose axis has a component of at least 0.5 along local y or z; in a space
-  frame the joint at each member end also counts both ways (the joint's own translation is the
-  frame's sway, which the global analysis carries).
+- members framing in whose axis has a component of at least 0.5 along local y or z, and whose
+  far end is held along their own axis: by a support or declaration there, by further elements
+  carrying the push on to a held point, or by a joint with a further moment-connected member
+  (the frame's own movement, which the global analysis carries). A member whose far end is free
+  along it (on a roller, a free tip) holds nothing. In a space frame the joint at each member
+  end also counts both ways (the joint's own translation is the frame's sway).
 - declared points (frame.restraints and `restraint_nodes`).
 - a point held in both y and z is taken as a fork: held against twist too.
 See docs/stability.md.
@@ -40,6 +46,7 @@ See docs/stability.md.
 
 from __future__ import annotations
 
+from collections.abc import Callable
 from dataclasses import dataclass, field
 
 import networkx as nx
@@ -54,6 +61,7 @@ COLUMN_MAX_TILT_DEG = 10.0                  # from the vertical
 BEAM_MAX_SLOPE_DEG = 3.0                    # from the horizontal
 RAFTER_MAX_SLOPE_DEG = 45.0
 FRAMING_MIN_COMPONENT = 0.5                 # |cos| of a framing member along a local axis (60 deg)
+FAR_END_WALK_LIMIT = 10_000                # elements followed when looking for a held far end
 RESTRAINT_DIRECTIONS = ("y", "z", "torsion", "all", "X", "Y", "Z")
 
 
@@ -190,6 +198,205 @@ def _chain_order(elements: list[str], ends: dict[str, tuple[str, str]],
     return order, nodes
 
 
+class _Holding:
+    """Which directions the rest of the frame holds at a node, for the elements passing through it.
+
+    A direction across a member is held at a node by:
+    - a support that fixes every translation the direction has a component along (in a plane
+      frame a support is taken as held out of plane and against twist, see the module docstring);
+    - a member framing in whose axis has a component of at least 0.5 along that direction and
+      whose far end is held along the framing member's own axis (`far_end_held`);
+    - a declaration at the node.
+    """
+
+    def __init__(self, frame: Frame, declared: pd.DataFrame) -> None:
+        self.ndm = frame.ndm
+        xyz = frame.nodes[NODE_COLUMNS].astype(float)
+        self.xyz = dict(zip(xyz.index.astype(str), xyz.to_numpy()))
+        el = frame.elements
+        eids = el.index.astype(str).tolist()
+        node_i = el["node_i"].astype(str).tolist()
+        node_j = el["node_j"].astype(str).tolist()
+        self.ends = {e: (a, b) for e, a, b in zip(eids, node_i, node_j)}
+        self.at: dict[str, list[str]] = {}
+        for e, a, b in zip(eids, node_i, node_j):
+            self.at.setdefault(a, []).append(e)
+            self.at.setdefault(b, []).append(e)
+        pin_i, pin_j = moment_released(frame, "i"), moment_released(frame, "j")
+        self.pinned = {}
+        for e, a, b, pa, pb in zip(eids, node_i, node_j, pin_i, pin_j):
+            self.pinned[(e, a)], self.pinned[(e, b)] = bool(pa), bool(pb)
+        sup = frame.supports.reindex(columns=["ux", "uy", "uz", "rx", "ry", "rz"],
+                                     fill_value=False).astype(bool)
+        sup.index = sup.index.astype(str)
+        self.support_trans: dict[str, np.ndarray] = {}
+        self.support_rot: dict[str, np.ndarray] = {}
+        for n, row in sup[sup.any(axis=1)].iterrows():
+            trans, rot = row.to_numpy()[:3].copy(), row.to_numpy()[3:].copy()
+            if frame.ndm == 2:
+                # a plane model says nothing out of plane: a support node is taken to be held
+                # out of plane and against twist (a foundation or a wall)
+                trans[2] = True
+                rot[:2] = True
+            self.support_trans[n], self.support_rot[n] = trans, rot
+        # translations held by global declarations ('X', 'Y', 'Z'); 'all' holds each member
+        # through the node across its axis (y and z), never along it
+        self.declared_trans: dict[str, np.ndarray] = {}
+        self.declared_all: set[str] = set()
+        self.declared: dict[str, list[tuple[str, str]]] = {}
+        for n, d, src in declared[["node", "direction", "source"]].itertuples(index=False):
+            self.declared.setdefault(n, []).append((d, src))
+            held = self.declared_trans.setdefault(n, np.zeros(3, dtype=bool))
+            if d == "all":
+                self.declared_all.add(n)
+            elif d in ("X", "Y", "Z"):
+                held["XYZ".index(d)] = True
+
+    def unit(self, a: str, b: str) -> np.ndarray:
+        u = self.xyz[b] - self.xyz[a]
+        return u / np.linalg.norm(u)
+
+    def other_end(self, e: str, n: str) -> str:
+        a, b = self.ends[e]
+        return b if a == n else a
+
+    def translation_held(self, n: str, v: np.ndarray) -> str | None:
+        """Why node n is held along v by a support or a declaration, or None."""
+        if n in self.support_trans and np.sum(v[~self.support_trans[n]] ** 2) < 0.01:
+            return f"support at node {n}"
+        if n in self.declared_trans:
+            held = self.declared_trans[n] | self.support_trans.get(n, np.zeros(3, dtype=bool))
+            if np.sum(v[~held] ** 2) < 0.01:
+                return f"declared at node {n}"
+        if n in self.declared_all:
+            for q in self.at.get(n, []):
+                if (self.unit(n, self.other_end(q, n)) @ v) ** 2 < 0.01:
+                    return f"declared at node {n} (across member {q})"
+        return None
+
+    def far_end_held(self, q: str, n: str, own: set[str]) -> str | None:
+        """Why the far end of element q (framing in at node n) is held along q's axis, or None.
+
+        Held: a support or declaration there fixes that translation; or another element there
+        continues the push (axis within 60 degrees of q's) to a point that is held, followed
+        element by element; or another element is moment-connected there, not along q and not a
+        dangling stub: a joint of the frame, whose movement the global analysis carries. The
+        elements in `own` (the member being restrained) never hold themselves.
+        """
+        visited, budget = {n}, [FAR_END_WALK_LIMIT]
+        return self._held_beyond(q, n, own, visited, budget)
+
+    def _held_beyond(self, q: str, n: str, own: set[str], visited: set[str],
+                     budget: list[int]) -> str | None:
+        f = self.other_end(q, n)
+        v = self.unit(n, f)
+        why = self.translation_held(f, v)
+        if why is not None or f in visited:
+            return why
+        visited.add(f)
+        for q2 in self.at[f]:
+            if q2 == q or q2 in own:
+                continue
+            budget[0] -= 1
+            if budget[0] < 0:
+                return None                 # too far to follow: not held (the safe side)
+            f2 = self.other_end(q2, f)
+            u = self.unit(f, f2)
+            if abs(u @ v) >= FRAMING_MIN_COMPONENT:
+                why = self._held_beyond(q2, f, own, visited, budget)
+                if why is not None:
+                    return why
+            stub = len(self.at[f2]) == 1 and f2 not in self.support_trans
+            if (not self.pinned[(q2, f)] and abs(u @ v) < COLLINEAR_COS and not stub):
+                return f"joint with element {q2} at node {f}"
+        return None
+
+    def held(self, n: str, across: dict[str, np.ndarray], ex: np.ndarray, own: set[str],
+             name: Callable[[str], str] = str) -> dict[str, str]:
+        """Directions held at node n for the member made of `own` elements: {direction: why}.
+
+        across: direction name ('y', 'z') -> unit vector in global axes; ex: the member's axis
+        (for torsion at a support); name: element id -> the name shown in the reason.
+        """
+        found: dict[str, str] = {}
+        if n in self.support_trans:
+            for d, e in across.items():
+                if np.sum(e[~self.support_trans[n]] ** 2) < 0.01:
+                    found[d] = f"support at node {n}"
+            if np.sum(ex[~self.support_rot[n]] ** 2) < 0.01:
+                found["torsion"] = f"support at node {n}"
+        far: dict[str, str | None] = {}
+        for q in self.at.get(n, []):
+            if q in own:
+                continue
+            u = self.unit(n, self.other_end(q, n))
+            for d, e in across.items():
+                if d in found or abs(u @ e) < FRAMING_MIN_COMPONENT:
+                    continue
+                if q not in far:
+                    far[q] = self.far_end_held(q, n, own)
+                if far[q] is not None:
+                    found[d] = f"member {name(q)} framing in at node {n} (far end: {far[q]})"
+        for d, src in self.declared.get(n, []):
+            for d in {"all": ["y", "z", "torsion"]}.get(d, [d]):
+                if d in ("X", "Y", "Z"):
+                    g = np.eye(3)["XYZ".index(d)]
+                    comp = {k: abs(g @ e) for k, e in across.items()}
+                    best = max(comp, key=comp.get) if comp else None
+                    if best is None or comp[best] < FRAMING_MIN_COMPONENT:
+                        continue        # along the member: restrains neither axis
+                    d = best
+                elif d != "torsion" and d not in across:
+                    continue
+                found.setdefault(d, f"declared at node {n} ({src})")
+        return found
+
+
+def _modelled_directions(frame: Frame, axes: np.ndarray) -> dict[str, np.ndarray]:
+    """Directions across an element that the model bends in: {'y' | 'z': unit vector}.
+
+    A plane frame bends in its plane only: the local axis lying in the plane. A space frame
+    bends about both axes.
+    """
+    if frame.ndm == 2:
+        d = "z" if abs(axes[1, 2]) >= 0.5 else "y"      # local y along global Z: z in plane
+        return {d: axes[2 if d == "z" else 1]}
+    return {"y": axes[1], "z": axes[2]}
+
+
+def _through_pairs(n: str, holding: _Holding, grouped: dict[str, str], pos: dict[str, int],
+                   unit: np.ndarray, el: pd.DataFrame, axes: np.ndarray, release_i: np.ndarray,
+                   release_j: np.ndarray, node_i: list[str]) -> list[tuple[str, str]]:
+    """Pairs of elements that run straight through node n as one continuous piece.
+
+    Both run on opposite sides of n along one line (within 1 degree), have the same section,
+    grade and orientation, and release nothing at n. An element with more than one such partner
+    is left unpaired.
+    """
+    at = [e for e in holding.at.get(n, []) if e not in grouped]
+    partners: dict[str, list[str]] = {e: [] for e in at}
+    for k, a in enumerate(at):
+        ka = pos[a]
+        rel_a = release_i[ka] if node_i[ka] == n else release_j[ka]
+        if rel_a:
+            continue
+        ua = holding.unit(n, holding.other_end(a, n))
+        for b in at[k + 1:]:
+            kb = pos[b]
+            rel_b = release_i[kb] if node_i[kb] == n else release_j[kb]
+            if a == b or rel_b:
+                continue
+            ub = holding.unit(n, holding.other_end(b, n))
+            if (ua @ ub <= -COLLINEAR_COS
+                    and el["section"].iloc[ka] == el["section"].iloc[kb]
+                    and el["grade"].iloc[ka] == el["grade"].iloc[kb]
+                    and abs(axes[ka, 2] @ axes[kb, 2]) >= COLLINEAR_COS):
+                partners[a].append(b)
+                partners[b].append(a)
+    return [(a, ps[0]) for a, ps in partners.items()
+            if len(ps) == 1 and len(partners[ps[0]]) == 1 and pos[a] < pos[ps[0]]]
+
+
 def design_members(frame: Frame, *, groups: dict[str, list[str]] | None = None,
                    restraint_nodes: pd.DataFrame | None = None) -> Members:
     """Group elements into design members, classify them and find their restraint points.
@@ -220,7 +427,6 @@ def design_members(frame: Frame, *, groups: dict[str, list[str]] | None = None,
     unit = chord / length[:, None]
     pos = {e: k for k, e in enumerate(ids)}
     declared = _declared_nodes(frame, restraint_nodes)
-    supports = set(frame.supports.index[frame.supports.any(axis=1)].astype(str))
     release_i, release_j = _any_release(frame, "i"), _any_release(frame, "j")
 
     # automatic chains over the elements not named in groups
@@ -241,23 +447,19 @@ def design_members(frame: Frame, *, groups: dict[str, list[str]] | None = None,
     g.add_nodes_from(frame.nodes.index.astype(str))
     for e in ids:
         g.add_edge(node_i[pos[e]], node_j[pos[e]], element=e)
+    holding = _Holding(frame, declared)
     link = nx.Graph()
     link.add_nodes_from(free)
-    stop_nodes = supports | set(declared["node"])
     for n in g.nodes:
-        if g.degree(n) != 2 or n in stop_nodes:
-            continue
-        (a, b) = [d["element"] for _, _, d in g.edges(n, data=True)]
-        if a == b or a in grouped or b in grouped:
-            continue
-        ka, kb = pos[a], pos[b]
-        same = (abs(unit[ka] @ unit[kb]) >= COLLINEAR_COS
-                and el["section"].iloc[ka] == el["section"].iloc[kb]
-                and el["grade"].iloc[ka] == el["grade"].iloc[kb]
-                and abs(axes[ka, 2] @ axes[kb, 2]) >= COLLINEAR_COS)
-        rel_a = release_i[ka] if node_i[ka] == n else release_j[ka]
-        rel_b = release_i[kb] if node_i[kb] == n else release_j[kb]
-        if same and not rel_a and not rel_b:
+        for a, b in _through_pairs(n, holding, grouped, pos, unit, el, axes, release_i,
+                                   release_j, node_i):
+            # a joint splits the member only where it is held in every direction the model
+            # bends in: a lateral restraint alone, or a member framing in that holds nothing,
+            # leaves the member whole (its lengths are split per axis instead)
+            ka = pos[a]
+            across = _modelled_directions(frame, axes[ka])
+            if set(holding.held(n, across, unit[ka], {a, b})) >= set(across):
+                continue
             link.add_edge(a, b)
 
     chains: list[tuple[str | None, list[str]]] = [(name, list(map(str, elist)))
@@ -304,7 +506,7 @@ def design_members(frame: Frame, *, groups: dict[str, list[str]] | None = None,
     members.insert(3, "kind", _classify(frame, members, member_elements, g))
     members = members[["length_m", "section", "grade", "kind", "n_elements", "start_node",
                        "end_node"]]
-    restraints = _restraints(frame, members, member_elements, g, declared)
+    restraints = _restraints(frame, members, member_elements, g, holding)
     return Members(members, member_elements, restraints)
 
 
@@ -366,76 +568,34 @@ def _classify(frame: Frame, members: pd.DataFrame, member_elements: pd.DataFrame
 
 
 def _restraints(frame: Frame, members: pd.DataFrame, member_elements: pd.DataFrame,
-                g: nx.MultiGraph, declared: pd.DataFrame) -> pd.DataFrame:
+                g: nx.MultiGraph, holding: _Holding) -> pd.DataFrame:
     """Restraint points of each member from supports, framing members and declarations."""
-    xyz = frame.nodes[NODE_COLUMNS].astype(float)
-    xyz.index = xyz.index.astype(str)
-    sup = frame.supports.copy()
-    sup.index = sup.index.astype(str)
     maxes = member_axes(frame, members, member_elements)
-    el = frame.elements
-    eids = el.index.astype(str)
-    node_i = pd.Series(el["node_i"].astype(str).to_numpy(), index=eids)
-    node_j = pd.Series(el["node_j"].astype(str).to_numpy(), index=eids)
     elem_member = dict(zip(member_elements["element"], member_elements["member"]))
-    decl = declared.groupby("node") if len(declared) else None
-    decl_nodes = set(declared["node"]) if len(declared) else set()
+    by_member = member_elements.groupby("member")["element"].apply(set)
     rows = []
     for k, m in enumerate(members.index):
         ex, ey, ez = maxes[k]
-        origin = xyz.loc[members.at[m, "start_node"]].to_numpy()
-        mine = set(member_elements.loc[member_elements["member"] == m, "element"])
-        nodes = set(node_i[list(mine)]) | set(node_j[list(mine)])
+        origin = holding.xyz[members.at[m, "start_node"]]
+        ends = (members.at[m, "start_node"], members.at[m, "end_node"])
+        mine = by_member[m]
+        nodes = {n for e in mine for n in holding.ends[e]}
         for n in nodes:
-            x = float((xyz.loc[n].to_numpy() - origin) @ ex)
-            found: dict[str, str] = {}
-            if n in sup.index and bool(sup.loc[n].any()):
-                s = sup.loc[n]
-                trans = np.array([s.get("ux", False), s.get("uy", False), s.get("uz", False)],
-                                 dtype=bool)
-                rot = np.array([s.get("rx", False), s.get("ry", False), s.get("rz", False)],
-                               dtype=bool)
-                if frame.ndm == 2:
-                    # a plane model says nothing out of plane: a support node is taken to be
-                    # held out of plane and against twist (a foundation or a wall)
-                    trans[2] = True
-                    rot[:2] = True
-                for d, e in (("y", ey), ("z", ez)):
-                    if np.sum(e[~trans] ** 2) < 0.01:
-                        found[d] = f"support at node {n}"
-                if np.sum(ex[~rot] ** 2) < 0.01:
-                    found["torsion"] = f"support at node {n}"
-            for _, other, data in g.edges(n, data=True):
-                e = data["element"]
-                if e in mine:
-                    continue
-                u = xyz.loc[other].to_numpy() - xyz.loc[n].to_numpy()
-                u = u / np.linalg.norm(u)
-                for d, v in (("y", ey), ("z", ez)):
-                    if abs(u @ v) >= FRAMING_MIN_COMPONENT and d not in found:
-                        found[d] = f"member {elem_member.get(e, e)} framing in at node {n}"
-            if frame.ndm == 3 and n in (members.at[m, "start_node"], members.at[m, "end_node"]):
+            x = float((holding.xyz[n] - origin) @ ex)
+            found = holding.held(n, {"y": ey, "z": ez}, ex, mine,
+                                 name=lambda e: elem_member.get(e, e))
+            if frame.ndm == 3 and n in ends:
                 # a joint at a member end: its translation belongs to the frame's own (sway)
                 # behaviour, which the global analysis carries; for the member it is a node
                 for _, other, data in g.edges(n, data=True):
                     if data["element"] in mine:
                         continue
-                    u = xyz.loc[other].to_numpy() - xyz.loc[n].to_numpy()
-                    if abs(u @ ex) < COLLINEAR_COS * np.linalg.norm(u):
+                    u = holding.unit(n, other)
+                    if abs(u @ ex) < COLLINEAR_COS:
                         for d in ("y", "z"):
                             found.setdefault(d, f"joint with member "
                                                 f"{elem_member.get(data['element'])} at node {n}")
                         break
-            if n in decl_nodes:
-                for _, r in decl.get_group(n).iterrows():
-                    dirs = {"all": ["y", "z", "torsion"]}.get(r["direction"], [r["direction"]])
-                    for d in dirs:
-                        if d in ("X", "Y", "Z"):
-                            gvec = np.eye(3)["XYZ".index(d)]
-                            if max(abs(gvec @ ey), abs(gvec @ ez)) < FRAMING_MIN_COMPONENT:
-                                continue        # along the member: restrains neither axis
-                            d = "y" if abs(gvec @ ey) >= abs(gvec @ ez) else "z"
-                        found.setdefault(d, f"declared at node {n} ({r['source']})")
             if "y" in found and "z" in found and "torsion" not in found:
                 found["torsion"] = f"held in y and z at node {n} (taken as a fork)"
             rows += [(m, x, d, src) for d, src in found.items()]

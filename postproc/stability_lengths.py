@@ -13,8 +13,14 @@ Where each length comes from (the `origin_*` columns say it row by row):
     used for both axes of a space frame. A member not in compression gets the sway effective
     length from its end restraint, or, pinned at both ends (a link that sways with the frame),
     the non-sway length.
-  - a member end with no restraint across that axis (a cantilever tip): the sway effective
-    length with that end free.
+  - a member end with no restraint across that axis: the sway effective length, with eta at
+    that end from the members joined there (eta = 1 at a free tip; a stub with a free tip adds
+    no stiffness).
+  - a frame-mode length above SHOWN_LENGTH_CAP (10) times the member length (a lightly
+    compressed member) is kept and used; its origin says so, and the report shows it capped
+    (`shown_lengths`).
+- Each axis is split at its own points only (`postproc.members` keeps them per direction): a
+  lateral ('y') restraint shortens L_cr about z-z and L_LT, never the in-plane length.
 - The out-of-plane axis of a plane frame: the longest span between points restrained out of
   plane (supports and declared restraints; k = 1).
 - L_LT: the longest span between lateral restraints ('y'); L_cr_T: between torsional restraints.
@@ -37,9 +43,16 @@ COLLINEAR_COS = np.cos(np.radians(10.0))
 X_TOL_M = 1e-6
 # effective stiffness of a member framing in, times I/L, by the condition of its far end
 # (ENV 1993-1-1 Annex E, Table E.1, from memory): beams in single curvature for the non-sway
-# case and double curvature for the sway case, the usual assumptions of that method
+# case and double curvature for the sway case, the usual assumptions of that method. A pinned
+# far end gives 0.75 in both cases: the near-end moment of a beam pinned at its far end is
+# 3 E I / L times the rotation against 4 E I / L with the far end fixed, and the beam's ends do
+# not move across it when the frame sways
 FAR_END_FACTOR = {False: {"fixed": 1.0, "pinned": 0.75, "continuous": 0.5},
-                  True: {"fixed": 1.0, "pinned": 0.5, "continuous": 1.5}}
+                  True: {"fixed": 1.0, "pinned": 0.75, "continuous": 1.5}}
+# a frame-mode length above this multiple of the member length is shown capped, with a note
+# (a lightly compressed member): the check still uses the length as computed
+SHOWN_LENGTH_CAP = 10.0
+FRAME_MODE_ORIGIN = "frame buckling mode"
 SWAY_PATHS = ("second-order needed", "unstable", "not evaluated")
 OVERRIDE_COLUMNS = ["L_cr_y_m", "L_cr_z_m", "L_LT_m", "L_cr_T_m"]
 
@@ -137,29 +150,66 @@ class _Model:
             if other == m:
                 continue
             q_end = "i" if self.node_i[q] == node else "j"
-            L_o = float(mm.at[other, "length_m"]) if other in mm.index else 1.0
-            stiff = self.bending_stiffness(q, q_end, v, L_o)
+            stiff = self.bending_stiffness(q, q_end, v, self._arm_length(other, node, q))
             far = self.node_j[q] if q_end == "i" else self.node_i[q]
             u = self.xyz.loc[far].to_numpy() - self.xyz.loc[node].to_numpy()
             if abs(u @ ex) >= COLLINEAR_COS * np.linalg.norm(u):
                 K_1 += stiff
                 continue
-            K_b += FAR_END_FACTOR[sway][self._far_end(other, node, v)] * stiff
+            if len(self.at_node.get(far, [])) == 1 and not self._supported(far):
+                continue            # a stub with a free tip turns with the joint: no restraint
+            K_b += FAR_END_FACTOR[sway][self._far_end(other, node, v, q)] * stiff
         eta = (K_c + K_1) / (K_c + K_1 + K_b)
         return float(eta), f"eta = {eta:.2f} at {node}"
 
-    def _far_end(self, member: str | None, near: str, v: np.ndarray) -> str:
+    def _supported(self, node: str) -> bool:
+        return node in self.sup.index and bool(self.sup.loc[node].any())
+
+    def _toward_end(self, member: str, node: str, q: int) -> bool:
+        """True where element q leads from `node` towards the member's end (else its start)."""
+        mm = self.members.members
+        if node == mm.at[member, "start_node"]:
+            return True
+        if node == mm.at[member, "end_node"]:
+            return False
+        ex = self.maxes[self.index[member], 0]
+        far = self.node_j[q] if self.node_i[q] == node else self.node_i[q]
+        return float((self.xyz.loc[far].to_numpy() - self.xyz.loc[node].to_numpy()) @ ex) > 0
+
+    def _arm_length(self, member: str | None, node: str, q: int) -> float:
+        """Length of `member` from `node` to its end on element q's side.
+
+        The member length where the node is one of its ends; where the member runs through
+        the node (it is not held there), the part on q's side, as a separate member would be.
+        """
+        mm = self.members.members
+        if member is None or member not in mm.index:
+            return float(np.linalg.norm(self.xyz.loc[self.node_j[q]].to_numpy()
+                                        - self.xyz.loc[self.node_i[q]].to_numpy()))
+        L = float(mm.at[member, "length_m"])
+        if node in (mm.at[member, "start_node"], mm.at[member, "end_node"]):
+            return L
+        ex = self.maxes[self.index[member], 0]
+        origin = self.xyz.loc[mm.at[member, "start_node"]].to_numpy()
+        x_node = float((self.xyz.loc[node].to_numpy() - origin) @ ex)
+        return L - x_node if self._toward_end(member, node, q) else x_node
+
+    def _far_end(self, member: str | None, near: str, v: np.ndarray, q: int) -> str:
+        """Condition of the far end of `member` seen from `near` along element q: 'pinned' (a
+        release, or a support that leaves rotation free with nothing else joined), 'fixed' (a
+        support that holds rotation about v) or 'continuous'."""
         if member is None or member not in self.ends:
             return "continuous"
         mm = self.members.members
-        start = mm.at[member, "start_node"]
-        which = 1 if start == near else 0
+        which = 1 if self._toward_end(member, near, q) else 0
         far = mm.at[member, "start_node" if which == 0 else "end_node"]
         k, end = self.ends[member][which]
         if self.pin[end][k]:
             return "pinned"
         if self.rotation_held(far, v):
             return "fixed"
+        if self._supported(far) and len(self.at_node.get(far, [])) == 1:
+            return "pinned"
         return "continuous"
 
 
@@ -206,10 +256,12 @@ def _member_candidates(model: _Model, m: str, k1: bool = False) -> dict:
         e1, n1 = model.eta(m, 1, axis, sway=False)
         s0, sn0 = model.eta(m, 0, axis, sway=True)
         s1, sn1 = model.eta(m, 1, axis, sway=True)
-        if not held0:
-            s0, sn0 = 1.0, f"free end at {ends[0]}"
-        if not held1:
-            s1, sn1 = 1.0, f"free end at {ends[1]}"
+        # an end nothing holds across the axis sways with the frame; the members joined to it
+        # may still hold it against rotation (eta), and a tip with none is free (eta = 1)
+        if not held0 and s0 >= 1.0:
+            sn0 = f"free end at {ends[0]}"
+        if not held1 and s1 >= 1.0:
+            sn1 = f"free end at {ends[1]}"
         ratio_s = float(effective_length_ratio(s0, s1, sway=True))
         if np.isfinite(ratio_s):
             sway_len = (ratio_s * L, f"sway effective length {ratio_s:.3f} L ({sn0}, {sn1}; "
@@ -303,9 +355,17 @@ def buckling_lengths(frame: Frame, members: Members, results: Results, paths: pd
         use_sway = modelled[:, None] & sway_needed[None, :] & ~use_frame & np.isfinite(sw)[:, None]
         L = np.where(use_frame, frame_len, np.where(use_sway, sw[:, None], base[:, None]))
         origin = np.where(use_sway, sw_o[:, None], base_o[:, None]).astype(object)
-        fr_text = np.array([f"frame buckling mode: N_cr = alpha_cr |N_Ed| = {a:.2f} x |N_Ed| "
+        fr_text = np.array([f"{FRAME_MODE_ORIGIN}: N_cr = alpha_cr |N_Ed| = {a:.2f} x |N_Ed| "
                             "(5.2.2(8))" for a in alpha], dtype=object)
         origin = np.where(use_frame, fr_text[None, :], origin)
+        member_L = np.array([c["L"] for c in cand])[:, None]
+        long = use_frame & (frame_len > SHOWN_LENGTH_CAP * member_L)
+        if long.any():
+            # a lightly compressed member: say so beside the (true, if surprising) length
+            ratio = frame_len[long] / np.broadcast_to(member_L, long.shape)[long]
+            origin[long] = [f"{o}; {v:.2f} m = {r:.1f} L, more than {SHOWN_LENGTH_CAP:g} L: "
+                            f"shown as {SHOWN_LENGTH_CAP:g} L in the report, the check uses "
+                            f"{v:.2f} m" for o, v, r in zip(origin[long], frame_len[long], ratio)]
         cols[f"L_cr_{axis}_m"] = L
         cols[f"sway_{axis}"] = use_frame | np.where(use_sway, sw_s[:, None], base_s[:, None])
         cols[f"origin_{axis}"] = origin
@@ -347,4 +407,24 @@ def _apply_overrides(out: pd.DataFrame, overrides: pd.DataFrame, known: set[str]
             out.loc[sel, origin[col]] = "override from the project"
             if col in ("L_cr_y_m", "L_cr_z_m"):
                 out.loc[sel, "sway_" + col[5]] = False
+    return out
+
+
+def shown_lengths(lengths: pd.DataFrame, members: Members) -> pd.DataFrame:
+    """The lengths table as the report shows it: frame-mode lengths capped at SHOWN_LENGTH_CAP
+    times the member length (their origin says so); every other value as found.
+
+    The checks use `lengths` itself, never this view.
+    """
+    out = lengths.copy()
+    if not len(out) or "member" not in out:
+        return out
+    member_L = out["member"].map(members.members["length_m"]).to_numpy(float)
+    for axis in ("y", "z"):
+        col, origin = f"L_cr_{axis}_m", f"origin_{axis}"
+        if col not in out or origin not in out:
+            continue
+        frame_mode = out[origin].astype(str).str.startswith(FRAME_MODE_ORIGIN).to_numpy()
+        long = frame_mode & (out[col].to_numpy(float) > SHOWN_LENGTH_CAP * member_L)
+        out.loc[long, col] = SHOWN_LENGTH_CAP * member_L[long]
     return out

@@ -142,15 +142,21 @@ def test_restraints_from_supports_and_framing_members():
     assert "E4" in top["source"].iloc[0]
 
 
-def test_declared_restraint_nodes_split_and_restrain():
+def test_declared_restraint_splits_a_member_only_where_held_in_its_plane():
+    """A lateral ('y', out of the plane) restraint leaves the column whole: a plane frame bends
+    in its plane only, so only a point held in the plane ends a design member there."""
     decl = pd.DataFrame({"node": ["2", "4"], "direction": ["y", "all"]})
     m = design_members(pitched_portal(), restraint_nodes=decl)
-    # node 2 is a declared restraint: the left column splits there
-    assert {"E1", "E2-E3"} <= set(m.members.index)
-    r = m.restraints
-    upper = r[r["member"] == "E2-E3"]
-    assert set(upper.loc[upper["x_m"] == 0.0, "direction"]) == {"y"}
-    assert set(upper.loc[np.isclose(upper["x_m"], 4.0), "direction"]) == {"y", "z", "torsion"}
+    assert "E1-E3" in m.members.index and "E1" not in m.members.index
+    r = m.restraints[m.restraints["member"] == "E1-E3"]
+    assert set(r.loc[np.isclose(r["x_m"], 2.0), "direction"]) == {"y"}
+    assert set(r.loc[np.isclose(r["x_m"], 6.0), "direction"]) == {"y", "z", "torsion"}
+    # held in every direction at node 2: the column splits there
+    m2 = design_members(pitched_portal(),
+                        restraint_nodes=pd.DataFrame({"node": ["2"], "direction": ["all"]}))
+    assert {"E1", "E2-E3"} <= set(m2.members.index)
+    upper = m2.restraints[m2.restraints["member"] == "E2-E3"]
+    assert set(upper.loc[upper["x_m"] == 0.0, "direction"]) == {"y", "z", "torsion"}
 
 
 def test_restraint_at_a_missing_node():
@@ -184,7 +190,8 @@ def test_declared_global_direction_maps_to_local_axes():
     decl = pd.DataFrame({"node": ["3", "3"], "direction": ["Z", "X"]})
     m = design_members(make_frame(nodes, els, [("1", *FIXED), ("5", *FIXED)]),
                        restraint_nodes=decl)
-    r = m.restraints[m.restraints["member"] == "B1"]
+    # held out of plane only: the beam stays one design member through node 3
+    r = m.restraints[m.restraints["member"] == "B1-B2"]
     # 'Z' holds the beam out of plane (local y); 'X' runs along the beam and holds nothing
     assert set(r.loc[np.isclose(r["x_m"], 3.0), "direction"]) == {"y"}
 

@@ -14,6 +14,7 @@ import pandas as pd
 from .. import CAUTION, __version__
 from ..checker import CheckOutcome
 from ..checks.base import FAIL, NOT_EVALUATED
+from ..stability_lengths import shown_lengths
 from .display import to_display
 from .summaries import member_grouping
 
@@ -96,6 +97,6 @@ be evaluated</i> (these are not passes: see the reasons).</p>
 <h2>Overstressed members by combination</h2>
 {_table(failures) if len(failures) else '<p>None.</p>'}
 <h2>Design members</h2>{_table(member_grouping(outcome.members))}
-<h2>Buckling lengths</h2>{_table(outcome.lengths)}
+<h2>Buckling lengths</h2>{_table(shown_lengths(outcome.lengths, outcome.members))}
 </body></html>
 """
