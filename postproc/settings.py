@@ -29,6 +29,10 @@ class DesignSettings:
         eta: shear area factor of 6.2.6(3); 1.0 is the conservative value that 6.2.6(3) allows.
         default_grade: steel grade for elements that name none.
         utilisation_limit: a check fails above this utilisation (1.0).
+        class_3_at_actual_stress: 5.5.2(9): in the cross-section checks (never in the member
+            buckling checks, 5.5.2(10)) a class 4 station is checked as class 3 where its parts
+            meet the class 3 limits with epsilon raised by sqrt(f_y / gamma_M0 / sigma_com,Ed);
+            off by default (effective properties are used).
     """
 
     gamma_M0: float = 1.00
@@ -41,6 +45,7 @@ class DesignSettings:
     eta: float = 1.0
     default_grade: str = "S355"
     utilisation_limit: float = 1.0
+    class_3_at_actual_stress: bool = False
 
     def __post_init__(self) -> None:
         if self.annex not in ANNEXES:
@@ -49,6 +54,10 @@ class DesignSettings:
         if self.ltb_method not in LTB_METHODS:
             raise InputError(f"ltb_method must be one of {', '.join(LTB_METHODS)}, "
                              f"got '{self.ltb_method}'", field="design.ltb_method")
+        if not isinstance(self.class_3_at_actual_stress, bool):
+            raise InputError("class_3_at_actual_stress must be true or false, got "
+                             f"{self.class_3_at_actual_stress!r}",
+                             field="design.class_3_at_actual_stress")
         for name in ("gamma_M0", "gamma_M1", "gamma_M2", "eta"):
             value = getattr(self, name)
             if not (0.5 <= value <= 2.0):
