@@ -36,15 +36,17 @@ def k_sigma_internal(psi: ArrayLike) -> Array:
     Buckling factor k_sigma of an internal compression element.
 
     psi = 1: 4.0; 1 > psi > 0: 8.2 / (1.05 + psi); psi = 0: 7.81; 0 > psi > -1: 7.81 - 6.29 psi
-    + 9.78 psi^2; psi = -1: 23.9; -1 > psi >= -3: 5.98 (1 - psi)^2. The table's spot values are the
-    ends of its formulas (8.2 / 2.05 = 4.0, 8.2 / 1.05 = 7.81). psi below -3 is taken as -3
-    (outside the table; NaN would stop every check of a part in almost pure tension).
+    + 9.78 psi^2; psi = -1: 23.9; -1 > psi >= -3: 5.98 (1 - psi)^2. At psi = 0 and -1 the table's
+    printed values are used (the neighbouring formulas give 7.81 / 7.8095 and 23.88 / 23.92).
+    psi below -3 is taken as -3 (outside the table; NaN would stop every check of a part in
+    almost pure tension).
     """
     psi = np.clip(_a(psi), -3.0, 1.0)
     with np.errstate(divide="ignore", invalid="ignore"):
-        return np.where(psi >= 0.0, 8.2 / (1.05 + psi),
-                        np.where(psi > -1.0, 7.81 - 6.29 * psi + 9.78 * psi**2,
-                                 5.98 * (1.0 - psi) ** 2))
+        k = np.where(psi > 0.0, 8.2 / (1.05 + psi),
+                     np.where(psi > -1.0, 7.81 - 6.29 * psi + 9.78 * psi**2,
+                              5.98 * (1.0 - psi) ** 2))
+    return np.where(psi == -1.0, 23.9, k)
 
 
 def plate_slenderness(b_bar: ArrayLike, t: ArrayLike, epsilon: ArrayLike,
