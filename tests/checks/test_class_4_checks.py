@@ -6,9 +6,6 @@ mm3 are worked out by hand there. Expected values below are hand calculations fr
 with the equation named beside each.
 """
 
-import math
-
-import numpy as np
 import pytest
 
 from postproc.checks.effective_rows import CLASS_4_CHS
