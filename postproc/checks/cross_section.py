@@ -389,10 +389,10 @@ def _shear_reduction(c: _Rows) -> dict[str, np.ndarray]:
         out[f"rho_{axis}"] = (np.zeros((c.R, c.S)) if idle.all()  # e.g. no V_y in a plane frame
                               else np.where(idle, 0.0, cs.rho_shear(V, V_pl)))
         slender |= (ratio > 1.0) & (V != 0.0)
-    W_y = np.where(c.plastic, c.p("W_pl_y"), np.where(c.elastic, c.p("W_el_y"),
-                                                      np.where(c.effective, c.e("W_eff_y"), np.nan)))
-    W_z = np.where(c.plastic, c.p("W_pl_z"), np.where(c.elastic, c.p("W_el_z"),
-                                                      np.where(c.effective, c.e("W_eff_z"), np.nan)))
+    W_y = np.where(c.plastic, c.p("W_pl_y"), np.where(
+        c.elastic, c.p("W_el_y"), np.where(c.effective, c.e("W_eff_y"), np.nan)))
+    W_z = np.where(c.plastic, c.p("W_pl_z"), np.where(
+        c.elastic, c.p("W_el_z"), np.where(c.effective, c.e("W_eff_z"), np.nan)))
     A = np.where(c.effective, c.e("A_eff"), c.p("A"))  # class 4: the effective area
     # the web part per row, plastic and elastic, then the class's one at each station
     dims = (c.shape, c.p("h"), c.p("b"), c.p("t_w"), c.p("t_f"), c.p("t"))

@@ -153,7 +153,8 @@ def _common(rows: MemberRows) -> dict:
     N_cr_min = np.fmin(np.asarray(b["N_cr_y_N"], float), np.asarray(b["N_cr_z_N"], float))
     N_cr_min = np.where(twist, np.fmin(N_cr_min, np.asarray(b["N_cr_T_N"], float)), N_cr_min)
     beyond = d["N_Ed"] >= N_cr_min
-    return {"b": b, "d": d, "sec": sec, "cls": cls, "k_class": k_class, "eff": eff, "twist": twist, "ltb": ltb, "chi_LT": chi_LT,
+    return {"b": b, "d": d, "sec": sec, "cls": cls, "k_class": k_class, "eff": eff,
+            "twist": twist, "ltb": ltb, "chi_LT": chi_LT,
             "res": res, "x_seg": x_seg, "seg_note": seg_note, "reason": reason,
             "beyond": beyond, "N_cr_min": N_cr_min, "diagrams": diagrams}
 
