@@ -35,12 +35,15 @@ NOISE times the section's own capacity are taken as exactly 0 (numerical noise o
 
 from __future__ import annotations
 
+from functools import partial
+
 import numpy as np
 
 from ..ec3 import cross_section as cs
 from ..ec3 import effective_resistance as er
 from ..errors import InputError
 from ..sections.classification import section_class
+from ..sections.effective import STRESS_KEYS, parts_at_stress
 from . import effective_rows as eff_rows
 from .base import CheckBlock, MemberRows, at_station, no_reason, row_any
 
@@ -134,9 +137,16 @@ class _Rows:
         return out
 
     def effective_values(self) -> dict[str, object]:
-        """The effective properties, shown where the governing station is class 4."""
-        return {eff_rows.column_name(k): _Later(_where_nan, self.effective, self.e(k))
-                for k in eff_rows.VALUE_KEYS}
+        """The effective properties, shown where the governing station is class 4, and psi,
+        lambda_p and rho of the web and flange under that station's stresses."""
+        out: dict[str, object] = {eff_rows.column_name(k): _Later(_where_nan, self.effective,
+                                                                  self.e(k))
+                                  for k in eff_rows.VALUE_KEYS}
+        for key in STRESS_KEYS:
+            out[f"{key}_at_station"] = _Later(
+                partial(_part_at_stress, key), self.effective, self.N, self.My, self.Mz,
+                self.f_y, self.shape, *(self.p(n) for n in _STRESS_PROPS))
+        return out
 
     def p(self, name: str) -> np.ndarray:
         """Section property `name` as (R, 1) floats; NaN where the table lacks the column."""
@@ -280,6 +290,22 @@ def _block(c: _Rows, check: str, clause: str, util: np.ndarray, reason: _Reasons
 
 def _where_nan(keep: np.ndarray, values: np.ndarray) -> np.ndarray:
     return np.where(keep, values, np.nan)
+
+
+_STRESS_PROPS = ("h", "b", "A", "I_y", "I_z", "W_el_y", "W_el_z", "c_web", "t_web", "c_flange",
+                 "t_flange")
+
+
+def _part_at_stress(key: str, keep: np.ndarray, N: np.ndarray, My: np.ndarray, Mz: np.ndarray,
+                    f_y: np.ndarray, shape: np.ndarray, *props: np.ndarray) -> np.ndarray:
+    """Value `key` of `parts_at_stress` at the picked stations, worked out where `keep`."""
+    out = np.full(keep.shape, np.nan)
+    at = np.flatnonzero(keep)
+    if at.size:
+        section = {n: p[at] for n, p in zip(_STRESS_PROPS, props)}
+        section["shape"] = shape[at]
+        out[at] = parts_at_stress(section, f_y[at], N[at], My[at], Mz[at])[key]
+    return out
 
 
 def _util(demand: np.ndarray, resistance: np.ndarray) -> np.ndarray:

@@ -207,3 +207,61 @@ def effective_properties_where(section: dict[str, Array], f_y: Array, needed: Ar
         for k in KEYS:
             out[k][at] = part[k]
     return out
+
+
+STRESS_KEYS = ("psi_web", "lambda_p_web", "rho_web", "psi_flange", "lambda_p_flange",
+               "rho_flange")
+"""Names of the values `parts_at_stress` returns."""
+
+
+def parts_at_stress(section: dict[str, Array], f_y: Array, N_Ed: Array, M_y_Ed: Array,
+                    M_z_Ed: Array) -> dict[str, Array]:
+    """EN 1993-1-5:2006, 4.4, Tables 4.1 and 4.2, eqs. (4.2) and (4.3).
+
+    psi, lambda_p and rho of the web and of the more compressed flange under the elastic stresses
+    of the gross section at a station (N_Ed > 0 tension). These show how slender each part is
+    under the actual forces; the resistances use A_eff and W_eff (`effective_properties`), as
+    EN 1993-1-1 6.2.2.5 asks.
+
+    Parts: I web (internal part, N and M_y), I flange outstands (N and M_y uniform, the gradient
+    of M_z; the outstand whose tip M_z compresses); RHS walls along z ('web': N, M_z uniform, the
+    gradient of M_y) and along y ('flange': N, M_y uniform, the gradient of M_z). All arrays
+    broadcast together. NaN for a part with no compression and for other shapes.
+    """
+    f_y = np.asarray(f_y, dtype=float)
+    N_c = -np.asarray(N_Ed, dtype=float)
+    My, Mz = np.abs(np.asarray(M_y_Ed, float)), np.abs(np.asarray(M_z_Ed, float))
+    g = {k: np.asarray(section.get(k, np.nan), dtype=float)
+         for k in ("h", "b", "A", "I_y", "I_z", "W_el_y", "W_el_z", "c_web", "t_web",
+                   "c_flange", "t_flange")}
+    shape = np.asarray(section["shape"], dtype=object)
+    is_I, is_RHS = shape == "I", shape == "RHS"
+    eps = np.sqrt(235e6 / f_y)
+    with np.errstate(invalid="ignore", divide="ignore"):
+        s_N = N_c / g["A"]
+
+        def internal(c, t, mid, half_range):
+            s1, s2 = mid + half_range, mid - half_range
+            psi = np.where(s1 > 0.0, s2 / s1, np.nan)
+            lam = ew.plate_slenderness(c, t, eps, ew.k_sigma_internal(psi))
+            return psi, lam, ew.rho_internal(lam, psi)
+
+        web_I = internal(g["c_web"], g["t_web"], s_N, My * (g["c_web"] / 2.0) / g["I_y"])
+        web_R = internal(g["c_web"], g["t_web"], s_N + Mz * (g["b"] / 2.0) / g["I_z"],
+                         My * (g["c_web"] / 2.0) / g["I_y"])
+        flange_R = internal(g["c_flange"], g["t_flange"], s_N + My * (g["h"] / 2.0) / g["I_y"],
+                            Mz * (g["c_flange"] / 2.0) / g["I_z"])
+        # I outstand: uniform part from N and M_y, M_z adds at the tip, less at the root
+        s_0, s_t = s_N + My / g["W_el_y"], Mz / g["W_el_z"]
+        s_tip = s_0 + s_t
+        s_root = s_0 + s_t * (g["b"] / 2.0 - g["c_flange"]) / (g["b"] / 2.0)
+        s_1 = np.maximum(s_tip, s_root)
+        psi_f = np.where(s_1 > 0.0, np.minimum(s_tip, s_root) / s_1, np.nan)
+        k_f = ew.k_sigma_outstand(psi_f, s_tip >= s_root)
+        lam_f = ew.plate_slenderness(g["c_flange"], g["t_flange"], eps, k_f)
+        flange_I = (psi_f, lam_f, ew.rho_outstand(lam_f))
+    out = {}
+    for name, part_I, part_R in (("web", web_I, web_R), ("flange", flange_I, flange_R)):
+        for key, a, b in zip(("psi", "lambda_p", "rho"), part_I, part_R):
+            out[f"{key}_{name}"] = np.where(is_I, a, np.where(is_RHS, b, np.nan))
+    return out

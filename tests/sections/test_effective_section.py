@@ -110,3 +110,24 @@ def test_chs_and_generic_have_no_effective_properties():
     _, eff = _props({"shape": "GENERIC", "A_cm2": 50, "Iy_cm4": 5000, "Iz_cm4": 500,
                      "tmax_mm": 10})
     assert np.isnan(eff["A_eff"])
+
+
+def test_web_slenderness_under_the_actual_stresses():
+    """The welded girder above at a station with N_Ed = -1000 kN and M_y,Ed = 800 kNm. By hand:
+    I_y = 2 (250 x 15^3 / 12 + 250 x 15 x 392.5^2) + 6 x 770^3 / 12 = 1.383829e9 mm4;
+    sigma_N = 1 000 000 / 12 120 = 82.508 N/mm2; sigma_M at the web ends = 800e6 x 385 / I_y
+    = 222.573 N/mm2; psi = (82.508 - 222.573) / (82.508 + 222.573) = -0.459103 (Table 4.1);
+    k = 7.81 + 6.29 x 0.459103 + 9.78 x 0.459103^2 = 12.7592;
+    lambda_p = 128.333 / (28.4 x 0.813617 x sqrt(12.7592)) = 1.55486;
+    rho = (1.55486 - 0.055 x (3 - 0.459103)) / 1.55486^2 = 0.585340 (eq. 4.2)."""
+    from postproc.sections.effective import parts_at_stress
+    table = build_sections(pd.DataFrame([{"section": "s", "shape": "I-welded", "h_mm": 800,
+                                          "b_mm": 250, "tw_mm": 6, "tf_mm": 15}]))
+    section = {k: table[k].to_numpy() for k in table.columns}
+    out = parts_at_stress(section, S355, np.array([-1000e3, 1000e3]), np.array([800e3, 0.0]),
+                          0.0)
+    assert out["psi_web"][0] == pytest.approx(-0.459103, rel=HAND)
+    assert out["lambda_p_web"][0] == pytest.approx(1.55486, rel=HAND)
+    assert out["rho_web"][0] == pytest.approx(0.585340, rel=HAND)
+    # a web in tension alone has nothing to buckle: no values
+    assert np.isnan(out["rho_web"][1])
