@@ -139,6 +139,11 @@ class _Rows:
     def effective_values(self) -> dict[str, object]:
         """The effective properties, shown where the governing station is class 4, and psi,
         lambda_p and rho of the web and flange under that station's stresses."""
+        names = ([eff_rows.column_name(k) for k in eff_rows.VALUE_KEYS]
+                 + [f"{key}_at_station" for key in STRESS_KEYS])
+        if not self.effective.any():  # no class 4 station here: the same columns, all NaN
+            blank = np.full((self.R, 1), np.nan)
+            return dict.fromkeys(names, blank)
         out: dict[str, object] = {eff_rows.column_name(k): _Later(_where_nan, self.effective,
                                                                   self.e(k))
                                   for k in eff_rows.VALUE_KEYS}
