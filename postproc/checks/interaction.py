@@ -285,6 +285,7 @@ def _annex_a_blocks(rows: MemberRows, c: dict, suffix: str) -> list[CheckBlock]:
         W_pl_y=sec["W_pl_y"], W_pl_z=sec["W_pl_z"], W_el_y=sec["W_el_y"], W_el_z=sec["W_el_z"],
         I_y=sec["I_y"], I_T=sec["I_t"], gamma_M0=rows.settings.gamma_M0,
         gamma_M1=rows.settings.gamma_M1)
+    aux["epsilon_y"] = eps_y  # the one C_m used (class 4: A_eff / W_eff,y)
     k = annex_a.k_factors_annex_a(N_Ed=N_Ed, N_cr_y=N_cr_y, N_cr_z=N_cr_z, C_my=cm["C_my"],
                                   C_mz=cm["C_mz"], C_mLT=cm["C_mLT"], mu_y=aux["mu_y"],
                                   mu_z=aux["mu_z"], w_y=aux["w_y"], w_z=aux["w_z"],

@@ -75,6 +75,17 @@ def test_interaction_takes_the_class_4_column_of_table_6_7():
     assert row["status"] in ("pass", "fail")
 
 
+def test_annex_a_takes_the_effective_section_in_epsilon_y():
+    # Annex A Table A.1, class 4: eps_y = M_y,Ed / N_Ed x A_eff / W_eff,y
+    # = 300 / 500 x 9031.88 / 3322.288 = 1.63114 (by hand)
+    table, _ = _checks(N_Ed=-500e3, My_ends=(300e3, 0.0), sway_y=False,
+                       settings=DesignSettings(annex="A"))
+    row = table.loc["interaction 6.61"]
+    assert row["epsilon_y"] == pytest.approx(1.63114, rel=HAND)
+    assert row["N_Rk_N"] == pytest.approx(A_EFF * S355, rel=HAND)
+    assert row["status"] in ("pass", "fail") and row["reason"] == ""
+
+
 def test_class_4_tube_is_not_evaluated_with_the_shell_reason():
     # CHS 508 x 5: d/t = 101.6 > 90 eps^2 = 59.58 in S355 (Table 5.2 sheet 3): class 4; its
     # resistance is EN 1993-1-6's (shell buckling), not covered
