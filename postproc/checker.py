@@ -312,7 +312,9 @@ def results_table(rows: MemberRows, blocks: list[CheckBlock], limit: float = 1.0
         parts.append(pd.DataFrame(data))
     if not parts:
         return pd.DataFrame(columns=KEY_COLUMNS)
-    return pd.concat(parts, ignore_index=True, sort=False)
+    # concat keeps one block per piece and column kind; copy() joins them, so that later column
+    # inserts do not work on (and warn about) a table of a hundred-odd blocks
+    return pd.concat(parts, ignore_index=True, sort=False).copy()
 
 
 def _status(utilisation: np.ndarray, reason: np.ndarray, limit: float) -> np.ndarray:
