@@ -5,6 +5,6 @@ Every function here is pure and vectorised: numpy arrays in and out, SI units (N
 loops over members or combinations. The first line of each docstring cites the clause in one fixed
 form, e.g. `EN 1993-1-1:2005, 6.2.4, eq. (6.10).` National parameters are keyword arguments whose
 defaults are the recommended values. Where a value cannot be obtained (a class 4 tube, a shape or
-case not covered, missing data) the function returns NaN; the check families turn that into "not evaluated"
-with the reason.
+case not covered, missing data) the function returns NaN; the check families turn that into
+"not evaluated" with the reason.
 """
