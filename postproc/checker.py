@@ -3,7 +3,8 @@
 Stages (data flows one way):
 1. design members (graph layer), 2. frame stability per combination (alpha_cr, analysis path,
 sway amplification), 3. buckling lengths, 4. member rows (padded arrays), 5. section class per
-station, 6. member buckling values, 7. every check family, 8. the long table.
+station and the effective properties of class 4 rows, 6. member buckling values, 7. every check
+family, 8. the long table.
 """
 
 from __future__ import annotations
@@ -31,6 +32,8 @@ from .member_rows import build_member_rows
 from .members import Members, design_members
 from .results import Results
 from .sections.classification import section_class
+from .sections.effective import effective_properties_where
+from .row_reductions import row_any
 from .settings import DesignSettings
 from . import stability
 
@@ -261,6 +264,8 @@ def _with_member_info(rows: MemberRows, overrides: pd.DataFrame | None) -> Membe
     section = {k: v[:, None] for k, v in rows.section.items()}
     cls, part = section_class(section, rows.f_y[:, None], rows.N, rows.My, rows.Mz)
     info["section_class"], info["class_part"] = cls, part
+    # effective properties (EN 1993-1-5) of the rows with a class 4 station, shared by all checks
+    info["effective"] = effective_properties_where(rows.section, rows.f_y, row_any(cls == 4))
     if overrides is not None and not overrides.empty:
         by_member = overrides.set_index("member")
         aligned = by_member.reindex(rows.member)
@@ -307,7 +312,9 @@ def results_table(rows: MemberRows, blocks: list[CheckBlock], limit: float = 1.0
         parts.append(pd.DataFrame(data))
     if not parts:
         return pd.DataFrame(columns=KEY_COLUMNS)
-    return pd.concat(parts, ignore_index=True, sort=False)
+    # concat keeps one block per piece and column kind; copy() joins them, so that later column
+    # inserts do not work on (and warn about) a table of a hundred-odd blocks
+    return pd.concat(parts, ignore_index=True, sort=False).copy()
 
 
 def _status(utilisation: np.ndarray, reason: np.ndarray, limit: float) -> np.ndarray:

@@ -40,6 +40,10 @@ class DesignSettings:
             axial compression with uniaxial bending M_y,Ed) allows k_zy = 0. 'off' (default)
             keeps the table value; 'I' takes k_zy = 0 for I and H sections; 'I and RHS' also
             for rectangular hollow sections. Circular hollow sections always keep it.
+        class_3_at_actual_stress: 5.5.2(9): in the cross-section checks (never in the member
+            buckling checks, 5.5.2(10)) a class 4 station is checked as class 3 where its parts
+            meet the class 3 limits with epsilon raised by sqrt(f_y / gamma_M0 / sigma_com,Ed);
+            off by default (effective properties are used).
     """
 
     gamma_M0: float = 1.00
@@ -55,6 +59,7 @@ class DesignSettings:
     f_modification: bool = True
     negligible_rules_in_interaction: bool = False
     k_zy_zero: str = "off"
+    class_3_at_actual_stress: bool = False
 
     def __post_init__(self) -> None:
         if self.annex not in ANNEXES:
@@ -66,7 +71,8 @@ class DesignSettings:
         if self.k_zy_zero not in K_ZY_ZERO:
             raise InputError(f"k_zy_zero must be one of {', '.join(repr(k) for k in K_ZY_ZERO)}, "
                              f"got '{self.k_zy_zero}'", field="design.k_zy_zero")
-        for name in ("f_modification", "negligible_rules_in_interaction"):
+        for name in ("f_modification", "negligible_rules_in_interaction",
+                     "class_3_at_actual_stress"):
             if not isinstance(getattr(self, name), bool):
                 raise InputError(f"{name} must be true or false, got {getattr(self, name)!r}",
                                  field=f"design.{name}")

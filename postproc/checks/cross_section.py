@@ -20,6 +20,13 @@ row. What each block means and when it applies:
   shear (6.2.7(9), eq. 6.28); open sections, where warping carries part of the torsion, are
   "not evaluated": the tool does not design them for torsion.
 
+Class 4 (EN 1993-1-1 6.2.2.5, EN 1993-1-5 4.3 and 4.4): I sections and RHS are checked with
+their effective properties (`postproc.checks.effective_rows`): 6.2.4 with A_eff (6.11), 6.2.5 with
+W_eff,min (6.15), 6.2.9 by (6.44) with Delta M = N_Ed e_N, 6.2.8 and the linear sum with A_eff and
+W_eff in place of A and W_el; class 4 CHS are not evaluated (shell buckling). With
+settings.class_3_at_actual_stress, 5.5.2(9): a class 4 station whose parts meet the class 3
+limits with epsilon raised by sqrt(f_y / gamma_M0 / sigma_com,Ed) is checked as class 3 here.
+
 Inputs beyond MemberRows' own: rows.info['section_class'] ((R, S) or (R,) integers, 1 to 4, 0
 unknown), rows.info['class_part'] (same shape, text naming the governing plate part),
 rows.info['A_net'] ((R,) m2, NaN where there are no holes; optional). Forces smaller than
@@ -28,10 +35,16 @@ NOISE times the section's own capacity are taken as exactly 0 (numerical noise o
 
 from __future__ import annotations
 
+from functools import partial
+
 import numpy as np
 
 from ..ec3 import cross_section as cs
+from ..ec3 import effective_resistance as er
 from ..errors import InputError
+from ..sections.classification import section_class
+from ..sections.effective import STRESS_KEYS, parts_at_stress
+from . import effective_rows as eff_rows
 from .base import CheckBlock, MemberRows, at_station, no_reason, row_any
 
 NOISE = 1e-6
@@ -40,7 +53,7 @@ TORSION_NEGLIGIBLE = 0.01
 """T_Ed is negligible where tau_t,Ed <= this fraction of f_y / (sqrt(3) gamma_M0)."""
 
 NAN_FORCE = "internal force missing (NaN)"
-CLASS_4 = "class 4: effective properties (EN 1993-1-5) not covered"
+CLASS_4_CHS, CLASS_4 = eff_rows.CLASS_4_CHS, eff_rows.CLASS_4_NO_GEOMETRY
 CLASS_UNKNOWN = "section class unknown"
 SHEAR_BUCKLING = "h_w/t_w > 72 eps/eta: shear buckling resistance (EN 1993-1-5) not covered"
 WEB_UNKNOWN = ("no web dimensions (GENERIC section): h_w/t_w <= 72 eps/eta of 6.2.6(6) cannot be "
@@ -78,7 +91,13 @@ class _Rows:
         cls, part = (a[:, None] if a.ndim == 1 else a for a in (cls, part))
         self.cls = np.nan_to_num(np.broadcast_to(cls, (R, S)), nan=0.0)
         self.part = np.broadcast_to(part, (R, S))
+        self.eff = eff_rows.effective_values(rows)
+        self.raised = self._class_3_at_actual_stress(rows)
+        if self.raised is not None:
+            self.cls = np.where(self.raised, 3.0, self.cls)
         self.plastic, self.elastic = cs.is_plastic(self.cls), cs.is_elastic(self.cls)
+        # class 4 with effective properties (I sections, RHS)
+        self.effective = (self.cls == 4) & ~np.isnan(self.e("A_eff"))
         A_net = np.asarray(rows.info.get("A_net", np.full(R, np.nan)), dtype=float)
         self._check_A_net(A_net)
         self.A_net = A_net[:, None]
@@ -91,6 +110,48 @@ class _Rows:
         self.Vy, self.Vz = self._clean(rows.Vy, F0), self._clean(rows.Vz, F0)
         self.My, self.Mz = self._clean(rows.My, My0), self._clean(rows.Mz, Mz0)
         self.T = self._clean(rows.T, T0)
+
+    def e(self, name: str) -> np.ndarray:
+        """Effective property `name` as (R, 1) floats (NaN for rows without class 4)."""
+        return self.eff[name][:, None]
+
+    def _class_3_at_actual_stress(self, rows: MemberRows) -> np.ndarray | None:
+        """5.5.2(9): (R, S) True at class 4 stations whose parts meet the class 3 limits with
+        epsilon raised by sqrt(f_y / gamma_M0 / sigma_com,Ed); None when the setting is off."""
+        if not rows.settings.class_3_at_actual_stress:
+            return None
+        c4 = (self.cls == 4) & self.valid
+        out = np.zeros((self.R, self.S), bool)
+        self.sigma_com = np.full((self.R, self.S), np.nan)
+        at = np.flatnonzero(row_any(c4))
+        if not at.size:
+            return out
+        sec = {k: np.asarray(v)[at][:, None] for k, v in rows.section.items()}
+        N, My, Mz = (np.asarray(F, float)[at] for F in (rows.N, rows.My, rows.Mz))
+        sigma = er.sigma_com_Ed(N, My, Mz, sec["A"], sec["W_el_y"], sec["W_el_z"],
+                                circular=sec["shape"] == "CHS")
+        f_raised = er.f_y_for_raised_epsilon(sigma, gamma_M0=self.gM0)
+        cls_raised, _ = section_class(sec, f_raised, N, My, Mz)
+        out[at] = c4[at] & (cls_raised >= 1) & (cls_raised <= 3)
+        self.sigma_com[at] = np.where(c4[at], sigma, np.nan)
+        return out
+
+    def effective_values(self) -> dict[str, object]:
+        """The effective properties, shown where the governing station is class 4, and psi,
+        lambda_p and rho of the web and flange under that station's stresses."""
+        names = ([eff_rows.column_name(k) for k in eff_rows.VALUE_KEYS]
+                 + [f"{key}_at_station" for key in STRESS_KEYS])
+        if not self.effective.any():  # no class 4 station here: the same columns, all NaN
+            blank = np.full((self.R, 1), np.nan)
+            return dict.fromkeys(names, blank)
+        out: dict[str, object] = {eff_rows.column_name(k): _Later(_where_nan, self.effective,
+                                                                  self.e(k))
+                                  for k in eff_rows.VALUE_KEYS}
+        for key in STRESS_KEYS:
+            out[f"{key}_at_station"] = _Later(
+                partial(_part_at_stress, key), self.effective, self.N, self.My, self.Mz,
+                self.f_y, self.shape, *(self.p(n) for n in _STRESS_PROPS))
+        return out
 
     def p(self, name: str) -> np.ndarray:
         """Section property `name` as (R, 1) floats; NaN where the table lacks the column."""
@@ -134,13 +195,19 @@ class _Rows:
 
     def class_cases(self) -> list[tuple[np.ndarray, str]]:
         if self._class_cases is None:
-            self._class_cases = [(self.cls == 4, CLASS_4),
+            no_eff = (self.cls == 4) & ~self.effective
+            self._class_cases = [(no_eff & (self.shape == "CHS"), CLASS_4_CHS),
+                                 (no_eff, CLASS_4),
                                  (~(self.plastic | self.elastic | (self.cls == 4)), CLASS_UNKNOWN)]
         return self._class_cases
 
     def common(self) -> dict[str, np.ndarray]:
-        return {"section_class": self.cls, "class_part": self.part, "f_y_Pa": self.f_y,
-                "gamma_M0": np.full((self.R, 1), self.gM0)}
+        out = {"section_class": self.cls, "class_part": self.part, "f_y_Pa": self.f_y,
+               "gamma_M0": np.full((self.R, 1), self.gM0)}
+        if self.raised is not None:  # 5.5.2(9) in use: where it made a station class 3
+            out["class_3_by_5_5_2_9"] = self.raised
+            out["sigma_com_Ed_Pa"] = self.sigma_com
+        return out
 
 
 class _Reasons:
@@ -230,6 +297,22 @@ def _where_nan(keep: np.ndarray, values: np.ndarray) -> np.ndarray:
     return np.where(keep, values, np.nan)
 
 
+_STRESS_PROPS = ("h", "b", "A", "I_y", "I_z", "W_el_y", "W_el_z", "c_web", "t_web", "c_flange",
+                 "t_flange")
+
+
+def _part_at_stress(key: str, keep: np.ndarray, N: np.ndarray, My: np.ndarray, Mz: np.ndarray,
+                    f_y: np.ndarray, shape: np.ndarray, *props: np.ndarray) -> np.ndarray:
+    """Value `key` of `parts_at_stress` at the picked stations, worked out where `keep`."""
+    out = np.full(keep.shape, np.nan)
+    at = np.flatnonzero(keep)
+    if at.size:
+        section = {n: p[at] for n, p in zip(_STRESS_PROPS, props)}
+        section["shape"] = shape[at]
+        out[at] = parts_at_stress(section, f_y[at], N[at], My[at], Mz[at])[key]
+    return out
+
+
 def _util(demand: np.ndarray, resistance: np.ndarray) -> np.ndarray:
     return cs.linear_sum(demand, resistance, 0.0, 1.0, 0.0, 1.0)
 
@@ -254,24 +337,26 @@ def _tension(c: _Rows) -> CheckBlock:
 
 def _compression(c: _Rows) -> CheckBlock:
     A = c.p("A")
-    N_c = cs.N_c_Rd(A, c.f_y, c.cls, gamma_M0=c.gM0)
+    N_c = np.where(c.effective, er.N_c_Rd_class_4(c.e("A_eff"), c.f_y, gamma_M0=c.gM0),
+                   cs.N_c_Rd(A, c.f_y, c.cls, gamma_M0=c.gM0))
     util = _util(np.maximum(-c.N, 0.0), N_c)
     reason = _reasons(util, [(c.nan_at(c.N), NAN_FORCE), *c.class_cases(), _missing("A or f_y")])
     applies = c.any_(c.N < 0.0) | c.any_(c.nan_at(c.N))
-    values = {"N_Ed_N": c.N, "A_m2": A, "N_c_Rd_N": N_c, **c.common()}
+    values = {"N_Ed_N": c.N, "A_m2": A, "N_c_Rd_N": N_c, **c.effective_values(), **c.common()}
     return _block(c, "compression", "6.2.4", util, reason, applies, values)
 
 
 def _bending(c: _Rows, axis: str) -> CheckBlock:
     M = c.My if axis == "y" else c.Mz
     W_pl, W_el = c.p(f"W_pl_{axis}"), c.p(f"W_el_{axis}")
-    M_c = cs.M_c_Rd(W_pl, W_el, c.f_y, c.cls, gamma_M0=c.gM0)
+    M_c = np.where(c.effective, er.M_c_Rd_class_4(c.e(f"W_eff_{axis}"), c.f_y, gamma_M0=c.gM0),
+                   cs.M_c_Rd(W_pl, W_el, c.f_y, c.cls, gamma_M0=c.gM0))
     util = _util(np.abs(M), M_c)
     reason = _reasons(util, [(c.nan_at(M), NAN_FORCE), *c.class_cases(),
                              _missing(f"W_pl_{axis}, W_el_{axis} or f_y")])
     applies = c.any_(M != 0.0) | c.any_(c.nan_at(M))
     values = {f"M_{axis}_Ed_Nm": M, f"W_pl_{axis}_m3": W_pl, f"W_el_{axis}_m3": W_el,
-              f"M_c_{axis}_Rd_Nm": M_c, **c.common()}
+              f"M_c_{axis}_Rd_Nm": M_c, **c.effective_values(), **c.common()}
     return _block(c, f"bending {axis}-{axis}", "6.2.5", util, reason, applies, values)
 
 
@@ -335,15 +420,18 @@ def _shear_reduction(c: _Rows) -> dict[str, np.ndarray]:
         out[f"rho_{axis}"] = (np.zeros((c.R, c.S)) if idle.all()  # e.g. no V_y in a plane frame
                               else np.where(idle, 0.0, cs.rho_shear(V, V_pl)))
         slender |= (ratio > 1.0) & (V != 0.0)
-    W_y = np.where(c.plastic, c.p("W_pl_y"), np.where(c.elastic, c.p("W_el_y"), np.nan))
-    W_z = np.where(c.plastic, c.p("W_pl_z"), np.where(c.elastic, c.p("W_el_z"), np.nan))
+    W_y = np.where(c.plastic, c.p("W_pl_y"), np.where(
+        c.elastic, c.p("W_el_y"), np.where(c.effective, c.e("W_eff_y"), np.nan)))
+    W_z = np.where(c.plastic, c.p("W_pl_z"), np.where(
+        c.elastic, c.p("W_el_z"), np.where(c.effective, c.e("W_eff_z"), np.nan)))
+    A = np.where(c.effective, c.e("A_eff"), c.p("A"))  # class 4: the effective area
     # the web part per row, plastic and elastic, then the class's one at each station
     dims = (c.shape, c.p("h"), c.p("b"), c.p("t_w"), c.p("t_f"), c.p("t"))
     A_w, W_w_y_pl, W_w_z_pl = cs.web_part(*dims, True)
     _, W_w_y_el, W_w_z_el = cs.web_part(*dims, False)
     W_w_y = np.where(c.plastic, W_w_y_pl, W_w_y_el)
     W_w_z = np.where(c.plastic, W_w_z_pl, W_w_z_el)
-    N_V, M_y_V, M_z_V = cs.reduced_for_shear(c.p("A"), W_y, W_z, A_w, W_w_y, W_w_z,
+    N_V, M_y_V, M_z_V = cs.reduced_for_shear(A, W_y, W_z, A_w, W_w_y, W_w_z,
                                              out["rho_z"], out["rho_y"], c.f_y, gamma_M0=c.gM0)
     out.update(N_V_Rd_N=N_V, M_y_V_Rd_Nm=M_y_V, M_z_V_Rd_Nm=M_z_V, slender=slender,
                rho=np.fmax(out["rho_z"], out["rho_y"]),
@@ -417,9 +505,12 @@ def _bending_and_axial(c: _Rows, sv: dict[str, np.ndarray]) -> CheckBlock:
     u_pl = cs.utilisation_N_M(n, My, M_N_y, Mz, M_N_z, alpha, beta, M_pl_y, M_pl_z)
     sigma = cs.sigma_x_Ed(N, My, Mz, A, c.p("W_el_y"), c.p("W_el_z"), circular=is_CHS)
     u_el = sigma / (c.f_y / c.gM0)
-    u_V = cs.linear_sum(N, np.where(c.plastic | c.elastic, sv["N_V_Rd_N"], np.nan),
+    u_V = cs.linear_sum(N, np.where(c.plastic | c.elastic | c.effective, sv["N_V_Rd_N"], np.nan),
                         My, sv["M_y_V_Rd_Nm"], Mz, sv["M_z_V_Rd_Nm"])
-    util = np.where(c.plastic, u_pl, np.where(c.elastic, u_el, np.nan))
+    u_eff = er.utilisation_6_44(N, My, Mz, c.e("A_eff"), c.e("W_eff_y"), c.e("W_eff_z"),
+                                c.e("e_N_y"), c.e("e_N_z"), c.f_y, gamma_M0=c.gM0)
+    util = np.where(c.plastic, u_pl, np.where(c.elastic, u_el,
+                                              np.where(c.effective, u_eff, np.nan)))
     util = np.where(sv["reduced"] | sv["rho_unknown"], u_V, util)
     idle = (N == 0.0) & (My == 0.0) & (Mz == 0.0)
     util = np.where(idle, 0.0, util)
@@ -431,9 +522,10 @@ def _bending_and_axial(c: _Rows, sv: dict[str, np.ndarray]) -> CheckBlock:
     applies = c.any_(both) | c.any_(c.nan_at(N, My, Mz))
     method = _Coded(np.select(
         [sv["reduced"], c.elastic, c.plastic & is_I, c.plastic & is_RHS, c.plastic & is_CHS,
-         c.plastic], [1, 2, 3, 4, 5, 6], default=0).astype(np.int8),
+         c.plastic, c.effective], [1, 2, 3, 4, 5, 6, 7], default=0).astype(np.int8),
         ["", "shear-reduced linear sum (6.2.10, 6.2)", "elastic (6.42)", "I (6.33)-(6.38), (6.41)",
-         "RHS (6.39)-(6.41)", "CHS M_pl (1 - n^1.7), (6.41)", "single action, (6.41) with 1, 1"])
+         "RHS (6.39)-(6.41)", "CHS M_pl (1 - n^1.7), (6.41)", "single action, (6.41) with 1, 1",
+         "class 4 effective section (6.44)"])
     pl = np.where(c.plastic, 1.0, np.nan)  # plastic quantities only where they were used
     values = {"N_Ed_N": N, "N_pl_Rd_N": N_pl, "n": n, "a": a, "a_w": a_w, "a_f": a_f,
               "M_y_Ed_Nm": My, "M_pl_y_Rd_Nm": M_pl_y,
@@ -442,13 +534,13 @@ def _bending_and_axial(c: _Rows, sv: dict[str, np.ndarray]) -> CheckBlock:
               "M_N_z_Rd_Nm": _Later(np.multiply, M_N_z, pl),
               "alpha": _Later(np.multiply, alpha, pl), "beta": _Later(np.multiply, beta, pl),
               "sigma_x_Ed_Pa": _Later(_where_nan, c.elastic, sigma), "rho": sv["rho"],
-              "method": method, **c.common()}
+              "method": method, **c.effective_values(), **c.common()}
     return _block(c, "bending and axial force", "6.2.9", util, reason, applies, values)
 
 
 def _linear_sum(c: _Rows, sv: dict[str, np.ndarray]) -> CheckBlock:
     N_t = cs.N_t_Rd(c.p("A"), c.f_y, c.A_net, c.f_u, gamma_M0=c.gM0, gamma_M2=c.gM2)
-    covered = c.plastic | c.elastic
+    covered = c.plastic | c.elastic | c.effective
     N_Rd = np.where(c.N > 0.0, np.minimum(N_t, sv["N_V_Rd_N"]),
                     np.where(covered, sv["N_V_Rd_N"], np.nan))
     util = cs.linear_sum(c.N, N_Rd, c.My, sv["M_y_V_Rd_Nm"], c.Mz, sv["M_z_V_Rd_Nm"])
@@ -458,7 +550,8 @@ def _linear_sum(c: _Rows, sv: dict[str, np.ndarray]) -> CheckBlock:
     loaded = (c.N != 0.0) | (c.My != 0.0) | (c.Mz != 0.0)
     applies = c.any_(loaded) | c.any_(c.nan_at(c.N, c.My, c.Mz))
     values = {"N_Ed_N": c.N, "N_Rd_N": N_Rd, "M_y_Ed_Nm": c.My, "M_y_Rd_Nm": sv["M_y_V_Rd_Nm"],
-              "M_z_Ed_Nm": c.Mz, "M_z_Rd_Nm": sv["M_z_V_Rd_Nm"], "rho": sv["rho"], **c.common()}
+              "M_z_Ed_Nm": c.Mz, "M_z_Rd_Nm": sv["M_z_V_Rd_Nm"], "rho": sv["rho"],
+              **c.effective_values(), **c.common()}
     return _block(c, "linear sum", "6.2.1(7) (6.2)", util, reason, applies, values)
 
 

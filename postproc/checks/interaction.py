@@ -27,6 +27,11 @@ Buckling quantities come from `rows.info['buckling']` when present, else from
 'sway_y', 'sway_z' ((R,) flags, True where the member buckles about that axis in a sway mode;
 absent or NaN: the larger of the sway and non-sway factors of Annex B), 'torsion_susceptible'
 ((R,) bool, overrides the buckling values' flag).
+
+Class 4 members (Table 6.7, class 4 column): N_Rk = A_eff f_y, M_i,Rk = W_eff,i f_y,
+Delta M_i,Ed = e_N,i N_Ed, with the effective properties of `postproc.checks.effective_rows`;
+the interaction factors are the class 3 ones (Annex A and Annex B give one set for classes 3
+and 4), and Annex A takes W_eff,y in lambda_bar_0 and A_eff / W_eff,y in epsilon_y.
 """
 
 from __future__ import annotations
@@ -37,10 +42,12 @@ import pandas as pd
 from ..ec3 import flexural_buckling as fb
 from ..ec3 import interaction_annex_a as annex_a
 from ..ec3 import interaction_annex_b as annex_b
+from ..ec3 import effective_resistance as er
 from ..ec3 import moment_factors as mf
+from . import effective_rows as eff_rows
 from .base import CheckBlock, MemberRows, no_reason
 
-CLASS_4 = "class 4 cross-section: effective properties (Table 6.7) are not covered"
+CLASS_4 = eff_rows.CLASS_4_NO_GEOMETRY
 BUCKLING_KEYS = ("chi_y", "chi_z", "chi_LT", "lambda_bar_y", "lambda_bar_z", "N_cr_y_N",
                  "N_cr_z_N", "N_cr_T_N", "M_cr_0_Nm", "C_1", "ltb_susceptible",
                  "torsion_susceptible", "ltb_segment_start_m", "ltb_segment_end_m",
@@ -168,6 +175,12 @@ def _common(rows: MemberRows) -> dict:
     chi_y, chi_z, chi_LT, rules = _reduction_factors(rows, b, d["N_Ed"], ltb)
     res = annex_b.resistances_table_6_7(cls, rows.f_y, sec["A"], sec["W_pl_y"], sec["W_pl_z"],
                                         sec["W_el_y"], sec["W_el_z"])
+    eff = eff_rows.effective_values(rows)
+    class_4 = cls == 4
+    res_4 = er.resistances_table_6_7_class_4(rows.f_y, eff["A_eff"], eff["W_eff_y"],
+                                             eff["W_eff_z"], eff["e_N_y"], eff["e_N_z"], d["N_Ed"])
+    res = {k: np.where(class_4, res_4[k], v) for k, v in res.items()}
+    k_class = np.where(class_4, 3.0, cls)  # Annex A and B: class 4 takes the class 3 factors
     x_seg, seg_note = _ltb_segment_moments(rows, b)
     # each member diagram read once, for both annexes
     diagrams = {"y": mf.read_diagram(rows.x, rows.My), "z": mf.read_diagram(rows.x, rows.Mz)}
@@ -179,7 +192,10 @@ def _common(rows: MemberRows) -> dict:
     for key in keys:
         given = np.asarray(b[key], dtype=object)
         _add(reason, (given != "") & ~pd.isna(given), given)  # NaN reasons: none
-    _add(reason, cls == 4, CLASS_4)
+    no_eff = class_4 & np.isnan(eff["A_eff"])
+    _add(reason, no_eff & (np.asarray(rows.section["shape"], object) == "CHS"),
+         eff_rows.CLASS_4_CHS)
+    _add(reason, no_eff, CLASS_4)
     _add(reason, np.isnan(cls), "section class not known")
     for name, value in (("chi_y", chi_y), ("chi_z", chi_z),
                         ("lambda_bar_y", np.asarray(b["lambda_bar_y"], dtype=float)),
@@ -191,7 +207,8 @@ def _common(rows: MemberRows) -> dict:
     N_cr_min = np.fmin(np.asarray(b["N_cr_y_N"], float), np.asarray(b["N_cr_z_N"], float))
     N_cr_min = np.where(twist, np.fmin(N_cr_min, np.asarray(b["N_cr_T_N"], float)), N_cr_min)
     beyond = d["N_Ed"] >= N_cr_min
-    return {"b": b, "d": d, "sec": sec, "cls": cls, "twist": twist, "ltb": ltb, "chi_LT": chi_LT,
+    return {"b": b, "d": d, "sec": sec, "cls": cls, "k_class": k_class, "eff": eff,
+            "twist": twist, "ltb": ltb, "chi_LT": chi_LT,
             "chi_y": chi_y, "chi_z": chi_z, "rules": rules, "res": res,
             "rule_setting": rows.settings.negligible_rules_in_interaction, "x_seg": x_seg,
             "seg_note": seg_note, "reason": reason, "beyond": beyond, "N_cr_min": N_cr_min,
@@ -244,6 +261,9 @@ def _shared_values(c: dict, k: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
             "lambda_bar_z": np.asarray(b["lambda_bar_z"], float),
             "k_yy": k["k_yy"], "k_yz": k["k_yz"], "k_zy": k["k_zy"], "k_zz": k["k_zz"],
             "N_Rk_N": res["N_Rk_N"], "M_y_Rk_Nm": res["M_y_Rk_Nm"], "M_z_Rk_Nm": res["M_z_Rk_Nm"],
+            "Delta_M_y_Ed_Nm": res["Delta_M_y_Ed_Nm"], "Delta_M_z_Ed_Nm": res["Delta_M_z_Ed_Nm"],
+            **{eff_rows.column_name(k): c["eff"][k]
+               for k in ("A_eff", "W_eff_y", "W_eff_z", "e_N_y", "e_N_z")},
             "section_class": c["cls"], "torsion_susceptible": c["twist"],
             "ltb_susceptible": c["ltb"], "C_mLT_diagram": c["seg_note"]}
 
@@ -282,7 +302,7 @@ def _annex_b_blocks(rows: MemberRows, c: dict, suffix: str) -> list[CheckBlock]:
         C_my=f_y["C_m"], C_mz=f_z["C_m"], C_mLT=f_LT["C_m"],
         lambda_bar_y=np.asarray(b["lambda_bar_y"], float),
         lambda_bar_z=np.asarray(b["lambda_bar_z"], float), n_y=n_y, n_z=n_z,
-        section_class=c["cls"], section_kind=_section_kind(rows.section["shape"]),
+        section_class=c["k_class"], section_kind=_section_kind(rows.section["shape"]),
         torsion_susceptible=c["twist"], k_zy_zero=_k_zy_zero(rows, c))
     reason = c["reason"].copy()
     _add(reason, np.isnan(f_y["C_m"]) | np.isnan(f_z["C_m"]) | np.isnan(f_LT["C_m"]),
@@ -313,7 +333,8 @@ def _annex_a_blocks(rows: MemberRows, c: dict, suffix: str) -> list[CheckBlock]:
     f_z0 = mf.C_mi_0_annex_a(rows.x, rows.Mz, E=rows.E, I_i=sec["I_z"], L=rows.length,
                              N_Ed=N_Ed, N_cr_i=N_cr_z, diagram=c["diagrams"]["z"])
     plastic = (cls == 1) | (cls == 2)
-    W_y = np.where(plastic, sec["W_pl_y"], sec["W_el_y"])
+    class_4 = cls == 4
+    W_y = np.where(plastic, sec["W_pl_y"], np.where(class_4, c["eff"]["W_eff_y"], sec["W_el_y"]))
     twist = c["twist"]
     # Not susceptible to torsional deformation: no LTB, so lambda_bar_0 = 0 (M_cr,0 unbounded).
     lam_0 = np.where(twist, annex_a.lambda_bar_0(W_y, rows.f_y,
@@ -324,7 +345,9 @@ def _annex_a_blocks(rows: MemberRows, c: dict, suffix: str) -> list[CheckBlock]:
     limit = np.where(twist, limit, 0.0)
     with np.errstate(invalid="ignore", divide="ignore"):
         # N_Ed = 0 (a beam): eps_y unbounded, so C_my tends to 1 (Table A.1)
-        eps_y = np.where(M_y == 0, 0.0, M_y / N_Ed * sec["A"] / sec["W_el_y"])
+        eps_y = np.where(M_y == 0, 0.0,
+                         M_y / N_Ed * np.where(class_4, c["eff"]["A_eff"] / c["eff"]["W_eff_y"],
+                                               sec["A"] / sec["W_el_y"]))
         a_LT = np.maximum(1 - sec["I_t"] / sec["I_y"], 0.0)
     cm = annex_a.C_m_annex_a(C_my_0=f_y0["C_m0"], C_mz_0=f_z0["C_m0"], lambda_bar_0=lam_0,
                              lambda_bar_0_limit=limit, epsilon_y=eps_y, a_LT=a_LT, N_Ed=N_Ed,
@@ -338,18 +361,19 @@ def _annex_a_blocks(rows: MemberRows, c: dict, suffix: str) -> list[CheckBlock]:
         W_pl_y=sec["W_pl_y"], W_pl_z=sec["W_pl_z"], W_el_y=sec["W_el_y"], W_el_z=sec["W_el_z"],
         I_y=sec["I_y"], I_T=sec["I_t"], gamma_M0=rows.settings.gamma_M0,
         gamma_M1=rows.settings.gamma_M1)
+    aux["epsilon_y"] = eps_y  # the one C_m used (class 4: A_eff / W_eff,y)
     k = annex_a.k_factors_annex_a(N_Ed=N_Ed, N_cr_y=N_cr_y, N_cr_z=N_cr_z, C_my=cm["C_my"],
                                   C_mz=cm["C_mz"], C_mLT=cm["C_mLT"], mu_y=aux["mu_y"],
                                   mu_z=aux["mu_z"], w_y=aux["w_y"], w_z=aux["w_z"],
                                   C_yy=aux["C_yy"], C_yz=aux["C_yz"], C_zy=aux["C_zy"],
-                                  C_zz=aux["C_zz"], section_class=cls)
+                                  C_zz=aux["C_zz"], section_class=c["k_class"])
     reason = c["reason"].copy()
     _add(reason, np.isnan(f_y0["C_m0"]) | np.isnan(f_z0["C_m0"]),
          "moment diagram could not be read (missing moments at stations)")
     _add(reason, twist & np.isnan(lam_0), "M_cr,0 not available for lambda_bar_0 (Annex A)")
     _add(reason, twist & np.isnan(N_cr_T), "N_cr,T not available (Annex A)")
     # Rows at or above N_cr fail in _finish; their Annex A factors have no meaning.
-    _add(reason, ~c["beyond"] & ~np.isnan(cls) & (cls < 4)
+    _add(reason, ~c["beyond"] & ~np.isnan(cls) & (cls <= 4)
          & (np.isnan(k["k_yy"]) | np.isnan(k["k_zz"]) | np.isnan(limit)),
          "Annex A factors could not be evaluated (section properties missing)")
     values = {**_shared_values(c, k), "C_my_0": f_y0["C_m0"], "C_mz_0": f_z0["C_m0"],

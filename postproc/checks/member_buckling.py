@@ -16,6 +16,11 @@ Lateral-torsional buckling segments: where L_LT < member length the member is di
 round(length / L_LT) equal segments (at most MAX_SEGMENTS) and the segment with the highest
 M_Ed / M_b,Rd governs. M_cr of a segment uses the longer of L_LT and the segment (safe side).
 
+Class 4 members (worst class along the member 4) use the effective properties of
+`postproc.checks.effective_rows` (EN 1993-1-5): A_eff in lambda_bar (6.51, 6.52) and N_b,Rd
+(6.48), W_eff,y in lambda_bar_LT and M_b,Rd (6.55, 6.56); class 4 CHS are not evaluated. The
+5.5.2(9) class 3 allowance never applies here (5.5.2(10)).
+
 Choices, echoed in the block values: the section class of a member is its worst class along the
 member (W_y by that class); 6.3.2.2(4) uses lambda_LT,0 from the settings with the 6.3.2.3 method
 and 0.2 (the plateau of eq. 6.56) with the general method; the factor f of 6.3.2.3(2) is used
@@ -33,11 +38,12 @@ import numpy as np
 from ..ec3 import critical_moment as cm
 from ..ec3 import flexural_buckling as fb
 from ..ec3 import lateral_torsional as lt
+from . import effective_rows as eff_rows
 from .base import CheckBlock, MemberRows, no_reason
 
 MAX_SEGMENTS = 64
 GENERIC = "section given by properties only (shape GENERIC): no buckling curve without geometry"
-CLASS_4 = "class 4 cross-section: effective properties are not covered"
+CLASS_4 = eff_rows.CLASS_4_NO_GEOMETRY
 CLASS_UNKNOWN = "section class not known"
 
 
@@ -79,9 +85,11 @@ def buckling_values(rows: MemberRows) -> dict[str, np.ndarray]:
     reason (object: '' or why some values are NaN), the per-check reasons reason_y, reason_z,
     reason_T, reason_LT, and the intermediate LTB values (alpha_LT, k_c, k_c_case, psi, f,
     chi_LT_unmodified, M_Ed_LT_Nm, x_LT_m, W_y_m3, n_segments, ltb_negligible, lambda_LT_0), all
-    of the segment that governs eq. (6.54); and what 6.3.3 uses: chi_LT_interaction,
+    of the segment that governs eq. (6.54); what 6.3.3 uses: chi_LT_interaction,
     ltb_negligible_interaction (6.3.2.2(4) applied there), C_1_interaction and
-    interaction_segment_start_m / _end_m (the segment that governs with that chi_LT).
+    interaction_segment_start_m / _end_m (the segment that governs with that chi_LT);
+    A_buckling_m2 (A, or A_eff for class 4) and the effective A_eff_m2, W_eff_y_m3 (NaN for rows
+    without class 4).
     chi_y, chi_z and chi_T are eq. (6.49) values; the 6.3.1.2(4) rule is applied by the checks.
     """
     R = rows.n_rows
@@ -96,9 +104,15 @@ def buckling_values(rows: MemberRows) -> dict[str, np.ndarray]:
     restrained = np.asarray(rows.info.get("ltb_restrained", np.zeros(R, bool)), bool)
 
     cls = _member_class(rows)
+    eff = eff_rows.effective_values(rows)
+    class_4 = cls == 4
+    num["A_eff"], num["W_eff_y"] = eff["A_eff"], eff["W_eff_y"]
     common = no_reason(R)
     _add(common, generic, GENERIC)
-    _add(common, cls == 4, CLASS_4)
+    no_eff = class_4 & np.isnan(eff["A_eff"])
+    _add(common, no_eff & (shape == "CHS"), eff_rows.CLASS_4_CHS)
+    _add(common, no_eff & (shape != "CHS"), CLASS_4)
+    A_b = np.where(class_4, eff["A_eff"], num["A"])  # A_eff for class 4 (6.48, 6.51, 6.52)
     _add(common, np.isnan(cls) & ~generic, CLASS_UNKNOWN)
 
     grade = rows.info.get("grade")
@@ -115,7 +129,7 @@ def buckling_values(rows: MemberRows) -> dict[str, np.ndarray]:
     for axis, I, curve in (("y", num["I_y"], curve_y), ("z", num["I_z"], curve_z)):
         L_cr = np.asarray(rows.lengths.get(f"L_cr_{axis}", np.full(R, np.nan)), float)
         N_cr = fb.N_cr_flexural(E, I, L_cr)
-        lam = fb.lambda_bar(num["A"], f_y, N_cr)
+        lam = fb.lambda_bar(A_b, f_y, N_cr)
         reason = common.copy()
         add(reason, np.isnan(L_cr) | (L_cr <= 0), f"buckling length L_cr,{axis} not known")
         add(reason, ~generic & (curve == ""),
@@ -128,7 +142,7 @@ def buckling_values(rows: MemberRows) -> dict[str, np.ndarray]:
     L_cr_T = np.asarray(rows.lengths.get("L_cr_T", np.full(R, np.nan)), float)
     i0 = fb.i_0_squared(num["I_y"], num["I_z"], num["A"])
     N_cr_T = np.where(hollow, np.inf, fb.N_cr_torsional(E, G, num["I_t"], num["I_w"], L_cr_T, i0))
-    lam_T = fb.lambda_bar(num["A"], f_y, N_cr_T)
+    lam_T = fb.lambda_bar(A_b, f_y, N_cr_T)
     reason_T = common.copy()
     add(reason_T, ~hollow & (np.isnan(L_cr_T) | (L_cr_T <= 0)), "buckling length L_cr,T not known")
     add(reason_T, ~hollow & ~generic & (curve_z == ""), "no buckling curve in Table 6.2 (z-z)")
@@ -143,6 +157,8 @@ def buckling_values(rows: MemberRows) -> dict[str, np.ndarray]:
     out["ltb_susceptible"] = ~hollow & ~restrained
     out["torsion_susceptible"] = ~hollow & ~restrained
     out["section_class_member"] = cls
+    out["A_buckling_m2"] = A_b
+    out["A_eff_m2"], out["W_eff_y_m3"] = eff["A_eff"], eff["W_eff_y"]
     out["reason"] = joined
     return out
 
@@ -182,7 +198,8 @@ def _ltb_values(rows: MemberRows, shape, fab, num, cls, hollow, restrained, comm
         "alpha_LT": np.full(R, np.nan), "k_c": np.full(R, np.nan), "psi": np.full(R, np.nan),
         "f": np.full(R, np.nan), "k_c_case": np.full(R, "", dtype=object),
         "M_Ed_LT_Nm": np.full(R, np.nan), "x_LT_m": np.full(R, np.nan),
-        "W_y_m3": lt.W_y_for_class(cls, num["W_pl_y"], num["W_el_y"]),
+        "W_y_m3": np.where(cls == 4, num["W_eff_y"],
+                           lt.W_y_for_class(cls, num["W_pl_y"], num["W_el_y"])),
         "ltb_segment_start_m": np.zeros(R), "ltb_segment_end_m": length.copy(),
         "n_segments": n_seg, "ltb_negligible": np.zeros(R, bool), "curve_LT": curve,
         "lambda_LT_0": np.full(R, 0.2 if general else st.lambda_LT_0),
@@ -328,7 +345,8 @@ def flexural_buckling_checks(rows: MemberRows) -> list[CheckBlock]:
     b = _buckling(rows)
     st = rows.settings
     R = rows.n_rows
-    A, f_y = np.asarray(rows.section["A"], float), np.asarray(rows.f_y, float)
+    f_y = np.asarray(rows.f_y, float)
+    A = np.asarray(b.get("A_buckling_m2", rows.section["A"]), float)  # A_eff for class 4
     N_Ed, x_N = _compression(rows)
     compressed = np.nan_to_num(N_Ed, nan=1.0) > 0  # a NaN force is reported, not skipped
     shape = np.asarray(rows.section["shape"], dtype=object)
@@ -357,7 +375,9 @@ def flexural_buckling_checks(rows: MemberRows) -> list[CheckBlock]:
                     "L_cr_m": np.asarray(rows.lengths.get(L_key, np.full(R, np.nan)), float),
                     "N_cr_N": N_cr, "lambda_bar": lam, "buckling_curve": curve, "alpha": alpha,
                     "Phi": fb.Phi(lam, alpha), "chi_6_49": chi_649,
-                    "buckling_negligible": negligible, "chi": chi_used, "A_m2": A, "f_y_Pa": f_y,
+                    "buckling_negligible": negligible, "chi": chi_used, "A_m2": A,
+                    "A_eff_m2": np.asarray(b.get("A_eff_m2", np.full(R, np.nan)), float),
+                    "section_class_member": b["section_class_member"], "f_y_Pa": f_y,
                     "gamma_M1": np.full(R, st.gamma_M1),
                     "N_b_Rd_N": N_b}))
     return blocks
@@ -390,7 +410,9 @@ def lateral_torsional_checks(rows: MemberRows) -> list[CheckBlock]:
     values = {"M_y_Ed_Nm": M_Ed, "segment_start_m": b["ltb_segment_start_m"],
               "segment_end_m": b["ltb_segment_end_m"], "n_segments": b["n_segments"],
               "M_cr_Nm": b["M_cr_Nm"], "M_cr_0_Nm": b["M_cr_0_Nm"], "C_1": b["C_1"],
-              "W_y_m3": W_y, "lambda_bar_LT": b["lambda_bar_LT"], "buckling_curve": b["curve_LT"],
+              "W_y_m3": W_y, "W_eff_y_m3": b.get("W_eff_y_m3", np.full(R, np.nan)),
+              "section_class_member": b["section_class_member"],
+              "lambda_bar_LT": b["lambda_bar_LT"], "buckling_curve": b["curve_LT"],
               "alpha_LT": b["alpha_LT"], "lambda_LT_0": b["lambda_LT_0"],
               "beta": np.full(R, np.nan if st.ltb_method == "general" else st.beta_LT),
               "chi_LT_unmodified": b["chi_LT_unmodified"], "k_c": b["k_c"],

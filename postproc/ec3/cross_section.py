@@ -5,8 +5,8 @@ units (N, m, m2, m3, Pa, N*m). Forces may carry either sign: each function says 
 the magnitude. A resistance that the clause does not give for the case at hand (class 4, unknown
 class, missing data) comes back as NaN, never as a number that could pass.
 
-Section classes are integers: 1, 2 and 3 as Table 5.2; 4 (effective properties of EN 1993-1-5,
-not covered here); 0 or anything else means unknown.
+Section classes are integers: 1, 2 and 3 as Table 5.2; 4 (effective properties of EN 1993-1-5:
+see `effective_resistance`, NaN here); 0 or anything else means unknown.
 """
 
 from __future__ import annotations

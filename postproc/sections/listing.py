@@ -1,11 +1,19 @@
-"""A listing of catalogue sections with their main properties in display units."""
+"""A listing of catalogue sections with their main properties in display units, and for each of a
+few common grades the parts that are class 4 under uniform compression and A_eff."""
 
 from __future__ import annotations
 
+import numpy as np
 import pandas as pd
 
+from ..materials import strengths
 from . import catalogue as cat
 from .builder import build_sections
+from .classification import epsilon, internal_part_limit_elastic, outstand_limit_elastic
+from .effective import effective_properties
+
+GRADES = ("S235", "S275", "S355", "S460")
+"""Grades with a class 4 column and an A_eff column in the listing."""
 
 # sections table column -> (display header, factor from SI)
 DISPLAY = {
@@ -33,7 +41,8 @@ def catalogue_listing(filter_text: str | None = None) -> pd.DataFrame:
         squeezed = table.index.str.replace(" ", "", regex=False).str.upper()
         table = table[squeezed.str.contains(wanted, regex=False)
                       | table["family"].str.contains(wanted, regex=False)]
-    columns = ["designation", "family", "fabrication"] + [h for h, _ in DISPLAY.values()]
+    columns = (["designation", "family", "fabrication"] + [h for h, _ in DISPLAY.values()]
+               + [h for g in GRADES for h in (f"class 4 {g}", f"A_eff {g} [cm2]")])
     if table.empty:
         return pd.DataFrame(columns=columns)
     names = list(table.index)
@@ -43,4 +52,34 @@ def catalogue_listing(filter_text: str | None = None) -> pd.DataFrame:
                         "fabrication": props["fabrication"].to_numpy()})
     for column, (header, factor) in DISPLAY.items():
         out[header] = props[column].to_numpy() * factor
+    for grade in GRADES:
+        parts, A_eff = compression_class_4(props, grade)
+        out[f"class 4 {grade}"] = parts
+        out[f"A_eff {grade} [cm2]"] = A_eff * 1e4
     return out
+
+
+def compression_class_4(props: pd.DataFrame, grade: str) -> tuple[np.ndarray, np.ndarray]:
+    """Parts that are class 4 under uniform compression (EN 1993-1-1 Table 5.2, psi = 1: internal
+    parts c/t > 42 eps, outstands c/t > 14 eps, tubes d/t > 90 eps^2) and the area that 6.2.4 uses:
+    A_eff (EN 1993-1-5 4.4) where some part is class 4, A otherwise; NaN for a class 4 CHS
+    (shell buckling, not covered). f_y by the thickest plate (Table 3.1)."""
+    f_y, _ = strengths(np.full(len(props), grade, dtype=object), props["t_max"].to_numpy())
+    eps = epsilon(f_y)
+    shape = props["shape"].to_numpy()
+    ratio_w = props["c_web"].to_numpy() / props["t_web"].to_numpy()
+    ratio_f = props["c_flange"].to_numpy() / props["t_flange"].to_numpy()
+    internal = internal_part_limit_elastic(1.0, eps)
+    is_I, is_RHS, is_CHS = shape == "I", shape == "RHS", shape == "CHS"
+    web = (is_I | is_RHS) & (ratio_w > internal)
+    flange = np.where(is_I, ratio_f > outstand_limit_elastic(1.0, True, eps),
+                      is_RHS & (ratio_f > internal))
+    tube = is_CHS & (ratio_w > 90.0 * eps**2)
+    text = np.where(web & flange, np.where(is_RHS, "walls h, b", "web, flange"),
+                    np.where(web, np.where(is_RHS, "walls h", "web"),
+                             np.where(flange, np.where(is_RHS, "walls b", "flange"),
+                                      np.where(tube, "wall (shell: not covered)", ""))))
+    section = {k: props[k].to_numpy() for k in props.columns}
+    A_eff = effective_properties(section, f_y)["A_eff"]
+    area = np.where(web | flange, A_eff, np.where(tube, np.nan, props["A"].to_numpy()))
+    return text.astype(object), area

@@ -55,3 +55,19 @@ def test_every_data_file_says_its_values_are_recalled():
     for family in cat.FAMILIES:
         first = (folder / f"{family.lower()}.csv").read_text(encoding="utf-8").splitlines()[0]
         assert first.startswith("#") and "from memory" in first
+
+
+def test_class_4_parts_and_A_eff_under_compression_per_grade():
+    """IPE 600: web c = 600 - 2 x 19 - 2 x 24 = 514 mm, t_w = 12 mm, c/t = 42.833 > 42 eps for
+    every grade listed (S235: 42), so the web is class 4 in uniform compression (Table 5.2).
+    S355 by hand (EN 1993-1-5 4.4): lambda_p = 42.833 / (28.4 x 0.813617 x 2) = 0.926859,
+    rho = (0.926859 - 0.22) / 0.926859^2 = 0.822820, the web loses (1 - rho) c t_w = 1092.84 mm2.
+    HEB 200 has no class 4 part: A_eff is A."""
+    listing = catalogue_listing("IPE 600").set_index("designation").loc["IPE 600"]
+    for grade in ("S235", "S275", "S355", "S460"):
+        assert listing[f"class 4 {grade}"] == "web"
+    assert listing["A_eff S355 [cm2]"] == pytest.approx(listing["A [cm2]"] - 10.9284, rel=1e-5)
+    assert listing["A_eff S460 [cm2]"] < listing["A_eff S355 [cm2]"]
+    heb = catalogue_listing("HEB 200").set_index("designation").loc["HEB 200"]
+    assert heb["class 4 S460"] == ""
+    assert heb["A_eff S460 [cm2]"] == pytest.approx(heb["A [cm2]"], rel=1e-12)
