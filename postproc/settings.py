@@ -12,6 +12,7 @@ from .errors import InputError
 
 ANNEXES = ("A", "B", "both")
 LTB_METHODS = ("general", "rolled")
+BOW_COVERS = ("member checks", "analysis", "not covered")
 
 
 @dataclass(frozen=True)
@@ -29,6 +30,15 @@ class DesignSettings:
         eta: shear area factor of 6.2.6(3); 1.0 is the conservative value that 6.2.6(3) allows.
         default_grade: steel grade for elements that name none.
         utilisation_limit: a check fails above this utilisation (1.0).
+        amplify_whole_when_sway_unknown: on the amplified path of 5.2.2(5B), where the sway part
+            of the forces cannot be separated (no column-top displacements), amplify shear forces
+            and moments as a whole (True) or report the combination not evaluated (False,
+            default: amplifying the whole moment is unsafe where sway and non-sway moments have
+            opposite signs).
+        bow_imperfections: where 5.3.2(6) asks for a member's bow in the frame analysis, what
+            covers it: 'member checks' (default: the 6.3 member checks with their buckling
+            lengths cover the bow), 'analysis' (the forces given already include the bows) or
+            'not covered' (such rows are reported not evaluated).
     """
 
     gamma_M0: float = 1.00
@@ -41,6 +51,8 @@ class DesignSettings:
     eta: float = 1.0
     default_grade: str = "S355"
     utilisation_limit: float = 1.0
+    amplify_whole_when_sway_unknown: bool = False
+    bow_imperfections: str = "member checks"
 
     def __post_init__(self) -> None:
         if self.annex not in ANNEXES:
@@ -49,6 +61,13 @@ class DesignSettings:
         if self.ltb_method not in LTB_METHODS:
             raise InputError(f"ltb_method must be one of {', '.join(LTB_METHODS)}, "
                              f"got '{self.ltb_method}'", field="design.ltb_method")
+        if self.bow_imperfections not in BOW_COVERS:
+            raise InputError(f"bow_imperfections must be one of {', '.join(BOW_COVERS)}, "
+                             f"got '{self.bow_imperfections}'", field="design.bow_imperfections")
+        if not isinstance(self.amplify_whole_when_sway_unknown, bool):
+            raise InputError("amplify_whole_when_sway_unknown must be true or false, got "
+                             f"{self.amplify_whole_when_sway_unknown!r}",
+                             field="design.amplify_whole_when_sway_unknown")
         for name in ("gamma_M0", "gamma_M1", "gamma_M2", "eta"):
             value = getattr(self, name)
             if not (0.5 <= value <= 2.0):

@@ -5,7 +5,8 @@
   are given.
 - `analysis_path`: 5.2.1(3) and 5.2.2: first-order, amplified, second-order in forces, second-order
   needed, unstable.
-- `amplify_sway_effects`: 5.2.2(5B).
+- `amplified_part`, `amplify_sway_effects`: 5.2.2(5B), the sway part (from
+  `postproc.stability_sway`) amplified.
 - `sway_imperfection`, `equivalent_horizontal_forces`, `bow_imperfections_needed`: 5.3.2.
 - `buckling_lengths` lives in `postproc.stability_lengths` and is re-exported here.
 """
@@ -23,6 +24,7 @@ from .members import Members, member_axes, moment_released
 from .results import Results
 from .stability_eigen import (E_STEEL, SUB_PER_MEMBER, Mesh, build_mesh, lowest_mode,
                               section_columns, translations)
+from .stability_sway import SwayPart, amplified_forces, sway_part  # noqa: F401
 from .stability_lengths import (buckling_lengths, effective_length_ratio,  # noqa: F401
                                 member_compression)
 
@@ -30,8 +32,10 @@ ALPHA_FIRST_ORDER = 10.0    # 5.2.1(3), eq. (5.1), elastic analysis
 ALPHA_AMPLIFY_MIN = 3.0     # 5.2.2(5B)
 LEVEL_TOL_M = 0.01          # column ends within 10 mm count as one level
 COLUMN_TILT_COS = np.cos(np.radians(10.0))
-PATHS = ("first-order", "amplified", "second-order in forces", "second-order needed", "unstable",
-         "not evaluated")
+PATHS = ("first-order", "amplified", "sway lengths", "second-order in forces",
+         "second-order needed", "unstable", "not evaluated")
+STOREY_RAFTER_N_CR_SHARE = 0.09   # 5.2.1(4)B note 2: lambda_bar >= 0.3 sqrt(A f_y / N_Ed)
+STOREY_ROOF_SLOPE = np.arctan(0.5)  # 5.2.1(4)B note 2: a shallow roof is not steeper than 1:2
 
 
 def _uls(results: Results) -> pd.DataFrame:
@@ -269,8 +273,10 @@ def analysis_path(alpha: pd.DataFrame, combinations: pd.DataFrame) -> pd.DataFra
     """EN 1993-1-1:2005, 5.2.1(3) and 5.2.2(5B), analysis path per combination.
 
     alpha_cr (from the eigen analysis; the storey value where that is missing) decides:
-    >= 10 'first-order'; 3..10 'amplified' with 1 / (1 - 1/alpha_cr), or 'second-order in
-    forces' where combinations.analysis is 'second-order'; < 3 with first-order forces
+    >= 10 'first-order'; 3..10 'amplified' with 1 / (1 - 1/alpha_cr) where the forces carry the
+    frame imperfection or the mode is not a sway mode, else 'sway lengths' (first-order forces
+    as they are, sway buckling lengths: 5.2.2(3)c and (8)); 'second-order in forces' where
+    combinations.analysis is 'second-order'; < 3 with first-order forces
     'second-order needed' (not to be checked); < 1 'unstable' (never checked as fine); no alpha_cr
     at all 'not evaluated'.
 
@@ -295,6 +301,10 @@ def analysis_path(alpha: pd.DataFrame, combinations: pd.DataFrame) -> pd.DataFra
             a, source = r.get("alpha_cr_storey", np.nan), "alpha_cr (storey method)"
         sway = bool(r.get("sway_mode", False))
         second = analysis == "second-order"
+        # 5.2.2(3), (7), (8): non-sway member lengths hold only where the forces carry the frame's
+        # sway imperfection (5.3.2); without it a sway-mode member keeps its sway length
+        imperfect = bool(combinations.at[comb, "imperfections"]) if (
+            "imperfections" in combinations.columns) else False
         if np.isnan(a):
             path, amp = "not evaluated", np.nan
             reason = f"alpha_cr unknown ({r.get('mode_note', '')}): analysis path not decided"
@@ -308,20 +318,23 @@ def analysis_path(alpha: pd.DataFrame, combinations: pd.DataFrame) -> pd.DataFra
         elif a >= ALPHA_FIRST_ORDER:
             path, amp = "first-order", 1.0
             reason = f"{source} = {a:.2f} >= 10: first-order analysis is enough (5.2.1(3))"
+        elif a >= ALPHA_AMPLIFY_MIN and sway and not imperfect:
+            # 5.2.2(5B) amplifies sway effects that include the sway imperfection; without it
+            # the sway lengths of 5.2.2(8) carry both, and the forces are used as they are
+            path, amp = "sway lengths", 1.0
+            reason = (f"{source} = {a:.2f} in 3..10 and the forces do not carry the frame "
+                      "imperfection (5.3.2): first-order forces as they are, members in the sway "
+                      "mode checked with sway buckling lengths (5.2.2(3)c, 5.2.2(8))")
         elif a >= ALPHA_AMPLIFY_MIN:
             path, amp = "amplified", 1.0 / (1.0 - 1.0 / a)
             reason = (f"{source} = {a:.2f} in 3..10: sway effects amplified by "
-                      f"1/(1 - 1/alpha_cr) = {amp:.3f} (5.2.2(5B))")
+                      f"1/(1 - 1/alpha_cr) = {amp:.3f} (5.2.2(5B)), members checked with "
+                      "non-sway buckling lengths (5.2.2(8))")
         else:
             path, amp = "second-order needed", np.nan
             reason = (f"{source} = {a:.2f} < 3 with first-order forces: a second-order "
                       "analysis is needed (5.2.2(5B))")
-        # 5.2.2(3), (7), (8): non-sway member lengths hold only where the forces carry the frame's
-        # sway imperfection (5.3.2); without it a sway-mode member keeps its sway length
-        imperfect = bool(combinations.at[comb, "imperfections"]) if (
-            "imperfections" in combinations.columns) else False
-        if sway and not imperfect and path in ("first-order", "amplified",
-                                               "second-order in forces"):
+        if sway and not imperfect and path in ("first-order", "second-order in forces"):
             reason += ("; the forces do not carry the frame imperfection (5.3.2), so members "
                        "in the sway mode keep their sway buckling length (5.2.2(8))")
         rows.append((comb, path, amp, a, sway, imperfect, reason))
@@ -330,18 +343,72 @@ def analysis_path(alpha: pd.DataFrame, combinations: pd.DataFrame) -> pd.DataFra
     return out.set_index("combination")
 
 
-def amplify_sway_effects(results: Results, paths: pd.DataFrame) -> Results:
+def amplified_part(paths: pd.DataFrame, sway: SwayPart | None, *,
+                   whole_if_unknown: bool = False) -> pd.DataFrame:
+    """EN 1993-1-1:2005, 5.2.2(5B), which part of the forces is amplified, per combination.
+
+    Adds the column `amplified_part` to `paths`: for the 'amplified' path 'sway part' where
+    `sway` knows it (the method is named in the reason), else 'whole forces' when
+    `whole_if_unknown` (shear forces and moments amplified as a whole: not always on the safe
+    side, where sway and non-sway moments have opposite signs), else the path becomes
+    'not evaluated' with the reason. Other paths get ''.
+    """
+    out = paths.copy()
+    out["amplified_part"] = ""
+    known = sway.known() if sway is not None else pd.Series(dtype=bool)
+    notes = (pd.Series(sway.note, index=sway.combinations) if sway is not None
+             else pd.Series(dtype=object))
+    for comb in out.index[out["path"] == "amplified"]:
+        if bool(known.get(str(comb), False)):
+            out.at[comb, "amplified_part"] = "sway part"
+            out.at[comb, "reason"] += f"; sway part amplified, axial forces included ({sway.method})"
+            continue
+        why = notes.get(str(comb), "") or "no sway part given"
+        if whole_if_unknown:
+            out.at[comb, "amplified_part"] = "whole forces"
+            out.at[comb, "reason"] += (f"; sway part unknown ({why}): shear forces and moments "
+                                       "amplified as a whole (design setting "
+                                       "amplify_whole_when_sway_unknown), axial forces as given; "
+                                       "not on the safe side where sway and non-sway moments "
+                                       "have opposite signs")
+        else:
+            out.at[comb, "path"] = "not evaluated"
+            out.at[comb, "amplification"] = np.nan
+            out.at[comb, "reason"] += (f"; but the sway part cannot be separated ({why}), and "
+                                       "amplifying the whole moment can be unsafe: give the "
+                                       "column-top displacements, a second-order analysis, or "
+                                       "set amplify_whole_when_sway_unknown")
+    return out
+
+
+def amplify_sway_effects(results: Results, paths: pd.DataFrame, sway: SwayPart | None = None
+                         ) -> Results:
     """EN 1993-1-1:2005, 5.2.2(5B), amplification 1 / (1 - 1/alpha_cr) of sway effects.
 
-    Applied to the combinations whose path is 'amplified'. Forces from a CSV or a plain
-    first-order analysis do not separate sway from non-sway effects, so the bending moments and
-    shear forces of those combinations are amplified as a whole: conservative, because the
-    non-sway part is amplified too. Axial forces and torsion are left as they are. Other
-    combinations are returned unchanged.
+    Applied to the combinations whose path is 'amplified', as `paths['amplified_part']` says
+    (see `amplified_part`; where the column is absent, 'sway part' if `sway` is given, else
+    'whole forces'):
+    - 'sway part': F + (amplification - 1) F_sway for every force component, F_sway from
+      `postproc.stability_sway` (the frame held against sway, holding forces reversed);
+    - 'whole forces': shear forces and bending moments times the amplification; axial forces and
+      torsion as they are.
+    Other combinations are returned unchanged.
     """
-    amp = paths.loc[paths["path"] == "amplified", "amplification"]
-    f = results.forces.copy()
-    factor = f["combination"].astype(str).map(amp.rename(index=str)).fillna(1.0).to_numpy(float)
+    amplified = paths[paths["path"] == "amplified"]
+    if "amplified_part" in amplified:
+        part = amplified["amplified_part"]
+    else:
+        part = pd.Series("sway part" if sway is not None else "whole forces",
+                         index=amplified.index)
+    amp = amplified["amplification"].rename(index=str)
+    f = results.forces
+    on_sway = amp[(part == "sway part").to_numpy()]
+    if len(on_sway):
+        f = amplified_forces(f, on_sway, sway)
+    else:
+        f = f.copy()
+    on_whole = amp[(part == "whole forces").to_numpy()]
+    factor = f["combination"].astype(str).map(on_whole).fillna(1.0).to_numpy(float)
     for col in ("Vy_N", "Vz_N", "My_Nm", "Mz_Nm"):
         f[col] = f[col].to_numpy(float) * factor
     return dataclasses.replace(results, forces=f)
@@ -446,8 +513,8 @@ def bow_imperfections_needed(frame: Frame, members: Members, results: Results,
                              alpha: pd.DataFrame) -> pd.DataFrame:
     """EN 1993-1-1:2005, 5.3.2(6), where member bow imperfections belong in a sway analysis.
 
-    Needed where the frame's mode is a sway mode, the member has at least one moment-resisting
-    end, and lambda_bar > 0.5 sqrt(A f_y / N_Ed), which is N_Ed > 0.25 N_cr with N_cr of the member
+    Needed where the frame is sensitive to second-order effects (alpha_cr < 10) in a sway mode,
+    the member has at least one moment-resisting end, and lambda_bar > 0.5 sqrt(A f_y / N_Ed), which is N_Ed > 0.25 N_cr with N_cr of the member
     pinned at its ends over its length (the in-plane axis of a plane frame, the weaker of both
     axes of a space frame).
 
@@ -480,6 +547,8 @@ def bow_imperfections_needed(frame: Frame, members: Members, results: Results,
     N = member_compression(members, results, combos).to_numpy(float)          # (M, C)
     M, C = N.shape
     sway = alpha["sway_mode"].fillna(False).to_numpy(bool)
+    # "frames sensitive to second order effects": alpha_cr < 10 (5.2.1(3))
+    sway = sway & (alpha["alpha_cr"].to_numpy(float) < ALPHA_FIRST_ORDER)
     out = pd.DataFrame({"member": np.repeat(mm.index.to_numpy(), C),
                         "combination": np.tile(combos, M),
                         "N_Ed_N": np.maximum(-N, 0.0).ravel(),   # NaN (no forces) stays NaN

@@ -314,6 +314,7 @@ def test_disconnected_model_is_refused():
     (10.0, "first-order", "first-order", 1.0),              # 5.2.1(3): alpha_cr >= 10
     (5.0, "first-order", "amplified", 1.25),                # 5.2.2(5B): 1 / (1 - 1/5)
     (3.0, "first-order", "amplified", 1.5),                 # boundary alpha_cr = 3 included
+    (5.0, "first-order no imperfection", "sway lengths", 1.0),   # 5.2.2(3)c and (8)
     (5.0, "second-order", "second-order in forces", 1.0),
     (2.0, "second-order", "second-order in forces", 1.0),
     (2.99, "first-order", "second-order needed", np.nan),
@@ -324,7 +325,11 @@ def test_disconnected_model_is_refused():
 def test_analysis_path_rules(a, analysis, path, amp):
     alpha = pd.DataFrame({"alpha_cr": [a], "alpha_cr_storey": [np.nan], "sway_mode": [True],
                           "mode_note": [""]}, index=pd.Index(["U1"], name="combination"))
-    out = analysis_path(alpha, combos(["U1"], analysis))
+    # forces with the frame imperfection of 5.3.2, except where the case says otherwise
+    imperfect = not analysis.endswith(" no imperfection")
+    table = combos(["U1"], analysis.replace(" no imperfection", "")).assign(
+        imperfections=imperfect)
+    out = analysis_path(alpha, table)
     assert out.at["U1", "path"] == path
     if np.isnan(amp):
         assert np.isnan(out.at["U1", "amplification"])
