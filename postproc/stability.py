@@ -183,19 +183,51 @@ def critical_load_factors(frame: Frame, results: Results, members: Members) -> p
 
 def storey_alpha(frame: Frame, results: Results, members: Members, combos: list[str]
                  ) -> tuple[np.ndarray, np.ndarray]:
-    """5.2.1(4)B eq. (5.2) per combination: (alpha_cr_storey (C,), note (C,))."""
+    """EN 1993-1-1:2005, 5.2.1(4)B, eq. (5.2), alpha_cr = (H_Ed / V_Ed) (h / delta_H,Ed).
+
+    Per combination, the lowest value over the storeys and horizontal directions.
+    - Storeys: columns with the same bottom and top levels. H_Ed (signed) and V_Ed are summed
+      from the column forces at the bottom of the storey (at the base, the reactions); they
+      include the equivalent horizontal forces where the forces carry them.
+    - delta_H,Ed: the largest column drift of the storey under the horizontal loads alone,
+      first-order: each level takes the difference of the storey shears below and above it,
+      shared by its column tops, on the frame's elastic stiffness (`postproc.stability_sway`).
+      The displacements of the combination are not used: they hold the vertical loads' sway
+      too, and may be second-order.
+    - Not applicable (NaN with the reason), 5.2.1(4)B note 2: a beam or rafter steeper than 1:2,
+      or one with significant compression, N_Ed >= 0.09 N_cr (lambda_bar <= 0.3 sqrt(A f_y /
+      N_Ed), N_cr of the member pinned at its ends over its length, in the frame's plane).
+
+    Returns (alpha_cr_storey (C,), note (C,)).
+    """
+    from .stability_sway import LEVEL_TOL_M as TOP_TOL_M, unit_sway_cases
+
     n = len(combos)
     notes = np.full(n, "", dtype=object)
-    disp = results.displacements
+    alpha = np.full(n, np.nan)
     mm = members.members
     cols = mm[mm["kind"] == "column"]
-    if disp is None or len(disp) == 0 or len(cols) == 0:
-        notes[:] = "not used (no displacements)" if len(cols) else "not used (no columns)"
-        return np.full(n, np.nan), notes
+    if len(cols) == 0:
+        notes[:] = "not used (no columns)"
+        return alpha, notes
     up = frame.vertical_axis
     horiz = [0] if frame.ndm == 2 else [0, 1]
     xyz = frame.nodes[NODE_COLUMNS].astype(float)
     xyz.index = xyz.index.astype(str)
+    # 5.2.1(4)B note 2: shallow roofs, beams and rafters without significant compression
+    flat = mm[mm["kind"].isin(["beam", "rafter"])]
+    d = (xyz.loc[flat["end_node"].astype(str)].to_numpy()
+         - xyz.loc[flat["start_node"].astype(str)].to_numpy())
+    rise = np.degrees(np.arcsin(np.abs(d[:, up]) / np.linalg.norm(d, axis=1)))
+    steep = rise > np.degrees(STOREY_ROOF_SLOPE) + 1e-9
+    if steep.any():
+        k = int(np.argmax(rise))
+        notes[:] = (f"not applicable: {flat['kind'].iloc[k]} {flat.index[k]} slopes "
+                    f"{rise[k]:.1f} degrees, steeper than 1:2 (5.2.1(4)B note 2)")
+        return alpha, notes
+    N_cr = pd.Series(_pinned_N_cr(frame, members), index=mm.index)
+    N = member_compression(members, results, combos).loc[flat.index]      # (flat, C)
+    share = (-N).clip(lower=0.0).div(N_cr.loc[flat.index], axis=0)
     z0 = xyz.loc[cols["start_node"]].to_numpy()[:, up]
     z1 = xyz.loc[cols["end_node"]].to_numpy()[:, up]
     bottom = np.where(z0 <= z1, cols["start_node"], cols["end_node"])
@@ -204,7 +236,66 @@ def storey_alpha(frame: Frame, results: Results, members: Members, combos: list[
     level = np.round(np.minimum(z0, z1) / LEVEL_TOL_M).astype(int)
     level_top = np.round(np.maximum(z0, z1) / LEVEL_TOL_M).astype(int)
     storey = pd.Series(list(zip(level, level_top))).factorize()[0]
-    # force at the bottom station of each column, as the force from above on the part below
+    F = _column_bottom_forces(frame, results, members, cols, bottom, combos)   # (C, n_col, 3)
+    mesh = build_mesh(frame, sub_elements(frame, members))
+    unit = unit_sway_cases(frame, members, mesh)
+    row_of = {key: k for k, key in enumerate(unit.keys)}
+    where = {node: k for k, node in enumerate(mesh.node_ids)}
+    ib = np.array([where[str(b)] for b in bottom])
+    it = np.array([where[str(t)] for t in top])
+    top_level = np.round(np.maximum(z0, z1) / TOP_TOL_M).astype(int)
+    for c, comb in enumerate(combos):
+        if np.isnan(F[c]).any():
+            notes[c] = "not used (column forces missing)"
+            continue
+        heavy = share[comb] >= STOREY_RAFTER_N_CR_SHARE
+        if heavy.any():
+            m = share[comb].idxmax()
+            notes[c] = (f"not applicable: {mm.at[m, 'kind']} {m} has N_Ed = "
+                        f"{share[comb][m]:.2f} N_cr >= 0.09 N_cr, significant compression "
+                        "(5.2.1(4)B note 2)")
+            continue
+        # storey shears (signed) and vertical loads
+        S = np.unique(storey)
+        H = np.array([[F[c][storey == s, a].sum() for a in horiz] for s in S])    # (S, a)
+        V = np.array([-F[c][storey == s, up].sum() for s in S])
+        # level forces: storey shear below a level minus the storey shear above it
+        force = np.zeros(len(unit.keys))
+        for si, s in enumerate(S):
+            k = storey == s
+            for ai, a in enumerate(horiz):
+                top_row = row_of.get((int(top_level[k][0]), a))
+                if top_row is not None:
+                    force[top_row] += H[si, ai]
+                low = np.round(np.minimum(z0, z1)[k][0] / TOP_TOL_M).astype(int)
+                low_row = row_of.get((int(low), a))
+                if low_row is not None:
+                    force[low_row] -= H[si, ai]
+        moved = np.einsum("k,kpa->pa", force, unit.moved) if len(force) else \
+            np.zeros((len(mesh.xyz), 3))
+        drift = moved[it] - moved[ib]
+        best = np.inf
+        for si, s in enumerate(S):
+            k = storey == s
+            for ai, a in enumerate(horiz):
+                delta = np.abs(drift[k, a]).max()
+                if V[si] > 0 and abs(H[si, ai]) > 1e-6 * V[si] and delta > 0:
+                    best = min(best, abs(H[si, ai]) / V[si] * h[k][0] / delta)
+        if np.isfinite(best):
+            alpha[c] = best
+            notes[c] = (f"lowest of {len(S)} storey(s); drift under the horizontal loads alone, "
+                        "first-order, on the frame's stiffness")
+        else:
+            notes[c] = "not used (no horizontal load or no storey drift)"
+    return alpha, notes
+
+
+def _column_bottom_forces(frame: Frame, results: Results, members: Members, cols: pd.DataFrame,
+                          bottom: np.ndarray, combos: list[str]) -> np.ndarray:
+    """(C, n_col, 3) global force from the part above on the part below, at each column's
+    lower end (the first or last station of its lowest element); NaN where missing."""
+    mm = members.members
+    up = frame.vertical_axis
     me = members.member_elements.set_index("member")
     axes = local_axes(frame)
     epos = {e: k for k, e in enumerate(frame.elements.index.astype(str))}
@@ -215,58 +306,49 @@ def storey_alpha(frame: Frame, results: Results, members: Members, combos: list[
         r = rows.iloc[0] if first else rows.iloc[-1]
         e = r["element"]
         at_i = (not r["flipped"]) if first else bool(r["flipped"])
-        ex_up = axes[epos[e], 0, up] > 0
         low_elem.append(e)
         low_x.append(0.0 if at_i else np.inf)
-        sign.append(1.0 if ex_up else -1.0)
+        sign.append(1.0 if axes[epos[e], 0, up] > 0 else -1.0)
     f = results.forces.copy()
     f["element"] = f["element"].astype(str)
     f["combination"] = f["combination"].astype(str)
     f = f[f["element"].isin(low_elem) & f["combination"].isin(combos)].sort_values("x_m")
-    # the station at the column's lower end: first or last station of that element
     ends = {0.0: f.groupby(["combination", "element"]).head(1),
             np.inf: f.groupby(["combination", "element"]).tail(1)}
     ends = {key: t.set_index(["combination", "element"]) for key, t in ends.items()}
-    u = disp.copy()
-    u["combination"], u["node"] = u["combination"].astype(str), u["node"].astype(str)
-    u = u.set_index(["combination", "node"])
-    ucols = ["ux_m", "uy_m", "uz_m"]
-    alpha = np.full(n, np.nan)
     ax = axes[[epos[e] for e in low_elem]]                     # (n_col, 3, 3)
     sgn = np.array(sign)[:, None]
+    out = np.full((len(combos), len(low_elem), 3), np.nan)
     for c, comb in enumerate(combos):
-        keys = list(zip([comb] * len(low_elem), low_elem))
         local = np.full((len(low_elem), 3), np.nan)
         for at in (0.0, np.inf):
             pick = [k for k, x in enumerate(low_x) if x == at]
-            rows = ends[at].reindex([keys[k] for k in pick])[["N_N", "Vy_N", "Vz_N"]]
+            rows = ends[at].reindex([(comb, low_elem[k]) for k in pick])[["N_N", "Vy_N", "Vz_N"]]
             local[pick] = rows.to_numpy(float)
-        F = sgn * np.einsum("ka,kab->kb", local, ax)          # global force from above
-        try:
-            dt = u.loc[[(comb, t) for t in top], ucols].to_numpy(float)
-            db = u.loc[[(comb, b) for b in bottom], ucols].to_numpy(float)
-        except KeyError:
-            notes[c] = "not used (displacements missing for a column end)"
-            continue
-        if np.isnan(F).any():
-            notes[c] = "not used (column forces missing)"
-            continue
-        drift = dt - db
-        best = np.inf
-        for s in np.unique(storey):
-            k = storey == s
-            V = -F[k, up].sum()
-            for a in horiz:
-                H = abs(F[k, a].sum())
-                delta = np.abs(drift[k, a]).max()
-                if V > 0 and H > 1e-6 * V and delta > 0:
-                    best = min(best, H / V * h[k][0] / delta)
-        if np.isfinite(best):
-            alpha[c] = best
-            notes[c] = f"lowest of {len(np.unique(storey))} storey(s); confirm 5.2.1(4)B applies"
-        else:
-            notes[c] = "not used (no horizontal load or no storey drift)"
-    return alpha, notes
+        out[c] = sgn * np.einsum("ka,kab->kb", local, ax)
+    return out
+
+
+def _pinned_N_cr(frame: Frame, members: Members) -> np.ndarray:
+    """(M,) Euler force of each member pinned at its ends over its length, about the in-plane
+    axis of a plane frame and the weaker axis of a space frame."""
+    mm = members.members
+    needed = None
+    if frame.ndm == 2:  # a plane model needs only the in-plane inertia
+        about_y_e = np.abs(local_axes(frame)[:, 1, 2]) >= 0.5
+        needed = {"I_y": about_y_e, "I_z": ~about_y_e}
+    props = section_columns(frame, ("I_y", "I_z"), needed=needed)
+    eid = frame.elements.index.astype(str)
+    first = members.member_elements[members.member_elements["position"] == 0]
+    first = first.set_index("member").loc[mm.index, "element"]
+    k = pd.Series(np.arange(len(eid)), index=eid).loc[first].to_numpy()
+    if frame.ndm == 2:
+        maxes = member_axes(frame, mm, members.member_elements)
+        about_y = np.abs(maxes[:, 1, 2]) >= 0.5
+        I = np.where(about_y, props["I_y"][k], props["I_z"][k])
+    else:
+        I = np.minimum(props["I_y"][k], props["I_z"][k])
+    return np.pi ** 2 * E_STEEL * I / mm["length_m"].to_numpy(float) ** 2
 
 
 def analysis_path(alpha: pd.DataFrame, combinations: pd.DataFrame) -> pd.DataFrame:
@@ -523,18 +605,8 @@ def bow_imperfections_needed(frame: Frame, members: Members, results: Results,
         moment_end, sway_mode, bow_needed.
     """
     mm = members.members
-    props = section_columns(frame, ("I_y", "I_z"))
     eid = frame.elements.index.astype(str)
-    first = members.member_elements[members.member_elements["position"] == 0]
-    first = first.set_index("member").loc[mm.index, "element"]
-    k = pd.Series(np.arange(len(eid)), index=eid).loc[first].to_numpy()
-    if frame.ndm == 2:
-        maxes = member_axes(frame, mm, members.member_elements)
-        about_y = np.abs(maxes[:, 1, 2]) >= 0.5
-        I = np.where(about_y, props["I_y"][k], props["I_z"][k])
-    else:
-        I = np.minimum(props["I_y"][k], props["I_z"][k])
-    N_cr = np.pi ** 2 * E_STEEL * I / mm["length_m"].to_numpy(float) ** 2
+    N_cr = _pinned_N_cr(frame, members)
     pin = {"i": dict(zip(eid, moment_released(frame, "i"))),
            "j": dict(zip(eid, moment_released(frame, "j")))}
     me = members.member_elements.sort_values(["member", "position"])

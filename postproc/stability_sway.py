@@ -74,10 +74,11 @@ class SwayPart:
 
 
 def sway_coordinates(frame: Frame, members: Members
-                     ) -> tuple[list[list[tuple[str, int, float]]], list[str]]:
+                     ) -> tuple[list[list[tuple[str, int, float]]], list[tuple[int, int]]]:
     """The frame's sway coordinates as weights on node translations.
 
-    Returns (one list of (node, axis, weight) per coordinate, a label per coordinate). A coordinate is the mean horizontal translation of the column tops
+    Returns (one list of (node, axis, weight) per coordinate, a key (level in units of
+    LEVEL_TOL_M, axis 0 X / 1 Y / 2 twist) per coordinate). A coordinate is the mean horizontal translation of the column tops
     at one level along X (and Y in a space frame), and in a space frame with tops at two or more
     plan positions the mean twist of those tops about the vertical axis.
     """
@@ -91,13 +92,13 @@ def sway_coordinates(frame: Frame, members: Members
     z1 = xyz.loc[cols["end_node"].astype(str), NODE_COLUMNS[up]].to_numpy()
     top = np.where(z1 >= z0, cols["end_node"].astype(str), cols["start_node"].astype(str))
     level = np.round(np.maximum(z0, z1) / LEVEL_TOL_M).astype(int)
-    rows, labels = [], []
+    rows, keys = [], []
     for lev in np.unique(level):
         nodes = sorted(set(top[level == lev]))
         w = 1.0 / len(nodes)
         for a in horiz:
             rows.append([(n, a, w) for n in nodes])
-            labels.append(f"level {lev * LEVEL_TOL_M:.2f} m, {'XY'[a]}")
+            keys.append((int(lev), a))
         if frame.ndm == 3 and len(nodes) >= 2:
             plan = xyz.loc[nodes, ["x_m", "y_m"]].to_numpy()
             d = plan - plan.mean(axis=0)
@@ -105,8 +106,8 @@ def sway_coordinates(frame: Frame, members: Members
             if r2 > (LEVEL_TOL_M ** 2):
                 rows.append([(n, 0, -dy / r2) for n, (_, dy) in zip(nodes, d)]
                             + [(n, 1, dx / r2) for n, (dx, _) in zip(nodes, d)])
-                labels.append(f"level {lev * LEVEL_TOL_M:.2f} m, twist")
-    return rows, labels
+                keys.append((int(lev), 2))
+    return rows, keys
 
 
 def _solve(mesh: Mesh, b: np.ndarray) -> np.ndarray:
@@ -119,15 +120,27 @@ def _solve(mesh: Mesh, b: np.ndarray) -> np.ndarray:
     return mesh.scale[:, None] * y
 
 
-def unit_sway_cases(frame: Frame, members: Members, mesh: Mesh
-                    ) -> tuple[np.ndarray, np.ndarray, list, list[str]]:
+@dataclass(frozen=True)
+class UnitSway:
     """Response of the free frame to the forces C^T e_k of each sway coordinate k.
 
-    Returns (CU (k, k) sway coordinates of each unit case, ends (k, e, 2, 6) internal forces at
-    the element ends, coordinate weights, labels). Coordinates whose every freedom is held (a
-    braced or supported level) are left out.
+    A unit case along X or Y is a total force of 1 N shared equally by the column tops of its
+    level. Attributes: CU (k, k) sway coordinates of each unit case; ends (k, e, 2, 6) internal
+    forces at the element ends; rows, keys as from `sway_coordinates`; moved (k, P, 3)
+    translations of every mesh point (the frame's nodes first).
     """
-    rows, labels = sway_coordinates(frame, members)
+
+    CU: np.ndarray
+    ends: np.ndarray
+    rows: list
+    keys: list[tuple[int, int]]
+    moved: np.ndarray
+
+
+def unit_sway_cases(frame: Frame, members: Members, mesh: Mesh) -> UnitSway:
+    """The unit sway cases of the frame (see `UnitSway`). Coordinates whose every freedom is
+    held (a braced or supported level) are left out."""
+    rows, keys = sway_coordinates(frame, members)
     where = {n: k for k, n in enumerate(mesh.node_ids)}
     pos = np.full(mesh.n_dof, -1)
     pos[mesh.free] = np.arange(len(mesh.free))
@@ -140,11 +153,11 @@ def unit_sway_cases(frame: Frame, members: Members, mesh: Mesh
     keep = np.abs(C).sum(axis=1) > 0
     C = C[keep]
     rows = [r for r, k in zip(rows, keep) if k]
-    labels = [lab for lab, k in zip(labels, keep) if k]
+    keys = [r for r, k in zip(keys, keep) if k]
     if not len(rows):
-        return np.zeros((0, 0)), np.zeros((0, len(mesh.n_sub), 2, 6)), rows, labels
+        return UnitSway(np.zeros((0, 0)), np.zeros((0, len(mesh.n_sub), 2, 6)), rows, keys,
+                        np.zeros((0, len(mesh.xyz), 3)))
     X = _solve(mesh, C.T)                                   # (F, k)
-    CU = C @ X
     u = np.zeros((mesh.n_dof, X.shape[1]))
     u[mesh.free] = X
     ue = np.where((mesh.g_index >= 0)[..., None], u[np.maximum(mesh.g_index, 0)], 0.0)
@@ -152,7 +165,8 @@ def unit_sway_cases(frame: Frame, members: Members, mesh: Mesh
     first = np.concatenate([[0], np.cumsum(mesh.n_sub)[:-1]])
     last = first + mesh.n_sub - 1
     ends = np.stack([-f[:, first, :6], f[:, last, 6:]], axis=2)   # internal forces (k, e, 2, 6)
-    return CU, ends, rows, labels
+    moved = u[: 6 * len(mesh.xyz)].reshape(len(mesh.xyz), 6, -1)[:, :3].transpose(2, 0, 1)
+    return UnitSway(C @ X, ends, rows, keys, moved)
 
 
 def sway_part(frame: Frame, members: Members, results: Results, combos: list[str],
@@ -176,7 +190,8 @@ def sway_part(frame: Frame, members: Members, results: Results, combos: list[str
         note[:] = "no columns: the frame's sway cannot be separated"
         return SwayPart(list(combos), eid, length, ends, note)
     mesh = mesh if mesh is not None else build_mesh(frame, sub_elements(frame, members))
-    CU, unit_ends, rows, _ = unit_sway_cases(frame, members, mesh)
+    unit = unit_sway_cases(frame, members, mesh)
+    rows = unit.rows
     if not len(rows):           # every level is held: nothing sways
         ends[:] = 0.0
         return SwayPart(list(combos), eid, length, ends, note)
@@ -198,8 +213,8 @@ def sway_part(frame: Frame, members: Members, results: Results, combos: list[str
             continue
         at = {n: k for k, n in enumerate(nodes)}
         s = np.array([sum(w * top[at[n], a] for n, a, w in row) for row in rows])
-        mu = np.linalg.solve(CU, s)
-        ends[c] = np.einsum("k,kexf->exf", mu, unit_ends)
+        mu = np.linalg.solve(unit.CU, s)
+        ends[c] = np.einsum("k,kexf->exf", mu, unit.ends)
     return SwayPart(list(combos), eid, length, ends, note)
 
 

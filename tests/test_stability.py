@@ -31,6 +31,7 @@ I_HEB200_Y = 5696e-8        # m4, handbook (REFERENCES.md, from memory)
 I_HEB200_Z = 2003e-8
 CLOSED_FORM_REL = 0.01      # the brief's 1 %: four cubic elements per member err by ~0.1 %
 EXACT_REL = 1e-9            # pure arithmetic of the standard's formulas
+STIFF_BEAM_REL = 0.005      # a beam 1000 times stiffer than the columns standing in for a rigid one
 
 FORCE_COLS = ["combination", "element", "x_m", "N_N", "Vy_N", "Vz_N", "T_Nm", "My_Nm", "Mz_Nm"]
 
@@ -385,7 +386,10 @@ def test_storey_method_eq_5_2(c2_down):
     res = Results(forces, combos(["U1"]), displacements=disp)
     alpha = critical_load_factors(f, res, design_members(f))
     expected = (H / (2 * P)) * (L / delta)          # eq. (5.2) with the numbers above
-    assert alpha.at["U1", "alpha_cr_storey"] == pytest.approx(expected, rel=1e-6)
+    # the drift is the frame's own under H alone; the beam is 1000 times stiffer than a column,
+    # not rigid, and its end rotations add about 0.3 % to the hand value
+    assert alpha.at["U1", "alpha_cr_storey"] == pytest.approx(expected, rel=STIFF_BEAM_REL)
+    assert alpha.at["U1", "alpha_cr_storey"] < expected
     # and the eigenvalue: pi^2 EI / (P L^2); the storey method overestimates by 12 / pi^2
     assert alpha.at["U1", "alpha_cr"] == pytest.approx(np.pi ** 2 * E * I_HEB200_Y / (P * L ** 2),
                                                        rel=CLOSED_FORM_REL)
