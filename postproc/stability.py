@@ -194,7 +194,9 @@ def storey_alpha(frame: Frame, results: Results, members: Members, combos: list[
       shared by its column tops, on the frame's elastic stiffness (`postproc.stability_sway`).
       The displacements of the combination are not used: they hold the vertical loads' sway
       too, and may be second-order.
-    - Not applicable (NaN with the reason), 5.2.1(4)B note 2: a beam or rafter steeper than 1:2,
+    - Not applicable (NaN with the reason): a space frame (the clause is for plane portals and
+      beam-and-column frames, whose levels move as one); 5.2.1(4)B note 2: a beam or rafter
+      steeper than 1:2,
       or one with significant compression, N_Ed >= 0.09 N_cr (lambda_bar <= 0.3 sqrt(A f_y /
       N_Ed), N_cr of the member pinned at its ends over its length, in the frame's plane).
 
@@ -209,6 +211,10 @@ def storey_alpha(frame: Frame, results: Results, members: Members, combos: list[
     cols = mm[mm["kind"] == "column"]
     if len(cols) == 0:
         notes[:] = "not used (no columns)"
+        return alpha, notes
+    if frame.ndm == 3:
+        notes[:] = ("not applicable: 5.2.1(4)B is for plane frames (portals, beam-and-column "
+                    "frames); a space frame's floors need not move as one")
         return alpha, notes
     up = frame.vertical_axis
     horiz = [0] if frame.ndm == 2 else [0, 1]

@@ -110,8 +110,11 @@ def sway_coordinates(frame: Frame, members: Members
     return rows, keys
 
 
-def _solve(mesh: Mesh, b: np.ndarray) -> np.ndarray:
-    """K x = b on the kept freedoms (K = S^-1 Ks S^-1 with the scaled, factorised Ks)."""
+def solve(mesh: Mesh, b: np.ndarray) -> np.ndarray:
+    """K x = b on the kept freedoms (K = S^-1 Ks S^-1 with the scaled, factorised Ks); b of
+    shape (F,) or (F, k)."""
+    if b.ndim == 1:
+        return solve(mesh, b[:, None])[:, 0]
     rhs = mesh.scale[:, None] * b
     if mesh.chol is not None:
         y = sla.cho_solve((mesh.chol, True), rhs)
@@ -157,7 +160,7 @@ def unit_sway_cases(frame: Frame, members: Members, mesh: Mesh) -> UnitSway:
     if not len(rows):
         return UnitSway(np.zeros((0, 0)), np.zeros((0, len(mesh.n_sub), 2, 6)), rows, keys,
                         np.zeros((0, len(mesh.xyz), 3)))
-    X = _solve(mesh, C.T)                                   # (F, k)
+    X = solve(mesh, C.T)                                   # (F, k)
     u = np.zeros((mesh.n_dof, X.shape[1]))
     u[mesh.free] = X
     ue = np.where((mesh.g_index >= 0)[..., None], u[np.maximum(mesh.g_index, 0)], 0.0)

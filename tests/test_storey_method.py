@@ -121,3 +121,21 @@ def test_roof_steeper_than_one_in_two_makes_it_not_applicable():
     alpha = critical_load_factors(f, res, design_members(f))
     assert np.isnan(alpha.at["U1", "alpha_cr_storey"])
     assert "slopes 31.0 degrees, steeper than 1:2" in alpha.at["U1", "mode_note"]
+
+
+def test_space_frame_is_not_applicable():
+    """5.2.1(4)B is written for plane portals and beam-and-column frames."""
+    n = pd.DataFrame([("1", 0, 0, 0), ("2", 0, 0, 4), ("3", 6, 0, 4), ("4", 6, 0, 0)],
+                     columns=["node", "x_m", "y_m", "z_m"]).set_index("node")
+    e = pd.DataFrame([("C1", "1", "2", "HEB 200"), ("B1", "2", "3", "IPE 300"),
+                      ("C2", "4", "3", "HEB 200")],
+                     columns=["element", "node_i", "node_j", "section"]).set_index("element")
+    e = e.assign(grade="S355", vz_x=np.nan, vz_y=np.nan, vz_z=np.nan, release_i="",
+                 release_j="")
+    s = pd.DataFrame([(b, *(True,) * 6) for b in ("1", "4")],
+                     columns=["node", "ux", "uy", "uz", "rx", "ry", "rz"]).set_index("node")
+    f = Frame(3, n, e, s, SECTIONS)
+    res = results(f, {"C1": (-100e3, -5e3), "C2": (-100e3, -5e3)})
+    alpha = critical_load_factors(f, res, design_members(f))
+    assert np.isnan(alpha.at["U1", "alpha_cr_storey"])
+    assert "not applicable: 5.2.1(4)B is for plane frames" in alpha.at["U1", "mode_note"]
