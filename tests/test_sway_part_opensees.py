@@ -189,3 +189,29 @@ def test_sway_part_carries_the_whole_horizontal_load():
     cols, idx = ["N_N", "Vz_N", "My_Nm"], [0, 2, 4]
     scale = np.abs(f[cols].to_numpy()).max(axis=0)
     assert np.allclose(part[:, idx] / scale, f[cols].to_numpy() / scale, atol=1e-3)
+
+
+def test_amplified_sway_moments_come_with_non_sway_lengths():
+    """5.2.2(8): with the sway effects amplified (and the imperfection in the forces) the
+    columns are checked with their non-sway in-plane length, never a sway length on top; the
+    same forces without the imperfection take sway lengths and are not amplified."""
+    from postproc.stability import buckling_lengths
+
+    model = portal()
+    frame = to_frame(model)
+    members = design_members(frame)
+    phi = sway_imperfection(frame)["phi"]
+    first = analyse(model, "Linear", loads(model, 30e3, 12e3, phi), 1)
+    alpha = critical_load_factors(frame, first, members)
+    paths = amplified_part(analysis_path(alpha, first.combinations),
+                           sway_part(frame, members, first, ["U1"]))
+    lengths = buckling_lengths(frame, members, first, paths).set_index("member")
+    column = members.members.index[members.members["kind"] == "column"][0]
+    assert paths.at["U1", "path"] == "amplified"
+    assert not lengths.at[column, "sway_y"]
+    assert lengths.at[column, "L_cr_y_m"] <= H + 1e-9        # non-sway: at most the length
+    bare = first.combinations.assign(imperfections=False)
+    paths = analysis_path(alpha, bare)
+    assert paths.at["U1", "path"] == "sway lengths" and paths.at["U1", "amplification"] == 1.0
+    lengths = buckling_lengths(frame, members, first, paths).set_index("member")
+    assert lengths.at[column, "sway_y"] and lengths.at[column, "L_cr_y_m"] > 2 * H
