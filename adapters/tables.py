@@ -245,8 +245,9 @@ def _results(files: dict, units: dict, frame: Frame, project) -> Results:
     forces = pd.DataFrame(data)
     _check_stations(forces, frame, table)
 
+    factors = None
     if by_case:
-        forces, combinations = _combine(forces, files, units, project, table.name)
+        forces, combinations, factors = _combine(forces, files, units, project, table.name)
     else:
         combinations = _combination_table(files["combinations"], units,
                                           forces["combination"].unique(), table.name)
@@ -255,7 +256,7 @@ def _results(files: dict, units: dict, frame: Frame, project) -> Results:
         raise InputError(f"element(s) with no forces at all: {', '.join(missing[:10])}"
                          f"{' ...' if len(missing) > 10 else ''}", file=table.name, field="element")
     forces = forces.sort_values(["combination", "element", "x_m"], kind="stable")
-    displacements = _displacements(files["displacements"], units, frame)
+    displacements = _displacements(files["displacements"], units, frame, factors)
     return Results(forces=forces.reset_index(drop=True), combinations=combinations,
                    displacements=displacements)
 
@@ -309,8 +310,9 @@ def _combination_table(path: Path, units: dict, present: np.ndarray,
 
 
 def _combine(case_forces: pd.DataFrame, files: dict, units: dict, project,
-             forces_file: str) -> tuple[pd.DataFrame, pd.DataFrame]:
-    """Forces per load case: build combinations (EN 1990) or read explicit factors, superpose."""
+             forces_file: str) -> tuple[pd.DataFrame, pd.DataFrame, pd.DataFrame]:
+    """Forces per load case: build combinations (EN 1990) or read explicit factors, superpose.
+    Returns (forces, combinations table, factors: combination, load_case, factor)."""
     from postproc import loads
 
     cases_path, combos_path = files["load_cases"], files["combinations"]
@@ -345,7 +347,7 @@ def _combine(case_forces: pd.DataFrame, files: dict, units: dict, project,
     combinations = pd.DataFrame({"kind": kinds.to_numpy(), "analysis": "first-order",
                                  "status": "ok", "message": ""},
                                 index=pd.Index(kinds.index.to_numpy(), name="combination"))
-    return forces, combinations
+    return forces, combinations, factors
 
 
 def _refuse_cases_without_forces(table: Table, cases: pd.Series, present: set,
@@ -354,19 +356,35 @@ def _refuse_cases_without_forces(table: Table, cases: pd.Series, present: set,
                  lambda k: f"load case {cases.iloc[k]!r} has no forces in {forces_file}")
 
 
-def _displacements(path: Path, units: dict, frame: Frame) -> pd.DataFrame | None:
+def _displacements(path: Path, units: dict, frame: Frame, factors: pd.DataFrame | None
+                   ) -> pd.DataFrame | None:
+    """Node displacements per combination, or per load case (superposed with the combinations'
+    factors, as the forces are) where the table has load_case and no combination column."""
+    from postproc import loads
+
     if not path.is_file():
         return None
     table = Table(path, units)
-    table.require("combination", "node")
+    by_case = table.has("load_case") and not table.has("combination")
+    key = "load_case" if by_case else "combination"
+    if by_case and factors is None:
+        raise InputError("displacements are given per load_case, so the forces must be too "
+                         "(or give them per combination)", file=table.name, field="load_case")
+    table.require(key, "node")
     nodes = table.text("node")
     table.refuse_unknown(nodes, frame.nodes.index, "node", "node")
-    data = {"combination": table.text("combination").to_numpy(), "node": nodes.to_numpy()}
+    data = {key: table.text(key).to_numpy(), "node": nodes.to_numpy()}
     for column in DISPLACEMENT_COLUMNS:
         name = column.split("_")[0]
         kind = "length" if name.startswith("u") else None
         data[column] = table.number(name, kind, required=False, default=0.0)
-    return pd.DataFrame(data)
+    out = pd.DataFrame(data)
+    if not by_case:
+        return out
+    try:
+        return loads.superpose(out, factors, keys=("node",), columns=DISPLACEMENT_COLUMNS)
+    except InputError as exc:
+        raise InputError(str(exc), file=table.name) from None
 
 
 __all__ = ["load", "FILES", "FORCE_FIELDS", "FORCE_COLUMNS"]

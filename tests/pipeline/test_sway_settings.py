@@ -1,7 +1,7 @@
 """Amplified sway effects and member bows through the whole checker, and their design settings.
 
-The demo's forces (tables, carrying the equivalent horizontal forces, no displacements) are
-scaled so that one combination's alpha_cr falls into 3..10 (alpha_cr scales with 1/load): the
+The demo's forces and displacements (tables per load case, the forces carrying the equivalent
+horizontal forces) are scaled so that one combination's alpha_cr falls into 3..10 (alpha_cr scales with 1/load): the
 amplified path of 5.2.2(5B), where 5.3.2(6) can ask for member bows.
 """
 
@@ -22,12 +22,15 @@ from postproc.settings import DesignSettings
 
 DEMO = Path(__file__).resolve().parents[2] / "examples" / "hillside_depot" / "project.toml"
 COLUMNS = ["N_N", "Vy_N", "Vz_N", "T_Nm", "My_Nm", "Mz_Nm"]
+DISPLACEMENTS = ["ux_m", "uy_m", "uz_m", "rx_rad", "ry_rad", "rz_rad"]
 TARGET_ALPHA = 4.0
 
 
-def _scaled(**settings):
+def _scaled(without_displacements: bool = False, **settings):
     project = read_project(DEMO)
     frame, results = tables.load(project)
+    if without_displacements:
+        results = replace(results, displacements=None)
     first = check_frame(frame, results, project.settings, overrides=project.overrides,
                         groups=project.groups, restraint_nodes=project.restraint_nodes)
     target = first.stability["alpha_cr"].astype(float).idxmin()
@@ -35,14 +38,35 @@ def _scaled(**settings):
     forces = results.forces.copy()
     mask = forces["combination"] == target
     forces.loc[mask, COLUMNS] = forces.loc[mask, COLUMNS] * scale
-    outcome = check_frame(frame, replace(results, forces=forces),
+    moved = results.displacements
+    if moved is not None:   # a linear analysis: displacements scale with the forces
+        moved = moved.copy()
+        at = moved["combination"] == target
+        moved.loc[at, DISPLACEMENTS] = moved.loc[at, DISPLACEMENTS] * scale
+    outcome = check_frame(frame, replace(results, forces=forces, displacements=moved),
                           replace(project.settings, **settings), overrides=project.overrides,
                           groups=project.groups, restraint_nodes=project.restraint_nodes)
     return target, outcome
 
 
-def test_without_displacements_the_sway_part_is_unknown_and_rows_are_not_evaluated():
+def test_with_displacements_the_sway_part_is_amplified_and_the_rows_say_so():
     target, outcome = _scaled()
+    row = outcome.stability.loc[target]
+    assert row["path"] == "amplified" and row["amplified_part"] == "sway part"
+    assert "frame held against sway at each storey" in row["reason"]
+    rows = outcome.table[outcome.table["combination"] == target]
+    assert (rows["amplified_part"] == "sway part").all()
+    whole = _scaled(without_displacements=True, amplify_whole_when_sway_unknown=True)[1]
+    # the two readings give different forces: the sway part is not the whole moment
+    def finite(table: pd.DataFrame) -> np.ndarray:
+        u = table[table["combination"] == target]["utilisation"].to_numpy(float)
+        return u[np.isfinite(u)]
+
+    assert finite(outcome.table).sum() != pytest.approx(finite(whole.table).sum(), rel=1e-3)
+
+
+def test_without_displacements_the_sway_part_is_unknown_and_rows_are_not_evaluated():
+    target, outcome = _scaled(without_displacements=True)
     row = outcome.stability.loc[target]
     assert row["alpha_cr"] == pytest.approx(TARGET_ALPHA, rel=1e-6)
     assert row["path"] == "not evaluated"
@@ -53,7 +77,7 @@ def test_without_displacements_the_sway_part_is_unknown_and_rows_are_not_evaluat
 
 
 def test_the_setting_amplifies_the_whole_forces_and_the_rows_say_so():
-    target, outcome = _scaled(amplify_whole_when_sway_unknown=True)
+    target, outcome = _scaled(without_displacements=True, amplify_whole_when_sway_unknown=True)
     row = outcome.stability.loc[target]
     assert row["path"] == "amplified" and row["amplified_part"] == "whole forces"
     assert row["amplification"] == pytest.approx(1.0 / (1.0 - 1.0 / TARGET_ALPHA), rel=1e-6)
@@ -67,8 +91,7 @@ def test_the_setting_amplifies_the_whole_forces_and_the_rows_say_so():
 def test_member_bows_flagged_and_covered_as_set(covered_by):
     """5.3.2(6): at alpha_cr = 4 (< 10) in a sway mode the most compressed columns have
     N_Ed > 0.25 N_cr and moment-resisting ends, so their bow belongs in the analysis."""
-    target, outcome = _scaled(amplify_whole_when_sway_unknown=True,
-                              bow_imperfections=covered_by)
+    target, outcome = _scaled(bow_imperfections=covered_by)
     rows = outcome.table[outcome.table["combination"] == target]
     flagged = rows[rows["bow_imperfection"] != ""]
     assert len(flagged)
