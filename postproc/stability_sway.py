@@ -5,9 +5,9 @@ the sway moments have opposite signs (the windward knee of a pinned portal). The
 separated the classic way: the frame is held against sway at every storey and loaded as given;
 the holding forces, applied in reverse to the free frame, give the sway part.
 
-This needs no loads. With the frame's sway coordinates s = C u (one per storey level and
-horizontal direction: the mean horizontal translation of the column tops at that level; in a
-space frame also the mean twist of those tops about the vertical), the held frame has C u = 0,
+This needs no loads. With the frame's sway coordinates s = C u (in a plane frame the mean
+horizontal translation of the column tops of each level; in a space frame the horizontal
+translations of every column top, see `sway_coordinates`), the held frame has C u = 0,
 so the reversed holding forces C^T mu must produce the whole sway: C K^-1 C^T mu = C u. The sway
 part of every force is then the response to C^T mu, found from the frame's elastic stiffness K
 (the model of `postproc.stability_eigen`: section properties of the sections table, releases and
@@ -78,9 +78,13 @@ def sway_coordinates(frame: Frame, members: Members
     """The frame's sway coordinates as weights on node translations.
 
     Returns (one list of (node, axis, weight) per coordinate, a key (level in units of
-    LEVEL_TOL_M, axis 0 X / 1 Y / 2 twist) per coordinate). A coordinate is the mean horizontal translation of the column tops
-    at one level along X (and Y in a space frame), and in a space frame with tops at two or more
-    plan positions the mean twist of those tops about the vertical axis.
+    LEVEL_TOL_M, axis 0 X / 1 Y) per coordinate).
+    - A plane frame: one coordinate per level of column tops, the mean horizontal translation of
+      its tops. The beams of a level tie its tops together, so this is the prop of the classic
+      method; a pitched portal's eaves stay free to spread under the roof load (not a sway).
+    - A space frame: every column top along X and along Y. Nothing is known to tie the tops of
+      a level together (a floor acting as a diaphragm), and a mean would leave the racking of a
+      single frame line, and the twist of a storey, in the non-sway part.
     """
     mm = members.members
     cols = mm[mm["kind"] == "column"]
@@ -95,18 +99,15 @@ def sway_coordinates(frame: Frame, members: Members
     rows, keys = [], []
     for lev in np.unique(level):
         nodes = sorted(set(top[level == lev]))
-        w = 1.0 / len(nodes)
-        for a in horiz:
-            rows.append([(n, a, w) for n in nodes])
-            keys.append((int(lev), a))
-        if frame.ndm == 3 and len(nodes) >= 2:
-            plan = xyz.loc[nodes, ["x_m", "y_m"]].to_numpy()
-            d = plan - plan.mean(axis=0)
-            r2 = float((d ** 2).sum())
-            if r2 > (LEVEL_TOL_M ** 2):
-                rows.append([(n, 0, -dy / r2) for n, (_, dy) in zip(nodes, d)]
-                            + [(n, 1, dx / r2) for n, (dx, _) in zip(nodes, d)])
-                keys.append((int(lev), 2))
+        if frame.ndm == 3:
+            # no floor is known to tie a space frame's tops together: each top is held itself
+            for n in nodes:
+                for a in horiz:
+                    rows.append([(n, a, 1.0)])
+                    keys.append((int(lev), a))
+            continue
+        rows.append([(n, 0, 1.0 / len(nodes)) for n in nodes])
+        keys.append((int(lev), 0))
     return rows, keys
 
 
@@ -127,8 +128,8 @@ def solve(mesh: Mesh, b: np.ndarray) -> np.ndarray:
 class UnitSway:
     """Response of the free frame to the forces C^T e_k of each sway coordinate k.
 
-    A unit case along X or Y is a total force of 1 N shared equally by the column tops of its
-    level. Attributes: CU (k, k) sway coordinates of each unit case; ends (k, e, 2, 6) internal
+    A unit case is a total force of 1 N along its axis, shared equally by the column tops of a
+    level in a plane frame, at one column top in a space frame. Attributes: CU (k, k) sway coordinates of each unit case; ends (k, e, 2, 6) internal
     forces at the element ends; rows, keys as from `sway_coordinates`; moved (k, P, 3)
     translations of every mesh point (the frame's nodes first).
     """
