@@ -1,10 +1,10 @@
 """Frame stability: alpha_cr, the analysis path, sway amplification and frame imperfections.
 
 - `critical_load_factors`: alpha_cr per ULS combination by linear eigenvalue buckling of the whole
-  frame (`postproc.stability_eigen`), and by the storey method of 5.2.1(4)B where displacements
-  are given.
-- `analysis_path`: 5.2.1(3) and 5.2.2: first-order, amplified, second-order in forces, second-order
-  needed, unstable.
+  frame (`postproc.stability_eigen`), and by the storey method of 5.2.1(4)B where its conditions
+  hold (`storey_alpha`).
+- `analysis_path`: 5.2.1(3) and 5.2.2: first-order, amplified, sway lengths, second-order in
+  forces, second-order needed, unstable.
 - `amplified_part`, `amplify_sway_effects`: 5.2.2(5B), the sway part (from
   `postproc.stability_sway`) amplified.
 - `sway_imperfection`, `equivalent_horizontal_forces`, `bow_imperfections_needed`: 5.3.2.
@@ -195,10 +195,10 @@ def storey_alpha(frame: Frame, results: Results, members: Members, combos: list[
       The displacements of the combination are not used: they hold the vertical loads' sway
       too, and may be second-order.
     - Not applicable (NaN with the reason): a space frame (the clause is for plane portals and
-      beam-and-column frames, whose levels move as one); 5.2.1(4)B note 2: a beam or rafter
-      steeper than 1:2,
-      or one with significant compression, N_Ed >= 0.09 N_cr (lambda_bar <= 0.3 sqrt(A f_y /
-      N_Ed), N_cr of the member pinned at its ends over its length, in the frame's plane).
+      beam-and-column frames, whose levels move as one); and from 5.2.1(4)B note 2, a beam or
+      rafter steeper than 1:2, or one with significant compression, N_Ed >= 0.09 N_cr
+      (lambda_bar <= 0.3 sqrt(A f_y / N_Ed), N_cr of the member pinned at its ends over its
+      length, in the frame's plane).
 
     Returns (alpha_cr_storey (C,), note (C,)).
     """
@@ -449,7 +449,8 @@ def amplified_part(paths: pd.DataFrame, sway: SwayPart | None, *,
     for comb in out.index[out["path"] == "amplified"]:
         if bool(known.get(str(comb), False)):
             out.at[comb, "amplified_part"] = "sway part"
-            out.at[comb, "reason"] += f"; sway part amplified, axial forces included ({sway.method})"
+            out.at[comb, "reason"] += (f"; sway part amplified, axial forces included "
+                                       f"({sway.method})")
             continue
         why = notes.get(str(comb), "") or "no sway part given"
         if whole_if_unknown:
@@ -602,9 +603,9 @@ def bow_imperfections_needed(frame: Frame, members: Members, results: Results,
     """EN 1993-1-1:2005, 5.3.2(6), where member bow imperfections belong in a sway analysis.
 
     Needed where the frame is sensitive to second-order effects (alpha_cr < 10) in a sway mode,
-    the member has at least one moment-resisting end, and lambda_bar > 0.5 sqrt(A f_y / N_Ed), which is N_Ed > 0.25 N_cr with N_cr of the member
-    pinned at its ends over its length (the in-plane axis of a plane frame, the weaker of both
-    axes of a space frame).
+    the member has at least one moment-resisting end, and lambda_bar > 0.5 sqrt(A f_y / N_Ed),
+    which is N_Ed > 0.25 N_cr with N_cr of the member pinned at its ends over its length (the
+    in-plane axis of a plane frame, the weaker of both axes of a space frame).
 
     Returns:
         columns member, combination, N_Ed_N (compression as a positive number), N_cr_N,

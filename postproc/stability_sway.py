@@ -129,9 +129,11 @@ class UnitSway:
     """Response of the free frame to the forces C^T e_k of each sway coordinate k.
 
     A unit case is a total force of 1 N along its axis, shared equally by the column tops of a
-    level in a plane frame, at one column top in a space frame. Attributes: CU (k, k) sway coordinates of each unit case; ends (k, e, 2, 6) internal
-    forces at the element ends; rows, keys as from `sway_coordinates`; moved (k, P, 3)
-    translations of every mesh point (the frame's nodes first).
+    level in a plane frame, at one column top in a space frame.
+
+    Attributes: CU (k, k) sway coordinates of each unit case; ends (k, e, 2, 6) internal forces
+    at the element ends; rows, keys as from `sway_coordinates`; moved (k, P, 3) translations of
+    every mesh point (the frame's nodes first).
     """
 
     CU: np.ndarray

@@ -1,8 +1,8 @@
 """Amplified sway effects and member bows through the whole checker, and their design settings.
 
 The demo's forces and displacements (tables per load case, the forces carrying the equivalent
-horizontal forces) are scaled so that one combination's alpha_cr falls into 3..10 (alpha_cr scales with 1/load): the
-amplified path of 5.2.2(5B), where 5.3.2(6) can ask for member bows.
+horizontal forces) are scaled so that one combination's alpha_cr falls into 3..10 (alpha_cr
+scales with 1/load): the amplified path of 5.2.2(5B), where 5.3.2(6) can ask for member bows.
 """
 
 from __future__ import annotations
