@@ -105,10 +105,14 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
 
     alpha = stability.critical_load_factors(frame, uls_results, members)
     paths = stability.analysis_path(alpha, uls_results.combinations)
+    amplified = paths.index[paths["path"] == "amplified"].astype(str).tolist()
+    sway = stability.sway_part(frame, members, uls_results, amplified) if amplified else None
+    paths = stability.amplified_part(
+        paths, sway, whole_if_unknown=settings.amplify_whole_when_sway_unknown)
     per_combination = alpha.rename(columns={"alpha_cr": "alpha_cr_eigen"}).drop(
         columns=[c for c in paths.columns if c in alpha.columns and c != "alpha_cr"]).join(
         paths, how="outer")
-    checked = stability.amplify_sway_effects(uls_results, paths)
+    checked = stability.amplify_sway_effects(uls_results, paths, sway)
     lengths = stability.buckling_lengths(frame, members, checked, paths,
                                          _length_overrides(overrides))
 
@@ -119,12 +123,43 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
     table = _explain_missing_lengths(table, lengths)
     table = _mark_unchecked_members(table, members, set(rows.member))
     if "path" in per_combination and len(table):
-        # the analysis path of 5.2.1/5.2.2 that each row's forces went through
+        # the analysis path of 5.2.1/5.2.2 that each row's forces went through, and on the
+        # amplified path which part of the forces was amplified
         position = list(table.columns).index("reason") + 1
-        table.insert(position, "analysis_path",
-                     table["combination"].map(per_combination["path"]).fillna("").to_numpy())
+        for offset, (name, column) in enumerate((("analysis_path", "path"),
+                                                 ("amplified_part", "amplified_part"))):
+            table.insert(position + offset, name,
+                         table["combination"].map(per_combination[column]).fillna("").to_numpy())
+        bows = stability.bow_imperfections_needed(frame, members, checked, alpha)
+        table = _mark_member_bows(table, bows, settings.bow_imperfections)
     return CheckOutcome(table=table, members=members, stability=per_combination,
                         lengths=lengths, settings=settings, combinations=combos)
+
+
+BOW_NOTES = {
+    "member checks": "bow needed by 5.3.2(6), covered by the 6.3 member checks (design setting "
+                     "bow_imperfections = member checks)",
+    "analysis": "bow needed by 5.3.2(6), included in the analysis as stated (design setting "
+                "bow_imperfections = analysis)",
+    "not covered": "bow needed by 5.3.2(6) and not in the analysis (design setting "
+                   "bow_imperfections = not covered)",
+}
+
+
+def _mark_member_bows(table: pd.DataFrame, bows: pd.DataFrame, covered_by: str) -> pd.DataFrame:
+    """Say on each row whether 5.3.2(6) wants the member's bow in the frame analysis, and what
+    covers it; where nothing does, the row is not evaluated."""
+    needed = bows.loc[bows["bow_needed"], ["member", "combination"]]
+    key = pd.MultiIndex.from_frame(table[["member", "combination"]].astype(str))
+    hit = key.isin(pd.MultiIndex.from_frame(needed.astype(str))) if len(needed) else \
+        np.zeros(len(table), dtype=bool)
+    position = list(table.columns).index("amplified_part") + 1
+    table.insert(position, "bow_imperfection", np.where(hit, BOW_NOTES[covered_by], ""))
+    if covered_by == "not covered" and hit.any():
+        table.loc[hit, "status"] = NOT_EVALUATED
+        table.loc[hit, "reason"] = ("5.3.2(6): the member's bow imperfection belongs in the frame "
+                                    "analysis and is not covered")
+    return table
 
 
 def iter_checks(rows: MemberRows, families: list[CheckFamily], *,

@@ -13,6 +13,7 @@ from .errors import InputError
 ANNEXES = ("A", "B", "both")
 LTB_METHODS = ("general", "rolled")
 K_ZY_ZERO = ("off", "I", "I and RHS")
+BOW_COVERS = ("member checks", "analysis", "not covered")
 
 
 @dataclass(frozen=True)
@@ -44,6 +45,15 @@ class DesignSettings:
             buckling checks, 5.5.2(10)) a class 4 station is checked as class 3 where its parts
             meet the class 3 limits with epsilon raised by sqrt(f_y / gamma_M0 / sigma_com,Ed);
             off by default (effective properties are used).
+        amplify_whole_when_sway_unknown: on the amplified path of 5.2.2(5B), where the sway part
+            of the forces cannot be separated (no column-top displacements), amplify shear forces
+            and moments as a whole (True) or report the combination not evaluated (False,
+            default: amplifying the whole moment is unsafe where sway and non-sway moments have
+            opposite signs).
+        bow_imperfections: where 5.3.2(6) asks for a member's bow in the frame analysis, what
+            covers it: 'member checks' (default: the 6.3 member checks with their buckling
+            lengths cover the bow), 'analysis' (the forces given already include the bows) or
+            'not covered' (such rows are reported not evaluated).
     """
 
     gamma_M0: float = 1.00
@@ -60,6 +70,8 @@ class DesignSettings:
     negligible_rules_in_interaction: bool = False
     k_zy_zero: str = "off"
     class_3_at_actual_stress: bool = False
+    amplify_whole_when_sway_unknown: bool = False
+    bow_imperfections: str = "member checks"
 
     def __post_init__(self) -> None:
         if self.annex not in ANNEXES:
@@ -76,6 +88,13 @@ class DesignSettings:
             if not isinstance(getattr(self, name), bool):
                 raise InputError(f"{name} must be true or false, got {getattr(self, name)!r}",
                                  field=f"design.{name}")
+        if self.bow_imperfections not in BOW_COVERS:
+            raise InputError(f"bow_imperfections must be one of {', '.join(BOW_COVERS)}, "
+                             f"got '{self.bow_imperfections}'", field="design.bow_imperfections")
+        if not isinstance(self.amplify_whole_when_sway_unknown, bool):
+            raise InputError("amplify_whole_when_sway_unknown must be true or false, got "
+                             f"{self.amplify_whole_when_sway_unknown!r}",
+                             field="design.amplify_whole_when_sway_unknown")
         for name in ("gamma_M0", "gamma_M1", "gamma_M2", "eta"):
             value = getattr(self, name)
             if not (0.5 <= value <= 2.0):

@@ -1,11 +1,12 @@
 """Frame stability: alpha_cr, the analysis path, sway amplification and frame imperfections.
 
 - `critical_load_factors`: alpha_cr per ULS combination by linear eigenvalue buckling of the whole
-  frame (`postproc.stability_eigen`), and by the storey method of 5.2.1(4)B where displacements
-  are given.
-- `analysis_path`: 5.2.1(3) and 5.2.2: first-order, amplified, second-order in forces, second-order
-  needed, unstable.
-- `amplify_sway_effects`: 5.2.2(5B).
+  frame (`postproc.stability_eigen`), and by the storey method of 5.2.1(4)B where its conditions
+  hold (`storey_alpha`).
+- `analysis_path`: 5.2.1(3) and 5.2.2: first-order, amplified, sway lengths, second-order in
+  forces, second-order needed, unstable.
+- `amplified_part`, `amplify_sway_effects`: 5.2.2(5B), the sway part (from
+  `postproc.stability_sway`) amplified.
 - `sway_imperfection`, `equivalent_horizontal_forces`, `bow_imperfections_needed`: 5.3.2.
 - `buckling_lengths` lives in `postproc.stability_lengths` and is re-exported here.
 """
@@ -23,6 +24,7 @@ from .members import Members, member_axes, moment_released
 from .results import Results
 from .stability_eigen import (E_STEEL, SUB_PER_MEMBER, Mesh, build_mesh, lowest_mode,
                               section_columns, translations)
+from .stability_sway import SwayPart, amplified_forces, sway_part  # noqa: F401
 from .stability_lengths import (buckling_lengths, effective_length_ratio,  # noqa: F401
                                 member_compression)
 
@@ -30,8 +32,10 @@ ALPHA_FIRST_ORDER = 10.0    # 5.2.1(3), eq. (5.1), elastic analysis
 ALPHA_AMPLIFY_MIN = 3.0     # 5.2.2(5B)
 LEVEL_TOL_M = 0.01          # column ends within 10 mm count as one level
 COLUMN_TILT_COS = np.cos(np.radians(10.0))
-PATHS = ("first-order", "amplified", "second-order in forces", "second-order needed", "unstable",
-         "not evaluated")
+PATHS = ("first-order", "amplified", "sway lengths", "second-order in forces",
+         "second-order needed", "unstable", "not evaluated")
+STOREY_RAFTER_N_CR_SHARE = 0.09   # 5.2.1(4)B note 2: lambda_bar >= 0.3 sqrt(A f_y / N_Ed)
+STOREY_ROOF_SLOPE = np.arctan(0.5)  # 5.2.1(4)B note 2: a shallow roof is not steeper than 1:2
 
 
 def _uls(results: Results) -> pd.DataFrame:
@@ -179,19 +183,57 @@ def critical_load_factors(frame: Frame, results: Results, members: Members) -> p
 
 def storey_alpha(frame: Frame, results: Results, members: Members, combos: list[str]
                  ) -> tuple[np.ndarray, np.ndarray]:
-    """5.2.1(4)B eq. (5.2) per combination: (alpha_cr_storey (C,), note (C,))."""
+    """EN 1993-1-1:2005, 5.2.1(4)B, eq. (5.2), alpha_cr = (H_Ed / V_Ed) (h / delta_H,Ed).
+
+    Per combination, the lowest value over the storeys and horizontal directions.
+    - Storeys: columns with the same bottom and top levels. H_Ed (signed) and V_Ed are summed
+      from the column forces at the bottom of the storey (at the base, the reactions); they
+      include the equivalent horizontal forces where the forces carry them.
+    - delta_H,Ed: the largest column drift of the storey under the horizontal loads alone,
+      first-order: each level takes the difference of the storey shears below and above it,
+      shared by its column tops, on the frame's elastic stiffness (`postproc.stability_sway`).
+      The displacements of the combination are not used: they hold the vertical loads' sway
+      too, and may be second-order.
+    - Not applicable (NaN with the reason): a space frame (the clause is for plane portals and
+      beam-and-column frames, whose levels move as one); and from 5.2.1(4)B note 2, a beam or
+      rafter steeper than 1:2, or one with significant compression, N_Ed >= 0.09 N_cr
+      (lambda_bar <= 0.3 sqrt(A f_y / N_Ed), N_cr of the member pinned at its ends over its
+      length, in the frame's plane).
+
+    Returns (alpha_cr_storey (C,), note (C,)).
+    """
+    from .stability_sway import LEVEL_TOL_M as TOP_TOL_M, unit_sway_cases
+
     n = len(combos)
     notes = np.full(n, "", dtype=object)
-    disp = results.displacements
+    alpha = np.full(n, np.nan)
     mm = members.members
     cols = mm[mm["kind"] == "column"]
-    if disp is None or len(disp) == 0 or len(cols) == 0:
-        notes[:] = "not used (no displacements)" if len(cols) else "not used (no columns)"
-        return np.full(n, np.nan), notes
+    if len(cols) == 0:
+        notes[:] = "not used (no columns)"
+        return alpha, notes
+    if frame.ndm == 3:
+        notes[:] = ("not applicable: 5.2.1(4)B is for plane frames (portals, beam-and-column "
+                    "frames); a space frame's floors need not move as one")
+        return alpha, notes
     up = frame.vertical_axis
     horiz = [0] if frame.ndm == 2 else [0, 1]
     xyz = frame.nodes[NODE_COLUMNS].astype(float)
     xyz.index = xyz.index.astype(str)
+    # 5.2.1(4)B note 2: shallow roofs, beams and rafters without significant compression
+    flat = mm[mm["kind"].isin(["beam", "rafter"])]
+    d = (xyz.loc[flat["end_node"].astype(str)].to_numpy()
+         - xyz.loc[flat["start_node"].astype(str)].to_numpy())
+    rise = np.degrees(np.arcsin(np.abs(d[:, up]) / np.linalg.norm(d, axis=1)))
+    steep = rise > np.degrees(STOREY_ROOF_SLOPE) + 1e-9
+    if steep.any():
+        k = int(np.argmax(rise))
+        notes[:] = (f"not applicable: {flat['kind'].iloc[k]} {flat.index[k]} slopes "
+                    f"{rise[k]:.1f} degrees, steeper than 1:2 (5.2.1(4)B note 2)")
+        return alpha, notes
+    N_cr = pd.Series(_pinned_N_cr(frame, members), index=mm.index)
+    N = member_compression(members, results, combos).loc[flat.index]      # (flat, C)
+    share = (-N).clip(lower=0.0).div(N_cr.loc[flat.index], axis=0)
     z0 = xyz.loc[cols["start_node"]].to_numpy()[:, up]
     z1 = xyz.loc[cols["end_node"]].to_numpy()[:, up]
     bottom = np.where(z0 <= z1, cols["start_node"], cols["end_node"])
@@ -200,7 +242,66 @@ def storey_alpha(frame: Frame, results: Results, members: Members, combos: list[
     level = np.round(np.minimum(z0, z1) / LEVEL_TOL_M).astype(int)
     level_top = np.round(np.maximum(z0, z1) / LEVEL_TOL_M).astype(int)
     storey = pd.Series(list(zip(level, level_top))).factorize()[0]
-    # force at the bottom station of each column, as the force from above on the part below
+    F = _column_bottom_forces(frame, results, members, cols, bottom, combos)   # (C, n_col, 3)
+    mesh = build_mesh(frame, sub_elements(frame, members))
+    unit = unit_sway_cases(frame, members, mesh)
+    row_of = {key: k for k, key in enumerate(unit.keys)}
+    where = {node: k for k, node in enumerate(mesh.node_ids)}
+    ib = np.array([where[str(b)] for b in bottom])
+    it = np.array([where[str(t)] for t in top])
+    top_level = np.round(np.maximum(z0, z1) / TOP_TOL_M).astype(int)
+    for c, comb in enumerate(combos):
+        if np.isnan(F[c]).any():
+            notes[c] = "not used (column forces missing)"
+            continue
+        heavy = share[comb] >= STOREY_RAFTER_N_CR_SHARE
+        if heavy.any():
+            m = share[comb].idxmax()
+            notes[c] = (f"not applicable: {mm.at[m, 'kind']} {m} has N_Ed = "
+                        f"{share[comb][m]:.2f} N_cr >= 0.09 N_cr, significant compression "
+                        "(5.2.1(4)B note 2)")
+            continue
+        # storey shears (signed) and vertical loads
+        S = np.unique(storey)
+        H = np.array([[F[c][storey == s, a].sum() for a in horiz] for s in S])    # (S, a)
+        V = np.array([-F[c][storey == s, up].sum() for s in S])
+        # level forces: storey shear below a level minus the storey shear above it
+        force = np.zeros(len(unit.keys))
+        for si, s in enumerate(S):
+            k = storey == s
+            for ai, a in enumerate(horiz):
+                top_row = row_of.get((int(top_level[k][0]), a))
+                if top_row is not None:
+                    force[top_row] += H[si, ai]
+                low = np.round(np.minimum(z0, z1)[k][0] / TOP_TOL_M).astype(int)
+                low_row = row_of.get((int(low), a))
+                if low_row is not None:
+                    force[low_row] -= H[si, ai]
+        moved = np.einsum("k,kpa->pa", force, unit.moved) if len(force) else \
+            np.zeros((len(mesh.xyz), 3))
+        drift = moved[it] - moved[ib]
+        best = np.inf
+        for si, s in enumerate(S):
+            k = storey == s
+            for ai, a in enumerate(horiz):
+                delta = np.abs(drift[k, a]).max()
+                if V[si] > 0 and abs(H[si, ai]) > 1e-6 * V[si] and delta > 0:
+                    best = min(best, abs(H[si, ai]) / V[si] * h[k][0] / delta)
+        if np.isfinite(best):
+            alpha[c] = best
+            notes[c] = (f"lowest of {len(S)} storey(s); drift under the horizontal loads alone, "
+                        "first-order, on the frame's stiffness")
+        else:
+            notes[c] = "not used (no horizontal load or no storey drift)"
+    return alpha, notes
+
+
+def _column_bottom_forces(frame: Frame, results: Results, members: Members, cols: pd.DataFrame,
+                          bottom: np.ndarray, combos: list[str]) -> np.ndarray:
+    """(C, n_col, 3) global force from the part above on the part below, at each column's
+    lower end (the first or last station of its lowest element); NaN where missing."""
+    mm = members.members
+    up = frame.vertical_axis
     me = members.member_elements.set_index("member")
     axes = local_axes(frame)
     epos = {e: k for k, e in enumerate(frame.elements.index.astype(str))}
@@ -211,66 +312,59 @@ def storey_alpha(frame: Frame, results: Results, members: Members, combos: list[
         r = rows.iloc[0] if first else rows.iloc[-1]
         e = r["element"]
         at_i = (not r["flipped"]) if first else bool(r["flipped"])
-        ex_up = axes[epos[e], 0, up] > 0
         low_elem.append(e)
         low_x.append(0.0 if at_i else np.inf)
-        sign.append(1.0 if ex_up else -1.0)
+        sign.append(1.0 if axes[epos[e], 0, up] > 0 else -1.0)
     f = results.forces.copy()
     f["element"] = f["element"].astype(str)
     f["combination"] = f["combination"].astype(str)
     f = f[f["element"].isin(low_elem) & f["combination"].isin(combos)].sort_values("x_m")
-    # the station at the column's lower end: first or last station of that element
     ends = {0.0: f.groupby(["combination", "element"]).head(1),
             np.inf: f.groupby(["combination", "element"]).tail(1)}
     ends = {key: t.set_index(["combination", "element"]) for key, t in ends.items()}
-    u = disp.copy()
-    u["combination"], u["node"] = u["combination"].astype(str), u["node"].astype(str)
-    u = u.set_index(["combination", "node"])
-    ucols = ["ux_m", "uy_m", "uz_m"]
-    alpha = np.full(n, np.nan)
     ax = axes[[epos[e] for e in low_elem]]                     # (n_col, 3, 3)
     sgn = np.array(sign)[:, None]
+    out = np.full((len(combos), len(low_elem), 3), np.nan)
     for c, comb in enumerate(combos):
-        keys = list(zip([comb] * len(low_elem), low_elem))
         local = np.full((len(low_elem), 3), np.nan)
         for at in (0.0, np.inf):
             pick = [k for k, x in enumerate(low_x) if x == at]
-            rows = ends[at].reindex([keys[k] for k in pick])[["N_N", "Vy_N", "Vz_N"]]
+            rows = ends[at].reindex([(comb, low_elem[k]) for k in pick])[["N_N", "Vy_N", "Vz_N"]]
             local[pick] = rows.to_numpy(float)
-        F = sgn * np.einsum("ka,kab->kb", local, ax)          # global force from above
-        try:
-            dt = u.loc[[(comb, t) for t in top], ucols].to_numpy(float)
-            db = u.loc[[(comb, b) for b in bottom], ucols].to_numpy(float)
-        except KeyError:
-            notes[c] = "not used (displacements missing for a column end)"
-            continue
-        if np.isnan(F).any():
-            notes[c] = "not used (column forces missing)"
-            continue
-        drift = dt - db
-        best = np.inf
-        for s in np.unique(storey):
-            k = storey == s
-            V = -F[k, up].sum()
-            for a in horiz:
-                H = abs(F[k, a].sum())
-                delta = np.abs(drift[k, a]).max()
-                if V > 0 and H > 1e-6 * V and delta > 0:
-                    best = min(best, H / V * h[k][0] / delta)
-        if np.isfinite(best):
-            alpha[c] = best
-            notes[c] = f"lowest of {len(np.unique(storey))} storey(s); confirm 5.2.1(4)B applies"
-        else:
-            notes[c] = "not used (no horizontal load or no storey drift)"
-    return alpha, notes
+        out[c] = sgn * np.einsum("ka,kab->kb", local, ax)
+    return out
+
+
+def _pinned_N_cr(frame: Frame, members: Members) -> np.ndarray:
+    """(M,) Euler force of each member pinned at its ends over its length, about the in-plane
+    axis of a plane frame and the weaker axis of a space frame."""
+    mm = members.members
+    needed = None
+    if frame.ndm == 2:  # a plane model needs only the in-plane inertia
+        about_y_e = np.abs(local_axes(frame)[:, 1, 2]) >= 0.5
+        needed = {"I_y": about_y_e, "I_z": ~about_y_e}
+    props = section_columns(frame, ("I_y", "I_z"), needed=needed)
+    eid = frame.elements.index.astype(str)
+    first = members.member_elements[members.member_elements["position"] == 0]
+    first = first.set_index("member").loc[mm.index, "element"]
+    k = pd.Series(np.arange(len(eid)), index=eid).loc[first].to_numpy()
+    if frame.ndm == 2:
+        maxes = member_axes(frame, mm, members.member_elements)
+        about_y = np.abs(maxes[:, 1, 2]) >= 0.5
+        I = np.where(about_y, props["I_y"][k], props["I_z"][k])
+    else:
+        I = np.minimum(props["I_y"][k], props["I_z"][k])
+    return np.pi ** 2 * E_STEEL * I / mm["length_m"].to_numpy(float) ** 2
 
 
 def analysis_path(alpha: pd.DataFrame, combinations: pd.DataFrame) -> pd.DataFrame:
     """EN 1993-1-1:2005, 5.2.1(3) and 5.2.2(5B), analysis path per combination.
 
     alpha_cr (from the eigen analysis; the storey value where that is missing) decides:
-    >= 10 'first-order'; 3..10 'amplified' with 1 / (1 - 1/alpha_cr), or 'second-order in
-    forces' where combinations.analysis is 'second-order'; < 3 with first-order forces
+    >= 10 'first-order'; 3..10 'amplified' with 1 / (1 - 1/alpha_cr) where the forces carry the
+    frame imperfection or the mode is not a sway mode, else 'sway lengths' (first-order forces
+    as they are, sway buckling lengths: 5.2.2(3)c and (8)); 'second-order in forces' where
+    combinations.analysis is 'second-order'; < 3 with first-order forces
     'second-order needed' (not to be checked); < 1 'unstable' (never checked as fine); no alpha_cr
     at all 'not evaluated'.
 
@@ -295,6 +389,10 @@ def analysis_path(alpha: pd.DataFrame, combinations: pd.DataFrame) -> pd.DataFra
             a, source = r.get("alpha_cr_storey", np.nan), "alpha_cr (storey method)"
         sway = bool(r.get("sway_mode", False))
         second = analysis == "second-order"
+        # 5.2.2(3), (7), (8): non-sway member lengths hold only where the forces carry the frame's
+        # sway imperfection (5.3.2); without it a sway-mode member keeps its sway length
+        imperfect = bool(combinations.at[comb, "imperfections"]) if (
+            "imperfections" in combinations.columns) else False
         if np.isnan(a):
             path, amp = "not evaluated", np.nan
             reason = f"alpha_cr unknown ({r.get('mode_note', '')}): analysis path not decided"
@@ -308,20 +406,23 @@ def analysis_path(alpha: pd.DataFrame, combinations: pd.DataFrame) -> pd.DataFra
         elif a >= ALPHA_FIRST_ORDER:
             path, amp = "first-order", 1.0
             reason = f"{source} = {a:.2f} >= 10: first-order analysis is enough (5.2.1(3))"
+        elif a >= ALPHA_AMPLIFY_MIN and sway and not imperfect:
+            # 5.2.2(5B) amplifies sway effects that include the sway imperfection; without it
+            # the sway lengths of 5.2.2(8) carry both, and the forces are used as they are
+            path, amp = "sway lengths", 1.0
+            reason = (f"{source} = {a:.2f} in 3..10 and the forces do not carry the frame "
+                      "imperfection (5.3.2): first-order forces as they are, members in the sway "
+                      "mode checked with sway buckling lengths (5.2.2(3)c, 5.2.2(8))")
         elif a >= ALPHA_AMPLIFY_MIN:
             path, amp = "amplified", 1.0 / (1.0 - 1.0 / a)
             reason = (f"{source} = {a:.2f} in 3..10: sway effects amplified by "
-                      f"1/(1 - 1/alpha_cr) = {amp:.3f} (5.2.2(5B))")
+                      f"1/(1 - 1/alpha_cr) = {amp:.3f} (5.2.2(5B)), members checked with "
+                      "non-sway buckling lengths (5.2.2(8))")
         else:
             path, amp = "second-order needed", np.nan
             reason = (f"{source} = {a:.2f} < 3 with first-order forces: a second-order "
                       "analysis is needed (5.2.2(5B))")
-        # 5.2.2(3), (7), (8): non-sway member lengths hold only where the forces carry the frame's
-        # sway imperfection (5.3.2); without it a sway-mode member keeps its sway length
-        imperfect = bool(combinations.at[comb, "imperfections"]) if (
-            "imperfections" in combinations.columns) else False
-        if sway and not imperfect and path in ("first-order", "amplified",
-                                               "second-order in forces"):
+        if sway and not imperfect and path in ("first-order", "second-order in forces"):
             reason += ("; the forces do not carry the frame imperfection (5.3.2), so members "
                        "in the sway mode keep their sway buckling length (5.2.2(8))")
         rows.append((comb, path, amp, a, sway, imperfect, reason))
@@ -330,18 +431,73 @@ def analysis_path(alpha: pd.DataFrame, combinations: pd.DataFrame) -> pd.DataFra
     return out.set_index("combination")
 
 
-def amplify_sway_effects(results: Results, paths: pd.DataFrame) -> Results:
+def amplified_part(paths: pd.DataFrame, sway: SwayPart | None, *,
+                   whole_if_unknown: bool = False) -> pd.DataFrame:
+    """EN 1993-1-1:2005, 5.2.2(5B), which part of the forces is amplified, per combination.
+
+    Adds the column `amplified_part` to `paths`: for the 'amplified' path 'sway part' where
+    `sway` knows it (the method is named in the reason), else 'whole forces' when
+    `whole_if_unknown` (shear forces and moments amplified as a whole: not always on the safe
+    side, where sway and non-sway moments have opposite signs), else the path becomes
+    'not evaluated' with the reason. Other paths get ''.
+    """
+    out = paths.copy()
+    out["amplified_part"] = ""
+    known = sway.known() if sway is not None else pd.Series(dtype=bool)
+    notes = (pd.Series(sway.note, index=sway.combinations) if sway is not None
+             else pd.Series(dtype=object))
+    for comb in out.index[out["path"] == "amplified"]:
+        if bool(known.get(str(comb), False)):
+            out.at[comb, "amplified_part"] = "sway part"
+            out.at[comb, "reason"] += (f"; sway part amplified, axial forces included "
+                                       f"({sway.method})")
+            continue
+        why = notes.get(str(comb), "") or "no sway part given"
+        if whole_if_unknown:
+            out.at[comb, "amplified_part"] = "whole forces"
+            out.at[comb, "reason"] += (f"; sway part unknown ({why}): shear forces and moments "
+                                       "amplified as a whole (design setting "
+                                       "amplify_whole_when_sway_unknown), axial forces as given; "
+                                       "not on the safe side where sway and non-sway moments "
+                                       "have opposite signs")
+        else:
+            out.at[comb, "path"] = "not evaluated"
+            out.at[comb, "amplification"] = np.nan
+            out.at[comb, "reason"] += (f"; but the sway part cannot be separated ({why}), and "
+                                       "amplifying the whole moment can be unsafe: give the "
+                                       "column-top displacements, a second-order analysis, or "
+                                       "set amplify_whole_when_sway_unknown")
+    return out
+
+
+def amplify_sway_effects(results: Results, paths: pd.DataFrame, sway: SwayPart | None = None
+                         ) -> Results:
     """EN 1993-1-1:2005, 5.2.2(5B), amplification 1 / (1 - 1/alpha_cr) of sway effects.
 
-    Applied to the combinations whose path is 'amplified'. Forces from a CSV or a plain
-    first-order analysis do not separate sway from non-sway effects, so the bending moments and
-    shear forces of those combinations are amplified as a whole: conservative, because the
-    non-sway part is amplified too. Axial forces and torsion are left as they are. Other
-    combinations are returned unchanged.
+    Applied to the combinations whose path is 'amplified', as `paths['amplified_part']` says
+    (see `amplified_part`; where the column is absent, 'sway part' if `sway` is given, else
+    'whole forces'):
+    - 'sway part': F + (amplification - 1) F_sway for every force component, F_sway from
+      `postproc.stability_sway` (the frame held against sway, holding forces reversed);
+    - 'whole forces': shear forces and bending moments times the amplification; axial forces and
+      torsion as they are.
+    Other combinations are returned unchanged.
     """
-    amp = paths.loc[paths["path"] == "amplified", "amplification"]
-    f = results.forces.copy()
-    factor = f["combination"].astype(str).map(amp.rename(index=str)).fillna(1.0).to_numpy(float)
+    amplified = paths[paths["path"] == "amplified"]
+    if "amplified_part" in amplified:
+        part = amplified["amplified_part"]
+    else:
+        part = pd.Series("sway part" if sway is not None else "whole forces",
+                         index=amplified.index)
+    amp = amplified["amplification"].rename(index=str)
+    f = results.forces
+    on_sway = amp[(part == "sway part").to_numpy()]
+    if len(on_sway):
+        f = amplified_forces(f, on_sway, sway)
+    else:
+        f = f.copy()
+    on_whole = amp[(part == "whole forces").to_numpy()]
+    factor = f["combination"].astype(str).map(on_whole).fillna(1.0).to_numpy(float)
     for col in ("Vy_N", "Vz_N", "My_Nm", "Mz_Nm"):
         f[col] = f[col].to_numpy(float) * factor
     return dataclasses.replace(results, forces=f)
@@ -446,28 +602,18 @@ def bow_imperfections_needed(frame: Frame, members: Members, results: Results,
                              alpha: pd.DataFrame) -> pd.DataFrame:
     """EN 1993-1-1:2005, 5.3.2(6), where member bow imperfections belong in a sway analysis.
 
-    Needed where the frame's mode is a sway mode, the member has at least one moment-resisting
-    end, and lambda_bar > 0.5 sqrt(A f_y / N_Ed), which is N_Ed > 0.25 N_cr with N_cr of the member
-    pinned at its ends over its length (the in-plane axis of a plane frame, the weaker of both
-    axes of a space frame).
+    Needed where the frame is sensitive to second-order effects (alpha_cr < 10) in a sway mode,
+    the member has at least one moment-resisting end, and lambda_bar > 0.5 sqrt(A f_y / N_Ed),
+    which is N_Ed > 0.25 N_cr with N_cr of the member pinned at its ends over its length (the
+    in-plane axis of a plane frame, the weaker of both axes of a space frame).
 
     Returns:
         columns member, combination, N_Ed_N (compression as a positive number), N_cr_N,
         moment_end, sway_mode, bow_needed.
     """
     mm = members.members
-    props = section_columns(frame, ("I_y", "I_z"))
     eid = frame.elements.index.astype(str)
-    first = members.member_elements[members.member_elements["position"] == 0]
-    first = first.set_index("member").loc[mm.index, "element"]
-    k = pd.Series(np.arange(len(eid)), index=eid).loc[first].to_numpy()
-    if frame.ndm == 2:
-        maxes = member_axes(frame, mm, members.member_elements)
-        about_y = np.abs(maxes[:, 1, 2]) >= 0.5
-        I = np.where(about_y, props["I_y"][k], props["I_z"][k])
-    else:
-        I = np.minimum(props["I_y"][k], props["I_z"][k])
-    N_cr = np.pi ** 2 * E_STEEL * I / mm["length_m"].to_numpy(float) ** 2
+    N_cr = _pinned_N_cr(frame, members)
     pin = {"i": dict(zip(eid, moment_released(frame, "i"))),
            "j": dict(zip(eid, moment_released(frame, "j")))}
     me = members.member_elements.sort_values(["member", "position"])
@@ -480,6 +626,8 @@ def bow_imperfections_needed(frame: Frame, members: Members, results: Results,
     N = member_compression(members, results, combos).to_numpy(float)          # (M, C)
     M, C = N.shape
     sway = alpha["sway_mode"].fillna(False).to_numpy(bool)
+    # "frames sensitive to second order effects": alpha_cr < 10 (5.2.1(3))
+    sway = sway & (alpha["alpha_cr"].to_numpy(float) < ALPHA_FIRST_ORDER)
     out = pd.DataFrame({"member": np.repeat(mm.index.to_numpy(), C),
                         "combination": np.tile(combos, M),
                         "N_Ed_N": np.maximum(-N, 0.0).ravel(),   # NaN (no forces) stays NaN

@@ -59,6 +59,7 @@ class Mesh:
     lu: object | None          # sparse LU factors of the scaled K (larger models)
     g_index: np.ndarray        # (s, 24) global freedom of each column of the element matrices
     g_unit: np.ndarray         # (s, 24, 24) geometric stiffness per unit tension, global axes
+    k_force: np.ndarray | None = None  # (s, 12, 24) local end actions per unit element freedom
 
 
 def _local_stiffness(E: float, G: float, A: np.ndarray, I_y: np.ndarray, I_z: np.ndarray,
@@ -246,7 +247,8 @@ def build_mesh(frame: Frame, elements_per_member: np.ndarray) -> Mesh:
     else:
         chol, lu = None, _factorise_sparse(Ks, *where_dof)
     return Mesh(xyz, node_ids, parent, n_sub, end_i, end_j, (local + 0.5) / n_sub[parent],
-                free, n_dof, Ks, scale, chol, lu, g_index, g_unit)
+                free, n_dof, Ks, scale, chol, lu, g_index, g_unit,
+                np.einsum("sab,sbj->saj", k_loc, T))
 
 
 def _assemble(mats: np.ndarray, index: np.ndarray, n: int) -> sp.csr_matrix:

@@ -4,7 +4,9 @@ The demo is an invented two-storey, two-bay steel frame: the workshop wing of a 
 hillside, with a plant floor at level 1 and a light roof at level 2. Forces are written per load case
 at 7 stations per element (from equilibrium with the element's uniform load), so the tool builds the
 EN 1990 combinations itself. Each gravity case carries its equivalent horizontal forces for the
-frame imperfection (5.3.2), so the forces hold the sway imperfection as the standard asks. Run: python examples/hillside_depot/make_tables.py
+frame imperfection (5.3.2), so the forces hold the sway imperfection as the standard asks. Node
+displacements are written per load case too (they let the tool separate the sway part of the
+forces, 5.2.2(5B)). Run: python examples/hillside_depot/make_tables.py
 """
 
 from __future__ import annotations
@@ -52,7 +54,8 @@ STATIONS = 7
 PHI = (1 / 200) * max(min(2 / np.sqrt(2 * STOREY), 1.0), 2 / 3) * np.sqrt(0.5 * (1 + 1 / 3))
 
 
-def analyse(case: str) -> list[dict]:
+def analyse(case: str) -> tuple[list[dict], list[dict]]:
+    """Forces at the stations of every element and displacements of every node."""
     ops.wipe()
     ops.model("basic", "-ndm", 2, "-ndf", 3)
     tags = {name: k + 1 for k, name in enumerate(NODES)}
@@ -96,7 +99,10 @@ def analyse(case: str) -> list[dict]:
             rows.append({"load_case": case, "element": name, "x [m]": round(x, 4),
                          "N [kN]": -n_i / 1e3, "Vz [kN]": -(v_i + q * x) / 1e3,
                          "My [kNm]": (m_i - x * v_i - q * x * x / 2) / 1e3})
-    return rows
+    moved = [{"load_case": case, "node": name, "ux [mm]": ops.nodeDisp(tags[name], 1) * 1e3,
+              "uy [mm]": ops.nodeDisp(tags[name], 2) * 1e3, "rz": ops.nodeDisp(tags[name], 3)}
+             for name in NODES]
+    return rows, moved
 
 
 def main() -> None:
@@ -121,12 +127,19 @@ def main() -> None:
         w = csv.writer(f)
         w.writerow(["load_case", "category"])
         w.writerows([case, cat] for case, (cat, _, _) in CASES.items())
-    rows = [row for case in CASES for row in analyse(case)]
+    results = [analyse(case) for case in CASES]
+    rows = [row for forces, _ in results for row in forces]
     with open(HERE / "forces.csv", "w", newline="") as f:
         w = csv.DictWriter(f, fieldnames=list(rows[0]))
         w.writeheader()
         for row in rows:
             w.writerow({k: (f"{v:.4f}" if isinstance(v, float) else v) for k, v in row.items()})
+    moved = [row for _, nodes in results for row in nodes]
+    with open(HERE / "displacements.csv", "w", newline="") as f:
+        w = csv.DictWriter(f, fieldnames=list(moved[0]))
+        w.writeheader()
+        for row in moved:
+            w.writerow({k: (f"{v:.6g}" if isinstance(v, float) else v) for k, v in row.items()})
 
 
 if __name__ == "__main__":

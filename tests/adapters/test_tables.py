@@ -39,6 +39,7 @@ def _per_combination(demo: Path, names: str = "G") -> None:
     raw[raw["load_case"] == "G"].rename(columns={"load_case": "combination"}).to_csv(
         folder / "forces.csv", index=False)
     (folder / "load_cases.csv").unlink()
+    (folder / "displacements.csv").unlink(missing_ok=True)  # given per load case in the demo
     _drop_table(demo / "project.toml", "combinations")
     (folder / "combinations.csv").write_text(f"combination,kind\n{names}\n")
 
