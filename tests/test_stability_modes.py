@@ -1,0 +1,159 @@
+"""The frame's sway mode against member modes: alpha_cr, the member mode beside it, the lengths.
+
+Sources of the expected values:
+- Member modes: Euler load of a member pinned at both ends whose ends do not move,
+  N_cr = pi^2 E I / L^2 (textbook elastic stability, common knowledge of the trade).
+- The sway mode of a fixed-base portal propping a leaning column: storey balance with the exact
+  lateral stiffness of a column fixed at its foot and held against rotation at its top under a
+  compression Q (two cantilevers of L/2 back to back; tip deflection of a cantilever under an end
+  load H and a compression Q, H (tan kl - kl) / (Q k), k = sqrt(Q / EI): textbook elastic
+  stability), k_c(Q) = Q k / (2 (tan(kL/2) - kL/2)); the leaning column adds -Q_p / L. Hand
+  calculation written out in the test, solved with scipy's brentq.
+- The sway mode of a braced bay of pinned columns: a two-freedom model (top drift, vertical
+  displacement of the loaded column head) with the members as straight bars, written out in the
+  test. It is exact for the eigenproblem here: a straight-line (chord) displacement and a bow
+  that vanishes at both ends are orthogonal in both the bending and the geometric stiffness
+  (integral of w' over the member is zero), so the bows of the members do not enter the sway mode.
+- Sections: handbook values, REFERENCES.md (from memory); E = 210 GPa, EN 1993-1-1 3.2.6.
+"""
+
+from __future__ import annotations
+
+import numpy as np
+import pytest
+import scipy.linalg as sla
+from scipy.optimize import brentq
+
+from postproc.frame import Frame
+from postproc.members import design_members
+from postproc.results import Results
+from postproc.stability import analysis_path, buckling_lengths, critical_load_factors
+from tests.test_stability import (FIXED, I_HEB200_Y, PINNED, combos, constant_forces, make_frame,
+                                  portal)
+
+E = 210e9                   # Pa, EN 1993-1-1 3.2.6(1)
+A_IPE300, I_IPE300_Z = 53.8e-4, 604e-8      # m2, m4, handbook (REFERENCES.md, from memory)
+A_STIFF = 1.0               # the modelling device of tests/test_stability.sections()
+CLOSED_FORM_REL = 0.01      # four cubic elements per member err by ~0.1 %
+
+
+def run(frame: Frame, axial: dict):
+    res = Results(constant_forces(axial, frame), combos(axial))
+    members = design_members(frame)
+    alpha = critical_load_factors(frame, res, members)
+    paths = analysis_path(alpha, res.combinations)
+    return res, members, alpha, paths
+
+
+def guided_column_stiffness(Q: float, EI: float, L: float) -> float:
+    """Lateral stiffness of a column fixed at its foot, held against rotation at its top, under
+    compression Q (module docstring)."""
+    k = np.sqrt(Q / EI)
+    x = k * L / 2.0
+    return Q * k / (2.0 * (np.tan(x) - x))
+
+
+def test_portal_with_a_leaning_column_buckling_first_on_its_own():
+    """The leaning column bows between its pinned ends at alpha = 2 (Euler) before the frame
+    sways (alpha about 3.9): alpha_cr is the sway mode's, the leaning column's mode is reported
+    as a member mode, and it keeps its own length. Taking the lowest mode as the frame's gave
+    alpha_cr = 2, 'second-order needed', and every member not evaluated."""
+    L = 5.0
+    EI = E * I_HEB200_Y
+    euler = np.pi ** 2 * EI / L ** 2
+    P_c, P_p = 0.05 * euler, 0.5 * euler            # portal columns, leaning column
+    nodes = [("1", 0, 0, 0), ("2", 0, L, 0), ("3", 6, L, 0), ("4", 6, 0, 0), ("5", 12, 0, 0),
+             ("6", 12, L, 0)]
+    els = [("C1", "1", "2", "HEB 200", "", ""), ("R1", "2", "3", "STIFF", "", ""),
+           ("C2", "4", "3", "HEB 200", "", ""), ("K1", "3", "6", "STIFF", "My", "My"),
+           ("P1", "5", "6", "HEB 200", "My", "My")]
+    f = make_frame(nodes, els, [("1", *FIXED), ("4", *FIXED), ("5", *PINNED)])
+    res, members, alpha, paths = run(f, {"U1": {"C1": -P_c, "C2": -P_c, "P1": -P_p}})
+    # storey balance: 2 k_c(a P_c) = a P_p / L, below the guided column's Euler load
+    a_sway = brentq(lambda a: 2 * guided_column_stiffness(a * P_c, EI, L) - a * P_p / L,
+                    0.1, 0.999 * euler / P_c)
+    assert 3.0 < a_sway < 10.0
+    assert alpha.at["U1", "alpha_cr"] == pytest.approx(a_sway, rel=CLOSED_FORM_REL)
+    assert bool(alpha.at["U1", "sway_mode"])
+    assert alpha.at["U1", "alpha_cr_local"] == pytest.approx(euler / P_p, rel=CLOSED_FORM_REL)
+    assert alpha.at["U1", "local_member"] == "P1"
+    assert "lowest member mode" in alpha.at["U1", "mode_note"]
+    assert paths.at["U1", "path"] == "amplified"
+    out = buckling_lengths(f, members, res, paths).set_index("member")
+    # portal columns: their length in the sway mode, N_cr = alpha_cr |N_Ed| (5.2.2(8))
+    frame_len = np.pi * np.sqrt(EI / (alpha.at["U1", "alpha_cr"] * P_c))
+    assert out.at["C1", "L_cr_y_m"] == pytest.approx(frame_len, rel=1e-9)
+    assert bool(out.at["C1", "sway_y"])
+    # the leaning column buckles first over its own length L (pinned both ends, k = 1)
+    assert out.at["P1", "L_cr_y_m"] == pytest.approx(L, rel=1e-6)
+    assert "buckles first over its own length" in out.at["P1", "origin_y"]
+
+
+def braced_bay(B: float = 6.0, L: float = 5.0) -> Frame:
+    """Pinned columns (a stiff modelling section, so that they do not buckle themselves) under
+    a pinned stiff beam, held by one diagonal of IPE 300 bent about its minor axis in the plane
+    (vz = global Z)."""
+    nodes = [("1", 0, 0, 0), ("2", 0, L, 0), ("3", B, L, 0), ("4", B, 0, 0)]
+    els = [("C1", "1", "2", "STIFF", "", "My"), ("R1", "2", "3", "STIFF", "My", "My"),
+           ("C2", "4", "3", "STIFF", "", "My"), ("D1", "1", "3", "IPE 300", "My Mz", "My Mz")]
+    f = make_frame(nodes, els, [("1", *PINNED), ("4", *PINNED)])
+    f.elements.loc["D1", ["vz_x", "vz_y", "vz_z"]] = (0.0, 0.0, 1.0)
+    return f
+
+
+def test_braced_bay_with_a_slender_diagonal():
+    """The compression diagonal buckles on its own at alpha = 1.2 (Euler, minor axis); the bay
+    sways at alpha = 5 (the two-freedom model of the module docstring). Taking the lowest mode as
+    the frame's gave alpha_cr = 1.2: 'second-order needed', nothing evaluated."""
+    B, L = 6.0, 5.0
+    f = braced_bay(B, L)
+    L_d = np.hypot(B, L)
+    c, s = B / L_d, L / L_d
+    C = np.pi ** 2 * E * I_IPE300_Z / L_d ** 2 / 1.2               # diagonal: Euler at 1.2
+    # two-freedom model, u = (top drift, vertical displacement of the head of C2):
+    # elastic: diagonal E A_d / L_d (u1 c + u2 s)^2, column C2 E A_c / L u2^2;
+    # geometric (per unit load factor): columns P / L u1^2 each, diagonal C / L_d (-u1 s + u2 c)^2
+    k_d, k_c = E * A_IPE300 / L_d, E * A_STIFF / L
+    K = k_d * np.array([[c * c, c * s], [c * s, s * s]]) + np.diag([0.0, k_c])
+    G_diag = C / L_d * np.array([[s * s, -s * c], [-s * c, c * c]])
+    # gravity P on each column for a sway factor of 5 (solved from the 1x1 part, then checked)
+    P = (k_d * c * c / 5.0 - C * s * s / L_d) * L / 2.0
+    G = G_diag + np.diag([2.0 * P / L, 0.0])
+    a_sway = float(np.min(sla.eigvalsh(K, G)[sla.eigvalsh(K, G) > 0]))
+    assert a_sway == pytest.approx(5.0, rel=0.01)
+    res, members, alpha, paths = run(f, {"U1": {"C1": -P, "C2": -P, "D1": -C}})
+    assert members.members.at["D1", "kind"] == "brace"
+    assert alpha.at["U1", "alpha_cr"] == pytest.approx(a_sway, rel=CLOSED_FORM_REL)
+    assert bool(alpha.at["U1", "sway_mode"])
+    assert alpha.at["U1", "alpha_cr_local"] == pytest.approx(1.2, rel=CLOSED_FORM_REL)
+    assert alpha.at["U1", "local_member"] == "D1"
+    assert paths.at["U1", "path"] == "amplified"
+    out = buckling_lengths(f, members, res, paths).set_index("member")
+    # the diagonal keeps its own length, about its in-plane axis (z-z here)
+    assert out.at["D1", "L_cr_z_m"] == pytest.approx(L_d, rel=1e-6)
+    assert "buckles first over its own length" in out.at["D1", "origin_z"]
+
+
+def test_no_sway_mode_below_10_is_said_and_not_passed(monkeypatch):
+    """With the search cut short before the sway mode (a single mode searched), alpha_cr is not
+    found: NaN, path 'not evaluated', and the note says why."""
+    import postproc.stability as st
+    monkeypatch.setattr(st, "MODES_FIRST", 1)
+    monkeypatch.setattr(st, "MODES_MAX", 1)
+    f = braced_bay()
+    L_d = np.hypot(6.0, 5.0)
+    C = np.pi ** 2 * E * I_IPE300_Z / L_d ** 2 / 1.2
+    _, _, alpha, paths = run(f, {"U1": {"C1": -1e6, "C2": -1e6, "D1": -C}})
+    assert np.isnan(alpha.at["U1", "alpha_cr"])
+    assert "no sway mode found" in alpha.at["U1", "mode_note"]
+    assert paths.at["U1", "path"] == "not evaluated"
+
+
+def test_no_member_mode_below_the_sway_mode():
+    """A portal whose lowest mode is its sway mode (Euler, L_cr = L with fixed bases and a rigid
+    beam): no member mode is reported (NaN, empty)."""
+    f = portal(FIXED)
+    P = np.pi ** 2 * E * I_HEB200_Y / 25.0 / 4.0
+    _, _, alpha, _ = run(f, {"U1": {"C1": -P, "C2": -P}})
+    assert alpha.at["U1", "alpha_cr"] == pytest.approx(4.0, rel=CLOSED_FORM_REL)
+    assert np.isnan(alpha.at["U1", "alpha_cr_local"]) and alpha.at["U1", "local_member"] == ""
