@@ -303,9 +303,11 @@ def buckling_lengths(frame: Frame, members: Members, results: Results, paths: pd
         # sways as a link with the frame: its own length is the non-sway one
         use_sway = modelled[:, None] & sway_needed[None, :] & ~use_frame & np.isfinite(sw)[:, None]
         # alpha_cr is the frame's sway mode; a member whose own mode comes first (a member mode
-        # below the sway mode) buckles over its own, longer length: 6.3.1 with that length
+        # below the sway mode) buckles over its own, longer length: 6.3.1 with that length. It
+        # still takes part in the sway mode, so it stays marked as buckling in a sway mode
         own_first = (use_frame & (np.isfinite(base) & ~base_s)[:, None]
                      & (base[:, None] > frame_len))
+        in_sway_mode = use_frame.copy()
         use_frame &= ~own_first
         L = np.where(use_frame, frame_len, np.where(use_sway, sw[:, None], base[:, None]))
         origin = np.where(use_sway, sw_o[:, None], base_o[:, None]).astype(object)
@@ -318,7 +320,7 @@ def buckling_lengths(frame: Frame, members: Members, results: Results, paths: pd
         L = np.where(own_first, base[:, None], L)
         use_sway &= ~own_first
         cols[f"L_cr_{axis}_m"] = L
-        cols[f"sway_{axis}"] = use_frame | np.where(use_sway, sw_s[:, None], base_s[:, None])
+        cols[f"sway_{axis}"] = in_sway_mode | np.where(use_sway, sw_s[:, None], base_s[:, None])
         cols[f"origin_{axis}"] = origin
     for key, name in (("LT", "L_LT_m"), ("T", "L_cr_T_m")):
         cols[name] = np.repeat(np.array([c[key][0] for c in cand])[:, None], C, axis=1)
