@@ -1,5 +1,6 @@
 """CSV tables adapter: nodes, elements, sections, supports, forces, and optional ties,
-displacements, load cases and combinations, read into a Frame and Results. The schema is in docs/tables.md.
+displacements, load cases and combinations, read into a Frame and Results. The schema is in
+docs/tables.md.
 
 Units: a column may carry its unit in brackets (`x [mm]`, `N [kN]`, `My [kNm]`); otherwise the
 project file's [model.units] apply (defaults m, kN, kNm). Row numbers in messages count the header
