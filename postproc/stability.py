@@ -36,7 +36,8 @@ COLUMN_TILT_COS = np.cos(np.radians(10.0))
 # higher one); a member mode moves the frame's joints hardly at all (drift/bow ~ 0.01 or less).
 SWAY_DRIFT_SHARE_MIN = 0.25
 MODES_FIRST = 6             # modes computed first per combination
-MODES_MAX = 48              # at most this many are searched for the sway mode
+MODES_MAX = 48              # at most this many are searched for the sway mode (sparse solver;
+                            # the dense one, for small models, searches all of them)
 PATHS = ("first-order", "amplified", "second-order in forces", "second-order needed", "unstable",
          "not evaluated")
 
@@ -145,15 +146,18 @@ def is_sway(drift: float, bow: float) -> bool:
 def _mode_search(mesh: Mesh, gauge: ModeGauge, tension: np.ndarray) -> dict:
     """The lowest sway mode and the lowest member mode of one combination.
 
-    Modes are computed MODES_FIRST at a time, more (up to MODES_MAX) while no sway mode is found
-    and the highest one computed is below ALPHA_FIRST_ORDER. Each mode found is a tuple
+    MODES_FIRST modes are computed first; while no sway mode is found and the highest one
+    computed is below ALPHA_FIRST_ORDER, more: all of them for a model small enough for the dense
+    solver (cheap there), else three times as many up to MODES_MAX. Each mode found is a tuple
     (alpha, drift, bow, member bowing most).
     """
-    count = MODES_FIRST
+    # the dense solver (small models) finds all modes about as fast as a few
+    limit = len(mesh.free) if mesh.chol is not None else MODES_MAX
+    count = min(MODES_FIRST, limit)
     while True:
         alphas, phis = buckling_modes(mesh, tension, count)
         found = {"n": len(alphas), "top": float(alphas[-1]) if len(alphas) else np.inf,
-                 "sway": None, "local": None, "lowest": None}
+                 "sway": None, "local": None, "lowest": None, "exhausted": len(alphas) < count}
         for a, phi in zip(alphas, phis.T):
             drift, bow, member = gauge.measure(phi)
             mode = (float(a), drift, bow, member)
@@ -164,12 +168,10 @@ def _mode_search(mesh: Mesh, gauge: ModeGauge, tension: np.ndarray) -> dict:
                 break
             if found["local"] is None:
                 found["local"] = mode
-        exhausted = len(alphas) < count
-        if (found["sway"] is not None or exhausted or found["top"] >= ALPHA_FIRST_ORDER
-                or count >= MODES_MAX or not gauge.has_columns):
-            found["exhausted"] = exhausted
+        if (found["sway"] is not None or found["exhausted"] or found["top"] >= ALPHA_FIRST_ORDER
+                or count >= limit or not gauge.has_columns):
             return found
-        count = min(3 * count, MODES_MAX)
+        count = limit if mesh.chol is not None else min(3 * count, limit)
 
 
 def critical_load_factors(frame: Frame, results: Results, members: Members) -> pd.DataFrame:

@@ -101,25 +101,32 @@ def braced_bay(B: float = 6.0, L: float = 5.0) -> Frame:
     return f
 
 
-def test_braced_bay_with_a_slender_diagonal():
-    """The compression diagonal buckles on its own at alpha = 1.2 (Euler, minor axis); the bay
-    sways at alpha = 5 (the two-freedom model of the module docstring). Taking the lowest mode as
-    the frame's gave alpha_cr = 1.2: 'second-order needed', nothing evaluated."""
-    B, L = 6.0, 5.0
+def bay_case(local: float, sway: float, B: float = 6.0, L: float = 5.0
+             ) -> tuple[Frame, float, float, float]:
+    """The braced bay loaded so that the diagonal buckles on its own at `local` (Euler, minor
+    axis) and the bay sways at about `sway`: (frame, diagonal compression C, column load P, the
+    sway factor of the two-freedom model of the module docstring)."""
     f = braced_bay(B, L)
     L_d = np.hypot(B, L)
     c, s = B / L_d, L / L_d
-    C = np.pi ** 2 * E * I_IPE300_Z / L_d ** 2 / 1.2               # diagonal: Euler at 1.2
+    C = np.pi ** 2 * E * I_IPE300_Z / L_d ** 2 / local
     # two-freedom model, u = (top drift, vertical displacement of the head of C2):
     # elastic: diagonal E A_d / L_d (u1 c + u2 s)^2, column C2 E A_c / L u2^2;
     # geometric (per unit load factor): columns P / L u1^2 each, diagonal C / L_d (-u1 s + u2 c)^2
     k_d, k_c = E * A_IPE300 / L_d, E * A_STIFF / L
     K = k_d * np.array([[c * c, c * s], [c * s, s * s]]) + np.diag([0.0, k_c])
     G_diag = C / L_d * np.array([[s * s, -s * c], [-s * c, c * c]])
-    # gravity P on each column for a sway factor of 5 (solved from the 1x1 part, then checked)
-    P = (k_d * c * c / 5.0 - C * s * s / L_d) * L / 2.0
-    G = G_diag + np.diag([2.0 * P / L, 0.0])
-    a_sway = float(np.min(sla.eigvalsh(K, G)[sla.eigvalsh(K, G) > 0]))
+    # gravity P on each column for a sway factor of `sway` (from the 1x1 part; the 2x2 is exact)
+    P = (k_d * c * c / sway - C * s * s / L_d) * L / 2.0
+    factors = sla.eigvalsh(K, G_diag + np.diag([2.0 * P / L, 0.0]))
+    return f, C, P, float(factors[factors > 0].min())
+
+
+def test_braced_bay_with_a_slender_diagonal():
+    """The compression diagonal buckles on its own at alpha = 1.2 (Euler, minor axis); the bay
+    sways at alpha = 5 (the two-freedom model of the module docstring). Taking the lowest mode as
+    the frame's gave alpha_cr = 1.2: 'second-order needed', nothing evaluated."""
+    f, C, P, a_sway = bay_case(1.2, 5.0)
     assert a_sway == pytest.approx(5.0, rel=0.01)
     res, members, alpha, paths = run(f, {"U1": {"C1": -P, "C2": -P, "D1": -C}})
     assert members.members.at["D1", "kind"] == "brace"
@@ -130,20 +137,36 @@ def test_braced_bay_with_a_slender_diagonal():
     assert paths.at["U1", "path"] == "amplified"
     out = buckling_lengths(f, members, res, paths).set_index("member")
     # the diagonal keeps its own length, about its in-plane axis (z-z here)
-    assert out.at["D1", "L_cr_z_m"] == pytest.approx(L_d, rel=1e-6)
+    assert out.at["D1", "L_cr_z_m"] == pytest.approx(np.hypot(6.0, 5.0), rel=1e-6)
     assert "buckles first over its own length" in out.at["D1", "origin_z"]
 
 
+@pytest.mark.parametrize("dense", [True, False])
+def test_sway_mode_behind_more_member_modes_than_the_first_search(monkeypatch, dense):
+    """A diagonal so slender (alpha 0.07) that its first six modes all come before the sway mode
+    (5, the two-freedom model): the search goes on, in the dense solver to all modes, in the
+    sparse one to eighteen, and both find the sway mode."""
+    import postproc.stability_eigen as eig
+    if not dense:
+        monkeypatch.setattr(eig, "DENSE_MAX", 0)
+    f, C, P, a_sway = bay_case(0.07, 5.0)
+    _, _, alpha, _ = run(f, {"U1": {"C1": -P, "C2": -P, "D1": -C}})
+    assert alpha.at["U1", "modes"] > 6
+    assert alpha.at["U1", "alpha_cr"] == pytest.approx(a_sway, rel=CLOSED_FORM_REL)
+    assert bool(alpha.at["U1", "sway_mode"])
+    assert alpha.at["U1", "alpha_cr_local"] == pytest.approx(0.07, rel=CLOSED_FORM_REL)
+
+
 def test_no_sway_mode_below_10_is_said_and_not_passed(monkeypatch):
-    """With the search cut short before the sway mode (a single mode searched), alpha_cr is not
-    found: NaN, path 'not evaluated', and the note says why."""
+    """With the search cut short before the sway mode (the sparse solver, a single mode
+    searched), alpha_cr is not found: NaN, path 'not evaluated', and the note says why."""
     import postproc.stability as st
+    import postproc.stability_eigen as eig
+    monkeypatch.setattr(eig, "DENSE_MAX", 0)
     monkeypatch.setattr(st, "MODES_FIRST", 1)
     monkeypatch.setattr(st, "MODES_MAX", 1)
-    f = braced_bay()
-    L_d = np.hypot(6.0, 5.0)
-    C = np.pi ** 2 * E * I_IPE300_Z / L_d ** 2 / 1.2
-    _, _, alpha, paths = run(f, {"U1": {"C1": -1e6, "C2": -1e6, "D1": -C}})
+    f, C, P, _ = bay_case(1.2, 5.0)
+    _, _, alpha, paths = run(f, {"U1": {"C1": -P, "C2": -P, "D1": -C}})
     assert np.isnan(alpha.at["U1", "alpha_cr"])
     assert "no sway mode found" in alpha.at["U1", "mode_note"]
     assert paths.at["U1", "path"] == "not evaluated"
