@@ -180,3 +180,90 @@ def test_no_member_mode_below_the_sway_mode():
     _, _, alpha, _ = run(f, {"U1": {"C1": -P, "C2": -P}})
     assert alpha.at["U1", "alpha_cr"] == pytest.approx(4.0, rel=CLOSED_FORM_REL)
     assert np.isnan(alpha.at["U1", "alpha_cr_local"]) and alpha.at["U1", "local_member"] == ""
+
+
+@pytest.mark.opensees
+def test_leaning_column_portal_against_opensees():
+    """OpenSees' own eigen analysis of the same portal (PDelta transformation, ten elements per
+    member, the link released with '-release'): the load factors at which its tangent stiffness
+    becomes singular (as in tests/test_stability_opensees.py). Its lowest is the leaning column's
+    member mode; the sway mode is among the others, and nothing between them is a sway mode."""
+    ops = pytest.importorskip("openseespy.opensees")
+    L = 5.0
+    EI = E * I_HEB200_Y
+    euler = np.pi ** 2 * EI / L ** 2
+    P_c, P_p = 0.05 * euler, 0.5 * euler
+    secs = {"HEB 200": (78.1e-4, I_HEB200_Y), "STIFF": (A_STIFF, 1000 * I_HEB200_Y)}
+    # (from, to, section, pinned at start, pinned at end)
+    members = [((0, 0), (0, L), "HEB 200", False, False), ((0, L), (6, L), "STIFF", False, False),
+               ((6, 0), (6, L), "HEB 200", False, False), ((6, L), (12, L), "STIFF", True, True),
+               ((12, 0), (12, L), "HEB 200", False, False)]   # pinned by its free base rz
+                                                              # and the released link
+    parts = 10
+
+    def build(with_load: bool) -> None:
+        ops.wipe()
+        ops.model("basic", "-ndm", 2, "-ndf", 3)
+        tags: dict = {}
+
+        def node(x, y):
+            key = (round(x, 9), round(y, 9))
+            if key not in tags:
+                tags[key] = len(tags) + 1
+                ops.node(tags[key], x, y)
+            return tags[key]
+
+        ops.geomTransf("PDelta", 1)
+        count = 0
+        for p, q, sec, pin_i, pin_j in members:
+            pts = [node(*np.add(p, np.multiply(k / parts, np.subtract(q, p))))
+                   for k in range(parts + 1)]
+            for k in range(parts):
+                count += 1
+                code = (1 if (pin_i and k == 0) else 0) + (2 if (pin_j and k == parts - 1) else 0)
+                rel = ["-release", code] if code else []
+                ops.element("elasticBeamColumn", count, pts[k], pts[k + 1], secs[sec][0], E,
+                            secs[sec][1], 1, *rel)
+        ops.fix(node(0, 0), 1, 1, 1)
+        ops.fix(node(6, 0), 1, 1, 1)
+        ops.fix(node(12, 0), 1, 1, 0)
+        ops.timeSeries("Linear", 1)
+        ops.pattern("Plain", 1, 1)
+        if with_load:
+            for (x, P) in ((0, P_c), (6, P_c), (12, P_p)):
+                ops.load(node(x, L), 0.0, -P, 0.0)
+        ops.system("FullGeneral")
+        ops.numberer("Plain")
+        ops.constraints("Plain")
+        ops.test("NormDispIncr", 1e-12, 50)
+        ops.algorithm("Linear")
+        ops.integrator("LoadControl", 1.0 if with_load else 0.0)
+        ops.analysis("Static")
+        assert ops.analyze(1) == 0
+        ops.integrator("LoadControl", 0.0)
+        assert ops.analyze(1) == 0
+
+    def tangent() -> np.ndarray:
+        a = np.array(ops.printA("-ret"))
+        n = int(round(np.sqrt(a.size)))
+        return a.reshape(n, n)
+
+    build(False)
+    K_E = tangent()
+    build(True)
+    K_G = tangent() - K_E
+    ops.wipe()
+    lam = sla.eigvals(K_E, -K_G)
+    ok = np.isfinite(lam.real) & (np.abs(lam.imag) < 1e-9 * np.abs(lam.real) + 1e-12)
+    lam = np.sort(lam.real[ok & (lam.real > 0)])
+    nodes = [("1", 0, 0, 0), ("2", 0, L, 0), ("3", 6, L, 0), ("4", 6, 0, 0), ("5", 12, 0, 0),
+             ("6", 12, L, 0)]
+    els = [("C1", "1", "2", "HEB 200", "", ""), ("R1", "2", "3", "STIFF", "", ""),
+           ("C2", "4", "3", "HEB 200", "", ""), ("K1", "3", "6", "STIFF", "My", "My"),
+           ("P1", "5", "6", "HEB 200", "My", "My")]
+    f = make_frame(nodes, els, [("1", *FIXED), ("4", *FIXED), ("5", *PINNED)])
+    _, _, alpha, _ = run(f, {"U1": {"C1": -P_c, "C2": -P_c, "P1": -P_p}})
+    # the lowest OpenSees value is the leaning column's member mode
+    assert alpha.at["U1", "alpha_cr_local"] == pytest.approx(lam[0], rel=0.02)
+    # the sway mode is the next one in OpenSees' spectrum
+    assert alpha.at["U1", "alpha_cr"] == pytest.approx(lam[1], rel=0.02)
