@@ -208,7 +208,8 @@ def build_frame(captured: Captured, model: dict, project: dict, watched, *, majo
     if captured.ndm == 2:  # out-of-plane freedoms of a plane frame are restrained by definition
         supports[["uz", "rx", "ry"]] = True
     frame = Frame(ndm=captured.ndm, nodes=captured.nodes.copy(), elements=elements,
-                  supports=supports, sections=sections, source=f"openseespy model {script.name}")
+                  supports=supports, sections=sections, source=f"openseespy model {script.name}",
+                  ties=captured.ties.copy())
     check_stiffness(captured, frame, major_axis, file=file)
     return frame
 

@@ -20,7 +20,8 @@ FORCE_HEADERS = {"N_N": "N [N]", "Vy_N": "Vy [N]", "Vz_N": "Vz [N]", "T_Nm": "T 
 
 
 def export_tables(frame: Frame, results: Results, directory: Path) -> None:
-    """Write nodes, elements, sections, supports, forces, combinations and displacements CSV files.
+    """Write nodes, elements, sections, supports, ties, forces, combinations and displacements
+    CSV files (ties only where the model has any).
 
     A failed combination cannot be written (the tables have no status column and a combination
     without forces is refused on reading), so any failed combination raises AnalysisError rather
@@ -57,6 +58,9 @@ def export_tables(frame: Frame, results: Results, directory: Path) -> None:
     supports = frame.supports[freedoms].astype(int)
     supports.insert(0, "node", frame.supports.index.astype(str))
     supports.to_csv(directory / "supports.csv", index=False)
+    if len(frame.ties):
+        frame.ties.assign(rigid=frame.ties["rigid"].astype(int)).to_csv(directory / "ties.csv",
+                                                                         index=False)
 
     forces = results.forces.rename(columns={"x_m": "x [m]", **FORCE_HEADERS})
     forces[["combination", "element", "x [m]", *FORCE_HEADERS.values()]].to_csv(

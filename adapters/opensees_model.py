@@ -2,8 +2,9 @@
 
 The user's script runs in-process: it is their code and it runs with their rights. While it runs,
 a few openseespy commands are watched (`geomTransf`, `element`, `section`, `beamIntegration`,
-`timeSeries`, `pattern`, `sp`) to learn what the domain cannot tell afterwards (section tags,
-transformation types, load factors of time series); everything else (nodes, element ends and
+`timeSeries`, `pattern`, `sp`, and the ties `equalDOF`, `rigidDiaphragm`, `rigidLink`) to learn
+what the domain cannot tell afterwards (section tags, transformation types, load factors of time
+series, the kind of each tie); everything else (nodes, element ends and
 local axes, supports, nodal and element loads per load pattern) is read from the domain.
 
 OpenSees local axes are turned into the axes of EN 1993-1-1 once, here (`axis_map`):
@@ -33,7 +34,13 @@ BEAM_TYPES = {"ElasticBeam2d", "ElasticBeam3d", "ForceBeamColumn2d", "ForceBeamC
 TRUSS_TYPES = {"Truss", "TrussSection", "CorotTruss", "CorotTrussSection"}
 # element load class tags (OpenSees classTags.h) -> (name, number of data values)
 LOAD_CLASSES = {3: ("uniform", 2), 4: ("point", 3), 5: ("uniform", 3), 6: ("point", 4)}
-WATCHED = ("geomTransf", "element", "section", "beamIntegration", "timeSeries", "pattern", "sp")
+WATCHED = ("geomTransf", "element", "section", "beamIntegration", "timeSeries", "pattern", "sp",
+           "equalDOF", "rigidDiaphragm", "rigidLink")
+TIE_COMMANDS = ("equalDOF", "rigidDiaphragm", "rigidLink")
+# OpenSees freedom numbers (1-based) -> names, by ndm
+DOF_NAMES = {2: ("ux", "uy", "rz"), 3: ("ux", "uy", "uz", "rx", "ry", "rz")}
+# rigidDiaphragm perpDirn -> the freedoms tied in the plane normal to it
+DIAPHRAGM_DOFS = {1: "uy uz rx", 2: "ux uz ry", 3: "ux uy rz"}
 # Load columns in OpenSees local axes: uniform w (N/m) or point P (N) at a (fraction of L)
 ELEMENT_LOAD_COLUMNS = ["pattern", "element", "kind", "a", "px", "py", "pz"]
 
@@ -63,6 +70,7 @@ class Watched:
     series: dict[int, tuple[str, tuple]] = field(default_factory=dict)
     patterns: dict[int, tuple[str, tuple]] = field(default_factory=dict)
     imposed: list[tuple] = field(default_factory=list)
+    ties: list[tuple[str, tuple]] = field(default_factory=list)
 
 
 @contextlib.contextmanager
@@ -88,6 +96,8 @@ def watching(ops, watched: Watched, *, pdelta: bool):
             watched.patterns[int(args[1])] = (str(args[0]), args[2:])
         elif name == "sp":
             watched.imposed.append(args)
+        elif name in TIE_COMMANDS:
+            watched.ties.append((name, args))
         return original(*args)
 
     try:
@@ -138,6 +148,7 @@ class Captured:
     elements: pd.DataFrame       # index element; node_i, node_j, type, truss, section_tag,
                                  # xaxis, yaxis, zaxis (3-vectors), I_y_os, I_z_os (NaN unknown)
     supports: pd.DataFrame       # index node; ux .. rz booleans
+    ties: pd.DataFrame           # postproc.frame TIE_COLUMNS: node, master, dofs, rigid
     node_loads: pd.DataFrame     # pattern, node, FX_N, FY_N, FZ_N, MX_Nm, MY_Nm, MZ_Nm
     element_loads: pd.DataFrame  # ELEMENT_LOAD_COLUMNS, OpenSees local axes
     patterns: list[str]
@@ -283,7 +294,42 @@ def read_domain(ops, watched: Watched, *, script: str) -> Captured:
                          "nodes or model the member as a beam-column", file=script,
                          field="model.script")
     patterns = [str(p) for p in ops.getPatterns()]
-    return Captured(ndm, ndf, nodes, elements, supports, node_loads, element_loads, patterns)
+    ties = tie_table(ops, watched, ndm, script)
+    return Captured(ndm, ndf, nodes, elements, supports, ties, node_loads, element_loads,
+                    patterns)
+
+
+def tie_table(ops, watched: Watched, ndm: int, script: str) -> pd.DataFrame:
+    """The model's ties as a Frame.ties table, from the watched equalDOF, rigidDiaphragm and
+    rigidLink commands. A tie the domain holds but the script did not make through those
+    commands (so its kind is unknown) is refused."""
+    rows = []
+    names = DOF_NAMES[ndm]
+    for command, args in watched.ties:
+        if command == "equalDOF":          # rNode cNode dof...
+            master, node, *dofs = args
+            rows.append((node, master, " ".join(names[int(d) - 1] for d in dofs), False))
+        elif command == "rigidDiaphragm":  # perpDirn rNode cNode...
+            perp, master, *nodes = args
+            rows += [(n, master, DIAPHRAGM_DOFS[int(perp)], True) for n in nodes]
+        else:                              # rigidLink type rNode cNode
+            kind, master, node = args[:3]
+            if str(kind).lstrip("-") == "beam":
+                rows.append((node, master, " ".join(names), True))
+            else:                          # 'bar': equal translations
+                rows.append((node, master, " ".join(n for n in names if n[0] == "u"), False))
+    table = pd.DataFrame(rows, columns=["node", "master", "dofs", "rigid"])
+    table[["node", "master"]] = table[["node", "master"]].astype(int).astype(str)
+    table["rigid"] = table["rigid"].astype(bool)
+    held = {str(n) for n in ops.getConstrainedNodes()} if hasattr(ops, "getConstrainedNodes") \
+        else set()
+    unknown = sorted(held - set(table["node"]))
+    if unknown:
+        raise InputError(f"node {unknown[0]} is tied to another node by a constraint that was "
+                         "not made with equalDOF, rigidDiaphragm or rigidLink while the script "
+                         "ran; make it with one of those in the script or the builder function",
+                         file=script, field="model.script")
+    return table.reset_index(drop=True)
 
 
 def _loads(ops, watched: Watched, ndm: int, ndf: int, script: str

@@ -1,5 +1,6 @@
-"""CSV tables adapter: nodes, elements, sections, supports, forces, and optional displacements,
-load cases and combinations, read into a Frame and Results. The schema is in docs/tables.md.
+"""CSV tables adapter: nodes, elements, sections, supports, forces, and optional ties,
+displacements, load cases and combinations, read into a Frame and Results. The schema is in
+docs/tables.md.
 
 Units: a column may carry its unit in brackets (`x [mm]`, `N [kN]`, `My [kNm]`); otherwise the
 project file's [model.units] apply (defaults m, kN, kNm). Row numbers in messages count the header
@@ -17,7 +18,7 @@ import pandas as pd
 
 from postproc import materials
 from postproc.errors import InputError
-from postproc.frame import Frame
+from postproc.frame import Frame, empty_ties
 from postproc.results import COMBINATION_COLUMNS, DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
 from postproc.sections import build_sections
 from postproc.units import factor
@@ -25,7 +26,7 @@ from postproc.units import factor
 DEFAULT_UNITS = {"length": "m", "force": "kN", "moment": "kNm"}
 FILES = {"nodes": "nodes.csv", "elements": "elements.csv", "sections": "sections.csv",
          "supports": "supports.csv", "forces": "forces.csv", "displacements": "displacements.csv",
-         "load_cases": "load_cases.csv", "combinations": "combinations.csv"}
+         "load_cases": "load_cases.csv", "combinations": "combinations.csv", "ties": "ties.csv"}
 # CSV column -> (internal column, kind of quantity)
 FORCE_FIELDS = {"N": ("N_N", "force"), "Vy": ("Vy_N", "force"), "Vz": ("Vz_N", "force"),
                 "T": ("T_Nm", "moment"), "My": ("My_Nm", "moment"), "Mz": ("Mz_Nm", "moment")}
@@ -149,8 +150,9 @@ def load(project, project_path: Path | None = None) -> tuple[Frame, Results]:
     sections = _sections(Table(files["sections"], units))
     elements = _elements(Table(files["elements"], units), nodes, sections, default_grade)
     supports = _supports(files["supports"], units, nodes, ndm)
+    ties = _ties(files["ties"], units, nodes, supports, ndm)
     frame = Frame(ndm=ndm, nodes=nodes, elements=elements, supports=supports, sections=sections,
-                  source=f"CSV tables in {folder}")
+                  source=f"CSV tables in {folder}", ties=ties)
     imperfections = model.get("imperfections_in_forces", False)
     if not isinstance(imperfections, bool):
         raise InputError(f"must be true or false, got {imperfections!r}", file=str(project.path),
@@ -229,6 +231,42 @@ def _supports(path: Path, units: dict, nodes: pd.DataFrame, ndm: int) -> pd.Data
     if ndm == 2:  # out-of-plane freedoms of a plane frame are restrained by definition
         data["uz"] = data["rx"] = data["ry"] = np.ones(len(ids), dtype=bool)
     return pd.DataFrame(data, index=pd.Index(ids.to_numpy(), name="node"))
+
+
+def _ties(path: Path, units: dict, nodes: pd.DataFrame, supports: pd.DataFrame, ndm: int
+          ) -> pd.DataFrame:
+    """ties.csv: node, master, dofs (e.g. `ux uy rz`), rigid (1: rigid body, 0: equal)."""
+    if not path.is_file():
+        return empty_ties()
+    table = Table(path, units)
+    node, master = table.text("node"), table.text("master")
+    table.refuse_unknown(node, nodes.index, "node", "node")
+    table.refuse_unknown(master, nodes.index, "master", "node")
+    table.refuse((node == master).to_numpy(), "master", lambda k: "a node cannot be its own master")
+    allowed = SUPPORT_FIELDS if ndm == 3 else ("ux", "uy", "rz")
+    dofs = table.text("dofs").str.split()
+    table.refuse(dofs.apply(lambda d: not d or any(x not in allowed for x in d)).to_numpy(),
+                 "dofs", lambda k: f"freedoms {' '.join(dofs.iloc[k])!r} must be a list from "
+                                   f"{' '.join(allowed)}")
+    rigid = table.number("rigid", required=False, default=0.0)
+    table.refuse(~np.isin(rigid, (0.0, 1.0)), "rigid",
+                 lambda k: "must be 1 (rigid body: lever arm to the master) or 0 (equal freedoms)")
+    each = pd.DataFrame({"row": np.arange(len(node)), "node": node.to_numpy(),
+                         "dof": dofs.to_numpy()}).explode("dof")
+    twice = np.zeros(len(node), dtype=bool)
+    twice[each.loc[each.duplicated(["node", "dof"]).to_numpy(), "row"].to_numpy(int)] = True
+    table.refuse(twice, "dofs", lambda k: f"a freedom of node {node.iloc[k]!r} is tied twice")
+    sup = supports.reindex(columns=list(SUPPORT_FIELDS), fill_value=False)
+    held = np.zeros(len(node), dtype=bool)
+    on_support = each[each["node"].isin(sup.index)]
+    if len(on_support):
+        flags = sup.to_numpy(bool)[sup.index.get_indexer(on_support["node"]),
+                                   [SUPPORT_FIELDS.index(d) for d in on_support["dof"]]]
+        held[on_support["row"].to_numpy(int)[flags]] = True
+    table.refuse(held, "dofs", lambda k: f"node {node.iloc[k]!r} is held by a support in a "
+                                         "freedom it is tied in; hold its master instead")
+    return pd.DataFrame({"node": node.to_numpy(), "master": master.to_numpy(),
+                         "dofs": dofs.str.join(" ").to_numpy(), "rigid": rigid.astype(bool)})
 
 
 def _results(files: dict, units: dict, frame: Frame, project) -> Results:

@@ -44,6 +44,11 @@ class Frame:
         sections: index `section`; property columns in SI, see `postproc.sections`.
         restraints: declared restraint points (bracing) with columns node, direction.
         source: where the frame came from, for the report.
+        ties: constraints between nodes (rigid diaphragms, equal freedoms, rigid links), one row
+            per tied node: node (the tied node), master (the node it follows), dofs (the tied
+            freedoms, a space-separated list from ux uy uz rx ry rz), rigid (True: the tied
+            node's translations also follow the master's listed rotations through the lever
+            arm between them, as a rigid body; False: the listed freedoms are equal).
     """
 
     ndm: int
@@ -55,11 +60,21 @@ class Frame:
         default_factory=lambda: pd.DataFrame({"node": pd.Series(dtype=str),
                                               "direction": pd.Series(dtype=str)}))
     source: str = ""
+    ties: pd.DataFrame = field(default_factory=lambda: empty_ties())
 
     @property
     def vertical_axis(self) -> int:
         """Index of the vertical global axis: 1 (Y) for 2D frames, 2 (Z) for 3D frames."""
         return 1 if self.ndm == 2 else 2
+
+
+TIE_COLUMNS = ["node", "master", "dofs", "rigid"]
+
+
+def empty_ties() -> pd.DataFrame:
+    """A ties table with no rows (see `Frame.ties`)."""
+    return pd.DataFrame({"node": pd.Series(dtype=str), "master": pd.Series(dtype=str),
+                         "dofs": pd.Series(dtype=str), "rigid": pd.Series(dtype=bool)})
 
 
 def element_vectors(frame: Frame) -> tuple[np.ndarray, np.ndarray]:

@@ -22,7 +22,7 @@ from .errors import InputError, TopologyError
 from .frame import NODE_COLUMNS, Frame, local_axes
 from .members import Members, member_axes, moment_released
 from .results import Results
-from .stability_eigen import (E_STEEL, SUB_PER_MEMBER, Mesh, build_mesh, lowest_mode,
+from .stability_eigen import (E_STEEL, SUB_PER_MEMBER, Mesh, buckling_modes, build_mesh,
                               section_columns, translations)
 from .stability_sway import SwayPart, amplified_forces, sway_part  # noqa: F401
 from .stability_lengths import (buckling_lengths, effective_length_ratio,  # noqa: F401
@@ -36,6 +36,15 @@ PATHS = ("first-order", "amplified", "sway lengths", "second-order in forces",
          "second-order needed", "unstable", "not evaluated")
 STOREY_RAFTER_N_CR_SHARE = 0.09   # 5.2.1(4)B note 2: lambda_bar >= 0.3 sqrt(A f_y / N_Ed)
 STOREY_ROOF_SLOPE = np.arctan(0.5)  # 5.2.1(4)B note 2: a shallow roof is not steeper than 1:2
+# A mode is a sway mode when its largest column drift is at least this share of its largest
+# member bow (both against the mode's largest translation). Low on purpose: a sway mode in which
+# a member also bows must not pass for a member mode (that would hide the sway mode behind a
+# higher one); a member mode moves the frame's joints hardly at all (drift/bow 0.05 or less in
+# the tests and bundled examples, sway modes 1.2 and more).
+SWAY_DRIFT_SHARE_MIN = 0.25
+MODES_FIRST = 6             # modes computed first per combination
+MODES_MAX = 48              # at most this many are searched for the sway mode (sparse solver;
+                            # the dense one, for small models, searches all of them)
 
 
 def _uls(results: Results) -> pd.DataFrame:
@@ -89,46 +98,108 @@ def sub_elements(frame: Frame, members: Members) -> np.ndarray:
     return np.maximum(1, -(-SUB_PER_MEMBER // n))
 
 
-def _mode_shape_measures(mesh: Mesh, frame: Frame, members: Members, phi: np.ndarray
-                         ) -> tuple[float, float]:
-    """(largest column drift, largest member bow) of a mode, both relative to its largest
-    translation. Drift: horizontal displacement of a column's top relative to its bottom. Bow:
-    largest displacement of a point of a member off the straight line between its ends."""
-    u = translations(mesh, phi)
-    where = {n: k for k, n in enumerate(mesh.node_ids)}
-    horiz = [0] if frame.ndm == 2 else [0, 1]
-    mm = members.members
-    cols = mm[mm["kind"] == "column"]
-    drift = 0.0
-    if len(cols):
-        a = np.array([where[n] for n in cols["start_node"]])
-        b = np.array([where[n] for n in cols["end_node"]])
-        drift = float(np.linalg.norm((u[b] - u[a])[:, horiz], axis=1).max())
-    # bow: each sub-element end point against the chord of its member
-    me = members.member_elements.set_index("element")
-    eid = frame.elements.index.astype(str)
-    mem_of = me.loc[eid[mesh.parent], "member"].to_numpy()
-    start = np.array([where[n] for n in mm.loc[mem_of, "start_node"]])
-    end = np.array([where[n] for n in mm.loc[mem_of, "end_node"]])
-    p0, p1 = mesh.xyz[start], mesh.xyz[end]
-    span = p1 - p0
-    t = np.einsum("ij,ij->i", mesh.xyz[mesh.end_j] - p0, span) / np.einsum("ij,ij->i", span, span)
-    chord = u[start] + t[:, None] * (u[end] - u[start])
-    bow = float(np.linalg.norm(u[mesh.end_j] - chord, axis=1).max()) if len(t) else 0.0
-    return drift, bow
+class ModeGauge:
+    """Measures of a mode shape that tell a sway mode from a member mode.
+
+    drift: the largest horizontal displacement of a column's top relative to its bottom (the
+    storey drift the mode carries). bow: the largest displacement of a point of a member off the
+    straight line between the member's ends (how far a member bends between its joints). Both are
+    relative to the mode's largest translation, so they lie between 0 and about 1.
+    """
+
+    def __init__(self, mesh: Mesh, frame: Frame, members: Members) -> None:
+        self.mesh = mesh
+        where = {n: k for k, n in enumerate(mesh.node_ids)}
+        self.horiz = [0] if frame.ndm == 2 else [0, 1]
+        mm = members.members
+        cols = mm[mm["kind"] == "column"]
+        self.has_columns = bool(len(cols))
+        self.col_a = np.array([where[n] for n in cols["start_node"]], dtype=int)
+        self.col_b = np.array([where[n] for n in cols["end_node"]], dtype=int)
+        me = members.member_elements.set_index("element")
+        eid = frame.elements.index.astype(str)
+        mem_of = me.loc[eid[mesh.parent], "member"].to_numpy()
+        self.member_names = mm.index.to_numpy()
+        self.sub_member = pd.Index(self.member_names).get_indexer(mem_of)
+        self.start = np.array([where[n] for n in mm.loc[mem_of, "start_node"]], dtype=int)
+        self.end = np.array([where[n] for n in mm.loc[mem_of, "end_node"]], dtype=int)
+        p0, p1 = mesh.xyz[self.start], mesh.xyz[self.end]
+        span = p1 - p0
+        self.t = (np.einsum("ij,ij->i", mesh.xyz[mesh.end_j] - p0, span)
+                  / np.einsum("ij,ij->i", span, span))
+
+    def measure(self, phi: np.ndarray) -> tuple[float, float, str]:
+        """(drift, bow, member with the largest bow) of one mode."""
+        u = translations(self.mesh, phi)
+        drift = 0.0
+        if self.has_columns:
+            drift = float(np.linalg.norm((u[self.col_b] - u[self.col_a])[:, self.horiz],
+                                         axis=1).max())
+        if not len(self.t):
+            return drift, 0.0, ""
+        chord = u[self.start] + self.t[:, None] * (u[self.end] - u[self.start])
+        off = np.linalg.norm(u[self.mesh.end_j] - chord, axis=1)
+        k = int(np.argmax(off))
+        return drift, float(off[k]), str(self.member_names[self.sub_member[k]])
+
+
+def is_sway(drift: float, bow: float) -> bool:
+    """A sway mode: the column drift is at least SWAY_DRIFT_SHARE_MIN times the member bow."""
+    return drift >= SWAY_DRIFT_SHARE_MIN * bow
+
+
+def _mode_search(mesh: Mesh, gauge: ModeGauge, tension: np.ndarray) -> dict:
+    """The lowest sway mode and the lowest member mode of one combination.
+
+    MODES_FIRST modes are computed first; while no sway mode is found and the highest one
+    computed is below ALPHA_FIRST_ORDER, more: all of them for a model small enough for the dense
+    solver (cheap there), else three times as many up to MODES_MAX. Each mode found is a tuple
+    (alpha, drift, bow, member bowing most).
+    """
+    # the dense solver (small models) finds all modes about as fast as a few
+    limit = len(mesh.free) if mesh.chol is not None else MODES_MAX
+    count = min(MODES_FIRST, limit)
+    while True:
+        alphas, phis = buckling_modes(mesh, tension, count)
+        found = {"n": len(alphas), "top": float(alphas[-1]) if len(alphas) else np.inf,
+                 "sway": None, "local": None, "lowest": None, "exhausted": len(alphas) < count}
+        for a, phi in zip(alphas, phis.T):
+            drift, bow, member = gauge.measure(phi)
+            mode = (float(a), drift, bow, member)
+            if found["lowest"] is None:
+                found["lowest"] = mode
+            if gauge.has_columns and is_sway(drift, bow):
+                found["sway"] = mode
+                break
+            if found["local"] is None:
+                found["local"] = mode
+        if (found["sway"] is not None or found["exhausted"] or found["top"] >= ALPHA_FIRST_ORDER
+                or count >= limit or not gauge.has_columns):
+            return found
+        count = limit if mesh.chol is not None else min(3 * count, limit)
 
 
 def critical_load_factors(frame: Frame, results: Results, members: Members) -> pd.DataFrame:
     """EN 1993-1-1:2005, 5.2.1(3) and 5.2.1(4)B, eq. (5.2): alpha_cr of every ULS combination.
 
-    alpha_cr: lowest positive eigenvalue of (K + alpha K_G) phi = 0, K the elastic stiffness
-    assembled from the frame (each member cut into at least four beam-column elements, releases
-    and supports as modelled), K_G the geometric stiffness of the combination's axial forces
-    (results.forces, interpolated along each element). inf when nothing is in compression.
+    Eigenvalues of (K + alpha K_G) phi = 0: K the elastic stiffness assembled from the frame
+    (each member cut into at least four beam-column elements, releases, supports and ties as
+    modelled), K_G the geometric stiffness of the combination's axial forces (results.forces,
+    interpolated along each element).
 
-    sway_mode: True when the mode's largest horizontal drift of a column (top relative to bottom)
-    is at least as large as the largest bow of any member off its chord; a frame with no columns
-    reports False with a note.
+    alpha_cr is that of the frame's lowest sway mode, not of the lowest mode: a mode is a sway
+    mode when its largest column drift (top against bottom) is at least SWAY_DRIFT_SHARE_MIN
+    times the largest bow of a member off its chord (`ModeGauge`, `is_sway`); the modes below it
+    are member modes, which 6.3 covers member by member with the member's own length. The lowest
+    member mode is reported beside it (alpha_cr_local, local_member).
+    - No sway mode among the modes searched (`_mode_search`), the highest of them at or above
+      ALPHA_FIRST_ORDER: alpha_cr is that highest value, a lower bound of the sway mode's, and
+      sway_mode is False (sway effects negligible, 5.2.1(3)); the note says so.
+    - None found and the highest below ALPHA_FIRST_ORDER: alpha_cr is NaN (not evaluated), the
+      note says so; the storey value may then stand in (`analysis_path`).
+    - Every positive mode computed and none of them a sway mode: alpha_cr inf, sway_mode False.
+    - A frame with no columns: the lowest mode, sway_mode False, with a note.
+    - inf when nothing is in compression.
 
     alpha_cr_storey: 5.2.1(4)B, eq. (5.2), alpha_cr = (H_Ed / V_Ed) (h / delta_H,Ed), lowest over
     the storeys (columns grouped by the levels of their ends) and horizontal directions; the
@@ -138,7 +209,9 @@ def critical_load_factors(frame: Frame, results: Results, members: Members) -> p
     axial force, roof slopes up to 1:2) are for the user to confirm.
 
     Returns:
-        index `combination` (ULS only); columns alpha_cr, alpha_cr_storey, sway_mode, mode_note.
+        index `combination` (ULS only); columns alpha_cr, alpha_cr_storey, sway_mode,
+        alpha_cr_local (lowest member mode below the sway mode, NaN where none), local_member
+        (the member bowing most in it), modes (eigenpairs computed), mode_note.
 
     Raises:
         TopologyError: the model is disconnected or a mechanism.
@@ -146,34 +219,57 @@ def critical_load_factors(frame: Frame, results: Results, members: Members) -> p
     uls = _uls(results)
     combos = uls.index.astype(str).tolist()
     mesh = build_mesh(frame, sub_elements(frame, members))
+    gauge = ModeGauge(mesh, frame, members)
     tension = axial_at(frame, results, combos, mesh.parent, mesh.frac_mid)
     eid = frame.elements.index.astype(str)
     out = []
+    none = (np.nan, "", 0)
     for c, comb in enumerate(combos):
         status = str(uls["status"].iloc[c]) if "status" in uls.columns else "ok"
         if status != "ok":
-            out.append((comb, np.nan, False, f"analysis of this combination failed: "
+            out.append((comb, np.nan, False, *none, f"analysis of this combination failed: "
                         f"{uls['message'].iloc[c] if 'message' in uls.columns else ''}"))
             continue
         missing = np.isnan(tension[c])
         if missing.any():
             e = eid[mesh.parent[np.argmax(missing)]]
-            out.append((comb, np.nan, False, f"no forces for element {e}: alpha_cr not found"))
+            out.append((comb, np.nan, False, *none,
+                        f"no forces for element {e}: alpha_cr not found"))
             continue
-        alpha, phi = lowest_mode(mesh, tension[c])
-        if phi is None:
-            out.append((comb, np.inf, False, "no member in compression: no buckling mode"))
+        found = _mode_search(mesh, gauge, tension[c])
+        if found["lowest"] is None:
+            out.append((comb, np.inf, False, *none, "no member in compression: no buckling mode"))
             continue
-        drift, bow = _mode_shape_measures(mesh, frame, members, phi)
-        if not (members.members["kind"] == "column").any():
-            note, sway = "no columns to judge sway from; taken as non-sway", False
+        local = found["local"]
+        local_cols = (local[0], local[3]) if local is not None else (np.nan, "")
+        local_text = (f"; lowest member mode alpha = {local[0]:.2f}, member {local[3]} (bow "
+                      f"{local[2]:.2f}, column drift {local[1]:.2f}), covered by its own "
+                      "member check (6.3)" if local is not None else "")
+        if not gauge.has_columns:
+            out.append((comb, found["lowest"][0], False, np.nan, "", found["n"],
+                        "no columns to judge sway from; lowest mode taken, as non-sway"))
+            continue
+        if found["sway"] is not None:
+            a, drift, bow, _ = found["sway"]
+            note = (f"sway mode: column drift {drift:.2f}, largest member bow {bow:.2f} "
+                    "(relative to the largest displacement)")
+            out.append((comb, a, True, *local_cols, found["n"], note + local_text))
+            continue
+        searched = f"the {found['n']} lowest modes are member modes"
+        if found["exhausted"]:
+            a = np.inf
+            note = f"no sway mode at any load factor ({searched}: all the positive ones)"
+        elif found["top"] >= ALPHA_FIRST_ORDER:
+            a = found["top"]
+            note = (f"no sway mode below alpha = {a:.2f} ({searched}); the sway mode's alpha_cr "
+                    "is at least that, >= 10: sway effects negligible (5.2.1(3))")
         else:
-            sway = drift >= bow
-            note = (f"{'sway' if sway else 'member (non-sway)'} mode: largest column drift "
-                    f"{drift:.2f}, largest member bow {bow:.2f} (relative to the largest "
-                    "displacement)")
-        out.append((comb, alpha, bool(sway), note))
-    table = pd.DataFrame(out, columns=["combination", "alpha_cr", "sway_mode", "mode_note"])
+            a = np.nan
+            note = (f"no sway mode found ({searched}, up to alpha = {found['top']:.2f} < 10): "
+                    "alpha_cr of the sway mode not found")
+        out.append((comb, a, False, *local_cols, found["n"], note + local_text))
+    table = pd.DataFrame(out, columns=["combination", "alpha_cr", "sway_mode", "alpha_cr_local",
+                                       "local_member", "modes", "mode_note"])
     table = table.set_index("combination")
     storey, storey_note = storey_alpha(frame, results, members, combos)
     table.insert(1, "alpha_cr_storey", storey)

@@ -13,6 +13,14 @@ checked member by member (6.3.2).
 
 End releases give the released end action its own freedom, which is exact for the eigenproblem
 (no static condensation, which would be valid for the elastic stiffness alone).
+
+Ties between nodes (`Frame.ties`: rigid diaphragms, equal freedoms, rigid links) are applied by
+transformation: every tied freedom is written as a combination of its master's freedoms,
+u = T u_kept, and both stiffness matrices become T^T K T, so tied freedoms drop out of the problem
+and the mode shapes are expanded back with T.
+
+`buckling_modes` returns the few lowest modes, not only the lowest one: the lowest mode is often
+one member buckling alone, and the stability module looks among them for the frame's sway mode.
 """
 
 from __future__ import annotations
@@ -34,6 +42,9 @@ G_STEEL = 81e9      # Pa, EN 1993-1-1 3.2.6(1), G = E / (2 (1 + 0.3)) rounded as
 SUB_PER_MEMBER = 4  # at least this many sub-elements per design member
 PIVOT_RATIO_MIN = 1e-10   # scaled Cholesky pivot below this: the stiffness is singular
 DENSE_MAX = 600     # free freedoms up to which the problem is solved with dense matrices
+
+ARPACK_SPARE = 4    # modes asked of the sparse solver beyond those wanted
+TIE_CHAIN_MAX = 10  # masters tied to masters: substitution rounds before a loop is assumed
 
 # local freedom index of each releasable end action: u, v, w, theta_x, theta_y, theta_z
 ACTION_DOF = {"N": 0, "Vy": 1, "Vz": 2, "T": 3, "My": 4, "Mz": 5}
@@ -60,6 +71,8 @@ class Mesh:
     g_index: np.ndarray        # (s, 24) global freedom of each column of the element matrices
     g_unit: np.ndarray         # (s, 24, 24) geometric stiffness per unit tension, global axes
     k_force: np.ndarray | None = None  # (s, 12, 24) local end actions per unit element freedom
+    tie: sp.csr_matrix | None = None   # (n_dof, n_dof) u = tie @ u, tied columns empty; None
+                                       # where the frame has no ties
 
 
 def _local_stiffness(E: float, G: float, A: np.ndarray, I_y: np.ndarray, I_z: np.ndarray,
@@ -134,10 +147,11 @@ def section_columns(frame: Frame, names: tuple[str, ...] = ("A", "I_y", "I_z", "
 
 
 def check_connected(frame: Frame) -> None:
-    """Raise TopologyError if the elements form more than one connected piece."""
+    """Raise TopologyError if the elements (with the ties) form more than one connected piece."""
     g = nx.Graph()
     g.add_edges_from(zip(frame.elements["node_i"].astype(str),
                          frame.elements["node_j"].astype(str)))
+    g.add_edges_from(zip(frame.ties["node"].astype(str), frame.ties["master"].astype(str)))
     parts = sorted(nx.connected_components(g), key=len, reverse=True)
     if len(parts) > 1:
         lone = sorted(parts[1])[:5]
@@ -233,6 +247,9 @@ def build_mesh(frame: Frame, elements_per_member: np.ndarray) -> Mesh:
         for off in (2, 3, 4):
             fixed[6 * pts + off] = True
     K = _assemble(k_glob, g_index, n_dof)
+    tie = tie_transformation(frame, xyz, node_ids, n_dof, fixed)
+    if tie is not None:
+        K = (tie.T @ K @ tie).tocsr()
     diag = np.abs(K.diagonal())
     # freedoms nothing is attached to (e.g. node rotation where every element is pinned)
     loose = diag <= 1e-9 * diag.max()
@@ -248,7 +265,78 @@ def build_mesh(frame: Frame, elements_per_member: np.ndarray) -> Mesh:
         chol, lu = None, _factorise_sparse(Ks, *where_dof)
     return Mesh(xyz, node_ids, parent, n_sub, end_i, end_j, (local + 0.5) / n_sub[parent],
                 free, n_dof, Ks, scale, chol, lu, g_index, g_unit,
-                np.einsum("sab,sbj->saj", k_loc, T))
+                np.einsum("sab,sbj->saj", k_loc, T), tie)
+
+
+def _lever(d: int, r: int, arm: np.ndarray) -> float:
+    """Coefficient of master rotation r (3..5) in tied translation d (0..2): (theta x arm)_d."""
+    cross = {(0, 4): arm[2], (0, 5): -arm[1], (1, 5): arm[0], (1, 3): -arm[2],
+             (2, 3): arm[1], (2, 4): -arm[0]}
+    return cross.get((d, r), 0.0)
+
+
+def tie_transformation(frame: Frame, xyz: np.ndarray, node_ids: list[str], n_dof: int,
+                       fixed: np.ndarray) -> sp.csr_matrix | None:
+    """(n_dof, n_dof) T with u = T u: identity on untied freedoms, each tied freedom written in
+    its master's freedoms (rigid: u_s = u_m + theta_m x (x_s - x_m) over the listed freedoms).
+    Tied columns are empty. None when the frame has no ties.
+
+    Raises InputError for an unknown node or freedom, a freedom tied twice, a tied freedom that
+    is also a support, or ties that loop back on themselves.
+    """
+    ties = frame.ties
+    if ties is None or not len(ties):
+        return None
+    where = {n: k for k, n in enumerate(node_ids)}
+    plane = frame.ndm == 2
+    rows, cols, vals = [], [], []
+    tied = np.zeros(n_dof, dtype=bool)
+    for k, t in enumerate(ties.itertuples(index=False)):
+        slave, master = str(t.node), str(t.master)
+        for n, name in ((slave, "node"), (master, "master")):
+            if n not in where:
+                raise InputError(f"tie names node '{n}', which is not a node of the frame",
+                                 row=k, field=name)
+        if slave == master:
+            raise InputError(f"node '{slave}' is tied to itself", row=k, field="master")
+        names = str(t.dofs).split()
+        unknown = [d for d in names if d not in DOF_NAMES]
+        if unknown or not names:
+            raise InputError(f"tie freedoms '{t.dofs}' must be a list from {' '.join(DOF_NAMES)}",
+                             row=k, field="dofs")
+        dofs = [DOF_NAMES.index(d) for d in names]
+        if plane:           # out-of-plane freedoms are held everywhere in a plane model
+            dofs = [d for d in dofs if d in (0, 1, 5)]
+        ps, pm = where[slave], where[master]
+        arm = xyz[ps] - xyz[pm]
+        rotations = [r for r in dofs if r >= 3]
+        for d in dofs:
+            g = 6 * ps + d
+            if tied[g]:
+                raise InputError(f"freedom {DOF_NAMES[d]} of node '{slave}' is tied twice",
+                                 row=k, field="dofs")
+            if fixed[g]:
+                raise InputError(f"freedom {DOF_NAMES[d]} of node '{slave}' is both a support "
+                                 "and tied to another node; hold the master instead",
+                                 row=k, field="dofs")
+            tied[g] = True
+            rows.append(g), cols.append(6 * pm + d), vals.append(1.0)
+            if bool(t.rigid) and d < 3:
+                for r in rotations:
+                    c = _lever(d, r, arm)
+                    if c != 0.0:
+                        rows.append(g), cols.append(6 * pm + r), vals.append(c)
+    keep = np.nonzero(~tied)[0]
+    rows += keep.tolist()
+    cols += keep.tolist()
+    vals += [1.0] * len(keep)
+    T = sp.csr_matrix((vals, (rows, cols)), shape=(n_dof, n_dof))
+    for _ in range(TIE_CHAIN_MAX):       # a master that is itself tied: substitute
+        if not T[:, tied].count_nonzero():
+            return T
+        T = (T @ T).tocsr()
+    raise InputError("the ties loop back on themselves (a node is, through other nodes, its "
+                     "own master)", field="ties")
 
 
 def _assemble(mats: np.ndarray, index: np.ndarray, n: int) -> sp.csr_matrix:
@@ -300,36 +388,48 @@ def _factorise_sparse(Ks: sp.csc_matrix, free: np.ndarray, node_ids: list[str], 
     raise _mechanism(int(free[np.argsort(lu.perm_c)[k]]), node_ids, n_nodes)
 
 
-def lowest_mode(mesh: Mesh, tension: np.ndarray) -> tuple[float, np.ndarray | None]:
-    """Lowest positive load factor for sub-element axial forces `tension` (N, tension > 0).
+def buckling_modes(mesh: Mesh, tension: np.ndarray, count: int
+                   ) -> tuple[np.ndarray, np.ndarray]:
+    """The `count` lowest positive load factors for sub-element axial forces `tension` (N,
+    tension > 0), ascending, and their modes over all freedoms (n_dof, k) with k <= count.
 
-    Returns (alpha_cr, mode over all freedoms) or (inf, None) when nothing is in compression.
+    Fewer than `count` come back when the problem has fewer positive ones; none when nothing is
+    in compression.
     """
-    if not np.any(tension < 0.0):
-        return np.inf, None
-    Kg = _assemble(tension[:, None, None] * mesh.g_unit, mesh.g_index, mesh.n_dof)
-    S = sp.diags(mesh.scale)
-    Gs = -(S @ Kg[mesh.free][:, mesh.free] @ S)
     n = len(mesh.free)
+    if not np.any(tension < 0.0) or n == 0:
+        return np.zeros(0), np.zeros((mesh.n_dof, 0))
+    Kg = _assemble(tension[:, None, None] * mesh.g_unit, mesh.g_index, mesh.n_dof)
+    if mesh.tie is not None:
+        Kg = mesh.tie.T @ Kg @ mesh.tie
+    S = sp.diags(mesh.scale)
+    Gs = -(S @ Kg.tocsr()[mesh.free][:, mesh.free] @ S)
+    k = max(1, min(count, n))
     if mesh.chol is not None:
         # standard symmetric form: L^-1 (-K_G) L^-T y = mu y, mu = 1 / alpha
         L = mesh.chol
         A = sla.solve_triangular(L, Gs.toarray(), lower=True)
         A = sla.solve_triangular(L, A.T, lower=True)
-        mu, vec = sla.eigh(0.5 * (A + A.T), subset_by_index=[n - 1, n - 1])
-        mu = float(mu[0])
-        phi_s = sla.solve_triangular(L, vec[:, 0], lower=True, trans="T")
+        mu, vec = sla.eigh(0.5 * (A + A.T), subset_by_index=[n - k, n - 1])
+        phi_s = sla.solve_triangular(L, vec, lower=True, trans="T")
     else:
-        # generalised form -K_G phi = mu K phi, K positive definite (ARPACK mode 2)
+        # generalised form -K_G phi = mu K phi, K positive definite: ARPACK in mode 2 with the
+        # factorised K, which converges to the largest mu (lowest alpha) first
+        # a few more than asked and a wide Krylov space, so that a cluster of member modes
+        # does not make ARPACK skip one; a fixed start vector, so that a run repeats exactly
         minv = spla.LinearOperator((n, n), matvec=mesh.lu.solve, dtype=float)
-        mu_all, vecs = spla.eigsh(Gs.tocsc(), k=min(3, n - 1), M=mesh.K, Minv=minv,
-                                  which="LA", tol=1e-10)
-        top = int(np.argmax(mu_all))
-        mu, phi_s = float(mu_all[top]), vecs[:, top]
-    if mu <= 1e-12:
-        return np.inf, None
-    phi = np.zeros(mesh.n_dof)
-    phi[mesh.free] = mesh.scale * phi_s
+        ask = min(k + ARPACK_SPARE, n - 1)
+        start = np.random.default_rng(0).standard_normal(n)
+        mu, phi_s = spla.eigsh(Gs.tocsc(), k=ask, M=mesh.K, Minv=minv, which="LA", tol=1e-10,
+                               ncv=min(n, max(2 * ask + 1, 20)), v0=start)
+    order = np.argsort(-mu)[:k]
+    mu, phi_s = mu[order], phi_s[:, order]
+    positive = mu > 1e-12
+    mu, phi_s = mu[positive], phi_s[:, positive]
+    phi = np.zeros((mesh.n_dof, len(mu)))
+    phi[mesh.free] = mesh.scale[:, None] * phi_s
+    if mesh.tie is not None:
+        phi = mesh.tie @ phi                       # tied freedoms follow their masters
     return 1.0 / mu, phi
 
 

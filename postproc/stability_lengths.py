@@ -8,9 +8,10 @@ Where each length comes from (the `origin_*` columns say it row by row):
     restraint of the members framing in (`effective_length_ratio`, sway=False).
   - sway effects or the sway imperfection not in the forces (paths 'second-order needed',
     'unstable', 'not evaluated', or `paths.imperfections` False) and a sway mode: for a member in compression the length that gives the member's critical
-    force in the frame's buckling mode, N_cr = alpha_cr |N_Ed|, L_cr = pi sqrt(E I / N_cr)
+    force in the frame's sway mode, N_cr = alpha_cr |N_Ed|, L_cr = pi sqrt(E I / N_cr)
     (5.2.2(8)); this is a lower bound of the member's critical force about either axis, so it is
-    used for both axes of a space frame. A member not in compression gets the sway effective
+    used for both axes of a space frame. Where the member's own non-sway length is longer (its
+    member mode comes before the frame's sway mode), the member keeps its own length. A member not in compression gets the sway effective
     length from its end restraint, or, pinned at both ends (a link that sways with the frame),
     the non-sway length.
   - a member end with no restraint across that axis: the sway effective length, with eta at
@@ -353,6 +354,13 @@ def buckling_lengths(frame: Frame, members: Members, results: Results, paths: pd
         # a member with no sway stiffness of its own (pinned both ends, not in compression)
         # sways as a link with the frame: its own length is the non-sway one
         use_sway = modelled[:, None] & sway_needed[None, :] & ~use_frame & np.isfinite(sw)[:, None]
+        # alpha_cr is the frame's sway mode; a member whose own mode comes first (a member mode
+        # below the sway mode) buckles over its own, longer length: 6.3.1 with that length. It
+        # still takes part in the sway mode, so it stays marked as buckling in a sway mode
+        own_first = (use_frame & (np.isfinite(base) & ~base_s)[:, None]
+                     & (base[:, None] > frame_len))
+        in_sway_mode = use_frame.copy()
+        use_frame &= ~own_first
         L = np.where(use_frame, frame_len, np.where(use_sway, sw[:, None], base[:, None]))
         origin = np.where(use_sway, sw_o[:, None], base_o[:, None]).astype(object)
         fr_text = np.array([f"{FRAME_MODE_ORIGIN}: N_cr = alpha_cr |N_Ed| = {a:.2f} x |N_Ed| "
@@ -366,8 +374,13 @@ def buckling_lengths(frame: Frame, members: Members, results: Results, paths: pd
             origin[long] = [f"{o}; {v:.2f} m = {r:.1f} L, more than {SHOWN_LENGTH_CAP:g} L: "
                             f"shown as {SHOWN_LENGTH_CAP:g} L in the report, the check uses "
                             f"{v:.2f} m" for o, v, r in zip(origin[long], frame_len[long], ratio)]
+        origin = np.where(own_first, base_o[:, None] + "; longer than its length in the frame's "
+                          "sway mode, so the member buckles first over its own length (6.3.1)",
+                          origin)
+        L = np.where(own_first, base[:, None], L)
+        use_sway &= ~own_first
         cols[f"L_cr_{axis}_m"] = L
-        cols[f"sway_{axis}"] = use_frame | np.where(use_sway, sw_s[:, None], base_s[:, None])
+        cols[f"sway_{axis}"] = in_sway_mode | np.where(use_sway, sw_s[:, None], base_s[:, None])
         cols[f"origin_{axis}"] = origin
     for key, name in (("LT", "L_LT_m"), ("T", "L_cr_T_m")):
         cols[name] = np.repeat(np.array([c[key][0] for c in cand])[:, None], C, axis=1)

@@ -23,7 +23,7 @@ OUTPUT_FILES = {
     "summary.csv": "one row per member: largest utilisation, governing combination and check",
     "failures.csv": "overstressed members by combination",
     "members.csv": "design members: their elements, kind, section and restraint points",
-    "stability.csv": "per combination: alpha_cr, sway mode, analysis path",
+    "stability.csv": "per combination: alpha_cr (sway mode), lowest member mode, analysis path",
     "buckling_lengths.csv": "per member and combination: buckling lengths and their origin",
     "settings.csv": "the design settings and national parameters used",
     "report.html": "the report: caution, settings, stability, members, failures",

@@ -689,3 +689,147 @@ def test_portal_combinations_leave_the_relieving_wind_out():
     assert {"ULS 1.35 dead + 1.50 snow", "ULS 1.35 dead + 1.50 roof_access",
             "ULS 1.00 dead + 1.50 wind_left + 0.75 snow"} <= names
     assert "ULS 19 generated, 4 identical dropped, 15 kept" in results.notes[0]
+PLATFORM = """
+import openseespy.opensees as ops
+
+def build_model():
+    ops.wipe()
+    ops.model('basic', '-ndm', 3, '-ndf', 6)
+    E, G, H = 2.1e11, 8.1e10, 3.5
+    heb = (78.08e-4, 59.28e-8, 2003.4e-8, 5696.2e-8)     # A, J, I minor, I major (catalogue)
+    ipe = (53.81e-4, 20.12e-8, 603.8e-8, 8356.1e-8)
+    ops.geomTransf('Linear', 1, 1.0, 0.0, 0.0)           # columns: OpenSees z along X
+    ops.geomTransf('Linear', 2, 0.0, 1.0, 0.0)           # beams along X: z horizontal
+    ops.geomTransf('Linear', 3, 1.0, 0.0, 0.0)           # beams along Y
+    heads = []
+    for a, x in enumerate((0.0, 6.0)):
+        for b, y in enumerate((0.0, 4.0, 8.0)):
+            ops.node(10 * a + b + 1, x, y, 0.0)
+            ops.node(50 + 10 * a + b + 1, x, y, H)
+            ops.fix(10 * a + b + 1, 1, 1, 1, 1, 1, 1)
+            ops.element('elasticBeamColumn', 10 * a + b + 1, 10 * a + b + 1,
+                        50 + 10 * a + b + 1, heb[0], E, G, heb[1], heb[2], heb[3], 1)
+            heads.append(50 + 10 * a + b + 1)
+    for b in range(3):
+        ops.element('elasticBeamColumn', 200 + b, 51 + b, 61 + b, ipe[0], E, G, ipe[1], ipe[2],
+                    ipe[3], 2, '-releasez', 3, '-releasey', 3)
+    for a in range(2):
+        for b in range(2):
+            ops.element('elasticBeamColumn', 300 + 10 * a + b, 51 + 10 * a + b,
+                        52 + 10 * a + b, ipe[0], E, G, ipe[1], ipe[2], ipe[3], 3,
+                        '-releasez', 3, '-releasey', 3)
+    if {diaphragm}:
+        ops.node(100, 3.0, 4.0, H)
+        ops.fix(100, 0, 0, 1, 1, 1, 0)
+        ops.rigidDiaphragm(3, 100, *heads)
+    {extra}
+    ops.timeSeries('Linear', 1)
+    ops.pattern('Plain', 1, 1)
+    for n in heads:
+        ops.load(n, 0.0, 0.0, -900e3 if n in (52, 62) else -150e3, 0.0, 0.0, 0.0)
+"""
+PLATFORM_PROJECT = """
+[model]
+source = "opensees"
+script = "model.py"
+builder = "build_model"
+[model.element_sections]
+{sections}
+[load_cases]
+dead = { category = "permanent", pattern = 1 }
+[combinations]
+method = "none"
+[combinations.extra.unit]
+kind = "ULS"
+factors = { dead = 1.0 }
+"""
+
+
+def platform_project() -> str:
+    names = [f'"{10 * a + b + 1}" = "HEB 200"' for a in range(2) for b in range(3)]
+    names += [f'"{200 + b}" = "IPE 300"' for b in range(3)]
+    names += [f'"{300 + 10 * a + b}" = "IPE 300"' for a in range(2) for b in range(2)]
+    return PLATFORM_PROJECT.replace("{sections}", "\n".join(names))
+
+
+@pytest.mark.parametrize("diaphragm", [False, True])
+def test_platform_diaphragm_reaches_the_buckling_analysis(tmp_path, diaphragm):
+    """Six cantilever columns under a deck of pinned beams, the middle row heavy (the platform
+    of tests/test_stability_ties.py, there checked against OpenSees' own eigen analysis).
+    Expected (textbook elastic stability): heads moving together along X buckle when
+    sum k_i(alpha P_i) = 0, k(Q) = Q k / (tan kL - kL), k = sqrt(Q / EI), a cantilever's lateral
+    stiffness under compression; without the diaphragm the middle row alone, two equal columns:
+    the Euler load of one cantilever, pi^2 E I / (4 L^2)."""
+    from scipy.optimize import brentq
+
+    from postproc.members import design_members
+    from postproc.stability import critical_load_factors
+
+    script = PLATFORM.replace("{diaphragm}", str(diaphragm)).replace("{extra}", "pass")
+    frame, res = run(tmp_path, script, platform_project())
+    assert len(frame.ties) == (6 if diaphragm else 0)
+    if diaphragm:
+        assert set(frame.ties["master"]) == {"100"}
+        assert set(frame.ties["dofs"]) == {"ux uy rz"} and frame.ties["rigid"].all()
+    alpha = critical_load_factors(frame, res, design_members(frame))
+    a = alpha["alpha_cr"].iloc[0]
+    EI, H = E * frame.sections.at["HEB 200", "I_z"], 3.5
+    euler = np.pi ** 2 * EI / (4 * H ** 2)
+    if not diaphragm:
+        assert a == pytest.approx(euler / 900e3, rel=0.01)
+        return
+
+    def stiffness(Q):
+        k = np.sqrt(Q / EI)
+        return Q * k / (np.tan(k * H) - k * H)
+
+    loads = [900e3] * 2 + [150e3] * 4
+    expected = brentq(lambda x: sum(stiffness(x * P) for P in loads), 0.1,
+                      0.999 * euler / 150e3)
+    assert a == pytest.approx(expected, rel=0.01)
+
+
+def test_equal_freedoms_and_rigid_links_are_read(tmp_path):
+    """equalDOF: the listed freedoms, equal; rigidLink 'beam': all six, rigid body; 'bar': the
+    translations, equal (OpenSees' meaning of each). The frame they build stays analysable."""
+    from postproc.members import design_members
+    from postproc.stability import critical_load_factors
+
+    extra = ("ops.equalDOF(51, 52, 1, 2)\n"
+             "    ops.node(101, 6.0, 9.0, 3.5)\n"
+             "    ops.node(102, 6.0, 10.0, 3.5)\n"
+             "    ops.fix(102, 0, 0, 0, 1, 1, 1)\n"
+             "    ops.rigidLink('beam', 63, 101)\n"
+             "    ops.rigidLink('bar', 63, 102)")
+    script = PLATFORM.replace("{diaphragm}", "False").replace("{extra}", extra)
+    frame, res = run(tmp_path, script, platform_project())
+    ties = frame.ties.set_index("node")
+    assert ties.loc["52", ["master", "dofs"]].tolist() == ["51", "ux uy"]
+    assert not ties.at["52", "rigid"]
+    assert ties.loc["101", ["master", "dofs"]].tolist() == ["63", "ux uy uz rx ry rz"]
+    assert ties.at["101", "rigid"]
+    assert ties.loc["102", ["master", "dofs"]].tolist() == ["63", "ux uy uz"]
+    assert not ties.at["102", "rigid"]
+    alpha = critical_load_factors(frame, res, design_members(frame))
+    assert np.isfinite(alpha["alpha_cr"].iloc[0])
+
+
+def test_ties_round_trip_through_the_tables(tmp_path):
+    """The diaphragm of the platform written to ties.csv and read back by the tables adapter:
+    the same ties and the same alpha_cr (the same numbers in, the same analysis)."""
+    from adapters import tables
+    from postproc.members import design_members
+    from postproc.project import read_project
+    from postproc.stability import critical_load_factors
+
+    script = PLATFORM.replace("{diaphragm}", "True").replace("{extra}", "pass")
+    frame, results = run(tmp_path, script, platform_project())
+    opensees.export_tables(frame, results, tmp_path / "tables")
+    (tmp_path / "back.toml").write_text('[model]\nsource = "tables"\ndirectory = "tables"\n'
+                                        'ndm = 3\n[design]\ndefault_grade = "S355"\n')
+    frame2, results2 = tables.load(read_project(tmp_path / "back.toml"))
+    pd.testing.assert_frame_equal(frame.ties.reset_index(drop=True),
+                                  frame2.ties.reset_index(drop=True), check_dtype=False)
+    a1 = critical_load_factors(frame, results, design_members(frame))["alpha_cr"].iloc[0]
+    a2 = critical_load_factors(frame2, results2, design_members(frame2))["alpha_cr"].iloc[0]
+    assert a2 == pytest.approx(a1, rel=1e-9)

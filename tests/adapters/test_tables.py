@@ -150,3 +150,29 @@ def test_bad_input_is_located(demo: Path, case: str, file: str, row: int | None,
         assert error.row == row, str(error)
     if field is not None:
         assert error.field == field, str(error)
+
+
+@pytest.mark.parametrize("text, row, field, message", [
+    ("node,master,dofs,rigid\nN01,N11,ux,0\nN99,N11,ux,0\n", 3, "node", "unknown node"),
+    ("node,master,dofs,rigid\nN01,N01,ux,0\n", 2, "master", "its own master"),
+    ("node,master,dofs,rigid\nN01,N11,ux uz,0\n", 2, "dofs", "must be a list"),
+    ("node,master,dofs,rigid\nN01,N11,ux,2\n", 2, "rigid", "must be 1"),
+    ("node,master,dofs,rigid\nN01,N11,ux,0\nN01,N12,ux uy,0\n", 3, "dofs", "tied twice"),
+    ("node,master,dofs,rigid\nN00,N11,ux,0\n", 2, "dofs", "held by a support"),
+])
+def test_bad_ties_are_located(demo: Path, text: str, row: int, field: str, message: str) -> None:
+    (demo / "tables" / "ties.csv").write_text(text)
+    with pytest.raises(InputError, match=message) as info:
+        _load(demo)
+    assert Path(info.value.file).name == "ties.csv"
+    assert info.value.row == row and info.value.field == field
+
+
+def test_ties_are_read(demo: Path) -> None:
+    (demo / "tables" / "ties.csv").write_text(
+        "node,master,dofs,rigid\n# the two heads move together along X\nN01,N11,ux,0\n"
+        "N02,N12,ux uy rz,1\n")
+    frame, _ = _load(demo)
+    assert frame.ties["node"].tolist() == ["N01", "N02"]
+    assert frame.ties["dofs"].tolist() == ["ux", "ux uy rz"]
+    assert frame.ties["rigid"].tolist() == [False, True]
