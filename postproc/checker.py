@@ -259,7 +259,8 @@ def _with_member_info(rows: MemberRows, overrides: pd.DataFrame | None) -> Membe
     """Add the section class per station, member overrides and the member buckling values."""
     info = dict(rows.info)
     section = {k: v[:, None] for k, v in rows.section.items()}
-    cls, part = section_class(section, rows.f_y[:, None], rows.N, rows.My, rows.Mz)
+    cls, part = section_class(section, rows.f_y[:, None], rows.N, rows.My, rows.Mz,
+                              require_elastic=rows.settings.classification == "also-elastic")
     info["section_class"], info["class_part"] = cls, part
     if overrides is not None and not overrides.empty:
         by_member = overrides.set_index("member")

@@ -12,6 +12,7 @@ from .errors import InputError
 
 ANNEXES = ("A", "B", "both")
 LTB_METHODS = ("general", "rolled")
+CLASSIFICATIONS = ("in-order", "also-elastic")
 
 
 @dataclass(frozen=True)
@@ -29,6 +30,12 @@ class DesignSettings:
         eta: shear area factor of 6.2.6(3); 1.0 is the conservative value that 6.2.6(3) allows.
         default_grade: steel grade for elements that name none.
         utilisation_limit: a check fails above this utilisation (1.0).
+        classification: how Table 5.2 is read: 'in-order' (class 1 or 2 by the plastic limits,
+            else class 3 by the elastic limit, else 4) or 'also-elastic' (class 1 and 2 must also
+            meet the class 3 limit of the elastic distribution; stricter). docs/sections.md.
+        linear_sum_check: also report the conservative linear sum of 6.2.1(7), eq. (6.2), as a
+            check of its own ('linear sum (conservative)'); off by default, since it is an
+            alternative to 6.2.3 to 6.2.10, not a requirement.
     """
 
     gamma_M0: float = 1.00
@@ -41,6 +48,8 @@ class DesignSettings:
     eta: float = 1.0
     default_grade: str = "S355"
     utilisation_limit: float = 1.0
+    classification: str = "in-order"
+    linear_sum_check: bool = False
 
     def __post_init__(self) -> None:
         if self.annex not in ANNEXES:
@@ -49,6 +58,12 @@ class DesignSettings:
         if self.ltb_method not in LTB_METHODS:
             raise InputError(f"ltb_method must be one of {', '.join(LTB_METHODS)}, "
                              f"got '{self.ltb_method}'", field="design.ltb_method")
+        if self.classification not in CLASSIFICATIONS:
+            raise InputError(f"classification must be one of {', '.join(CLASSIFICATIONS)}, "
+                             f"got '{self.classification}'", field="design.classification")
+        if not isinstance(self.linear_sum_check, bool):
+            raise InputError(f"linear_sum_check must be true or false, got "
+                             f"'{self.linear_sum_check}'", field="design.linear_sum_check")
         for name in ("gamma_M0", "gamma_M1", "gamma_M2", "eta"):
             value = getattr(self, name)
             if not (0.5 <= value <= 2.0):
