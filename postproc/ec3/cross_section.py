@@ -433,9 +433,10 @@ def biaxial_moment_utilisation(r_y: ArrayLike, r_z: ArrayLike, alpha: ArrayLike,
     It is r_y or r_z where the other is 0, (r_y^alpha + r_z^alpha)^(1/alpha) where alpha = beta,
     and <= 1 exactly where (6.41) holds; it grows in proportion with the moments.
 
-    Solved in u = 1/k on t = ln u by Newton's method from t = ln max(r_y, r_z): the left side is
-    convex and decreasing in t, so the steps rise monotonically to the root (exponents >= 1, the
-    root lies between max(r_y, r_z) and r_y + r_z).
+    Solved in u = 1/k on t = ln u by Newton's method. With g = max(alpha, beta), the root is at
+    least (r_y^g + r_z^g)^(1/g) (both ratios are <= 1 there, so raising the smaller exponent to g
+    only lowers its term); from that start the left side, convex and decreasing in t, makes the
+    steps rise monotonically to the root. Where alpha = beta the start is the root.
     """
     r_y, r_z, alpha, beta = np.broadcast_arrays(_a(r_y), _a(r_z), _a(alpha), _a(beta))
     u = np.fmax(r_y, r_z)
@@ -443,14 +444,16 @@ def biaxial_moment_utilisation(r_y: ArrayLike, r_z: ArrayLike, alpha: ArrayLike,
     both = (r_y > 0.0) & (r_z > 0.0) & np.isfinite(u)
     if not both.any():
         return u
-    ry, rz, al, be = r_y[both], r_z[both], alpha[both], beta[both]
-    t = np.log(np.maximum(ry, rz))
+    ly, lz, al, be = np.log(r_y[both]), np.log(r_z[both]), alpha[both], beta[both]
+    g = np.maximum(al, be)
+    top = np.maximum(ly, lz)  # ln of (r_y^g + r_z^g)^(1/g), without overflow
+    t = top + np.log(np.exp(g * (ly - top)) + np.exp(g * (lz - top))) / g
     for _ in range(60):
         with np.errstate(over="ignore", under="ignore"):
-            p = np.exp(al * (np.log(ry) - t))
-            q = np.exp(be * (np.log(rz) - t))
+            p = np.exp(al * (ly - t))
+            q = np.exp(be * (lz - t))
         step = (p + q - 1.0) / (al * p + be * q)
-        t = t + step
+        t = t + np.maximum(step, 0.0)  # rounding only: the exact steps are never negative
         if not (np.abs(step) > 1e-14).any():
             break
     u = u.copy()
