@@ -10,6 +10,7 @@ from __future__ import annotations
 import numpy as np
 import pytest
 
+from postproc.errors import InputError
 from postproc.member_check import check_member
 from postproc.settings import DesignSettings
 
@@ -106,3 +107,29 @@ def test_biaxial_bending_without_axial_force_is_checked_by_6_41():
     u = (r_z + np.sqrt(r_z**2 + 4 * r_y**2)) / 2
     assert u == pytest.approx(0.484, abs=5e-4)
     assert k["utilisation"] == pytest.approx(u, rel=HANDBOOK)
+
+
+def test_reading_settings_from_the_project_file_table():
+    st = DesignSettings.from_mapping({"classification": "also-elastic", "linear_sum_check": True})
+    assert st.classification == "also-elastic" and st.linear_sum_check is True
+    assert st.as_dict()["classification"] == "also-elastic"  # echoed in settings.csv
+    with pytest.raises(InputError, match="classification must be one of in-order, also-elastic"
+                       ) as err:
+        DesignSettings.from_mapping({"classification": "strict"})
+    assert err.value.field == "design.classification"
+    with pytest.raises(InputError, match="linear_sum_check must be true or false"):
+        DesignSettings.from_mapping({"linear_sum_check": "yes"})
+
+
+def test_linear_sum_on_request_is_labelled_and_never_lower_than_6_2_9():
+    """The optional linear sum of 6.2.1(7), eq. (6.2), on the IPE 500 above: 250e3 / N_pl,Rd
+    + 14e3 / M_pl,y,Rd = 0.061 + 0.018 (handbook A = 115.5 cm2, W_pl,y = 2194 cm3), above the
+    6.2.9 utilisation 0.018 (hand calculation)."""
+    out = check_member("IPE 500", "S355", length=3.0, N_Ed=-250e3, My_ends=(14e3, 14e3),
+                       settings=DesignSettings(linear_sum_check=True))
+    rows = out["checks"].set_index("check")
+    linear = rows.loc["linear sum (conservative)"]
+    assert linear["clause"] == "6.2.1(7) (6.2)"
+    assert linear["utilisation"] == pytest.approx(250 / (115.5 * 35.5) + 14 / 778.9,
+                                                  rel=HANDBOOK)
+    assert linear["utilisation"] > rows.at["bending and axial force", "utilisation"]
