@@ -458,7 +458,7 @@ def _bending_and_axial(c: _Rows, sv: dict[str, np.ndarray]) -> list[CheckBlock]:
     reason = _reasons(util, [(nan_f, NAN_FORCE), (sv["rho_unknown"], SHEAR_UNKNOWN),
                              *c.class_cases(), (no_geometry, NM_NEEDS_GEOMETRY),
                              _missing("A, W, dimensions or f_y")])
-    applies = c.any_(at_pl) | c.any_(nan_f & ~elastic_side)
+    applies = c.any_(at_pl) | c.any_(c.nan_at(N, My, Mz) & ~elastic_side)
     pl = np.where(c.plastic, 1.0, np.nan)  # plastic quantities only where they were used
     plastic = _block(c, "bending and axial force", "6.2.9.1", util, reason, applies, {
         "N_pl_Rd_N": N_pl, "n": n, "a": a, "a_w": a_w, "a_f": a_f,

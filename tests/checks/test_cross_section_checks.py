@@ -473,3 +473,26 @@ def test_open_section_torsion_stays_not_evaluated_beside_a_checked_hollow_one():
     status = b.status()
     assert status[0] == NOT_EVALUATED and "6.2.7" in b.reason[0]
     assert status[1] == PASS
+
+
+def test_stations_of_two_classes_get_each_criterion_at_their_own_stations():
+    """One row, N with M_y, class 2 at the first two stations and 3 at the last: 6.2.9.1 is
+    evaluated at the class 2 stations only, (6.42) at the class 3 station only."""
+    s = IPE300
+    N, My = -300e3, np.array([40e3, 80e3, 60e3])
+    k = blocks(make_rows([s], N=N, My=My, section_class=[[2, 2, 3]]))
+    pl, el = k["bending and axial force"], k["elastic stress"]
+    assert pl.applies[0] and el.applies[0]
+    assert pl.x[0] == 2.5 and el.x[0] == 5.0
+    n = 300e3 / (s["A"] * S355)
+    a = (s["A"] - 2 * s["b"] * s["t_f"]) / s["A"]  # 6.2.9.1(5)
+    M_pl = s["W_pl_y"] * S355
+    N_lim = 0.5 * (s["h"] - 2 * s["t_f"]) * s["t_w"] * S355  # eq. (6.34)
+    M_N = M_pl if 300e3 <= N_lim and n <= 0.25 else min(M_pl, M_pl * (1 - n) / (1 - 0.5 * a))
+    close(pl.utilisation, 80e3 / M_N)  # eq. (6.31), (6.36)
+    close(el.utilisation, (300e3 / s["A"] + 60e3 / s["W_el_y"]) / S355)  # eq. (6.42)
+    # a NaN force anywhere leaves both not evaluated, never passed
+    My_nan = np.array([[40e3, np.nan, 60e3]])
+    k = blocks(make_rows([s], N=N, My=My_nan, section_class=[[2, 2, 3]]))
+    for name in ("bending and axial force", "elastic stress"):
+        assert k[name].status()[0] == NOT_EVALUATED and k[name].reason[0] == fam.NAN_FORCE
