@@ -57,6 +57,9 @@ def _axial_force_exhausts(block) -> bool:
        vz=shears, t=st.floats(0.0, 0.3), k=st.floats(0.05, 4.0))
 def test_utilisation_scales_with_the_action(name, cls, n, my, mz, vy, vz, t, k):
     s = SECTIONS[name]
+    # fractions under 1e-3 are set to 0: near NOISE (1e-6 of a capacity) a force counts as 0 at
+    # one scale and not at the other, which is a threshold, not a ratio
+    n, my, mz, vy, vz = (v if abs(v) >= 1e-3 else 0.0 for v in (n, my, mz, vy, vz))
     base = {"N": n * s["A"] * S355, "My": my * s["W_pl_y"] * S355,
             "Mz": mz * s["W_pl_z"] * S355, "Vy": vy * s["Av_y"] * S355 / np.sqrt(3),
             "Vz": vz * s["Av_z"] * S355 / np.sqrt(3), "T": 0.0}
