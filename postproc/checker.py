@@ -297,7 +297,8 @@ def _with_member_info(rows: MemberRows, overrides: pd.DataFrame | None) -> Membe
     """Add the section class per station, member overrides and the member buckling values."""
     info = dict(rows.info)
     section = {k: v[:, None] for k, v in rows.section.items()}
-    cls, part = section_class(section, rows.f_y[:, None], rows.N, rows.My, rows.Mz)
+    cls, part = section_class(section, rows.f_y[:, None], rows.N, rows.My, rows.Mz,
+                              require_elastic=rows.settings.classification == "also-elastic")
     info["section_class"], info["class_part"] = cls, part
     # effective properties (EN 1993-1-5) of the rows with a class 4 station, shared by all checks
     info["effective"] = effective_properties_where(rows.section, rows.f_y, row_any(cls == 4))

@@ -14,6 +14,7 @@ ANNEXES = ("A", "B", "both")
 LTB_METHODS = ("general", "rolled")
 K_ZY_ZERO = ("off", "I", "I and RHS")
 BOW_COVERS = ("member checks", "analysis", "not covered")
+CLASSIFICATIONS = ("in-order", "also-elastic")
 
 
 @dataclass(frozen=True)
@@ -54,6 +55,12 @@ class DesignSettings:
             covers it: 'member checks' (default: the 6.3 member checks with their buckling
             lengths cover the bow), 'analysis' (the forces given already include the bows) or
             'not covered' (such rows are reported not evaluated).
+        classification: how Table 5.2 is read: 'in-order' (class 1 or 2 by the plastic limits,
+            else class 3 by the elastic limit, else 4) or 'also-elastic' (class 1 and 2 must also
+            meet the class 3 limit of the elastic distribution; stricter). docs/sections.md.
+        linear_sum_check: also report the conservative linear sum of 6.2.1(7), eq. (6.2), as a
+            check of its own ('linear sum (conservative)'); off by default, since it is an
+            alternative to 6.2.3 to 6.2.10, not a requirement.
     """
 
     gamma_M0: float = 1.00
@@ -72,6 +79,8 @@ class DesignSettings:
     class_3_at_actual_stress: bool = False
     amplify_whole_when_sway_unknown: bool = False
     bow_imperfections: str = "member checks"
+    classification: str = "in-order"
+    linear_sum_check: bool = False
 
     def __post_init__(self) -> None:
         if self.annex not in ANNEXES:
@@ -95,6 +104,12 @@ class DesignSettings:
             raise InputError("amplify_whole_when_sway_unknown must be true or false, got "
                              f"{self.amplify_whole_when_sway_unknown!r}",
                              field="design.amplify_whole_when_sway_unknown")
+        if self.classification not in CLASSIFICATIONS:
+            raise InputError(f"classification must be one of {', '.join(CLASSIFICATIONS)}, "
+                             f"got '{self.classification}'", field="design.classification")
+        if not isinstance(self.linear_sum_check, bool):
+            raise InputError(f"linear_sum_check must be true or false, got "
+                             f"'{self.linear_sum_check}'", field="design.linear_sum_check")
         for name in ("gamma_M0", "gamma_M1", "gamma_M2", "eta"):
             value = getattr(self, name)
             if not (0.5 <= value <= 2.0):

@@ -11,10 +11,19 @@ row. What each block means and when it applies:
   not evaluated (the shear resistance is then EN 1993-1-5's);
 - 'bending and shear' 6.2.8 (rows with |V_Ed| > 0.5 V_pl,Rd somewhere): moment resistances with
   (1 - rho) f_y on the shear areas (eq. (6.30) for I sections about y-y);
-- 'bending and axial force' 6.2.9 (N and a moment at the same station): class 1 and 2 by the
-  M_N formulas of the shape and (6.41), class 3 by (6.42); where |V_Ed| > 0.5 V_pl,Rd at a station
-  the shear-reduced linear sum (6.2.10 with 6.2.1(7)) is used there instead, a conservative form;
-- 'linear sum' 6.2.1(7) eq. (6.2), with the class's resistances reduced for shear (any N or M);
+- 'bending and axial force' 6.2.9.1 (two actions at a station: N with a moment, or M_y with
+  M_z; class 1 and 2 there): M_Ed / M_N,Rd by the M_N formulas of the shape (6.31), and under
+  both moments the inverse of the factor that scales them onto (6.41); class 4 and unknown classes
+  are not evaluated here;
+- 'elastic stress' 6.2.9.2 eq. (6.42) (the same stations, class 3 there): sigma_x,Ed / (f_y /
+  gamma_M0); class 4 ((6.44) with effective properties) is not evaluated. Where
+  |V_Ed| > 0.5 V_pl,Rd at a station (6.2.10): class 1 and 2 I sections under V_z alone and CHS
+  take the 6.2.9.1 formulas on the section with (1 - rho) f_y on the shear area (the web as one
+  (1 - rho_z) t_w thick; the whole ring); other cases, and class 3, the shear-reduced linear sum
+  (6.2.10 with 6.2.1(7)), a conservative form (the row's 'method' says which);
+- 'linear sum (conservative)' 6.2.1(7) eq. (6.2), with the class's resistances reduced for shear
+  (any N or M): only with the setting `linear_sum_check`. It is a conservative alternative to
+  6.2.3-6.2.10, not a further requirement, so by default it is not reported;
 - 'torsion' 6.2.7 (rows whose St Venant shear stress exceeds TORSION_NEGLIGIBLE of the shear
   yield stress): hollow sections are checked for St Venant torsion, alone (6.2.7(5)) and with
   shear (6.2.7(9), eq. 6.28); open sections, where warping carries part of the torsion, are
@@ -61,6 +70,8 @@ WEB_UNKNOWN = ("no web dimensions (GENERIC section): h_w/t_w <= 72 eps/eta of 6.
 NM_NEEDS_GEOMETRY = ("no section dimensions (GENERIC section): the N-M formulas of 6.2.9.1 need "
                      "the geometry")
 SHEAR_UNKNOWN = "shear resistance unknown (A_v or f_y missing): shear reduction of 6.2.8 unknown"
+LINEAR_SUM = "linear sum (conservative)"
+SHEAR_LINEAR_SUM = "shear-reduced linear sum (6.2.10, 6.2)"
 TORSION = "torsion T_Ed not negligible: torsional resistance (6.2.7) not covered by this tool"
 
 
@@ -455,23 +466,22 @@ def _bending_and_shear(c: _Rows, sv: dict[str, np.ndarray]) -> CheckBlock:
     return _block(c, "bending and shear", "6.2.8", util, reason, applies, values)
 
 
-def _bending_and_axial(c: _Rows, sv: dict[str, np.ndarray]) -> CheckBlock:
-    A, h, b, t_w, t_f, t = (c.p(k) for k in ("A", "h", "b", "t_w", "t_f", "t"))
-    shape, N, My, Mz = c.shape, c.N, c.My, c.Mz
-    N_pl = cs.N_pl_Rd(A, c.f_y, gamma_M0=c.gM0)
+def _plastic_N_M(c: _Rows, N_pl: np.ndarray, M_pl_y: np.ndarray, M_pl_z: np.ndarray,
+                 web_factor: np.ndarray | float) -> tuple[np.ndarray, ...]:
+    """M_N,y,Rd, M_N,z,Rd, alpha and beta of 6.2.9.1 at every station, by the formulas of each
+    shape worked out on that shape's rows only. N_pl, M_pl_y, M_pl_z are the resistances (R, 1)
+    or, with shear (6.2.10(3)), the shear-reduced ones (R, S); web_factor is the web's share of
+    f_y (1 - rho_z with shear, else 1), which sets the web's area in a and in (6.33)-(6.35).
+    Without geometry only the single-action cases are open: with N = 0, M_N = M_pl and (6.41)
+    with alpha = beta = 1; with N and M together the formulas are needed (NaN)."""
+    N = c.N
+    h, b, t_w, t_f, t = (c.p(k) for k in ("h", "b", "t_w", "t_f", "t"))
+    is_I, is_RHS, is_CHS = c.shape == "I", c.shape == "RHS", c.shape == "CHS"
     n = np.abs(N) / N_pl
-    M_pl_y = c.p("W_pl_y") * c.f_y / c.gM0
-    M_pl_z = c.p("W_pl_z") * c.f_y / c.gM0
-    is_I, is_RHS, is_CHS = shape == "I", shape == "RHS", shape == "CHS"
     h_w = h - 2.0 * t_f
-    a = np.where(is_I, cs.a_I(A, b, t_f), np.nan)
-    a_w = np.where(is_RHS, cs.a_w_RHS(A, b, t), np.nan)
-    a_f = np.where(is_RHS, cs.a_f_RHS(A, h, t), np.nan)
-    # the M_N formulas and exponents of each shape, worked out on that shape's rows only;
-    # without geometry only the single-action cases are open: with N = 0, M_N = M_pl and
-    # (6.41) with alpha = beta = 1; with N and M together the formulas are needed
     other = np.where(N == 0.0, 1.0, np.nan)
-    M_N_y, M_N_z = M_pl_y * other, M_pl_z * other
+    M_N_y = np.array(np.broadcast_to(M_pl_y * other, (c.R, c.S)))
+    M_N_z = np.array(np.broadcast_to(M_pl_z * other, (c.R, c.S)))
     alpha, beta = np.ones((c.R, c.S)), np.ones((c.R, c.S))
     for kind, mask in (("I", is_I), ("RHS", is_RHS), ("CHS", is_CHS)):
         r = np.flatnonzero(mask[:, 0])
@@ -479,7 +489,10 @@ def _bending_and_axial(c: _Rows, sv: dict[str, np.ndarray]) -> CheckBlock:
             continue
         at = (r[:, None] * c.S + np.arange(c.S)).reshape(-1)  # flat positions of those rows
 
-        def take(values: np.ndarray) -> np.ndarray:
+        def take(values) -> np.ndarray:
+            values = np.asarray(values)
+            if values.ndim < 2:
+                return values
             return np.take(values, r, axis=0)  # much faster than values[r] for many rows
 
         def put(target: np.ndarray, values: np.ndarray) -> None:
@@ -487,58 +500,135 @@ def _bending_and_axial(c: _Rows, sv: dict[str, np.ndarray]) -> CheckBlock:
 
         n_r, f_y = take(n), take(c.f_y)
         if kind == "I":
-            N_r, h_w_r, t_w_r = take(N), take(h_w), take(t_w)
+            N_r, h_w_r, t_w_r = take(N), take(h_w), take(t_w) * take(web_factor)
+            A_r = take(N_pl) * c.gM0 / f_y  # the area that carries f_y (reduced with shear)
+            a_r = cs.a_I(A_r, take(b), take(t_f))
             put(M_N_y, np.where(
                 cs.no_reduction_y_I(N_r, take(N_pl), h_w_r, t_w_r, f_y, gamma_M0=c.gM0),
-                take(M_pl_y), cs.M_N_y_Rd_I(take(M_pl_y), n_r, take(a))))
+                take(M_pl_y), cs.M_N_y_Rd_I(take(M_pl_y), n_r, a_r)))
             put(M_N_z, np.where(cs.no_reduction_z_I(N_r, h_w_r, t_w_r, f_y, gamma_M0=c.gM0),
-                                take(M_pl_z), cs.M_N_z_Rd_I(take(M_pl_z), n_r, take(a))))
+                                take(M_pl_z), cs.M_N_z_Rd_I(take(M_pl_z), n_r, a_r)))
         elif kind == "RHS":
-            put(M_N_y, cs.M_N_y_Rd_RHS(take(M_pl_y), n_r, take(a_w)))
-            put(M_N_z, cs.M_N_z_Rd_RHS(take(M_pl_z), n_r, take(a_f)))
+            A = c.p("A")
+            put(M_N_y, cs.M_N_y_Rd_RHS(take(M_pl_y), n_r, take(cs.a_w_RHS(A, b, t))))
+            put(M_N_z, cs.M_N_z_Rd_RHS(take(M_pl_z), n_r, take(cs.a_f_RHS(A, h, t))))
         else:
             put(M_N_y, cs.M_N_Rd_CHS(take(M_pl_y), n_r))
             put(M_N_z, cs.M_N_Rd_CHS(take(M_pl_z), n_r))
-        alpha_r, beta_r = cs.alpha_beta(take(shape), n_r)
+        alpha_r, beta_r = cs.alpha_beta(take(c.shape), n_r)
         put(alpha, alpha_r)
         put(beta, beta_r)
+    return M_N_y, M_N_z, alpha, beta
+
+
+def _bending_and_axial(c: _Rows, sv: dict[str, np.ndarray]) -> list[CheckBlock]:
+    """6.2.9 where two actions meet at a station (N with a moment, or both moments): class 1 and
+    2 by the plastic criterion of 6.2.9.1 ('bending and axial force'), class 3 by the elastic
+    criterion (6.42) of 6.2.9.2 ('elastic stress'), class 4 by (6.44) of 6.2.9.3 with the
+    effective properties ('elastic stress, effective section')."""
+    A, h, b, t = (c.p(k) for k in ("A", "h", "b", "t"))
+    shape, N, My, Mz = c.shape, c.N, c.My, c.Mz
+    N_pl = cs.N_pl_Rd(A, c.f_y, gamma_M0=c.gM0)
+    n = np.abs(N) / N_pl
+    M_pl_y = c.p("W_pl_y") * c.f_y / c.gM0
+    M_pl_z = c.p("W_pl_z") * c.f_y / c.gM0
+    is_I, is_RHS, is_CHS = shape == "I", shape == "RHS", shape == "CHS"
+    a = np.where(is_I, cs.a_I(A, b, c.p("t_f")), np.nan)
+    a_w = np.where(is_RHS, cs.a_w_RHS(A, b, t), np.nan)
+    a_f = np.where(is_RHS, cs.a_f_RHS(A, h, t), np.nan)
+    M_N_y, M_N_z, alpha, beta = _plastic_N_M(c, N_pl, M_pl_y, M_pl_z, 1.0)
     u_pl = cs.utilisation_N_M(n, My, M_N_y, Mz, M_N_z, alpha, beta, M_pl_y, M_pl_z)
     sigma = cs.sigma_x_Ed(N, My, Mz, A, c.p("W_el_y"), c.p("W_el_z"), circular=is_CHS)
-    u_el = sigma / (c.f_y / c.gM0)
-    u_V = cs.linear_sum(N, np.where(c.plastic | c.elastic | c.effective, sv["N_V_Rd_N"], np.nan),
-                        My, sv["M_y_V_Rd_Nm"], Mz, sv["M_z_V_Rd_Nm"])
+    u_el = np.where(c.elastic, sigma / (c.f_y / c.gM0), np.nan)
+    # class 4: (6.44) with the effective properties and Delta M = N_Ed e_N
     u_eff = er.utilisation_6_44(N, My, Mz, c.e("A_eff"), c.e("W_eff_y"), c.e("W_eff_z"),
                                 c.e("e_N_y"), c.e("e_N_z"), c.f_y, gamma_M0=c.gM0)
-    util = np.where(c.plastic, u_pl, np.where(c.elastic, u_el,
-                                              np.where(c.effective, u_eff, np.nan)))
-    util = np.where(sv["reduced"] | sv["rho_unknown"], u_V, util)
-    idle = (N == 0.0) & (My == 0.0) & (Mz == 0.0)
-    util = np.where(idle, 0.0, util)
+    # with shear (6.2.10) the conservative linear sum on the shear-reduced resistances; the
+    # elastic criterion measures N and M together, the plastic one the moments at the given N
+    N_V = np.where(c.plastic | c.elastic | c.effective, sv["N_V_Rd_N"], np.nan)
+    u_V = cs.linear_sum(N, N_V, My, sv["M_y_V_Rd_Nm"], Mz, sv["M_z_V_Rd_Nm"])
+    u_V_moments = cs.moment_share_of_linear_sum(N, N_V, My, sv["M_y_V_Rd_Nm"], Mz,
+                                                sv["M_z_V_Rd_Nm"])
+    shear = sv["reduced"] | sv["rho_unknown"]
+    # 6.2.10(3) for class 1 and 2, where the 6.2.9.1 formulas keep their form on the section
+    # with (1 - rho) f_y on the shear area: an I section under V_z alone (its web at
+    # (1 - rho_z) f_y acts as a web (1 - rho_z) t_w thick) and a CHS (the whole ring at
+    # (1 - rho) f_y). Elsewhere the conservative linear sum above stays.
+    reduced_plastic = (shear & c.plastic & ~sv["rho_unknown"]
+                       & ((is_I & (sv["rho_y"] == 0.0)) | is_CHS))
+    if reduced_plastic.any():
+        M_N_yV, M_N_zV, alpha_V, beta_V = _plastic_N_M(
+            c, sv["N_V_Rd_N"], sv["M_y_V_Rd_Nm"], sv["M_z_V_Rd_Nm"], 1.0 - sv["rho_z"])
+        u_plV = cs.utilisation_N_M(np.abs(N) / sv["N_V_Rd_N"], My, M_N_yV, Mz, M_N_zV, alpha_V,
+                                   beta_V, sv["M_y_V_Rd_Nm"], sv["M_z_V_Rd_Nm"])
+        u_V_moments = np.where(reduced_plastic, u_plV, u_V_moments)
+        M_N_y, M_N_z, alpha, beta = (np.where(reduced_plastic, v_V, v) for v_V, v in (
+            (M_N_yV, M_N_y), (M_N_zV, M_N_z), (alpha_V, alpha), (beta_V, beta)))
+    nan_f = c.nan_at(N, My, Mz, c.Vy, c.Vz)
+    # two actions at one station: N with a moment, or both moments (6.41 with n = 0)
+    moment = (My != 0.0) | (Mz != 0.0)
+    combined = ((N != 0.0) & moment) | ((My != 0.0) & (Mz != 0.0))
+    class_4 = c.cls == 4
+    elastic_side = c.elastic | class_4
+    # unknown class and NaN forces stay with the plastic criterion, which then is not evaluated
+    at_pl, at_el, at_eff = combined & ~elastic_side, combined & c.elastic, combined & class_4
     no_geometry = c.plastic & ~(is_I | is_RHS | is_CHS) & (N != 0.0)
-    reason = _reasons(util, [(c.nan_at(N, My, Mz, c.Vy, c.Vz), NAN_FORCE),
-                             (sv["rho_unknown"], SHEAR_UNKNOWN), *c.class_cases(),
-                             (no_geometry, NM_NEEDS_GEOMETRY), _missing("A, W, dimensions or f_y")])
-    both = (N != 0.0) & ((My != 0.0) | (Mz != 0.0))
-    applies = c.any_(both) | c.any_(c.nan_at(N, My, Mz))
-    method = _Coded(np.select(
-        [sv["reduced"], c.elastic, c.plastic & is_I, c.plastic & is_RHS, c.plastic & is_CHS,
-         c.plastic, c.effective], [1, 2, 3, 4, 5, 6, 7], default=0).astype(np.int8),
-        ["", "shear-reduced linear sum (6.2.10, 6.2)", "elastic (6.42)", "I (6.33)-(6.38), (6.41)",
-         "RHS (6.39)-(6.41)", "CHS M_pl (1 - n^1.7), (6.41)", "single action, (6.41) with 1, 1",
-         "class 4 effective section (6.44)"])
+    common = {"N_Ed_N": N, "M_y_Ed_Nm": My, "M_z_Ed_Nm": Mz, "rho": sv["rho"],
+              "N_V_Rd_N": _Later(_where_nan, shear, N_V),
+              "M_y_V_Rd_Nm": _Later(_where_nan, shear, sv["M_y_V_Rd_Nm"]),
+              "M_z_V_Rd_Nm": _Later(_where_nan, shear, sv["M_z_V_Rd_Nm"]), **c.common()}
+
+    def method(conditions: list[np.ndarray], texts: list[str]) -> _Coded:
+        """The first of `conditions` that holds names the method at a station."""
+        codes = np.select(conditions, list(range(1, len(texts) + 1)), default=0)
+        return _Coded(codes.astype(np.int8), ["", *texts])
+
+    util = np.where(shear, u_V_moments, np.where(c.plastic, u_pl, np.nan))
+    util = np.where(nan_f, np.nan, np.where(at_pl, util, 0.0))
+    reason = _reasons(util, [(nan_f, NAN_FORCE), (sv["rho_unknown"], SHEAR_UNKNOWN),
+                             *c.class_cases(), (no_geometry, NM_NEEDS_GEOMETRY),
+                             _missing("A, W, dimensions or f_y")])
+    applies = c.any_(at_pl) | c.any_(c.nan_at(N, My, Mz) & ~elastic_side)
     pl = np.where(c.plastic, 1.0, np.nan)  # plastic quantities only where they were used
-    values = {"N_Ed_N": N, "N_pl_Rd_N": N_pl, "n": n, "a": a, "a_w": a_w, "a_f": a_f,
-              "M_y_Ed_Nm": My, "M_pl_y_Rd_Nm": M_pl_y,
-              "M_N_y_Rd_Nm": _Later(np.multiply, M_N_y, pl),
-              "M_z_Ed_Nm": Mz, "M_pl_z_Rd_Nm": M_pl_z,
-              "M_N_z_Rd_Nm": _Later(np.multiply, M_N_z, pl),
-              "alpha": _Later(np.multiply, alpha, pl), "beta": _Later(np.multiply, beta, pl),
-              "sigma_x_Ed_Pa": _Later(_where_nan, c.elastic, sigma), "rho": sv["rho"],
-              "method": method, **c.effective_values(), **c.common()}
-    return _block(c, "bending and axial force", "6.2.9", util, reason, applies, values)
+    plastic = _block(c, "bending and axial force", "6.2.9.1", util, reason, applies, {
+        "N_pl_Rd_N": N_pl, "n": n, "a": a, "a_w": a_w, "a_f": a_f,
+        "M_pl_y_Rd_Nm": M_pl_y, "M_N_y_Rd_Nm": _Later(np.multiply, M_N_y, pl),
+        "M_pl_z_Rd_Nm": M_pl_z, "M_N_z_Rd_Nm": _Later(np.multiply, M_N_z, pl),
+        "alpha": _Later(np.multiply, alpha, pl), "beta": _Later(np.multiply, beta, pl),
+        "method": method(
+            [reduced_plastic & is_I, reduced_plastic & is_CHS, shear, c.plastic & is_I,
+             c.plastic & is_RHS, c.plastic & is_CHS, c.plastic],
+            ["I, web at (1 - rho) f_y (6.2.10), (6.33)-(6.38), (6.41)",
+             "CHS at (1 - rho) f_y (6.2.10), M_pl (1 - n^1.7), (6.41)", SHEAR_LINEAR_SUM,
+             "I (6.33)-(6.38), (6.41)", "RHS (6.39)-(6.41)", "CHS M_pl (1 - n^1.7), (6.41)",
+             "single action, (6.41) with 1, 1"]),
+        **common})
+
+    util = np.where(shear, u_V, u_el)
+    util = np.where(nan_f, np.nan, np.where(at_el, util, 0.0))
+    reason = _reasons(util, [(nan_f, NAN_FORCE), (sv["rho_unknown"], SHEAR_UNKNOWN),
+                             *c.class_cases(), _missing("A, W_el or f_y")])
+    elastic = _block(c, "elastic stress", "6.2.9.2 (6.42)", util, reason, c.any_(at_el), {
+        "sigma_x_Ed_Pa": _Later(_where_nan, c.elastic, sigma), "f_y_over_gamma_M0_Pa":
+        c.f_y / c.gM0, "method": method([shear, c.elastic], [SHEAR_LINEAR_SUM, "elastic (6.42)"]),
+        **common})
+
+    util = np.where(shear, u_V, np.where(c.effective, u_eff, np.nan))
+    util = np.where(nan_f, np.nan, np.where(at_eff, util, 0.0))
+    reason = _reasons(util, [(nan_f, NAN_FORCE), (sv["rho_unknown"], SHEAR_UNKNOWN),
+                             *c.class_cases(), _missing("A_eff, W_eff or f_y")])
+    effective = _block(c, "elastic stress, effective section", "6.2.9.3 (6.44)", util, reason,
+                       c.any_(at_eff), {
+                           "f_y_over_gamma_M0_Pa": c.f_y / c.gM0,
+                           "method": method([shear, c.effective], [
+                               SHEAR_LINEAR_SUM, "class 4 effective section (6.44)"]),
+                           **c.effective_values(), **common})
+    return [plastic, elastic, effective]
 
 
 def _linear_sum(c: _Rows, sv: dict[str, np.ndarray]) -> CheckBlock:
+    """6.2.1(7): the conservative alternative to 6.2.3 to 6.2.10, only where the settings ask
+    for it (`linear_sum_check`); it never replaces the criteria above."""
     N_t = cs.N_t_Rd(c.p("A"), c.f_y, c.A_net, c.f_u, gamma_M0=c.gM0, gamma_M2=c.gM2)
     covered = c.plastic | c.elastic | c.effective
     N_Rd = np.where(c.N > 0.0, np.minimum(N_t, sv["N_V_Rd_N"]),
@@ -552,7 +642,7 @@ def _linear_sum(c: _Rows, sv: dict[str, np.ndarray]) -> CheckBlock:
     values = {"N_Ed_N": c.N, "N_Rd_N": N_Rd, "M_y_Ed_Nm": c.My, "M_y_Rd_Nm": sv["M_y_V_Rd_Nm"],
               "M_z_Ed_Nm": c.Mz, "M_z_Rd_Nm": sv["M_z_V_Rd_Nm"], "rho": sv["rho"],
               **c.effective_values(), **c.common()}
-    return _block(c, "linear sum", "6.2.1(7) (6.2)", util, reason, applies, values)
+    return _block(c, LINEAR_SUM, "6.2.1(7) (6.2)", util, reason, applies, values)
 
 
 def _torsion(c: _Rows) -> CheckBlock:
@@ -593,14 +683,16 @@ def cross_section_checks(rows: MemberRows) -> list[CheckBlock]:
 
     Every cross-section check of every row, at every station. Returns one CheckBlock per check,
     in the order tension, compression, bending y-y, bending z-z, shear z, shear y, shear
-    buckling, bending and shear, bending and axial force, linear sum, torsion (see the module
-    docstring for what each means and when it applies).
+    buckling, bending and shear, bending and axial force, elastic stress, linear sum
+    (conservative; only with the setting `linear_sum_check`), torsion (see the module docstring
+    for what each means and when it applies).
 
     Raises:
         InputError: a net area outside 0 < A_net <= A.
     """
     c = _Rows(rows)
     sv = _shear_reduction(c)
+    optional = [_linear_sum(c, sv)] if rows.settings.linear_sum_check else []
     return [_tension(c), _compression(c), _bending(c, "y"), _bending(c, "z"), _shear(c, "z"),
             _shear(c, "y"), _shear_buckling_unknown(c), _bending_and_shear(c, sv),
-            _bending_and_axial(c, sv), _linear_sum(c, sv), _torsion(c)]
+            *_bending_and_axial(c, sv), *optional, _torsion(c)]

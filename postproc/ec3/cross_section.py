@@ -423,24 +423,61 @@ def alpha_beta(shape: ArrayLike, n: ArrayLike) -> tuple[Array, Array]:
     return alpha, beta
 
 
+def biaxial_moment_utilisation(r_y: ArrayLike, r_z: ArrayLike, alpha: ArrayLike,
+                               beta: ArrayLike) -> Array:
+    """EN 1993-1-1:2005, 6.2.9.1(6), eq. (6.41).
+
+    Utilisation of the biaxial criterion as a ratio of action to resistance: 1 / k, k the factor
+    by which both moments must be scaled (N_Ed held) for (6.41) to hold with equality,
+    (k r_y)^alpha + (k r_z)^beta = 1, with r_y = |M_y,Ed| / M_N,y,Rd and r_z = |M_z,Ed| / M_N,z,Rd.
+    It is r_y or r_z where the other is 0, (r_y^alpha + r_z^alpha)^(1/alpha) where alpha = beta,
+    and <= 1 exactly where (6.41) holds; it grows in proportion with the moments.
+
+    Solved in u = 1/k on t = ln u by Newton's method. With g = max(alpha, beta), the root is at
+    least (r_y^g + r_z^g)^(1/g) (both ratios are <= 1 there, so raising the smaller exponent to g
+    only lowers its term); from that start the left side, convex and decreasing in t, makes the
+    steps rise monotonically to the root. Where alpha = beta the start is the root.
+    """
+    r_y, r_z, alpha, beta = np.broadcast_arrays(_a(r_y), _a(r_z), _a(alpha), _a(beta))
+    u = np.fmax(r_y, r_z)
+    u = np.where(np.isnan(r_y) | np.isnan(r_z) | np.isnan(alpha) | np.isnan(beta), np.nan, u)
+    both = (r_y > 0.0) & (r_z > 0.0) & np.isfinite(u)
+    if not both.any():
+        return u
+    ly, lz, al, be = np.log(r_y[both]), np.log(r_z[both]), alpha[both], beta[both]
+    g = np.maximum(al, be)
+    top = np.maximum(ly, lz)  # ln of (r_y^g + r_z^g)^(1/g), without overflow
+    t = top + np.log(np.exp(g * (ly - top)) + np.exp(g * (lz - top))) / g
+    for _ in range(60):
+        with np.errstate(over="ignore", under="ignore"):
+            p = np.exp(al * (ly - t))
+            q = np.exp(be * (lz - t))
+        step = (p + q - 1.0) / (al * p + be * q)
+        t = t + np.maximum(step, 0.0)  # rounding only: the exact steps are never negative
+        if not (np.abs(step) > 1e-14).any():
+            break
+    u = u.copy()
+    u[both] = np.exp(t)
+    return u
+
+
 def utilisation_N_M(n: ArrayLike, M_y_Ed: ArrayLike, M_N_y_Rd: ArrayLike, M_z_Ed: ArrayLike,
                     M_N_z_Rd: ArrayLike, alpha: ArrayLike, beta: ArrayLike,
                     M_pl_y_Rd: ArrayLike, M_pl_z_Rd: ArrayLike) -> Array:
     """EN 1993-1-1:2005, 6.2.9.1, eq. (6.31) and (6.41).
 
-    Utilisation of the plastic N-M criterion: the largest of n, |M_y,Ed| / M_N,y,Rd,
-    |M_z,Ed| / M_N,z,Rd and the left side of (6.41), (|M_y,Ed| / M_N,y,Rd)^alpha +
-    (|M_z,Ed| / M_N,z,Rd)^beta. It is <= 1 exactly where (6.31) and (6.41) hold and equals
-    M_Ed / M_N,Rd under bending about one axis. Where n >= 1 the M_N are not positive and the
+    Utilisation of the plastic N-M criterion, a ratio of the moments to the resistance at the
+    given N_Ed: M_Ed / M_N,Rd (eq. (6.31)) under bending about one axis, and under both moments
+    the inverse of the factor that scales them onto (6.41) (`biaxial_moment_utilisation`). It is
+    <= 1 exactly where (6.31) and (6.41) hold. N_Ed alone is measured by 6.2.3 and 6.2.4. Where
+    n >= 1 the M_N are not positive and no scale of the moments satisfies the criterion: the
     finite n + |M_y,Ed| / M_pl,y,Rd + |M_z,Ed| / M_pl,z,Rd (>= 1, a failure) is returned instead.
     """
     n = _a(n)
     r_y = _ratio(np.abs(_a(M_y_Ed)), M_N_y_Rd)
     r_z = _ratio(np.abs(_a(M_z_Ed)), M_N_z_Rd)
-    with np.errstate(over="ignore", invalid="ignore"):
-        lhs = r_y ** _a(alpha) + r_z ** _a(beta)
-    u = np.fmax(np.fmax(n, r_y), np.fmax(r_z, lhs))
-    u = np.where(np.isnan(n) | np.isnan(r_y) | np.isnan(r_z) | np.isnan(lhs), np.nan, u)
+    u = biaxial_moment_utilisation(r_y, r_z, alpha, beta)
+    u = np.where(np.isnan(n), np.nan, u)
     over = n + _ratio(np.abs(_a(M_y_Ed)), M_pl_y_Rd) + _ratio(np.abs(_a(M_z_Ed)), M_pl_z_Rd)
     return np.where(n >= 1.0, over, u)
 
@@ -470,6 +507,22 @@ def linear_sum(N_Ed: ArrayLike, N_Rd: ArrayLike, M_y_Ed: ArrayLike, M_y_Rd: Arra
     """
     return (_ratio(np.abs(_a(N_Ed)), N_Rd) + _ratio(np.abs(_a(M_y_Ed)), M_y_Rd)
             + _ratio(np.abs(_a(M_z_Ed)), M_z_Rd))
+
+
+def moment_share_of_linear_sum(N_Ed: ArrayLike, N_Rd: ArrayLike, M_y_Ed: ArrayLike,
+                               M_y_Rd: ArrayLike, M_z_Ed: ArrayLike, M_z_Rd: ArrayLike) -> Array:
+    """EN 1993-1-1:2005, 6.2.1(7), eq. (6.2).
+
+    The linear sum read as a utilisation of the moments at the given N_Ed: 1 / k, k the factor
+    by which both moments must be scaled for eq. (6.2) to hold with equality,
+    (|M_y,Ed| / M_y,Rd + |M_z,Ed| / M_z,Rd) / (1 - |N_Ed| / N_Rd). Where N_Ed alone reaches
+    N_Rd no scale helps: the finite linear sum itself (>= 1, a failure) is returned.
+    """
+    n = _ratio(np.abs(_a(N_Ed)), N_Rd)
+    m = _ratio(np.abs(_a(M_y_Ed)), M_y_Rd) + _ratio(np.abs(_a(M_z_Ed)), M_z_Rd)
+    with np.errstate(divide="ignore", invalid="ignore"):
+        share = np.where(m == 0.0, 0.0, m / (1.0 - n))
+    return np.where(n >= 1.0, n + m, share)
 
 
 # --- 6.2.7 torsion -------------------------------------------------------------------------------

@@ -15,10 +15,16 @@ How the stress distribution of each part is found:
 - A part with no compression is class 1 ('tension parts are class 1'). Under net tension with a
   moment, the plastic distribution (N fixed, the moment grown to the resistance) may still put
   part of a web in compression, and that part is classified.
-- The class must hold under both distributions: a part is class 1 only if it also meets the
-  class 2 and class 3 limits, class 2 only if it also meets class 3. With a small moment and a
-  large axial force the plastic alpha alone would credit a slender web with class 2 while the
-  elastic psi shows almost uniform compression; this rule never lets that pass.
+- Table 5.2 is read in order (the default): class 1 where c/t is within the class 1 limit of the
+  plastic distribution, else class 2 within the class 2 limit of the plastic distribution, else
+  class 3 within the class 3 limit of the elastic distribution, else class 4. The plastic alpha
+  does not depend on the size of the moment, so a given N_Ed gives the same class 1 or 2 for any
+  moment; only with no moment at all (uniform compression, alpha = 1) do the limits drop to those
+  of compression.
+- `require_elastic=True` (setting `classification = "also-elastic"`) is the stricter reading: a
+  part is class 1 or 2 only if it also meets the class 3 limit of its elastic distribution, so a
+  small moment with a large axial force never credits a slender web with class 2 on the plastic
+  alpha alone (a part may then be class 4 although the plastic limits hold).
 
 Parts (plate dimensions from the sections table, see `postproc.sections`):
 - I: the web is an internal part bent about y-y with N (Table 5.2 sheet 1); the flanges are
@@ -141,22 +147,31 @@ def chs_limits(eps: Array) -> tuple[Array, Array, Array]:
     return 50.0 * eps2, 70.0 * eps2, 90.0 * eps2
 
 
-def class_from_limits(ratio: Array, lim_1: Array, lim_2: Array, lim_3: Array) -> Array:
-    """Class 1..4 of a part with slenderness `ratio` (c/t or d/t); a part is in a class only if
-    it also meets the limits of every higher class number (module docstring). NaN gives 0."""
+def class_from_limits(ratio: Array, lim_1: Array, lim_2: Array, lim_3: Array, *,
+                      require_elastic: bool = False) -> Array:
+    """EN 1993-1-1:2005, 5.5.2(6), Table 5.2.
+
+    Class 1..4 of a part with slenderness `ratio` (c/t or d/t), the limits taken in the order of
+    the table: class 1 if ratio <= lim_1, else 2 if <= lim_2, else 3 if <= lim_3, else 4. With
+    `require_elastic` a part is class 1 or 2 only if it also meets lim_3 (the stricter reading,
+    module docstring). NaN gives 0 (unknown).
+    """
     ok_3 = ratio <= lim_3
-    ok_2 = ok_3 & (ratio <= lim_2)
-    ok_1 = ok_2 & (ratio <= lim_1)
+    ok_2 = ratio <= lim_2
+    ok_1 = ratio <= lim_1
+    if require_elastic:
+        ok_2 = ok_2 & ok_3
+        ok_1 = ok_1 & ok_2
     cls = np.where(ok_1, 1, np.where(ok_2, 2, np.where(ok_3, 3, 4)))
     unknown = np.isnan(ratio) | np.isnan(lim_1) | np.isnan(lim_2) | np.isnan(lim_3)
     return np.where(unknown, 0, cls).astype(np.int8)
 
 
-def _with_closeness(ratio: Array, lim_1: Array, lim_2: Array, lim_3: Array
+def _with_closeness(ratio: Array, lim_1: Array, lim_2: Array, lim_3: Array, strict: bool
                     ) -> tuple[Array, Array]:
     """Class and c/t over the limit of that class (class 4: over the class 3 limit); the second
     number breaks ties between parts of the same class (the part nearer its limit governs)."""
-    cls = class_from_limits(ratio, lim_1, lim_2, lim_3)
+    cls = class_from_limits(ratio, lim_1, lim_2, lim_3, require_elastic=strict)
     limit = np.where(cls == 1, lim_1, np.where(cls == 2, lim_2, lim_3))
     with np.errstate(divide="ignore", invalid="ignore"):
         closeness = np.where(np.isfinite(limit), ratio / limit, 0.0)
@@ -164,7 +179,7 @@ def _with_closeness(ratio: Array, lim_1: Array, lim_2: Array, lim_3: Array
 
 
 def _internal_part(c: Array, t: Array, f_y: Array, eps: Array, F_c: Array, bending: Array,
-                   sigma_mid: Array, sigma_bend: Array) -> tuple[Array, Array]:
+                   sigma_mid: Array, sigma_bend: Array, strict: bool) -> tuple[Array, Array]:
     """Class of an internal part (sheet 1) of length c and thickness t.
 
     Plastic: F_c (compression force, N) carried by the part beyond its share of pure bending,
@@ -188,11 +203,11 @@ def _internal_part(c: Array, t: Array, f_y: Array, eps: Array, F_c: Array, bendi
     lim_3 = np.where(compressed, internal_part_limit_elastic(psi, eps), inf)
     ratio = c / t
     nan = np.isnan(F_c) | np.isnan(sigma_mid) | np.isnan(sigma_bend)
-    return _with_closeness(np.where(nan, np.nan, ratio), lim_1, lim_2, lim_3)
+    return _with_closeness(np.where(nan, np.nan, ratio), lim_1, lim_2, lim_3, strict)
 
 
 def _outstands(c: Array, t: Array, b: Array, f_y: Array, eps: Array, F_c: Array, gradient: Array,
-               sigma_0: Array, sigma_tip: Array) -> tuple[Array, Array]:
+               sigma_0: Array, sigma_tip: Array, strict: bool) -> tuple[Array, Array]:
     """Class of the two outstands of a flange (sheet 2), worst of the two.
 
     Plastic: flange compression force F_c (N) on a plate b x t; `gradient` where M_z bends it.
@@ -228,7 +243,8 @@ def _outstands(c: Array, t: Array, b: Array, f_y: Array, eps: Array, F_c: Array,
             psi = np.where(compressed, np.minimum(s_tip, s_root) / sigma_1, 1.0)
         lim_3 = np.where(compressed, outstand_limit_elastic(psi, tip_elastic, eps), inf)
         nan = np.isnan(F_c) | np.isnan(sigma_0) | np.isnan(sigma_tip)
-        classes.append(_with_closeness(np.where(nan, np.nan, c / t), lim_1, lim_2, lim_3))
+        classes.append(_with_closeness(np.where(nan, np.nan, c / t), lim_1, lim_2, lim_3,
+                                       strict))
     return _worse(classes[0], classes[1])[:2]
 
 
@@ -253,7 +269,7 @@ def _shares(My: Array, Mz: Array, f_y: Array, W_pl_y: Array, W_pl_z: Array) -> t
 
 
 def _i_classes(s: dict[str, Array], f_y: Array, eps: Array, N_c: Array, My: Array,
-               Mz: Array) -> tuple[tuple[Array, Array], tuple[Array, Array]]:
+               Mz: Array, strict: bool) -> tuple[tuple[Array, Array], tuple[Array, Array]]:
     A, I_y, I_z = s["A"], s["I_y"], s["I_z"]
     b, t_f = s["b"], s["t_flange"]
     c_w, t_w, c_f = s["c_web"], s["t_web"], s["c_flange"]
@@ -261,18 +277,18 @@ def _i_classes(s: dict[str, Array], f_y: Array, eps: Array, N_c: Array, My: Arra
     bend_z = np.abs(Mz) > _TINY * f_y * s["W_el_z"]
     # web: N and M_y (M_z puts almost no stress on the web, which lies on the z-z axis)
     web = _internal_part(c_w, t_w, f_y, eps, F_c=N_c, bending=bend_y, sigma_mid=N_c / A,
-                         sigma_bend=np.abs(My) * (c_w / 2.0) / I_y)
+                         sigma_bend=np.abs(My) * (c_w / 2.0) / I_y, strict=strict)
     # flanges: the more compressed flange, with its share of N and of the M_y mechanism
     phi_y, _ = _shares(My, Mz, f_y, s["W_pl_y"], s["W_pl_z"])
     F_c = N_c * b * t_f / A + phi_y * b * t_f * f_y
     flange = _outstands(c_f, t_f, b, f_y, eps, F_c=F_c, gradient=bend_z,
                         sigma_0=N_c / A + np.abs(My) / s["W_el_y"],
-                        sigma_tip=np.abs(Mz) / s["W_el_z"])
+                        sigma_tip=np.abs(Mz) / s["W_el_z"], strict=strict)
     return web, flange
 
 
 def _rhs_classes(s: dict[str, Array], f_y: Array, eps: Array, N_c: Array, My: Array,
-                 Mz: Array) -> tuple[Array, Array]:
+                 Mz: Array, strict: bool) -> tuple[Array, Array]:
     """Class of the worst wall (and its closeness to the limit)."""
     A, I_y, I_z, h, b, t = s["A"], s["I_y"], s["I_z"], s["h"], s["b"], s["t_web"]
     c_w, c_f = s["c_web"], s["c_flange"]
@@ -287,15 +303,15 @@ def _rhs_classes(s: dict[str, Array], f_y: Array, eps: Array, N_c: Array, My: Ar
     F_y = np.where(bend_z, N_c / 2.0, N_c * c_f * t / A) + phi_y * c_f * t * f_y
     walls_z = _internal_part(c_w, t, f_y, eps, F_c=F_z, bending=bend_y,
                              sigma_mid=N_c / A + np.abs(Mz) * (b / 2.0) / I_z,
-                             sigma_bend=np.abs(My) * (c_w / 2.0) / I_y)
+                             sigma_bend=np.abs(My) * (c_w / 2.0) / I_y, strict=strict)
     walls_y = _internal_part(c_f, t, f_y, eps, F_c=F_y, bending=bend_z,
                              sigma_mid=N_c / A + np.abs(My) * (h / 2.0) / I_y,
-                             sigma_bend=np.abs(Mz) * (c_f / 2.0) / I_z)
+                             sigma_bend=np.abs(Mz) * (c_f / 2.0) / I_z, strict=strict)
     return _worse(walls_z, walls_y)[:2]
 
 
 def _chs_class(s: dict[str, Array], f_y: Array, eps: Array, N_c: Array, My: Array,
-               Mz: Array) -> Array:
+               Mz: Array, strict: bool) -> Array:
     # the wall has compression somewhere under N_c > 0 or any moment (plastic distribution with
     # N fixed and the moment grown to the resistance); only pure tension makes it class 1
     M = np.hypot(My, Mz)
@@ -309,10 +325,13 @@ def _chs_class(s: dict[str, Array], f_y: Array, eps: Array, N_c: Array, My: Arra
 
 
 def section_class(section: dict[str, np.ndarray], f_y: np.ndarray, N_Ed: np.ndarray,
-                  My_Ed: np.ndarray, Mz_Ed: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
+                  My_Ed: np.ndarray, Mz_Ed: np.ndarray, *, require_elastic: bool = False
+                  ) -> tuple[np.ndarray, np.ndarray]:
     """EN 1993-1-1:2005, 5.5.2, Table 5.2.
 
-    Cross-section class under N_Ed, My_Ed, Mz_Ed (module docstring: how).
+    Cross-section class under N_Ed, My_Ed, Mz_Ed (module docstring: how). The limits are taken
+    in the order of the table; `require_elastic` asks class 1 and 2 parts to meet the class 3
+    limit of their elastic distribution too (the stricter reading, setting `classification`).
 
     `section` maps the sections table's columns to arrays; every array broadcasts with f_y (Pa)
     and the forces (N, N*m; N > 0 tension), e.g. section arrays and f_y of shape (R, 1) against
@@ -364,7 +383,8 @@ def section_class(section: dict[str, np.ndarray], f_y: np.ndarray, N_Ed: np.ndar
             continue
         sub = {k: only(sel, v) for k, v in s.items()}
         f_y_s = only(sel, f_y)
-        args = (sub, f_y_s, epsilon(f_y_s), only(sel, N_c), only(sel, My), only(sel, Mz))
+        args = (sub, f_y_s, epsilon(f_y_s), only(sel, N_c), only(sel, My), only(sel, Mz),
+                require_elastic)
         with np.errstate(invalid="ignore", divide="ignore"):
             if kind == "I":
                 web, flange = _i_classes(*args)

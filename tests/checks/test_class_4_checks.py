@@ -55,7 +55,7 @@ def test_bending_and_eq_6_44():
     bending = table.loc["bending y-y"]
     assert bending["section_class"] == 4
     assert bending["M_c_y_Rd_Nm"] == pytest.approx(1179.41e3, rel=HAND)
-    both = table.loc["bending and axial force"]
+    both = table.loc["elastic stress, effective section"]
     assert both["method"] == "class 4 effective section (6.44)"
     assert both["utilisation"] == pytest.approx(0.311884 + 0.678304, rel=HAND)
     # 6.3.2: W_y = W_eff,y in lambda_bar_LT and M_b,Rd (eq. 6.55)

@@ -9,6 +9,7 @@ from __future__ import annotations
 
 import numpy as np
 import pytest
+from scipy.optimize import brentq
 
 from postproc.checks import cross_section as fam
 from postproc.checks.base import FAIL, NOT_EVALUATED, PASS, MemberRows
@@ -70,6 +71,14 @@ def make_rows(sections, *, N=0.0, Vy=0.0, Vz=0.0, T=0.0, My=0.0, Mz=0.0, section
         G=np.full(R, 81e9), info=info, settings=settings or DesignSettings())
 
 
+def scale_onto_6_41(r_y: float, r_z: float, alpha: float, beta: float) -> float:
+    """Reference for the biaxial utilisation: u with (r_y/u)^alpha + (r_z/u)^beta = 1, found by
+    scipy's brentq between max(r_y, r_z) and r_y + r_z (reference library)."""
+    lo, hi = max(r_y, r_z), r_y + r_z
+    return brentq(lambda u: (r_y / u) ** alpha + (r_z / u) ** beta - 1.0, lo, hi, xtol=1e-15,
+                  rtol=1e-14)
+
+
 def blocks(rows):
     out = fam.cross_section_checks(rows)
     return {b.check: b for b in out}
@@ -83,7 +92,8 @@ def test_one_block_per_check_in_order():
     b = fam.cross_section_checks(make_rows([IPE300], N=-100e3))
     assert [k.check for k in b] == [
         "tension", "compression", "bending y-y", "bending z-z", "shear z", "shear y",
-        "shear buckling", "bending and shear", "bending and axial force", "linear sum", "torsion"]
+        "shear buckling", "bending and shear", "bending and axial force", "elastic stress",
+        "elastic stress, effective section", "torsion"]
     for k in b:
         assert k.utilisation.shape == k.x.shape == k.applies.shape == k.reason.shape == (1,)
 
@@ -139,11 +149,19 @@ def test_class_4_and_unknown_not_evaluated_but_tension_and_shear_are():
     s = IPE300
     b = blocks(make_rows([s, s], N=[-100e3, -100e3, 50e3], My=20e3, Vz=10e3,
                          section_class=[[4, 4, 4], [0, 0, 0]]))
-    for name in ("compression", "bending y-y", "bending and axial force", "linear sum"):
+    for name in ("compression", "bending y-y"):
         k = b[name]
         assert np.all(np.isnan(k.utilisation)), name
         assert list(k.reason) == [fam.CLASS_4, fam.CLASS_UNKNOWN], name
         assert list(k.status()) == [NOT_EVALUATED] * 2, name
+    # N with M: class 4 belongs to (6.44) of 6.2.9.3 (here without effective properties: the
+    # class was given, not found from the geometry), an unknown class to the plastic criterion;
+    # each is not evaluated, neither passes
+    k, e = b["bending and axial force"], b["elastic stress, effective section"]
+    np.testing.assert_array_equal(k.applies, [False, True])
+    np.testing.assert_array_equal(e.applies, [True, False])
+    assert e.reason[0] == fam.CLASS_4 and e.status()[0] == NOT_EVALUATED
+    assert k.reason[1] == fam.CLASS_UNKNOWN and k.status()[1] == NOT_EVALUATED
     # gross-section tension and shear do not depend on the class
     for name in ("tension", "shear z"):
         assert list(b[name].status()) == [PASS, PASS], name
@@ -152,7 +170,7 @@ def test_class_4_and_unknown_not_evaluated_but_tension_and_shear_are():
 def test_generic_checkable_where_no_geometry_is_needed():
     g = generic(IPE300)
     b = blocks(make_rows([g], N=-300e3, My=80e3, Vz=50e3))
-    for name in ("compression", "bending y-y", "shear z", "linear sum"):
+    for name in ("compression", "bending y-y", "shear z"):
         assert list(b[name].status()) == [PASS], name
     close(b["shear z"].values["V_pl_z_Rd_N"], g["Av_z"] * S355 / np.sqrt(3))  # eq. (6.18)
     k = b["bending and axial force"]
@@ -165,11 +183,15 @@ def test_generic_class_3_uses_6_42_and_single_actions_need_no_geometry():
     g = generic(IPE300)
     b = blocks(make_rows([g, g], N=[[-300e3], [0.0]], My=80e3, Mz=[[0.0], [4e3]],
                          section_class=[[3, 3, 3], [1, 1, 1]]))
-    k = b["bending and axial force"]
+    e, k = b["elastic stress"], b["bending and axial force"]
     # eq. (6.42): sigma = N/A + M_y/W_el,y, utilisation sigma / (f_y / gamma_M0)
-    close(k.utilisation[0], (300e3 / g["A"] + 80e3 / g["W_el_y"]) / S355)
-    # row 2 has no N: 6.2.9 does not apply, and nothing in it needs the geometry
-    assert not k.applies[1] and k.reason[1] == ""
+    close(e.utilisation[0], (300e3 / g["A"] + 80e3 / g["W_el_y"]) / S355)
+    assert e.clause == "6.2.9.2 (6.42)" and e.values["method"][0] == "elastic (6.42)"
+    assert not k.applies[0] and not e.applies[1]
+    # row 2 has no N but both moments: (6.41) with n = 0 and alpha = beta = 1 (the value
+    # 6.2.9.1(6) allows without the shape), M_N = M_pl; no geometry needed
+    close(k.utilisation[1], 80e3 / (g["W_pl_y"] * S355) + 4e3 / (g["W_pl_z"] * S355))
+    assert k.status()[1] == PASS and k.reason[1] == ""
     assert not b["shear buckling"].applies.any()  # no shear, nothing to verify
 
 
@@ -210,8 +232,12 @@ def test_bending_and_shear_boundary_and_6_30():
     M_y_V = (s["W_pl_y"] - 0.25 * A_w**2 / (4 * s["t_w"])) * f_y  # eq. (6.30)
     close(k.values["M_y_V_Rd_Nm"][1], M_y_V)
     close(k.utilisation[1], 100e3 / M_y_V)
-    # the linear sum uses the reduced resistance too (6.2.1(7): "including any reduction")
-    close(b["linear sum"].utilisation[1], 100e3 / M_y_V)
+    # the optional linear sum uses the reduced resistance too (6.2.1(7): "including any
+    # reduction"); it is reported only when the settings ask for it
+    assert fam.LINEAR_SUM not in b
+    on = blocks(make_rows([s, s], Vz=V, My=100e3, f_y=f_y,
+                          settings=DesignSettings(linear_sum_check=True)))
+    close(on[fam.LINEAR_SUM].utilisation[1], 100e3 / M_y_V)
 
 
 def test_bending_and_axial_force_I_formulas_hand_worked():
@@ -226,16 +252,20 @@ def test_bending_and_axial_force_I_formulas_hand_worked():
     M_N_y = min(M_pl_y * (1 - n) / (1 - 0.5 * a), M_pl_y)  # eq. (6.36)
     M_N_z = M_pl_z if n <= a else M_pl_z * (1 - ((n - a) / (1 - a)) ** 2)  # eq. (6.37)/(6.38)
     beta = max(5 * n, 1.0)  # 6.2.9.1(6)
-    lhs = (My / M_N_y) ** 2 + (Mz / M_N_z) ** beta  # eq. (6.41)
+    u = scale_onto_6_41(My / M_N_y, Mz / M_N_z, 2.0, beta)  # eq. (6.41), moments scaled
     close(k.values["n"], n)
     close(k.values["a"], a)
     close(k.values["M_N_y_Rd_Nm"], M_N_y)
     close(k.values["M_N_z_Rd_Nm"], M_N_z)
     close(k.values["alpha"], 2.0)
     close(k.values["beta"], beta)
-    close(k.utilisation, max(n, My / M_N_y, Mz / M_N_z, lhs))
-    # the linear sum (6.2) is never less than the 6.2.9 criterion: it is the conservative one
-    assert b["linear sum"].utilisation[0] >= k.utilisation[0]
+    close(k.utilisation, u, rel=1e-12)
+    assert k.clause == "6.2.9.1" and "elastic stress" not in {n for n, v in b.items()
+                                                              if v.applies.any()}
+    # the optional linear sum (6.2) is never less than the 6.2.9 criterion: the conservative one
+    on = blocks(make_rows([s], N=N, My=My, Mz=Mz, settings=DesignSettings(linear_sum_check=True)))
+    assert on[fam.LINEAR_SUM].utilisation[0] >= k.utilisation[0]
+    assert on[fam.LINEAR_SUM].clause == "6.2.1(7) (6.2)"
 
 
 def test_no_reduction_allowance_at_6_34_limit():
@@ -267,7 +297,7 @@ def test_nan_force_is_never_a_pass():
     s = IPE300
     My = np.array([[10e3, np.nan, 30e3]])
     b = blocks(make_rows([s], N=-100e3, My=My))
-    for name in ("bending y-y", "bending and axial force", "linear sum"):
+    for name in ("bending y-y", "bending and axial force"):
         k = b[name]
         assert k.applies[0] and np.isnan(k.utilisation[0]), name
         assert k.reason[0] == fam.NAN_FORCE and k.x[0] == 2.5, name
@@ -289,7 +319,7 @@ def test_padding_stations_are_ignored():
 def test_noise_forces_count_as_zero():
     s = IPE300
     b = blocks(make_rows([s], N=1e-7, Vz=-1e-9, My=1e-6))  # far below 1e-6 of the capacities
-    for name in ("tension", "shear z", "bending y-y", "linear sum"):
+    for name in ("tension", "shear z", "bending y-y", "bending and axial force"):
         assert not b[name].applies[0], name
 
 
@@ -299,12 +329,13 @@ def test_utilisation_grows_with_load(cls):
     k = np.array([0.2, 0.5, 0.8, 1.1, 1.4])
     # one row per load level: N = -k 500 kN, M_y = k 60 kNm, M_z = k 15 kNm, V_z = k 120 kN
     rows = make_rows([s] * k.size, N=-500e3 * k[:, None], My=60e3 * k[:, None],
-                     Mz=15e3 * k[:, None], Vz=120e3 * k[:, None], section_class=cls, f_y=235e6)
+                     Mz=15e3 * k[:, None], Vz=120e3 * k[:, None], section_class=cls, f_y=235e6,
+                     settings=DesignSettings(linear_sum_check=True))
     for blk in fam.cross_section_checks(rows):
         if not blk.applies.all():
             continue
         assert np.all(np.diff(blk.utilisation) > 0), blk.check
-    assert list(blocks(rows)["linear sum"].status()[[0, -1]]) == [PASS, FAIL]
+    assert list(blocks(rows)[fam.LINEAR_SUM].status()[[0, -1]]) == [PASS, FAIL]
 
 
 def test_settings_partial_factors_are_used():
@@ -351,11 +382,13 @@ def test_bending_and_axial_force_rhs_6_39_6_41():
     M_pl = s["W_pl_y"] * S355
     M_N = min(M_pl, M_pl * (1 - n) / (1 - 0.5 * a_w))  # eq. (6.39), (6.40) (square: a_f = a_w)
     alpha = min(1.66 / (1 - 1.13 * n**2), 6.0)  # 6.2.9.1(6)
-    lhs = (My / M_N) ** alpha + (Mz / M_N) ** alpha  # eq. (6.41)
+    # eq. (6.41) with alpha = beta: the moments scaled by 1/u reach it where
+    # (My^alpha + Mz^alpha) / (u M_N)^alpha = 1 (algebra)
+    u = (My**alpha + Mz**alpha) ** (1 / alpha) / M_N
     close(k.values["a_w"], a_w)
     close(k.values["M_N_y_Rd_Nm"], M_N)
     close(k.values["alpha"], alpha)
-    close(k.utilisation, max(n, My / M_N, lhs))
+    close(k.utilisation, u, rel=1e-12)
     assert k.values["method"][0].startswith("RHS")
 
 
@@ -363,13 +396,15 @@ def test_bending_and_axial_force_chs_and_class_3_ring():
     s = CHS168
     N, My, Mz = -500e3, 30e3, 20e3
     b = blocks(make_rows([s, s], N=N, My=My, Mz=Mz, section_class=[[2] * 3, [3] * 3]))
-    k = b["bending and axial force"]
+    k, e = b["bending and axial force"], b["elastic stress"]
     n = 500e3 / (s["A"] * S355)
     M_N = s["W_pl_y"] * S355 * (1 - n**1.7)  # design guidance for CHS (from memory)
-    lhs = (My / M_N) ** 2 + (Mz / M_N) ** 2  # eq. (6.41), alpha = beta = 2
-    close(k.utilisation[0], max(n, My / M_N, lhs))
+    # eq. (6.41), alpha = beta = 2: the resultant moment over M_N (algebra)
+    close(k.utilisation[0], np.hypot(My, Mz) / M_N, rel=1e-12)
     # class 3: eq. (6.42) with the resultant moment on the ring
-    close(k.utilisation[1], (500e3 / s["A"] + np.hypot(My, Mz) / s["W_el_y"]) / S355)
+    close(e.utilisation[1], (500e3 / s["A"] + np.hypot(My, Mz) / s["W_el_y"]) / S355)
+    np.testing.assert_array_equal(k.applies, [True, False])
+    np.testing.assert_array_equal(e.applies, [False, True])
     # shear of a CHS needs no web check (6.2.6(6) is about webs)
     assert not blocks(make_rows([s], Vz=50e3))["shear buckling"].applies[0]
 
@@ -401,7 +436,7 @@ def test_missing_class_is_unknown_not_a_pass():
 
 def test_no_rows_gives_empty_blocks():
     b = fam.cross_section_checks(make_rows([]))
-    assert len(b) == 11 and all(k.utilisation.shape == (0,) for k in b)
+    assert len(b) == 12 and all(k.utilisation.shape == (0,) for k in b)
 
 
 def test_class_per_row_broadcasts_over_stations():
@@ -439,3 +474,78 @@ def test_open_section_torsion_stays_not_evaluated_beside_a_checked_hollow_one():
     status = b.status()
     assert status[0] == NOT_EVALUATED and "6.2.7" in b.reason[0]
     assert status[1] == PASS
+
+
+def test_stations_of_two_classes_get_each_criterion_at_their_own_stations():
+    """One row, N with M_y, class 2 at the first two stations and 3 at the last: 6.2.9.1 is
+    evaluated at the class 2 stations only, (6.42) at the class 3 station only."""
+    s = IPE300
+    N, My = -300e3, np.array([40e3, 80e3, 60e3])
+    k = blocks(make_rows([s], N=N, My=My, section_class=[[2, 2, 3]]))
+    pl, el = k["bending and axial force"], k["elastic stress"]
+    assert pl.applies[0] and el.applies[0]
+    assert pl.x[0] == 2.5 and el.x[0] == 5.0
+    n = 300e3 / (s["A"] * S355)
+    a = (s["A"] - 2 * s["b"] * s["t_f"]) / s["A"]  # 6.2.9.1(5)
+    M_pl = s["W_pl_y"] * S355
+    N_lim = 0.5 * (s["h"] - 2 * s["t_f"]) * s["t_w"] * S355  # eq. (6.34)
+    M_N = M_pl if 300e3 <= N_lim and n <= 0.25 else min(M_pl, M_pl * (1 - n) / (1 - 0.5 * a))
+    close(pl.utilisation, 80e3 / M_N)  # eq. (6.31), (6.36)
+    close(el.utilisation, (300e3 / s["A"] + 60e3 / s["W_el_y"]) / S355)  # eq. (6.42)
+    # a NaN force anywhere leaves both not evaluated, never passed
+    My_nan = np.array([[40e3, np.nan, 60e3]])
+    k = blocks(make_rows([s], N=N, My=My_nan, section_class=[[2, 2, 3]]))
+    for name in ("bending and axial force", "elastic stress"):
+        assert k[name].status()[0] == NOT_EVALUATED and k[name].reason[0] == fam.NAN_FORCE
+
+
+def test_bending_axial_and_shear_i_section_by_the_reduced_web():
+    """6.2.10(3): HEB 200, S235, class 1, V_z = 0.75 V_pl,Rd, N_Ed = 300 kN compression,
+    M_y,Ed = 80 kNm (hand calculation with the handbook values of this module).
+
+    rho = (2 x 0.75 - 1)^2 = 0.25 (6.29); the web (h_w t_w = 170 x 9 = 1530 mm2) carries
+    (1 - rho) f_y, i.e. acts as a web 0.75 t_w thick: A_V = 7810 - 0.25 x 1530 = 7427.5 mm2,
+    N_V,Rd = 7427.5 x 235 = 1745.5 kN, n = 300 / 1745.5 = 0.1719; a = (7427.5 - 2 x 200 x 15)
+    / 7427.5 = 0.1922; M_y,V,Rd = (643e3 - 0.25 x 1530^2 / (4 x 9)) x 235 = 147.29 kNm (6.30);
+    300 kN > 0.5 x 170 x 0.75 x 9 x 235 = 134.8 kN (6.34), so M_N,y,V,Rd = 147.29 (1 - 0.1719)
+    / (1 - 0.0961) = 134.94 kNm (6.36), utilisation 80 / 134.94 = 0.593. The linear sum on the
+    same resistances, read for the moments at this N, would give (80 / 147.29) / (1 - 0.1719)
+    = 0.656.
+    """
+    s, f_y = HEB200, 235e6
+    Av = s["A"] - 2 * s["b"] * s["t_f"] + (s["t_w"] + 2 * s["r"]) * s["t_f"]  # 6.2.6(3)(a)
+    V_pl = Av * f_y / np.sqrt(3)  # eq. (6.18)
+    k = blocks(make_rows([s], N=-300e3, My=80e3, Vz=0.75 * V_pl, f_y=f_y))
+    b = k["bending and axial force"]
+    A_w = (s["h"] - 2 * s["t_f"]) * s["t_w"]
+    A_V = s["A"] - 0.25 * A_w
+    n = 300e3 / (A_V * f_y)
+    a = (A_V - 2 * s["b"] * s["t_f"]) / A_V
+    M_V = (s["W_pl_y"] - 0.25 * A_w**2 / (4 * s["t_w"])) * f_y
+    M_N = M_V * (1 - n) / (1 - 0.5 * a)
+    close(b.values["N_V_Rd_N"], A_V * f_y)
+    close(b.values["M_y_V_Rd_Nm"], M_V)
+    close(b.values["M_N_y_Rd_Nm"], M_N)
+    close(b.utilisation, 80e3 / M_N)
+    assert b.utilisation[0] == pytest.approx(0.593, abs=1e-3)
+    assert b.values["method"][0].startswith("I, web at (1 - rho) f_y (6.2.10)")
+    # with V_y as well the web alone is not the shear area: the conservative linear sum stays
+    both = blocks(make_rows([s], N=-300e3, My=80e3, Vz=0.75 * V_pl, Vy=0.9 * s["Av_y"] * f_y
+                            / np.sqrt(3), f_y=f_y))["bending and axial force"]
+    assert both.values["method"][0] == fam.SHEAR_LINEAR_SUM
+    assert both.utilisation[0] > b.utilisation[0]
+
+
+def test_bending_axial_and_shear_chs_by_the_reduced_ring():
+    """6.2.10(3) on a CHS: V_z = 0.75 V_pl,Rd gives rho = 0.25 (6.29) on the whole ring, so
+    N_V,Rd = 0.75 N_pl,Rd and M_V,Rd = 0.75 M_pl,Rd; with the CHS expression M_N,Rd =
+    M_pl,Rd (1 - n^1.7) (design guidance, from memory) on those: M_N,V,Rd = M_V,Rd (1 - n_V^1.7),
+    n_V = N_Ed / N_V,Rd (hand derivation)."""
+    s = CHS168
+    V_pl = s["Av_z"] * S355 / np.sqrt(3)  # eq. (6.18)
+    N, My = 400e3, 20e3
+    b = blocks(make_rows([s], N=-N, My=My, Vz=0.75 * V_pl))["bending and axial force"]
+    n_V = N / (0.75 * s["A"] * S355)
+    M_N = 0.75 * s["W_pl_y"] * S355 * (1 - n_V**1.7)
+    close(b.utilisation, My / M_N)
+    assert b.values["method"][0].startswith("CHS at (1 - rho) f_y (6.2.10)")

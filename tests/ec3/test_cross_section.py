@@ -251,16 +251,40 @@ def test_utilisation_N_M_matches_criteria():
     M_pl = 200e3
     # uniaxial: utilisation is M_Ed / M_N,Rd, eq. (6.31)
     close(cs.utilisation_N_M(0.2, 150e3, 180e3, 0.0, 40e3, 2.0, 1.0, M_pl, 50e3), 150e3 / 180e3)
-    # biaxial: the left side of eq. (6.41) when it is the largest term
+    # over the limit it stays a ratio: 1.10 M_N,Rd is 1.10, not the 1.21 of (M/M_N)^2 in (6.41)
+    close(cs.utilisation_N_M(0.2, 1.1 * 180e3, 180e3, 0.0, 40e3, 2.0, 1.0, M_pl, 50e3), 1.10)
+    # N alone is measured by 6.2.3 / 6.2.4, not here: a small moment with n = 0.6 stays small
+    close(cs.utilisation_N_M(0.6, 18e3, 180e3, 0.0, 40e3, 2.0, 3.0, M_pl, 50e3), 0.10)
+    # biaxial, eq. (6.41) with alpha = 2, beta = 1: the moments scaled by k = 1/u reach the
+    # criterion, (0.8/u)^2 + 0.5/u = 1, i.e. u^2 - 0.5 u - 0.64 = 0, u = (0.5 + sqrt(2.81)) / 2
+    # = 1.0882 (hand calculation; the left side of (6.41) itself would read 1.14)
     r_y, r_z = 0.8, 0.5
-    lhs = r_y**2 + r_z**1
     close(cs.utilisation_N_M(0.2, r_y * 180e3, 180e3, -r_z * 40e3, 40e3, 2.0, 1.0, M_pl, 50e3),
-          lhs)
+          (0.5 + np.sqrt(2.81)) / 2)
     # n >= 1: the resistance is exhausted by N alone; a finite value above 1
     u = cs.utilisation_N_M(1.1, 10e3, 0.0, 0.0, 0.0, 2.0, 5.5, M_pl, 50e3)
     close(u, 1.1 + 10e3 / M_pl)
     # a NaN anywhere is NaN, never a pass
     assert np.isnan(cs.utilisation_N_M(0.2, 1e3, np.nan, 0.0, 1.0, 2.0, 1.0, M_pl, 50e3))
+
+
+def test_biaxial_moment_utilisation():
+    # eq. (6.41) with alpha = beta: (r_y/u)^a + (r_z/u)^a = 1 gives u = (r_y^a + r_z^a)^(1/a)
+    # (algebra); alpha = beta = 1: the linear sum r_y + r_z; one moment zero: the other ratio
+    r_y = np.array([0.3, 0.6, 0.0, 1.4, 0.25])
+    r_z = np.array([0.4, 0.6, 0.7, 0.2, 0.5])
+    a = np.array([2.0, 4.1, 2.0, 1.0, 6.0])
+    close(cs.biaxial_moment_utilisation(r_y, r_z, a, a), (r_y**a + r_z**a) ** (1 / a))
+    close(cs.biaxial_moment_utilisation(0.5, 0.25, 1.0, 1.0), 0.75)
+    # unequal exponents: the root satisfies (6.41) with equality and scales with the moments
+    rng = np.random.default_rng(7)
+    r_y, r_z = rng.uniform(0.01, 2.0, 200), rng.uniform(0.01, 2.0, 200)
+    alpha, beta = rng.uniform(1.0, 6.0, 200), rng.uniform(1.0, 6.0, 200)
+    u = cs.biaxial_moment_utilisation(r_y, r_z, alpha, beta)
+    close((r_y / u) ** alpha + (r_z / u) ** beta, np.ones(200))
+    close(cs.biaxial_moment_utilisation(3.7 * r_y, 3.7 * r_z, alpha, beta), 3.7 * u)
+    assert np.isnan(cs.biaxial_moment_utilisation(np.nan, 0.2, 2.0, 1.0))
+    assert cs.biaxial_moment_utilisation(np.inf, 0.2, 2.0, 1.0) == np.inf
 
 
 def test_utilisation_N_M_grows_with_load():
@@ -317,3 +341,14 @@ def test_vectorised_over_rows_and_stations():
     assert N_c.shape == (2, 3)
     close(N_c[0, :2], IPE300["A"] * S235)
     assert np.isnan(N_c[0, 2]) and np.isnan(N_c[1, 2])
+
+
+def test_moment_share_of_linear_sum():
+    # eq. (6.2) with the moments scaled by k: 0.25 + k (0.25 + 0.1) = 1 gives k = 0.75 / 0.35,
+    # utilisation 1/k = 0.35 / 0.75 (hand calculation)
+    close(cs.moment_share_of_linear_sum(-100.0, 400.0, 50.0, 200.0, -10.0, 100.0), 0.35 / 0.75)
+    close(cs.moment_share_of_linear_sum(0.0, 400.0, 50.0, 200.0, 0.0, 100.0), 0.25)
+    close(cs.moment_share_of_linear_sum(100.0, 400.0, 0.0, 200.0, 0.0, 100.0), 0.0)
+    # N alone over its resistance: the linear sum itself, a failure
+    close(cs.moment_share_of_linear_sum(500.0, 400.0, 20.0, 200.0, 0.0, 100.0), 1.25 + 0.1)
+    assert np.isnan(cs.moment_share_of_linear_sum(100.0, 400.0, 1.0, np.nan, 0.0, 1.0))

@@ -347,3 +347,73 @@ def test_rows_of_mixed_shapes_match_one_row_at_a_time() -> None:
         cls_i, part_i = section_class(one, f_y[i], N[i], My[i], Mz[i])
         np.testing.assert_array_equal(cls[i], cls_i)
         assert list(part[i]) == list(part_i)
+
+
+# ---- Table 5.2 read in order: plastic limits for classes 1 and 2, elastic limit for class 3 ----
+
+def test_ipe_500_small_moment_with_compression_is_class_1():
+    """IPE 500, S355, N_Ed = 250 kN compression, M_y,Ed = 14 kNm (Table 5.2 sheet 1).
+
+    Hand calculation (dimensions of the catalogue: h = 500, b = 200, t_w = 10.2, t_f = 16,
+    r = 21 mm; A = 115.5 cm2, I_y = 48 199 cm4):
+    web c = 500 - 2 x 16 - 2 x 21 = 426 mm, c/t = 426 / 10.2 = 41.76; eps = sqrt(235/355) = 0.8136.
+    Plastic: alpha = (1 + N_c / (c t_w f_y)) / 2 = (1 + 250e3 / (426 x 10.2 x 355)) / 2
+    = (1 + 0.1621) / 2 = 0.5810 > 0.5, class 1 limit 396 eps / (13 alpha - 1) = 322.2 / 6.553
+    = 49.17 >= 41.76: class 1.
+    Elastic (only the stricter reading looks at it): sigma_N = 250e3 / 11 552 = 21.64 N/mm2,
+    sigma_M = 14e6 x 213 / 48 199e4 = 6.19 N/mm2, psi = (21.64 - 6.19) / (21.64 + 6.19) = 0.555,
+    class 3 limit 42 eps / (0.67 + 0.33 psi) = 34.17 / 0.853 = 40.05 < 41.76: class 4 when class 1
+    must also meet it. At 20 kNm sigma_M = 8.84, psi = 0.420, limit 42.26: class 1 either way.
+    """
+    table = build_sections(pd.DataFrame({"section": ["s"], "designation": ["IPE 500"]}))
+    sec = {k: np.array([v]) for k, v in table.iloc[0].items()}
+    assert sec["c_web"][0] / sec["t_web"][0] == pytest.approx(41.76, abs=0.01)
+    for My in (1e3, 14e3, 20e3, 300e3):  # the plastic alpha does not depend on the moment
+        assert classify(sec, N=-250e3, My=My, f_y=355e6) == (1, "web")
+    lim_1, _ = internal_part_limits_plastic(np.array([0.5810]), epsilon(355e6))
+    assert lim_1[0] == pytest.approx(49.17, abs=0.02)
+    psi = (21.64 - 6.19) / (21.64 + 6.19)
+    assert internal_part_limit_elastic(psi, epsilon(355e6)) == pytest.approx(40.05, abs=0.02)
+
+    def strict(My):
+        cls, _ = section_class(sec, np.array([355e6]), np.array([-250e3]), np.array([My]),
+                               np.array([0.0]), require_elastic=True)
+        return int(cls[0])
+
+    assert strict(14e3) == 4 and strict(20e3) == 1
+    # no moment at all: uniform compression, 42 eps = 34.2 < 41.76 (Table 5.2 sheet 1)
+    assert classify(sec, N=-250e3, f_y=355e6) == (4, "web")
+
+
+def _web_small_moment(ratio: float):
+    """Welded I web with plastic alpha = 0.6 and elastic psi = 0.8 (`_web_combined`).
+
+    Table 5.2 sheet 1, bending and compression: 396/(13 x 0.6 - 1) = 58.24,
+    456/(13 x 0.6 - 1) = 67.06; class 3: 42/(0.67 + 0.33 x 0.8) = 44.97, below both plastic limits.
+    """
+    return _web_combined(ratio, alpha=0.6, psi=0.8)
+
+
+@pytest.mark.parametrize("ratio, in_order, also_elastic", [
+    (44.87, 1, 1), (45.07, 1, 4),      # around the class 3 limit 44.97 of the elastic psi
+    (58.14, 1, 4), (58.34, 2, 4),      # around the class 1 limit 58.24 of the plastic alpha
+    (66.96, 2, 4), (67.16, 4, 4)])     # around the class 2 limit 67.06: above every limit
+def test_web_plastic_limits_above_the_elastic_one(ratio, in_order, also_elastic):
+    sec, N, My = _web_small_moment(ratio)
+    assert classify(sec, N=N, My=My) == (in_order, "web")
+    cls, _ = section_class(sec, np.array([F_Y]), np.array([N]), np.array([My]), np.array([0.0]),
+                           require_elastic=True)
+    assert int(cls[0]) == also_elastic
+
+
+@pytest.mark.parametrize("ratio, expected", [(44.87, 1), (58.34, 2), (67.16, 4)])
+def test_rhs_wall_plastic_limits_above_the_elastic_one(ratio, expected):
+    # RHS walls along z under N and M_y: each wall carries N_c / 2 plastically, so alpha = 0.6
+    # needs N_c = 2 (0.6 - 0.5) 2 c t f_y; elastic psi = 0.8 needs sigma_bend = N_c/A x 0.2/1.8.
+    # Limits as `_web_small_moment` (Table 5.2 sheet 1): 58.24, 67.06, class 3 44.97. The walls
+    # along y (c/t = 10) stay class 1.
+    sec = rhs(ratio, 10.0)
+    c, t = sec["c_web"][0], sec["t_web"][0]
+    N_c = 2 * (0.6 - 0.5) * 2 * c * t * F_Y
+    My = (N_c / sec["A"][0]) * (0.2 / 1.8) * sec["I_y"][0] / (c / 2)
+    assert classify(sec, N=-N_c, My=My) == (expected, "wall")
