@@ -58,7 +58,7 @@ POINT_TOL_M = 1e-6  # restraint points closer than this count as one; at an end,
 # how a row's lateral-torsional buckling segments were found (index into SEGMENT_BASIS)
 REAL_SPANS, GIVEN_LENGTH, NO_POSITIONS = 0, 1, 2
 SEGMENT_BASIS = np.array(["spans between lateral restraint points",
-                          "equal parts of L_LT (L_LT given in the project file)",
+                          "equal parts of L_LT (L_LT given for the member)",
                           "equal parts of L_LT (restraint positions not known)"], dtype=object)
 GENERIC = "section given by properties only (shape GENERIC): no buckling curve without geometry"
 CLASS_4 = eff_rows.CLASS_4_NO_GEOMETRY
