@@ -41,13 +41,13 @@ from __future__ import annotations
 import numpy as np
 import pandas as pd
 
-from ..ec3 import critical_moment as crit
 from ..ec3 import flexural_buckling as fb
 from ..ec3 import interaction_annex_a as annex_a
 from ..ec3 import interaction_annex_b as annex_b
 from ..ec3 import effective_resistance as er
 from ..ec3 import moment_factors as mf
 from . import effective_rows as eff_rows
+from ..row_reductions import row_sum
 from .base import CheckBlock, MemberRows, no_reason
 
 CLASS_4 = eff_rows.CLASS_4_NO_GEOMETRY
@@ -107,22 +107,42 @@ def _ltb_segment_moments(rows: MemberRows, b: dict[str, np.ndarray]
     if not part.any():
         return rows.x, rows.My, note
     R, S = rows.x.shape
+    every = bool(part.all())  # the usual case when any is: equal parts of L_LT, or all spans
+    p = slice(None) if every else np.flatnonzero(part)
+    x = np.ascontiguousarray(rows.x[p])
+    M = np.ascontiguousarray(rows.My[p])
+    a, c, t = start[p][:, None], end[p][:, None], tol[p][:, None]
+    n = x.shape[0]
+    flat_x, flat_M, base = x.reshape(-1), M.reshape(-1), np.arange(n) * S
+
+    def moment_at(point: np.ndarray) -> np.ndarray:
+        """M linear between the stations either side of `point` (n, 1), flat beyond the ends."""
+        last = row_sum(~np.isnan(x)) - 1
+        k0 = base + np.clip(row_sum(x <= point) - 1, 0, np.maximum(last - 1, 0))
+        k1 = np.minimum(k0 + 1, base + last)
+        x0, x1 = flat_x[k0], flat_x[k1]
+        with np.errstate(invalid="ignore", divide="ignore"):
+            w = np.clip((point[:, 0] - x0) / (x1 - x0), 0.0, 1.0)
+        w = np.where(np.isfinite(w), w, 0.0)
+        return flat_M[k0] + w * (flat_M[k1] - flat_M[k0])
+
+    # stations are in order, so those strictly inside form one run: from `lead` on, `n_inner`
+    lead = row_sum(x <= a + t)
+    n_inner = row_sum((x > a + t) & (x < c - t))
+    xs, Ms = np.full((n, S + 2), np.nan), np.full((n, S + 2), np.nan)
+    xs[:, 0], Ms[:, 0] = start[p], moment_at(a)
+    for j in range(S):  # over the handful of station columns, not over rows
+        k = base + np.minimum(lead + j, S - 1)
+        take = j < n_inner
+        xs[:, j + 1] = np.where(take, flat_x[k], np.nan)
+        Ms[:, j + 1] = np.where(take, flat_M[k], np.nan)
+    at = np.arange(n)
+    xs[at, n_inner + 1], Ms[at, n_inner + 1] = end[p], moment_at(c)
+    if every:
+        return xs, Ms, note
     x_seg = np.full((R, S + 2), np.nan)
     M_seg = np.full((R, S + 2), np.nan)
     x_seg[:, :S], M_seg[:, :S] = rows.x, rows.My
-    p = np.flatnonzero(part)
-    x, M = rows.x[p], rows.My[p]
-    a, c = start[p][:, None], end[p][:, None]
-    ends = crit.end_moments((x - a) / (c - a), M)  # linear between stations
-    inner = (x > a + tol[p][:, None]) & (x < c - tol[p][:, None])
-    n_inner = inner.sum(axis=1)
-    xs, Ms = np.full((p.size, S + 2), np.nan), np.full((p.size, S + 2), np.nan)
-    xs[:, 0], Ms[:, 0] = start[p], ends[:, 0]
-    r, k = np.nonzero(inner)
-    column = np.cumsum(inner, axis=1)[r, k]  # 1, 2, ... after the start point
-    xs[r, column], Ms[r, column] = x[r, k], M[r, k]
-    xs[np.arange(p.size), n_inner + 1] = end[p]
-    Ms[np.arange(p.size), n_inner + 1] = ends[:, 1]
     x_seg[p], M_seg[p] = xs, Ms
     return x_seg, M_seg, note
 

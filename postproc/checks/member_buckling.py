@@ -285,13 +285,16 @@ def _segments(rows: MemberRows, todo: np.ndarray, n_seg: np.ndarray, real: np.nd
     seg_k = np.arange(seg_row.size) - np.repeat(first, counts)
     length = np.asarray(rows.length, float)[seg_row]
     step = length / n_seg[seg_row]
-    on_points = real[seg_row]
-    k_end = np.minimum(seg_k + 1, points.shape[1] - 1)
-    x_a = np.where(on_points, points[seg_row, np.minimum(seg_k, points.shape[1] - 1)],
-                   seg_k * step)
-    x_b = np.where(on_points, points[seg_row, k_end], (seg_k + 1) * step)
-    span = x_b - x_a
-    L_seg = np.where(on_points, span, np.fmax(L_LT[seg_row], step))
+    x_a, span = seg_k * step, step.copy()
+    L_seg = np.fmax(L_LT[seg_row], step)  # an equal part: the longer of the two, safe side
+    on_points = np.flatnonzero(real[seg_row])
+    if on_points.size:  # spans between restraint points: their own ends and length
+        r, k = seg_row[on_points], seg_k[on_points]
+        x_a[on_points] = points[r, k]
+        span[on_points] = L_seg[on_points] = points[r, k + 1] - points[r, k]
+    x_b = x_a + span
+    if on_points.size:
+        x_b[on_points] = points[r, k + 1]  # the restraint point itself, not a sum
     xi = (rows.x[seg_row] - x_a[:, None]) / span[:, None]
     M = rows.My[seg_row]
     E, G = np.asarray(rows.E, float)[seg_row], np.asarray(rows.G, float)[seg_row]
