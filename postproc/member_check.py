@@ -29,6 +29,7 @@ def check_member(section: str | dict, grade: str = "S355", *, length: float,
                  Vy: np.ndarray | float | None = None,
                  L_cr_y: float | None = None, L_cr_z: float | None = None,
                  L_LT: float | None = None, L_cr_T: float | None = None,
+                 lateral_restraints: list[float] | tuple[float, ...] | None = None,
                  stations: int = 21, sway_y: bool | None = None, sway_z: bool | None = None,
                  ltb_restrained: bool = False, z_g: float = 0.0,
                  settings: DesignSettings | None = None) -> dict:
@@ -44,7 +45,12 @@ def check_member(section: str | dict, grade: str = "S355", *, length: float,
             uniform load), unless My_diagram / Mz_diagram give the values at the stations.
         Vz, Vy: shear, N; by default from the slope of the moment diagrams (dMy/dx = Vz,
             dMz/dx = -Vy).
-        L_cr_y, L_cr_z, L_LT, L_cr_T: buckling lengths, m (default: the member length).
+        L_cr_y, L_cr_z, L_LT, L_cr_T: buckling lengths, m (default: the member length; L_LT
+            with lateral_restraints: the longest span between them).
+        lateral_restraints: positions x (m) of points held laterally inside the member (the
+            ends count as held): the lateral-torsional buckling check then takes one segment per
+            span between them, as a frame run does. Without them, or with L_LT given, the member
+            is cut into equal parts of L_LT (the row says which).
         stations: number of equally spaced stations.
         sway_y, sway_z: whether buckling about that axis is a sway mode (None: not known).
         ltb_restrained: member continuously restrained against lateral-torsional buckling.
@@ -83,6 +89,15 @@ def check_member(section: str | dict, grade: str = "S355", *, length: float,
         raise InputError("forces must be finite numbers", field="N_Ed/My/Mz")
     # the frame run's member information (grade, strengths), built by the same function
     section_arrays, f_y, f_u, member_info = member_properties(sections.iloc[:1], [grade])
+    points, L_LT_given = None, L_LT is not None
+    if lateral_restraints is not None:
+        inner = np.asarray(lateral_restraints, float).ravel()
+        if not np.all((inner > 0) & (inner < length)):
+            raise InputError(f"lateral restraints must lie inside the member (0 < x < {length}),"
+                             f" got {list(inner)}", field="lateral_restraints")
+        points = np.unique(np.concatenate([[0.0], inner, [length]]))
+        if L_LT is None:
+            L_LT = float(np.diff(points).max())
     lengths = {}
     for key, value in (("L_cr_y", L_cr_y), ("L_cr_z", L_cr_z), ("L_LT", L_LT), ("L_cr_T", L_cr_T)):
         value = length if value is None else value
@@ -91,6 +106,9 @@ def check_member(section: str | dict, grade: str = "S355", *, length: float,
         lengths[key] = np.array([float(value)])
     info = {**member_info, "ltb_restrained": np.array([ltb_restrained]),
             "z_g": np.array([float(z_g)])}
+    if points is not None:
+        info["ltb_points_m"] = points[None, :]
+        info["L_LT_override"] = np.array([L_LT_given])
     if sway_y is not None:
         info["sway_y"] = np.array([sway_y])
     if sway_z is not None:

@@ -18,6 +18,7 @@ from .frame import Frame, element_vectors
 from .members import Members, member_axes
 from .results import FORCE_COLUMNS
 from .settings import DesignSettings
+from .stability_lengths import restraint_positions
 
 # Force columns that change sign when the member runs against the element (local y and x reverse)
 FLIP_SIGN = {"Vz_N", "Mz_Nm"}
@@ -200,8 +201,13 @@ def build_member_rows(frame: Frame, forces: pd.DataFrame, members: Members,
         members: the design members.
         settings: design settings in force.
         lengths: one row per (member, combination) with L_cr_y_m, L_cr_z_m, L_cr_T_m, L_LT_m and
-            any other per-row columns (sway_y, sway_z, origin_*); rows missing here get NaN
-            lengths, so the checks that need them are not evaluated.
+            any other per-row columns (sway_y, sway_z, origin_*, L_LT_override), which go into
+            info; rows missing here get NaN lengths, so the checks that need them are not
+            evaluated.
+
+    Besides those columns, info holds 'z_up' (R,) bool, the member information of
+    `member_properties`, and 'ltb_points_m' (R, P): the positions of the member's lateral
+    ('y') restraint points along it, ascending, NaN padding (`restraint_positions`).
         info: extra per-row arrays, aligned with the returned rows (rarely needed).
     """
     _, element_length = element_vectors(frame)
@@ -251,6 +257,9 @@ def build_member_rows(frame: Frame, forces: pd.DataFrame, members: Members,
     axes = member_axes(frame, members.members, members.member_elements)
     z_up_m = axes[:, 2, frame.vertical_axis] > 0.0
     row_info["z_up"] = z_up_m[code]
+    # where the member is held laterally: the lateral-torsional buckling segments (P per member,
+    # NaN padding; taken per row by integer code, no loop over rows)
+    row_info["ltb_points_m"] = restraint_positions(members, "y")[code]
     row_info.update({key: values[code] for key, values in info_m.items()})
     row_info.update(info or {})
     return MemberRows(

@@ -25,6 +25,8 @@ Where each length comes from (the `origin_*` columns say it row by row):
 - The out-of-plane axis of a plane frame: the longest span between points restrained out of
   plane (supports and declared restraints; k = 1).
 - L_LT: the longest span between lateral restraints ('y'); L_cr_T: between torsional restraints.
+  The lateral-torsional buckling check itself takes every span between the 'y' points
+  (`restraint_positions`), each with its own length and moment diagram; L_LT is the longest.
 - A span that runs to an end with no restraint of the kind needed gives NaN and says why: the
   check that needs it is then not evaluated. Overrides win over everything.
 """
@@ -291,6 +293,38 @@ def _member_candidates(model: _Model, m: str, k1: bool = False) -> dict:
     return out
 
 
+def restraint_positions(members: Members, direction: str = "y") -> np.ndarray:
+    """(M, P) positions x_m of each member's restraint points in one direction, in the order of
+    `members.members`, ascending, NaN padding; P is the largest count (0 where none at all).
+
+    Points within X_TOL_M of each other count once, and points within X_TOL_M of a member end
+    are put at that end, so the spans between them are those of `_span`. The lateral-torsional
+    buckling check takes its segments from the 'y' positions (`postproc.member_rows`).
+    """
+    names = pd.Index(members.members.index.astype(str))
+    lengths = members.members["length_m"].to_numpy(float)
+    r = members.restraints
+    r = r[r["direction"] == direction]
+    code = names.get_indexer(r["member"].astype(str))
+    x = r["x_m"].to_numpy(float)
+    keep = (code >= 0) & np.isfinite(x)
+    code, x = code[keep], x[keep]
+    L = lengths[code]
+    x = np.where(x <= X_TOL_M, 0.0, np.where(x >= L - X_TOL_M, L, x))
+    x = np.round(x, 6)  # as in `_span`
+    order = np.lexsort((x, code))
+    code, x = code[order], x[order]
+    new = np.ones(len(x), dtype=bool)
+    new[1:] = (code[1:] != code[:-1]) | (x[1:] - x[:-1] > X_TOL_M)
+    code, x = code[new], x[new]
+    counts = np.bincount(code, minlength=len(names))
+    out = np.full((len(names), int(counts.max()) if len(counts) else 0), np.nan)
+    if len(x):
+        first = np.cumsum(counts) - counts
+        out[code, np.arange(len(x)) - first[code]] = x
+    return out
+
+
 def member_compression(members: Members, results: Results, combos: list[str]) -> pd.DataFrame:
     """Most compressive N_Ed (N, tension > 0) per member and combination: (members x combos)."""
     f = results.forces[["combination", "element", "N_N"]].copy()
@@ -319,7 +353,10 @@ def buckling_lengths(frame: Frame, members: Members, results: Results, paths: pd
 
     Returns:
         columns member, combination, L_cr_y_m, L_cr_z_m, L_cr_T_m, L_LT_m, sway_y, sway_z
-        (buckling about that axis in a sway mode), origin_y, origin_z, origin_LT, origin_T.
+        (buckling about that axis in a sway mode), origin_y, origin_z, origin_LT, origin_T,
+        L_LT_override (True where the project file gives L_LT: the lateral-torsional buckling
+        check then cuts the member into equal parts of that length instead of taking the spans
+        between the restraint points of `restraint_positions`).
     """
     model = _Model(frame, members)
     names = members.members.index.tolist()
@@ -389,10 +426,11 @@ def buckling_lengths(frame: Frame, members: Members, results: Results, paths: pd
     out = pd.DataFrame({"member": np.repeat(names, C), "combination": np.tile(combos, M)})
     for name, arr in cols.items():
         out[name] = arr.ravel()
+    out["L_LT_override"] = False
     if overrides is not None and len(overrides):
         out = _apply_overrides(out, overrides, set(names))
     return out[["member", "combination", "L_cr_y_m", "L_cr_z_m", "L_cr_T_m", "L_LT_m", "sway_y",
-                "sway_z", "origin_y", "origin_z", "origin_LT", "origin_T"]]
+                "sway_z", "origin_y", "origin_z", "origin_LT", "origin_T", "L_LT_override"]]
 
 
 def _apply_overrides(out: pd.DataFrame, overrides: pd.DataFrame, known: set[str]) -> pd.DataFrame:
@@ -420,6 +458,8 @@ def _apply_overrides(out: pd.DataFrame, overrides: pd.DataFrame, known: set[str]
             out.loc[sel, origin[col]] = "override from the project"
             if col in ("L_cr_y_m", "L_cr_z_m"):
                 out.loc[sel, "sway_" + col[5]] = False
+            if col == "L_LT_m":  # the LTB check then keeps equal parts of L_LT, and says so
+                out.loc[sel, "L_LT_override"] = True
     return out
 
 

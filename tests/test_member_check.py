@@ -297,3 +297,23 @@ def test_beam_in_biaxial_bending_annex_a() -> None:
     assert e61["utilisation"] == pytest.approx(0.3285, rel=HAND_CHAIN)
     assert e62["utilisation"] == pytest.approx(0.2240, rel=HAND_CHAIN)
     assert e61["C_my"] == pytest.approx(1.0) and e61["k_yy"] == pytest.approx(1.0031, rel=1e-3)
+
+
+def test_lateral_restraints_give_the_real_spans() -> None:
+    """IPE 300, 10 m, uniform M_y = 80 kNm, held laterally at 2.5 and 4.5 m: the 5.5 m span
+    governs, and its M_cr is that of a 5.5 m member under the same moment (the single-segment
+    path). Without the positions the member is cut into equal parts of L_LT, and says so."""
+    spans = check_member("IPE 300", "S355", length=10.0, My_ends=(80e3, 80e3),
+                         lateral_restraints=(2.5, 4.5))
+    single = check_member("IPE 300", "S355", length=5.5, My_ends=(80e3, 80e3))
+    b = spans["buckling"]
+    assert (b["ltb_segment_start_m"], b["ltb_segment_end_m"]) == (4.5, 10.0)
+    assert b["n_segments"] == 3 and b["ltb_segment_basis"].startswith("spans between")
+    assert b["M_cr_Nm"] == pytest.approx(single["buckling"]["M_cr_Nm"], rel=1e-9)
+    equal = check_member("IPE 300", "S355", length=10.0, My_ends=(80e3, 80e3), L_LT=5.5)
+    assert "restraint positions not known" in equal["buckling"]["ltb_segment_basis"]
+    assert "given" in check_member("IPE 300", "S355", length=10.0, My_ends=(80e3, 80e3),
+                                   L_LT=5.5, lateral_restraints=(2.5, 4.5)
+                                   )["buckling"]["ltb_segment_basis"]
+    with pytest.raises(InputError, match="lateral_restraints|inside the member"):
+        check_member("IPE 300", "S355", length=10.0, lateral_restraints=(12.0,))

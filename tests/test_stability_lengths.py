@@ -19,10 +19,10 @@ import pytest
 from scipy.optimize import brentq
 
 from postproc.frame import Frame
-from postproc.members import design_members
+from postproc.members import Members, design_members
 from postproc.results import Results
 from postproc.stability import analysis_path, buckling_lengths, critical_load_factors
-from postproc.stability_lengths import SHOWN_LENGTH_CAP, shown_lengths
+from postproc.stability_lengths import SHOWN_LENGTH_CAP, restraint_positions, shown_lengths
 
 E = 210e9                   # Pa, EN 1993-1-1 3.2.6(1)
 I_HEB200_Y = 5696e-8        # m4, handbook (from memory)
@@ -312,3 +312,23 @@ def test_beam_on_a_pinned_support_counts_as_pinned_at_its_far_end():
     assert exact == pytest.approx(0.6051, abs=1e-4)
     assert out.at["C", "L_cr_y_m"] / L == pytest.approx(exact, rel=ANNEX_E_REL)
     assert "eta = 0.57 at 2" in out.at["C", "origin_y"]
+
+
+def test_restraint_positions_per_member_padded() -> None:
+    """The positions the LTB check cuts a member at: per member, ascending, points closer than
+    a micrometre once, points within a micrometre of an end put at the end, NaN padding; a
+    member with no point in that direction has a row of NaN. Plain data, worked out by hand."""
+    members = pd.DataFrame({"length_m": [10.0, 4.0, 6.0]},
+                           index=pd.Index(["B1", "B2", "B3"], name="member"))
+    restraints = pd.DataFrame({
+        "member": ["B1", "B1", "B1", "B1", "B1", "B2", "B2", "B3"],
+        "x_m": [4.5, 0.0, 10.0 - 4e-7, 2.5, 4.5 + 2e-7, 4.0, 3e-7, 3.0],
+        "direction": ["y", "y", "y", "y", "y", "y", "y", "z"],
+        "source": "test"})
+    points = restraint_positions(Members(members, pd.DataFrame(), restraints), "y")
+    assert points.shape == (3, 4)
+    np.testing.assert_array_equal(points[0], [0.0, 2.5, 4.5, 10.0])
+    np.testing.assert_array_equal(points[1], [0.0, 4.0, np.nan, np.nan])
+    assert np.isnan(points[2]).all()
+    np.testing.assert_array_equal(restraint_positions(Members(members, pd.DataFrame(),
+                                                              restraints), "z")[2], [3.0])

@@ -12,9 +12,11 @@ Design values, per row: N_Ed = the largest compression along the member (as a po
 M_y,Ed and M_z,Ed = the largest magnitudes along the member. The equivalent moment factors come
 from the moment diagram: C_my and C_mz (and Annex A's C_my,0, C_mz,0) from the whole member, the
 span between the member's end nodes being the one its buckling lengths refer to; C_mLT from M_y
-within the lateral-torsional buckling segment given by the buckling values (the whole member
-where that segment is unknown or holds fewer than two stations). Every choice is echoed in the
-values.
+within the lateral-torsional buckling segment given by the buckling values (the span between
+restraint points, or an equal part of L_LT, as `postproc.checks.member_buckling` cut the
+member), with the moments at its ends interpolated at the restraint points (the whole member
+where that segment is not known). Every choice is echoed in the values ('C_mLT_diagram',
+'LT_segment_start_m', 'LT_segment_end_m', 'LT_segments_from').
 
 Reduction factors: the computed chi_y, chi_z (eq. 6.49) and chi_LT (6.3.2, the segment that
 governs with it). The rules by which buckling may be ignored, 6.3.1.2(4) and 6.3.2.2(4), belong to
@@ -45,6 +47,7 @@ from ..ec3 import interaction_annex_b as annex_b
 from ..ec3 import effective_resistance as er
 from ..ec3 import moment_factors as mf
 from . import effective_rows as eff_rows
+from ..row_reductions import row_sum
 from .base import CheckBlock, MemberRows, no_reason
 
 CLASS_4 = eff_rows.CLASS_4_NO_GEOMETRY
@@ -81,24 +84,67 @@ def _nan_max(values: np.ndarray) -> np.ndarray:
 
 
 def _ltb_segment_moments(rows: MemberRows, b: dict[str, np.ndarray]
-                         ) -> tuple[np.ndarray, np.ndarray]:
-    """Stations of M_y inside the LTB segment (others NaN) and which diagram was used."""
+                         ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """The M_y diagram of the LTB segment 6.3.3 uses: stations (m) and moments, NaN padding,
+    and which diagram it is.
+
+    A segment shorter than the member: its end points (the restraint points), with the moments
+    there interpolated linearly between stations, and the stations strictly inside it; (R, S + 2)
+    arrays. A segment over the whole member: the member's stations as they are.
+    """
     start = np.asarray(b.get("interaction_segment_start_m", b["ltb_segment_start_m"]),
-                       dtype=float)[:, None]
-    end = np.asarray(b.get("interaction_segment_end_m", b["ltb_segment_end_m"]),
-                     dtype=float)[:, None]
-    tol = 1e-6 * np.maximum(rows.length, 1.0)[:, None]  # stations at a restraint node count
-    inside = (rows.x >= start - tol) & (rows.x <= end + tol)
-    distinct = np.where(inside, rows.x, np.nan)
-    span = _nan_max(distinct) - (-_nan_max(-distinct))
-    usable = (inside.sum(axis=1) >= 2) & (span > 0)
-    known = ~np.isnan(start[:, 0]) & ~np.isnan(end[:, 0])
-    use = known & usable
-    x_seg = np.where(use[:, None] & ~inside, np.nan, rows.x)
-    notes = np.array(["LTB segment", "whole member (LTB segment holds fewer than 2 stations)",
+                       dtype=float)
+    end = np.asarray(b.get("interaction_segment_end_m", b["ltb_segment_end_m"]), dtype=float)
+    length = np.asarray(rows.length, float)
+    tol = 1e-6 * np.maximum(length, 1.0)  # stations at a restraint node count as its end
+    known = ~np.isnan(start) & ~np.isnan(end)
+    with np.errstate(invalid="ignore"):
+        usable = known & (end - start > tol)
+        part = usable & ((start > tol) | (end < length - tol))
+    notes = np.array(["LTB segment", "whole member (LTB segment of no length)",
                       "whole member (LTB segment not known)"], dtype=object)
-    note = notes[np.where(use, 0, np.where(known, 1, 2))]
-    return x_seg, note
+    note = notes[np.where(usable, 0, np.where(known, 1, 2))]
+    if not part.any():
+        return rows.x, rows.My, note
+    R, S = rows.x.shape
+    every = bool(part.all())  # the usual case when any is: equal parts of L_LT, or all spans
+    p = slice(None) if every else np.flatnonzero(part)
+    x = np.ascontiguousarray(rows.x[p])
+    M = np.ascontiguousarray(rows.My[p])
+    a, c, t = start[p][:, None], end[p][:, None], tol[p][:, None]
+    n = x.shape[0]
+    flat_x, flat_M, base = x.reshape(-1), M.reshape(-1), np.arange(n) * S
+
+    def moment_at(point: np.ndarray) -> np.ndarray:
+        """M linear between the stations either side of `point` (n, 1), flat beyond the ends."""
+        last = row_sum(~np.isnan(x)) - 1
+        k0 = base + np.clip(row_sum(x <= point) - 1, 0, np.maximum(last - 1, 0))
+        k1 = np.minimum(k0 + 1, base + last)
+        x0, x1 = flat_x[k0], flat_x[k1]
+        with np.errstate(invalid="ignore", divide="ignore"):
+            w = np.clip((point[:, 0] - x0) / (x1 - x0), 0.0, 1.0)
+        w = np.where(np.isfinite(w), w, 0.0)
+        return flat_M[k0] + w * (flat_M[k1] - flat_M[k0])
+
+    # stations are in order, so those strictly inside form one run: from `lead` on, `n_inner`
+    lead = row_sum(x <= a + t)
+    n_inner = row_sum((x > a + t) & (x < c - t))
+    xs, Ms = np.full((n, S + 2), np.nan), np.full((n, S + 2), np.nan)
+    xs[:, 0], Ms[:, 0] = start[p], moment_at(a)
+    for j in range(S):  # over the handful of station columns, not over rows
+        k = base + np.minimum(lead + j, S - 1)
+        take = j < n_inner
+        xs[:, j + 1] = np.where(take, flat_x[k], np.nan)
+        Ms[:, j + 1] = np.where(take, flat_M[k], np.nan)
+    at = np.arange(n)
+    xs[at, n_inner + 1], Ms[at, n_inner + 1] = end[p], moment_at(c)
+    if every:
+        return xs, Ms, note
+    x_seg = np.full((R, S + 2), np.nan)
+    M_seg = np.full((R, S + 2), np.nan)
+    x_seg[:, :S], M_seg[:, :S] = rows.x, rows.My
+    x_seg[p], M_seg[p] = xs, Ms
+    return x_seg, M_seg, note
 
 
 N_BASIS = np.array(["largest compression", "no axial force",
@@ -181,7 +227,7 @@ def _common(rows: MemberRows) -> dict:
                                              eff["W_eff_z"], eff["e_N_y"], eff["e_N_z"], d["N_Ed"])
     res = {k: np.where(class_4, res_4[k], v) for k, v in res.items()}
     k_class = np.where(class_4, 3.0, cls)  # Annex A and B: class 4 takes the class 3 factors
-    x_seg, seg_note = _ltb_segment_moments(rows, b)
+    x_seg, M_seg, seg_note = _ltb_segment_moments(rows, b)
     # each member diagram read once, for both annexes
     diagrams = {"y": mf.read_diagram(rows.x, rows.My), "z": mf.read_diagram(rows.x, rows.Mz)}
 
@@ -211,7 +257,7 @@ def _common(rows: MemberRows) -> dict:
             "twist": twist, "ltb": ltb, "chi_LT": chi_LT,
             "chi_y": chi_y, "chi_z": chi_z, "rules": rules, "res": res,
             "rule_setting": rows.settings.negligible_rules_in_interaction, "x_seg": x_seg,
-            "seg_note": seg_note, "reason": reason, "beyond": beyond, "N_cr_min": N_cr_min,
+            "M_seg": M_seg, "seg_note": seg_note, "reason": reason, "beyond": beyond, "N_cr_min": N_cr_min,
             "diagrams": diagrams}
 
 
@@ -265,7 +311,12 @@ def _shared_values(c: dict, k: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
             **{eff_rows.column_name(k): c["eff"][k]
                for k in ("A_eff", "W_eff_y", "W_eff_z", "e_N_y", "e_N_z")},
             "section_class": c["cls"], "torsion_susceptible": c["twist"],
-            "ltb_susceptible": c["ltb"], "C_mLT_diagram": c["seg_note"]}
+            "ltb_susceptible": c["ltb"], "C_mLT_diagram": c["seg_note"],
+            "LT_segment_start_m": b.get("interaction_segment_start_m",
+                                        b.get("ltb_segment_start_m", np.full(R, np.nan))),
+            "LT_segment_end_m": b.get("interaction_segment_end_m",
+                                      b.get("ltb_segment_end_m", np.full(R, np.nan))),
+            "LT_segments_from": b.get("ltb_segment_basis", np.full(R, "", dtype=object))}
 
 
 def _diagram_values(tag: str, shape: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
@@ -293,7 +344,7 @@ def _annex_b_blocks(rows: MemberRows, c: dict, suffix: str) -> list[CheckBlock]:
                          diagram=c["diagrams"]["y"])
     f_z = mf.C_m_annex_b(rows.x, rows.Mz, sway=rows.info.get("sway_z"),
                          diagram=c["diagrams"]["z"])
-    f_LT = mf.C_m_annex_b(c["x_seg"], rows.My, sway=np.zeros(R, dtype=bool))
+    f_LT = mf.C_m_annex_b(c["x_seg"], c["M_seg"], sway=np.zeros(R, dtype=bool))
     g = rows.settings.gamma_M1
     chi_y, chi_z = c["chi_y"], c["chi_z"]
     n_y = annex_b.n_ratio(d["N_Ed"], chi_y, c["res"]["N_Rk_N"], gamma_M1=g)

@@ -10,11 +10,22 @@ Row data read here (see `postproc.checks.base.MemberRows`):
   gravity loads), 'z_up' (R,) bool (optional: True where the member's local +z points up;
   without it the lower M_cr of both orientations is used), 'grade' (R,) str
   (optional: S460 selects the right-hand column of Table 6.2; without it the safe column is used),
-  'buckling' (the dict of `buckling_values`, when the checker has computed it already).
+  'buckling' (the dict of `buckling_values`, when the checker has computed it already),
+  'ltb_points_m' (R, P) m (optional: positions of the lateral restraint points along the
+  member, ascending, NaN padding; `postproc.member_rows`), 'L_LT_override' (R,) (optional:
+  True where the project file gives L_LT).
 
-Lateral-torsional buckling segments: where L_LT < member length the member is divided into
-round(length / L_LT) equal segments (at most MAX_SEGMENTS) and the segment with the highest
-M_Ed / M_b,Rd governs. M_cr of a segment uses the longer of L_LT and the segment (safe side).
+Lateral-torsional buckling segments (`_segment_plan`), the segment with the highest
+M_Ed / M_b,Rd governing and reported by its start and end:
+- where the row's lateral restraint points are known (a point at each end of the member) and
+  the project file gives no L_LT: one segment per span between consecutive points, each with
+  its own length and its own moment diagram (the stations inside it and the end moments
+  interpolated at the restraint points);
+- otherwise (L_LT given in the project file: what the user said is kept; no positions, as in
+  `postproc.member_check` without them, or lengths from overrides only): round(length / L_LT)
+  equal parts (at most MAX_SEGMENTS), M_cr of each with the longer of L_LT and the part (safe
+  side).
+'ltb_segment_basis' says which, row by row. 6.3.3 takes its segment from the same set.
 
 Class 4 members (worst class along the member 4) use the effective properties of
 `postproc.checks.effective_rows` (EN 1993-1-5): A_eff in lambda_bar (6.51, 6.52) and N_b,Rd
@@ -39,9 +50,16 @@ from ..ec3 import critical_moment as cm
 from ..ec3 import flexural_buckling as fb
 from ..ec3 import lateral_torsional as lt
 from . import effective_rows as eff_rows
+from ..row_reductions import row_any, row_sum
 from .base import CheckBlock, MemberRows, no_reason
 
-MAX_SEGMENTS = 64
+MAX_SEGMENTS = 64  # equal parts of L_LT at most (restraint points: every span)
+POINT_TOL_M = 1e-6  # restraint points closer than this count as one; at an end, as the end
+# how a row's lateral-torsional buckling segments were found (index into SEGMENT_BASIS)
+REAL_SPANS, GIVEN_LENGTH, NO_POSITIONS = 0, 1, 2
+SEGMENT_BASIS = np.array(["spans between lateral restraint points",
+                          "equal parts of L_LT (L_LT given for the member)",
+                          "equal parts of L_LT (restraint positions not known)"], dtype=object)
 GENERIC = "section given by properties only (shape GENERIC): no buckling curve without geometry"
 CLASS_4 = eff_rows.CLASS_4_NO_GEOMETRY
 CLASS_UNKNOWN = "section class not known"
@@ -81,7 +99,8 @@ def buckling_values(rows: MemberRows) -> dict[str, np.ndarray]:
     lambda_bar_z, lambda_bar_T, lambda_bar_LT, N_cr_y_N, N_cr_z_N, N_cr_T_N, M_cr_Nm, M_cr_0_Nm,
     C_1 (M_cr / M_cr,0; 1.0 where the segment carries no moment or the member is not susceptible),
     curve_y, curve_z, curve_LT (object), ltb_susceptible, torsion_susceptible (bool),
-    ltb_segment_start_m, ltb_segment_end_m, section_class_member (float 1 .. 4, NaN unknown),
+    ltb_segment_start_m, ltb_segment_end_m, ltb_segment_basis (object: how the member was cut
+    into segments, `SEGMENT_BASIS`), section_class_member (float 1 .. 4, NaN unknown),
     reason (object: '' or why some values are NaN), the per-check reasons reason_y, reason_z,
     reason_T, reason_LT, and the intermediate LTB values (alpha_LT, k_c, k_c_case, psi, f,
     chi_LT_unmodified, M_Ed_LT_Nm, x_LT_m, W_y_m3, n_segments, ltb_negligible, lambda_LT_0), all
@@ -184,9 +203,7 @@ def _ltb_values(rows: MemberRows, shape, fab, num, cls, hollow, restrained, comm
     _add(reason, no_curve, "no lateral-torsional buckling curve for this fabrication")
     _add(joined, no_curve, "no lateral-torsional buckling curve for this fabrication")
 
-    with np.errstate(invalid="ignore", divide="ignore"):
-        n_seg = np.where(L_LT < length, np.clip(np.round(length / L_LT), 1, MAX_SEGMENTS), 1)
-    n_seg = np.where(np.isfinite(n_seg), n_seg, 1).astype(int)
+    n_seg, basis, points = _segment_plan(rows, L_LT)
     out = {
         # not susceptible: no lateral-torsional buckling (M_cr unbounded, chi_LT = 1)
         "M_cr_Nm": np.where(susceptible, np.nan, np.inf),
@@ -202,6 +219,7 @@ def _ltb_values(rows: MemberRows, shape, fab, num, cls, hollow, restrained, comm
                            lt.W_y_for_class(cls, num["W_pl_y"], num["W_el_y"])),
         "ltb_segment_start_m": np.zeros(R), "ltb_segment_end_m": length.copy(),
         "n_segments": n_seg, "ltb_negligible": np.zeros(R, bool), "curve_LT": curve,
+        "ltb_segment_basis": np.where(susceptible, SEGMENT_BASIS[basis], "").astype(object),
         "lambda_LT_0": np.full(R, 0.2 if general else st.lambda_LT_0),
         # what 6.3.3 uses (see _segments): chi_LT, its segment, and whether 6.3.2.2(4) set it 1
         "chi_LT_interaction": np.where(susceptible, np.nan, 1.0),
@@ -212,14 +230,54 @@ def _ltb_values(rows: MemberRows, shape, fab, num, cls, hollow, restrained, comm
     }
     todo = np.flatnonzero(susceptible & (reason == ""))
     if todo.size:
-        _segments(rows, todo, n_seg, L_LT, curve, num, out, general)
+        _segments(rows, todo, n_seg, basis == REAL_SPANS, points, L_LT, curve, num, out,
+                  general)
     out["reason_LT"] = reason
     return out
 
 
-def _segments(rows: MemberRows, todo: np.ndarray, n_seg: np.ndarray, L_LT: np.ndarray,
-              curve: np.ndarray, num: dict, out: dict, general: bool) -> None:
-    """M_cr, chi_LT and utilisation of every segment of the rows `todo`; keep the worst."""
+def _segment_plan(rows: MemberRows, L_LT: np.ndarray
+                  ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
+    """How each row is cut into lateral-torsional buckling segments.
+
+    Returns (R,) the number of segments, (R,) the basis (REAL_SPANS, GIVEN_LENGTH or
+    NO_POSITIONS: an index into SEGMENT_BASIS) and (R, P >= 2) the restraint points, NaN
+    padding. Real spans where the row's 'ltb_points_m' start at the member's start, end at its
+    end and rise, and the project file gives no L_LT ('L_LT_override'); otherwise
+    round(length / L_LT) equal parts (at most MAX_SEGMENTS).
+    """
+    R = rows.n_rows
+    length = np.asarray(rows.length, float)
+    given = rows.info.get("L_LT_override")
+    given = (np.zeros(R, bool) if given is None
+             else np.asarray(np.asarray(given, dtype=object) == True, bool))  # noqa: E712
+    points = rows.info.get("ltb_points_m")
+    points = np.full((R, 0), np.nan) if points is None else np.asarray(points, float)
+    if points.shape[1] < 2:
+        points = np.concatenate([points, np.full((R, 2 - points.shape[1]), np.nan)], axis=1)
+    count = row_sum(~np.isnan(points))  # points come first, padding after
+    last = points[np.arange(R), np.maximum(count - 1, 0)]
+    with np.errstate(invalid="ignore"):
+        rising = ~row_any(np.diff(points, axis=1) <= POINT_TOL_M)
+        real = ((count >= 2) & (points[:, 0] <= POINT_TOL_M) & (last >= length - POINT_TOL_M)
+                & rising & ~given)
+    with np.errstate(invalid="ignore", divide="ignore"):
+        n_equal = np.where(L_LT < length, np.clip(np.round(length / L_LT), 1, MAX_SEGMENTS), 1)
+    n_equal = np.where(np.isfinite(n_equal), n_equal, 1).astype(int)
+    n_seg = np.where(real, count - 1, n_equal)
+    basis = np.where(real, REAL_SPANS, np.where(given, GIVEN_LENGTH, NO_POSITIONS))
+    return n_seg, basis, points
+
+
+def _segments(rows: MemberRows, todo: np.ndarray, n_seg: np.ndarray, real: np.ndarray,
+              points: np.ndarray, L_LT: np.ndarray, curve: np.ndarray, num: dict, out: dict,
+              general: bool) -> None:
+    """M_cr, chi_LT and utilisation of every segment of the rows `todo`; keep the worst.
+
+    Work is over (row, segment) pairs. A segment between restraint points (`real`) takes its
+    own length; an equal part of L_LT takes the longer of L_LT and the part (safe side).
+    Stations outside a segment only serve to interpolate its end moments.
+    """
     st = rows.settings
     counts = n_seg[todo]
     seg_row = np.repeat(todo, counts)  # one entry per (row, segment)
@@ -227,9 +285,17 @@ def _segments(rows: MemberRows, todo: np.ndarray, n_seg: np.ndarray, L_LT: np.nd
     seg_k = np.arange(seg_row.size) - np.repeat(first, counts)
     length = np.asarray(rows.length, float)[seg_row]
     step = length / n_seg[seg_row]
-    x_a = seg_k * step
-    L_seg = np.fmax(L_LT[seg_row], step)  # the longer of the two: safe side
-    xi = (rows.x[seg_row] - x_a[:, None]) / step[:, None]
+    x_a, span = seg_k * step, step.copy()
+    L_seg = np.fmax(L_LT[seg_row], step)  # an equal part: the longer of the two, safe side
+    on_points = np.flatnonzero(real[seg_row])
+    if on_points.size:  # spans between restraint points: their own ends and length
+        r, k = seg_row[on_points], seg_k[on_points]
+        x_a[on_points] = points[r, k]
+        span[on_points] = L_seg[on_points] = points[r, k + 1] - points[r, k]
+    x_b = x_a + span
+    if on_points.size:
+        x_b[on_points] = points[r, k + 1]  # the restraint point itself, not a sum
+    xi = (rows.x[seg_row] - x_a[:, None]) / span[:, None]
     M = rows.My[seg_row]
     E, G = np.asarray(rows.E, float)[seg_row], np.asarray(rows.G, float)[seg_row]
     I_z, I_t, I_w = (num[k][seg_row] for k in ("I_z", "I_t", "I_w"))
@@ -287,7 +353,7 @@ def _segments(rows: MemberRows, todo: np.ndarray, n_seg: np.ndarray, L_LT: np.nd
     # eq. (6.54) with the 6.3.2.2(4) rule: the lateral-torsional buckling check's segment
     pick = governing_segment(chi_used)
     rows_out = todo
-    x_peak = _peak_location(xi[pick], M[pick], ends[pick]) * step[pick] + x_a[pick]
+    x_peak = _peak_location(xi[pick], M[pick], ends[pick]) * span[pick] + x_a[pick]
     for key, values in (("M_cr_Nm", M_cr), ("M_cr_0_Nm", M_cr_0), ("C_1", C_1),
                         ("lambda_bar_LT", lam), ("chi_LT", chi_mod), ("chi_LT_unmodified", chi),
                         ("alpha_LT", alpha), ("k_c", k_c), ("psi", psi), ("f", f),
@@ -295,7 +361,7 @@ def _segments(rows: MemberRows, todo: np.ndarray, n_seg: np.ndarray, L_LT: np.nd
         out[key][rows_out] = values[pick]
     out["x_LT_m"][rows_out] = x_peak
     out["ltb_segment_start_m"][rows_out] = x_a[pick]
-    out["ltb_segment_end_m"][rows_out] = x_a[pick] + step[pick]
+    out["ltb_segment_end_m"][rows_out] = x_b[pick]
     # 6.3.3: the computed chi_LT and the segment it governs (the setting may carry the rule in)
     rule = st.negligible_rules_in_interaction
     pick = pick if rule else governing_segment(chi_mod)
@@ -304,7 +370,7 @@ def _segments(rows: MemberRows, todo: np.ndarray, n_seg: np.ndarray, L_LT: np.nd
     out["ltb_negligible_interaction"][rows_out] = negligible[pick] if rule else False
     out["C_1_interaction"][rows_out] = C_1[pick]
     out["interaction_segment_start_m"][rows_out] = x_a[pick]
-    out["interaction_segment_end_m"][rows_out] = x_a[pick] + step[pick]
+    out["interaction_segment_end_m"][rows_out] = x_b[pick]
 
 
 def _peak_location(xi: np.ndarray, M: np.ndarray, ends: np.ndarray) -> np.ndarray:
@@ -409,6 +475,7 @@ def lateral_torsional_checks(rows: MemberRows) -> list[CheckBlock]:
     R = rows.n_rows
     values = {"M_y_Ed_Nm": M_Ed, "segment_start_m": b["ltb_segment_start_m"],
               "segment_end_m": b["ltb_segment_end_m"], "n_segments": b["n_segments"],
+              "segments_from": b.get("ltb_segment_basis", np.full(R, "", dtype=object)),
               "M_cr_Nm": b["M_cr_Nm"], "M_cr_0_Nm": b["M_cr_0_Nm"], "C_1": b["C_1"],
               "W_y_m3": W_y, "W_eff_y_m3": b.get("W_eff_y_m3", np.full(R, np.nan)),
               "section_class_member": b["section_class_member"],

@@ -359,3 +359,22 @@ def test_setting_values_are_checked() -> None:
     echoed = settings.as_dict()  # what settings.csv and the report show
     assert echoed["negligible_rules_in_interaction"] is True
     assert echoed["k_zy_zero"] == "I and RHS" and echoed["f_modification"] is False
+
+
+def test_C_mLT_segment_ends_interpolated_at_the_restraint_points() -> None:
+    """The worked column (M_y 0 -> 80 kNm over 4 m, stations every 0.5 m) with an LTB segment
+    whose ends lie between stations. By hand, M linear: M(1.25) = 25, M(2.6) = 52 kNm, so
+    psi = 25 / 52 and C_mLT = 0.6 + 0.4 psi (Table B.3, linear diagram); a segment from 1.1 to
+    1.4 m holds no station at all: M(1.1) = 22, M(1.4) = 28 kNm, psi = 22 / 28."""
+    b = hand_buckling(2)
+    b["interaction_segment_start_m"] = np.array([1.25, 1.1])
+    b["interaction_segment_end_m"] = np.array([2.6, 1.4])
+    b["ltb_segment_basis"] = np.full(2, "spans between lateral restraint points", dtype=object)
+    v = interaction_checks(worked_column(2, buckling=b))[0].values
+    for row, psi in ((0, 25 / 52), (1, 22 / 28)):
+        assert v["psi_LT"][row] == pytest.approx(psi, rel=1e-9)
+        assert v["C_mLT"][row] == pytest.approx(0.6 + 0.4 * psi, rel=1e-9)
+        assert v["C_mLT_diagram"][row] == "LTB segment"
+    assert v["C_my"][0] == pytest.approx(0.6)  # the member's own diagram is untouched
+    assert list(v["LT_segment_start_m"]) == [1.25, 1.1]
+    assert v["LT_segments_from"][0] == "spans between lateral restraint points"

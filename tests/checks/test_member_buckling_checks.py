@@ -263,3 +263,90 @@ def test_buckling_values_keys_for_the_interaction_checks():
                 "section_class_member", "reason"):
         assert key in values and len(values[key]) == 2
     assert values["reason"].tolist() == ["", ""]
+
+
+# Lateral restraints at 0, 2.5, 4.5 and 10 m of a 10 m IPE 300 beam; L_LT = 5.5 m, the longest
+# span. Stations every 2 m, so the inner restraint points lie between stations.
+SPAN_X = (0.0, 2.0, 4.0, 6.0, 8.0, 10.0)
+SPAN_POINTS = np.array([[0.0, 2.5, 4.5, 10.0]])
+C1_FROM_PSI = {1.0: 1.00, 0.75: 1.14, 0.5: 1.31, 0.0: 1.77}
+"""C_1 for a linear moment diagram with end-moment ratio psi, fork supports (European design
+guidance tables of C_1, from memory; psi = 0.75 from the same table)."""
+C1_TABLE = 0.015  # two-decimal table values against the numerical M_cr
+
+
+def chi_LT_mod_by_hand(M_cr, psi):
+    """EN 1993-1-1 6.3.2.3 written out for the tests: eq. (6.57) rolled, curve b (Table 6.5,
+    h/b = 2), lambda_LT,0 = 0.4, beta = 0.75; k_c of Table 6.6 for a linear diagram
+    1 / (1.33 - 0.33 psi); f and chi_LT,mod of eq. (6.58)."""
+    lam = np.sqrt(IPE300["W_pl_y"] * S355 / M_cr)
+    phi = 0.5 * (1 + 0.34 * (lam - 0.4) + 0.75 * lam**2)
+    chi = min(1.0, 1 / lam**2, 1 / (phi + np.sqrt(phi**2 - 0.75 * lam**2)))
+    k_c = 1 / (1.33 - 0.33 * psi)
+    f = min(1.0, 1 - 0.5 * (1 - k_c) * (1 - 2 * (lam - 0.8) ** 2))
+    return min(chi / f, 1.0, 1 / lam**2)
+
+
+def test_ltb_segments_at_the_restraint_points_under_a_moment_gradient():
+    """M_y falls linearly from 100 kNm at x = 0 to 0 at 10 m. Real spans, by hand: 0-2.5 m,
+    100 -> 75 kNm (psi = 0.75); 2.5-4.5 m, 75 -> 55 kNm; 4.5-10 m, 55 -> 0 kNm (psi = 0).
+    M_cr = C_1 M_cr,0(span) (closed form, C_1 from the table above); the governing span has the
+    highest M_Ed / M_b,Rd. The equal split (round(10 / 5.5) = 2 parts of 5 m, M_cr with 5.5 m)
+    would take 0-5 m instead: 100 -> 50 kNm, psi = 0.5, C_1 = 1.31."""
+    My = 100e3 * (1 - np.array(SPAN_X) / 10.0)
+    real = make_rows([IPE300], My=My, x=SPAN_X, L_LT=5.5, info={"ltb_points_m": SPAN_POINTS})
+    v = fam.buckling_values(real)
+    block = fam.lateral_torsional_checks(real)[0]
+    # by hand: utilisation of the first and last spans (the middle one carries less moment
+    # than the first over a shorter span, with a C_1 no lower: it cannot govern)
+    hand = {}
+    for (a, b, M_Ed, psi) in ((0.0, 2.5, 100e3, 0.75), (4.5, 10.0, 55e3, 0.0)):
+        M_cr = C1_FROM_PSI[psi] * closed_form_M_cr(b - a)
+        hand[(a, b)] = (M_cr, M_Ed / (chi_LT_mod_by_hand(M_cr, psi) * IPE300["W_pl_y"] * S355))
+    governing = max(hand, key=lambda k: hand[k][1])
+    assert governing == (0.0, 2.5)
+    assert v["n_segments"][0] == 3
+    assert (v["ltb_segment_start_m"][0], v["ltb_segment_end_m"][0]) == governing
+    assert v["psi"][0] == pytest.approx(0.75, rel=1e-9)  # end moment interpolated at 2.5 m
+    assert v["C_1"][0] == pytest.approx(C1_FROM_PSI[0.75], rel=C1_TABLE)
+    assert v["M_cr_Nm"][0] == pytest.approx(hand[governing][0], rel=C1_TABLE)
+    assert block.utilisation[0] == pytest.approx(hand[governing][1], rel=C1_TABLE)
+    assert block.values["M_y_Ed_Nm"][0] == pytest.approx(100e3)
+    assert block.values["segments_from"][0] == fam.SEGMENT_BASIS[fam.REAL_SPANS]
+
+    # the same row without restraint positions: equal parts of L_LT, and the row says so
+    equal = make_rows([IPE300], My=My, x=SPAN_X, L_LT=5.5)
+    e = fam.buckling_values(equal)
+    assert (e["ltb_segment_start_m"][0], e["ltb_segment_end_m"][0]) == (0.0, 5.0)
+    assert e["n_segments"][0] == 2 and e["psi"][0] == pytest.approx(0.5)
+    assert e["C_1"][0] == pytest.approx(C1_FROM_PSI[0.5], rel=C1_TABLE)
+    assert e["M_cr_Nm"][0] == pytest.approx(1.31 * closed_form_M_cr(5.5), rel=C1_TABLE)
+    assert e["ltb_segment_basis"][0] == fam.SEGMENT_BASIS[fam.NO_POSITIONS]
+
+
+def test_ltb_last_span_governs_under_uniform_moment():
+    """Uniform M_y = 80 kNm with restraints at 0, 2.5, 4.5, 10 m: the longest span, 4.5-10 m,
+    governs with M_cr of a 5.5 m span (closed form, psi = 1, C_1 = 1)."""
+    rows = make_rows([IPE300], My=80e3, x=SPAN_X, L_LT=5.5, info={"ltb_points_m": SPAN_POINTS})
+    v = fam.buckling_values(rows)
+    assert (v["ltb_segment_start_m"][0], v["ltb_segment_end_m"][0]) == (4.5, 10.0)
+    assert v["M_cr_Nm"][0] == pytest.approx(closed_form_M_cr(5.5), rel=NUMERICAL)
+    assert v["C_1"][0] == pytest.approx(1.0, rel=NUMERICAL)
+    assert v["interaction_segment_start_m"][0] == 4.5
+
+
+def test_ltb_length_given_in_the_project_keeps_equal_parts():
+    """L_LT from the project file: the member is cut into equal parts of it even where the
+    restraint points are known, and the row says so. Restraint points that do not reach both
+    member ends, or that do not rise, are not used either."""
+    My = 100e3 * (1 - np.array(SPAN_X) / 10.0)
+    points = np.array([[0.0, 2.5, 4.5, 10.0], [0.0, 2.5, 4.5, 10.0], [0.0, 4.5, np.nan, np.nan],
+                       [0.0, 4.5, 4.5, 10.0]])
+    rows = make_rows([IPE300] * 4, My=My, x=SPAN_X, L_LT=5.5,
+                     info={"ltb_points_m": points,
+                           "L_LT_override": np.array([True, None, False, False], dtype=object)})
+    v = fam.buckling_values(rows)
+    assert list(v["n_segments"]) == [2, 3, 2, 2]
+    assert list(v["ltb_segment_basis"]) == [fam.SEGMENT_BASIS[k] for k in (
+        fam.GIVEN_LENGTH, fam.REAL_SPANS, fam.NO_POSITIONS, fam.NO_POSITIONS)]
+    assert list(v["ltb_segment_end_m"]) == [5.0, 2.5, 5.0, 5.0]
