@@ -22,6 +22,7 @@ import pandas as pd
 from postproc import loads
 from postproc.errors import InputError
 from postproc.frame import Frame
+from postproc.project_schema import OpenSeesModel
 from postproc.results import DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
 
 from .opensees_export import export_tables
@@ -29,8 +30,7 @@ from .opensees_model import (Captured, axis_map, import_opensees, read_domain, r
                              to_en)
 from .opensees_run import Job, clear_patterns, forces_along, run_jobs, station_grid
 
-MODEL_KEYS = {"source", "script", "builder", "analysis", "major_axis", "stations", "sections",
-              "element_sections", "grades", "processes", "imperfection"}
+MODEL_KEYS = set(OpenSeesModel.model_fields)  # the project schema's [model] keys
 ANALYSES = ("linear", "p-delta")
 REACTION_COLUMNS = ["FX_N", "FY_N", "FZ_N", "MX_Nm", "MY_Nm", "MZ_Nm"]
 __all__ = ["load", "export_tables", "load_cases", "build_frame"]

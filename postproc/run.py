@@ -27,7 +27,7 @@ def load_model(project: Project) -> tuple[Frame, Results]:
         return tables.load(project)
     from adapters import opensees
 
-    return opensees.load(project.raw, project.path)
+    return opensees.load({**project.raw, "model": project.model}, project.path)
 
 
 def run_project(path: str | Path) -> RunOutput:
