@@ -18,14 +18,13 @@ import pandas as pd
 from postproc import materials
 from postproc.errors import InputError
 from postproc.frame import Frame
+from postproc.project_schema import TABLE_FILES
 from postproc.results import COMBINATION_COLUMNS, DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
 from postproc.sections import build_sections
 from postproc.units import factor
 
 DEFAULT_UNITS = {"length": "m", "force": "kN", "moment": "kNm"}
-FILES = {"nodes": "nodes.csv", "elements": "elements.csv", "sections": "sections.csv",
-         "supports": "supports.csv", "forces": "forces.csv", "displacements": "displacements.csv",
-         "load_cases": "load_cases.csv", "combinations": "combinations.csv"}
+FILES = TABLE_FILES  # file key -> default name; the project schema's [model] keys
 # CSV column -> (internal column, kind of quantity)
 FORCE_FIELDS = {"N": ("N_N", "force"), "Vy": ("Vy_N", "force"), "Vz": ("Vz_N", "force"),
                 "T": ("T_Nm", "moment"), "My": ("My_Nm", "moment"), "Mz": ("Mz_Nm", "moment")}

@@ -252,7 +252,8 @@ def _length_overrides(overrides: pd.DataFrame | None) -> pd.DataFrame | None:
     if overrides is None or overrides.empty:
         return None
     columns = {"L_cr_y": "L_cr_y_m", "L_cr_z": "L_cr_z_m", "L_cr_T": "L_cr_T_m", "L_LT": "L_LT_m"}
-    return overrides[["member", *columns]].rename(columns=columns)
+    where = [c for c in ("file", "entry") if c in overrides.columns]  # for located messages
+    return overrides[["member", *columns, *where]].rename(columns=columns)
 
 
 def _with_member_info(rows: MemberRows, overrides: pd.DataFrame | None) -> MemberRows:
