@@ -30,6 +30,7 @@ FORCE_FIELDS = {"N": ("N_N", "force"), "Vy": ("Vy_N", "force"), "Vz": ("Vz_N", "
                 "T": ("T_Nm", "moment"), "My": ("My_Nm", "moment"), "Mz": ("Mz_Nm", "moment")}
 FORCES_2D_REQUIRED = ("N", "Vz", "My")
 SUPPORT_FIELDS = ("ux", "uy", "uz", "rx", "ry", "rz")
+MAGNITUDE_LIMIT = 1e15  # N, N*m or m: far beyond any frame, far below float overflow when squared
 _HEADER = re.compile(r"^\s*([^\[\]]+?)\s*(?:\[\s*([^\]]*?)\s*\])?\s*$")
 
 
@@ -112,6 +113,10 @@ class Table:
         if kind is not None:
             unit = self.column_units.get(column) or self.units[kind]
             values = values * factor(kind, unit, file=self.name, field=column)
+        # no frame has a value this large in SI; beyond it squares overflow in the checks
+        self.refuse(np.isinf(values) | (np.abs(values) > MAGNITUDE_LIMIT), column,
+                    lambda k: f"{text.iloc[k]!r} is beyond any plausible value (more than "
+                    f"{MAGNITUDE_LIMIT:.0e} in SI units)")
         return values
 
     def unique_ids(self, column: str) -> pd.Series:

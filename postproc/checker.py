@@ -96,7 +96,8 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
         table = _mark_unusable_combinations(pd.DataFrame(columns=KEY_COLUMNS), pd.DataFrame(),
                                             combos, members)
         return CheckOutcome(table=_mark_unchecked_members(table, members), members=members,
-                            stability=pd.DataFrame(index=pd.Index([], name="combination")),
+                            stability=_with_analysis_status(
+                                pd.DataFrame(index=pd.Index([], name="combination")), combos),
                             lengths=pd.DataFrame(columns=["member", "combination"]),
                             settings=settings, combinations=combos)
 
@@ -120,8 +121,19 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
         position = list(table.columns).index("reason") + 1
         table.insert(position, "analysis_path",
                      table["combination"].map(per_combination["path"]).fillna("").to_numpy())
-    return CheckOutcome(table=table, members=members, stability=per_combination,
+    return CheckOutcome(table=table, members=members,
+                        stability=_with_analysis_status(per_combination, combos),
                         lengths=lengths, settings=settings, combinations=combos)
+
+
+def _with_analysis_status(per_combination: pd.DataFrame, combos: pd.DataFrame) -> pd.DataFrame:
+    """Every ULS combination, analysed or not, with the status and message of its analysis
+    first: a combination whose analysis failed is listed with the reason, never left out."""
+    uls = combos[combos["kind"] == "ULS"]
+    status = pd.DataFrame({"analysis_status": uls["status"].astype(str),
+                           "analysis_message": uls["message"].fillna("").astype(str)},
+                          index=pd.Index(uls.index, name="combination"))
+    return status.join(per_combination, how="outer").rename_axis("combination")
 
 
 def iter_checks(rows: MemberRows, families: list[CheckFamily], *,
