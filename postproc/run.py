@@ -35,6 +35,15 @@ def load_model(project: Project) -> tuple[Frame, Results]:
     return opensees.load({**project.raw, "model": project.model}, project.path)
 
 
+def forces_source(project: Project) -> str:
+    """Where the forces come from, for messages: the forces table or the model script."""
+    model = project.model
+    if model["source"] == "tables":
+        return str(project.resolve(model.get("directory", ".")) / model.get("forces",
+                                                                            "forces.csv"))
+    return str(project.resolve(model["script"]))
+
+
 def run_project(path: str | Path) -> RunOutput:
     """Read a project, load its model, check every member; raises InputError on bad input."""
     project = read_project(path)
@@ -48,6 +57,7 @@ def run_project(path: str | Path) -> RunOutput:
     for w in caught:  # anything else is shown as usual
         if not issubclass(w.category, RuntimeWarning):
             warnings.warn_explicit(w.message, w.category, w.filename, w.lineno)
-    found = pd.concat([plausibility_warnings(frame, results, outcome, forces_file=frame.source),
+    found = pd.concat([plausibility_warnings(frame, results, outcome,
+                                             forces_file=forces_source(project)),
                        numerical_warnings(numeric)], ignore_index=True)
     return RunOutput(project, frame, results, outcome, found)
