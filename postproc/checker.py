@@ -113,9 +113,10 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
     rows = build_member_rows(frame, checked.forces, members, settings, lengths)
     rows, blocks = run_checks(rows, families or CHECK_FAMILIES, overrides=overrides)
     table = results_table(rows, blocks, settings.utilisation_limit)
+    # members without forces first, so that a combination's frame path applies to them too
+    table = _mark_unchecked_members(table, members, rows, list(uls))
     table = _mark_unusable_combinations(table, per_combination, combos, members)
     table = _explain_missing_lengths(table, lengths)
-    table = _mark_unchecked_members(table, members, set(rows.member))
     if "path" in per_combination and len(table):
         # the analysis path of 5.2.1/5.2.2 that each row's forces went through
         position = list(table.columns).index("reason") + 1
@@ -217,23 +218,48 @@ def run_checks(rows: MemberRows, families: list[CheckFamily], *,
 
 
 def _mark_unchecked_members(table: pd.DataFrame, members: Members,
-                            with_forces: set | None = None) -> pd.DataFrame:
-    """Every member appears in the table. A member with no ULS forces at all (no combination,
-    every analysis failed) gets a not-evaluated row, so a run that checked nothing can never look
-    like a pass; a member whose forces are zero everywhere gets a 'no internal forces' row with
-    utilisation 0."""
-    checked = set(table["member"]) if len(table) else set()
-    missing = [m for m in members.members.index if m not in checked]
-    if not missing:
+                            rows: MemberRows | None = None,
+                            combinations: list | None = None) -> pd.DataFrame:
+    """Every (member, ULS combination) appears in the table with a status.
+
+    - a pair with member rows but no check row (its forces are zero at every station): a
+      'no internal forces' row, utilisation 0, pass;
+    - a pair without forces in a combination that was analysed: not evaluated;
+    - a member with no ULS combination at all (none given, every analysis failed): one
+      not-evaluated row, so a run that checked nothing can never look like a pass.
+    """
+    names = list(combinations or [])
+    if not names:
+        checked = set(table["member"]) if len(table) else set()
+        missing = [m for m in members.members.index if m not in checked]
+        return _append(table, pd.DataFrame({
+            "member": missing, "combination": "", "check": "forces", "clause": "6.1",
+            "x_m": np.nan, "utilisation": np.nan, "status": NOT_EVALUATED,
+            "reason": "no ULS combination with forces for this member"}))
+    ids = members.members.index.to_numpy(dtype=object)
+    wanted = pd.MultiIndex.from_product([ids, np.asarray(names, dtype=object)],
+                                        names=["member", "combination"])
+    present = pd.MultiIndex.from_arrays([table["member"].to_numpy(dtype=object),
+                                         table["combination"].to_numpy(dtype=object)])
+    missing = wanted[~wanted.isin(present)]
+    if not len(missing):
         return table
-    loaded = np.array([with_forces is not None and m in with_forces for m in missing])
-    extra = pd.DataFrame({
-        "member": missing, "combination": "", "check": np.where(loaded, "no internal forces",
-                                                                "forces"),
-        "clause": "6.1", "x_m": np.nan, "utilisation": np.where(loaded, 0.0, np.nan),
-        "status": np.where(loaded, PASS, NOT_EVALUATED).astype(object),
-        "reason": np.where(loaded, "", "no ULS combination with forces for this member"
-                           ).astype(object)})
+    with_rows = (pd.MultiIndex.from_arrays([np.asarray(rows.member, dtype=object),
+                                            np.asarray(rows.combination, dtype=object)])
+                 if rows is not None else pd.MultiIndex.from_arrays([[], []]))
+    zero = missing.isin(with_rows)
+    return _append(table, pd.DataFrame({
+        "member": missing.get_level_values(0), "combination": missing.get_level_values(1),
+        "check": np.where(zero, "no internal forces", "forces"), "clause": "6.1",
+        "x_m": np.nan, "utilisation": np.where(zero, 0.0, np.nan),
+        "status": np.where(zero, PASS, NOT_EVALUATED).astype(object),
+        "reason": np.where(zero, "", "no forces for this member in this combination"
+                           ).astype(object)}))
+
+
+def _append(table: pd.DataFrame, extra: pd.DataFrame) -> pd.DataFrame:
+    if not len(extra):
+        return table
     return pd.concat([table, extra], ignore_index=True, sort=False) if len(table) else extra
 
 
