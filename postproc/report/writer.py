@@ -113,9 +113,11 @@ def write_outputs(outcome: CheckOutcome, out_dir: str | Path, *, title: str, sou
         _csv(outcome.stability.reset_index(), staging / "stability.csv")
         _csv(outcome.lengths, staging / "buckling_lengths.csv")
         _csv(settings, staging / "settings.csv", convert=False)
-        _csv(warnings if warnings is not None else pd.DataFrame(columns=["where", "warning"]),
-             staging / "warnings.csv", convert=False)
-        html = html_report(outcome, summary, failures, title=title, source=source)
+        warnings = warnings if warnings is not None else pd.DataFrame(columns=["where",
+                                                                             "warning"])
+        _csv(warnings, staging / "warnings.csv", convert=False)
+        html = html_report(outcome, summary, failures, title=title, source=source,
+                           warnings=warnings)
         (staging / "report.html").write_text(html, encoding="utf-8")
         _swap_in(staging, out_dir)
     finally:

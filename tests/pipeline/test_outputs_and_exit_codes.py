@@ -169,3 +169,35 @@ def test_escape_formulas_leaves_numbers_and_plain_text_alone() -> None:
     out = escape_formulas(table)
     assert list(out["name"][:4]) == ["'=1+2", "'\tx", "'\rx", "plain"] and pd.isna(out["name"][4])
     assert list(out["u"]) == [-1.0, 2, 3, 4, 5]
+
+
+SLEEPER = """
+import pathlib, time
+pathlib.Path(__file__).with_name("started").write_text("yes")
+time.sleep(60)
+"""
+
+
+@pytest.mark.opensees
+@pytest.mark.parametrize("signum, code", [(2, 130), (15, 143)])
+def test_a_signal_ends_the_run_cleanly_with_its_own_code(tmp_path, signum, code) -> None:
+    """Ctrl-C (SIGINT) and a termination signal (SIGTERM) while the model script runs: no
+    traceback, the documented code, no staging folder left behind."""
+    import signal
+    import time
+
+    pytest.importorskip("openseespy.opensees")
+    (tmp_path / "model.py").write_text(SLEEPER)
+    (tmp_path / "project.toml").write_text('[model]\nsource = "opensees"\nscript = "model.py"\n')
+    env = {**os.environ, "PYTHONPATH": str(ROOT)}
+    process = subprocess.Popen([sys.executable, "-m", "postproc.cli", "run",
+                                str(tmp_path / "project.toml"), "--out", str(tmp_path / "out")],
+                               env=env, stdout=subprocess.PIPE, stderr=subprocess.PIPE, text=True)
+    deadline = time.monotonic() + 60
+    while not (tmp_path / "started").exists() and time.monotonic() < deadline:
+        time.sleep(0.05)
+    process.send_signal(signal.Signals(signum))
+    _, err = process.communicate(timeout=60)
+    assert process.returncode == code, err
+    assert "Traceback" not in err and ("interrupted" in err or "terminated" in err)
+    assert not (tmp_path / "out").exists() and not list(tmp_path.glob("out.being-*"))
