@@ -168,7 +168,9 @@ def design_model() -> type[BaseModel]:
             bounds = {k: v for k, v in bounds.items() if k in ("gt", "ge")}
         if bounds:
             kind = Annotated[kind, Field(**bounds)]
-        spec[f.name] = (kind, f.default if f.default is not MISSING else ...)
+        default = (f.default if f.default is not MISSING else
+                   f.default_factory() if f.default_factory is not MISSING else ...)
+        spec[f.name] = (kind, default)
     model = pydantic.create_model("design", __config__=CONFIG, **spec)
     return model
 
@@ -181,6 +183,8 @@ def _upper_bounds_unless(values: dict) -> list[tuple[str, str]]:
         if not flag or values.get(flag):
             continue
         bounds, value = f.metadata["bounds"], values.get(f.name)
+        if value is None:
+            continue
         if "le" in bounds and value > bounds["le"] or "lt" in bounds and value >= bounds["lt"]:
             limit = bounds.get("le", bounds.get("lt"))
             problems.append((f.name, f"{f.name} = {value} is above {limit}; set {flag} = true "
@@ -197,7 +201,7 @@ def validate_design(values: dict, *, file: str | None = None) -> dict:
         raise _input_error(exc, model, file=file, prefix=("design",)) from None
     for name, message in _upper_bounds_unless(checked):
         raise InputError(message, file=file, field=f"design.{name}")
-    return {k: v for k, v in checked.items() if k in values or k in model.model_fields}
+    return checked
 
 
 def validate_project(raw: dict, *, file: str) -> tuple[ProjectFile, BaseModel, dict]:
