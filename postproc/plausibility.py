@@ -21,6 +21,7 @@ ELEMENT_SHORT_M = 0.01    # elements shorter than 10 mm suggest coordinates in m
 FORCE_HIGH_N = 1e8        # 100 MN in one member: forces in N read as kN, or a misplaced factor
 MOMENT_HIGH_NM = 1e8      # 100 MNm likewise
 UTILISATION_HIGH = 10.0   # ten times over: more often a unit mistake than an undersized member
+UTILISATION_LOW = 0.01    # the whole frame under 1 %: forces in kN read as N, or loads left out
 SHEAR_MISMATCH = 0.2      # relative misfit of dM/dx against V in a segment
 SHEAR_SEGMENTS = 0.5      # share of an element's segments misfitting before it is reported
 COLUMNS = ["where", "warning"]
@@ -144,6 +145,9 @@ def _utilisations(outcome: CheckOutcome) -> list[tuple[str, str]]:
     if table.empty:
         return []
     u = pd.to_numeric(table["utilisation"], errors="coerce")
+    if u.max() < UTILISATION_LOW and (u > 0).any():
+        return [("all members", f"the largest utilisation is {u.max():.2g} (below "
+                 f"{UTILISATION_LOW:g}): are the forces in kN read as N, or loads missing?")]
     high = table[u > UTILISATION_HIGH]
     if high.empty:
         return []

@@ -50,7 +50,10 @@ FORMULA_START = re.compile(r"^[=+\-@\t\r]")
 def prepare_output(out_dir: str | Path) -> Path:
     """Check the output path and make the staging folder; returns it. InputError (field --out)
     for a path that is a file, a folder holding other files, or a place that cannot be written."""
-    out_dir = Path(out_dir)
+    out_dir = Path(out_dir).absolute()
+    if not out_dir.name or out_dir == Path.cwd():
+        raise InputError("name an output folder other than the current or the root folder",
+                         file=str(out_dir), field="--out")
     if out_dir.exists() and not out_dir.is_dir():
         raise InputError("the output path is a file, not a folder", file=str(out_dir),
                          field="--out")
@@ -99,7 +102,7 @@ def _alive(pid: int) -> bool:
 def write_outputs(outcome: CheckOutcome, out_dir: str | Path, *, title: str, source: str,
                   warnings: pd.DataFrame | None = None, staging: Path | None = None) -> Path:
     """Write every output file of a run into out_dir, all or nothing; returns the folder."""
-    out_dir = Path(out_dir)
+    out_dir = Path(out_dir).absolute()
     staging = staging or prepare_output(out_dir)
     try:
         summary = member_summary(outcome.table, outcome.members.members)

@@ -98,6 +98,16 @@ def test_forces_1000_times_too_large_are_named(demo, tmp_path) -> None:
     assert "utilisations above 10" in text
 
 
+def test_forces_1000_times_too_small_are_named(demo, tmp_path) -> None:
+    """kN values declared as N: the largest utilisation of the frame (0.9 in the example) falls
+    a thousand times, below 0.01."""
+    forces = demo / "tables" / "forces.csv"
+    forces.write_text(forces.read_text().replace("[kN]", "[N]").replace("[kNm]", "[Nm]"))
+    _, warned = _run(demo, tmp_path)
+    low = warned[warned["warning"].str.contains("largest utilisation")]
+    assert list(low["where"]) == ["all members"]
+
+
 @pytest.mark.parametrize("value", ["1e300", "inf", "nan", "-1e16"])
 def test_absurd_or_non_finite_forces_are_located_bad_input(demo, tmp_path, capsys, value) -> None:
     forces = demo / "tables" / "forces.csv"
