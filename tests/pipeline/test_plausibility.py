@@ -205,3 +205,15 @@ def test_an_analysis_that_fails_is_located_and_listed_in_stability(tmp_path, cap
     assert "load case dead" in stability["analysis_message"].iloc[0]
     table = pd.read_csv(out / "utilisation.csv")
     assert (table["status"] == "not evaluated").all() and len(table) >= 1
+
+
+@pytest.mark.parametrize("value", ["inf", "1e300", "12000"])
+def test_a_section_dimension_beyond_any_steel_section_is_located_bad_input(demo, tmp_path,
+                                                                           capsys, value) -> None:
+    """A depth over 10 m (postproc/sections/builder.py LARGEST_MM) cannot be a steel section."""
+    (demo / "tables" / "sections.csv").write_text(
+        "section,shape,h_mm,b_mm,tw_mm,tf_mm,r_mm\n"
+        f"COL,I,{value},200,9,15,18\nFLOOR,I,330,160,7.5,11.5,18\nROOF,I,200,100,5.6,8.5,12\n")
+    code, _ = _run(demo, tmp_path)
+    err = capsys.readouterr().err
+    assert code == 2 and "sections.csv" in err and "row 2" in err and "'h_mm'" in err
