@@ -201,3 +201,33 @@ def test_a_signal_ends_the_run_cleanly_with_its_own_code(tmp_path, signum, code)
     assert process.returncode == code, err
     assert "Traceback" not in err and ("interrupted" in err or "terminated" in err)
     assert not (tmp_path / "out").exists() and not list(tmp_path.glob("out.being-*"))
+
+
+@pytest.mark.opensees
+def test_ctrl_c_during_parallel_analyses_stops_the_workers_at_once(tmp_path) -> None:
+    """The bundled P-delta frame runs its analyses in two processes; Ctrl-C after the first
+    ones ends the run with 130, without waiting for the rest, tracebacks or solver noise."""
+    import signal
+    import time
+
+    pytest.importorskip("openseespy.opensees")
+    out = tmp_path / "out"
+    env = {**os.environ, "PYTHONPATH": str(ROOT)}
+    process = subprocess.Popen([sys.executable, "-m", "postproc.cli", "run",
+                                str(ROOT / "examples" / "sway_frame" / "project.toml"),
+                                "--out", str(out)], env=env, stdout=subprocess.DEVNULL,
+                               stderr=subprocess.PIPE, text=True)
+    seen = ""
+    while "analyses: 2/" not in seen:
+        char = process.stderr.read(1)
+        if not char:
+            break
+        seen += char
+    started = time.monotonic()
+    process.send_signal(signal.SIGINT)
+    err = process.stderr.read()
+    process.wait(timeout=60)
+    assert process.returncode == 130, seen + err
+    assert time.monotonic() - started < 10.0  # the twelve analyses take longer than this
+    assert "Traceback" not in err and "ERROR" not in err
+    assert not out.exists() and not list(tmp_path.glob("out.being-*"))
