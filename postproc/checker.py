@@ -114,7 +114,10 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
     rows, blocks = run_checks(rows, families or CHECK_FAMILIES, overrides=overrides)
     table = results_table(rows, blocks, settings.utilisation_limit)
     # members without forces first, so that a combination's frame path applies to them too
-    table = _mark_unchecked_members(table, members, rows, list(uls))
+    covered = np.zeros(len(rows.member), dtype=bool)
+    for block in blocks:
+        covered |= np.asarray(block.applies, bool)
+    table = _mark_unchecked_members(table, members, rows, list(uls), covered)
     table = _mark_unusable_combinations(table, per_combination, combos, members)
     table = _explain_missing_lengths(table, lengths)
     if "path" in per_combination and len(table):
@@ -218,9 +221,10 @@ def run_checks(rows: MemberRows, families: list[CheckFamily], *,
 
 
 def _mark_unchecked_members(table: pd.DataFrame, members: Members,
-                            rows: MemberRows | None = None,
-                            combinations: list | None = None) -> pd.DataFrame:
-    """Every (member, ULS combination) appears in the table with a status.
+                            rows: MemberRows | None = None, combinations: list | None = None,
+                            covered: np.ndarray | None = None) -> pd.DataFrame:
+    """Every (member, ULS combination) appears in the table with a status. `covered` (R,)
+    says which member rows have at least one check row in `table`.
 
     - a pair with member rows but no check row (its forces are zero at every station): a
       'no internal forces' row, utilisation 0, pass;
@@ -236,20 +240,24 @@ def _mark_unchecked_members(table: pd.DataFrame, members: Members,
             "member": missing, "combination": "", "check": "forces", "clause": "6.1",
             "x_m": np.nan, "utilisation": np.nan, "status": NOT_EVALUATED,
             "reason": "no ULS combination with forces for this member"}))
-    ids = members.members.index.to_numpy(dtype=object)
-    wanted = pd.MultiIndex.from_product([ids, np.asarray(names, dtype=object)],
-                                        names=["member", "combination"])
-    present = pd.MultiIndex.from_arrays([table["member"].to_numpy(dtype=object),
-                                         table["combination"].to_numpy(dtype=object)])
-    missing = wanted[~wanted.isin(present)]
-    if not len(missing):
+    ids = members.members.index
+    # (members, combinations) grids from the member rows: cheap next to hashing the long table
+    has_rows = np.zeros((len(ids), len(names)), dtype=bool)
+    has_check = np.zeros_like(has_rows)
+    if rows is not None and len(rows.member):
+        m = pd.Categorical(np.asarray(rows.member, dtype=object), categories=ids).codes
+        c = pd.Categorical(np.asarray(rows.combination, dtype=object), categories=names).codes
+        known = (m >= 0) & (c >= 0)
+        has_rows[m[known], c[known]] = True
+        checked = known & (covered if covered is not None else True)
+        has_check[m[checked], c[checked]] = True
+    missing_m, missing_c = np.nonzero(~has_check)
+    if not len(missing_m):
         return table
-    with_rows = (pd.MultiIndex.from_arrays([np.asarray(rows.member, dtype=object),
-                                            np.asarray(rows.combination, dtype=object)])
-                 if rows is not None else pd.MultiIndex.from_arrays([[], []]))
-    zero = missing.isin(with_rows)
+    zero = has_rows[missing_m, missing_c]
     return _append(table, pd.DataFrame({
-        "member": missing.get_level_values(0), "combination": missing.get_level_values(1),
+        "member": ids.to_numpy(dtype=object)[missing_m],
+        "combination": np.asarray(names, dtype=object)[missing_c],
         "check": np.where(zero, "no internal forces", "forces"), "clause": "6.1",
         "x_m": np.nan, "utilisation": np.where(zero, 0.0, np.nan),
         "status": np.where(zero, PASS, NOT_EVALUATED).astype(object),
