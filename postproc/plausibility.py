@@ -96,7 +96,7 @@ def _shear_against_moment(results: Results, outcome: CheckOutcome,
                           forces_file: str) -> list[tuple[str, str]]:
     """Segments where the chord slope of M differs from the mean shear (dMy/dx = Vz and
     dMz/dx = -Vy, postproc/results.py; exact for a uniform span load between stations)."""
-    forces = results.forces.sort_values(["combination", "element", "x_m"], kind="stable")
+    forces = results.forces  # sorted by combination, element, x_m (postproc/results.py)
     if len(forces) < 2:
         return []
     comb = forces["combination"].to_numpy()
