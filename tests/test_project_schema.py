@@ -129,3 +129,23 @@ def test_the_docs_list_every_project_key() -> None:
 def test_bundled_examples_pass_the_schema() -> None:
     for path in sorted((ROOT / "examples").glob("*/project.toml")):
         read_project(path)
+
+
+@pytest.mark.parametrize("line, field", [('gamma_M0 = "1.0"', "design.gamma_M0"),
+                                         ("utilisation_limit = 5", "design.utilisation_limit"),
+                                         ("gama_M0 = 1.0", "design.gama_M0")])
+def test_the_command_exits_2_naming_file_and_field_and_writes_nothing(tmp_path, capsys, line,
+                                                                     field) -> None:
+    import shutil
+
+    from postproc.cli import main
+
+    project = tmp_path / "demo"
+    shutil.copytree(ROOT / "examples" / "hillside_depot", project)
+    toml = project / "project.toml"
+    toml.write_text(toml.read_text().replace("[design]\n", f"[design]\n{line}\n"))
+    out = tmp_path / "out"
+    assert main(["run", str(toml), "--out", str(out), "--quiet"]) == 2
+    err = capsys.readouterr().err
+    assert "project.toml" in err and f"field '{field}'" in err and "Traceback" not in err
+    assert not out.exists()
