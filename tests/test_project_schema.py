@@ -143,7 +143,9 @@ def test_the_command_exits_2_naming_file_and_field_and_writes_nothing(tmp_path, 
     project = tmp_path / "demo"
     shutil.copytree(ROOT / "examples" / "hillside_depot", project)
     toml = project / "project.toml"
-    toml.write_text(toml.read_text().replace("[design]\n", f"[design]\n{line}\n"))
+    kept = [text for text in toml.read_text().splitlines()
+            if not text.startswith(line.split("=")[0].strip() + " ")]  # no key written twice
+    toml.write_text("\n".join(kept).replace("[design]", f"[design]\n{line}") + "\n")
     out = tmp_path / "out"
     assert main(["run", str(toml), "--out", str(out), "--quiet"]) == 2
     err = capsys.readouterr().err
