@@ -151,3 +151,23 @@ def test_the_command_exits_2_naming_file_and_field_and_writes_nothing(tmp_path, 
     err = capsys.readouterr().err
     assert "project.toml" in err and f"field '{field}'" in err and "Traceback" not in err
     assert not out.exists()
+
+
+@pytest.mark.parametrize("extra, field", [
+    ('[[restraints]]\nnode = "N99"\ndirection = "y"\n', "restraints[13].node"),  # 12 before it
+    ("[members.ZZ]\nL_cr_y = 3.0\n", "members.ZZ"),
+])
+def test_restraint_and_override_errors_name_the_file_and_the_entry(tmp_path, capsys, extra,
+                                                                   field) -> None:
+    """Known only once the frame is read; the message names the entry as written, not 'row 0'."""
+    import shutil
+
+    from postproc.cli import main
+
+    project = tmp_path / "demo"
+    shutil.copytree(ROOT / "examples" / "hillside_depot", project)
+    toml = project / "project.toml"
+    toml.write_text(toml.read_text() + extra)
+    assert main(["run", str(toml), "--out", str(tmp_path / "out"), "--quiet"]) == 2
+    err = capsys.readouterr().err
+    assert str(toml.resolve()) in err and f"field '{field}'" in err and "row 0" not in err
