@@ -86,6 +86,7 @@ class OpenSeesModel(Strict):
 
 
 ROUTES: dict[str, type[Strict]] = {"tables": TablesModel, "opensees": OpenSeesModel}
+P_DELTA_ONLY = ("imperfection", "processes")  # [model] keys a linear OpenSees run does not read
 
 
 class LoadCase(Strict):
@@ -225,6 +226,12 @@ def validate_project(raw: dict, *, file: str) -> tuple[ProjectFile, BaseModel, d
         model = route.model_validate(project.model)
     except ValidationError as exc:
         raise _input_error(exc, route, file=file, prefix=("model",)) from None
+    if source == "opensees" and model.analysis != "p-delta":
+        for key in P_DELTA_ONLY:
+            if key in project.model:
+                raise InputError(f"[model] {key} is used only with analysis = \"p-delta\"; this "
+                                 f"project has analysis = \"{model.analysis}\"", file=file,
+                                 field=f"model.{key}")
     for table, (only, why) in ROUTE_ONLY_TABLES.items():
         if table in raw and source != only:
             raise InputError(f"[{table}] is used only by source = \"{only}\" ({why})", file=file,

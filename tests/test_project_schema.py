@@ -171,3 +171,14 @@ def test_restraint_and_override_errors_name_the_file_and_the_entry(tmp_path, cap
     assert main(["run", str(toml), "--out", str(tmp_path / "out"), "--quiet"]) == 2
     err = capsys.readouterr().err
     assert str(toml.resolve()) in err and f"field '{field}'" in err and "row 0" not in err
+
+
+@pytest.mark.parametrize("text, field", [
+    (OPENSEES + "processes = 2\n", "model.processes"),
+    (OPENSEES + "[model.imperfection]\nm = 3\n", "model.imperfection"),
+])
+def test_p_delta_keys_in_a_linear_run_are_refused(tmp_path, text, field) -> None:
+    message = _refused(tmp_path, text, field)
+    assert 'used only with analysis = "p-delta"' in message
+    _read(tmp_path, text.replace('script = "model.py"\n',
+                                 'script = "model.py"\nanalysis = "p-delta"\n'))
