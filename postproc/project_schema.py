@@ -151,6 +151,10 @@ class ProjectFile(Strict):
 
 
 OVERRIDE_KEYS = tuple(MemberOverride.model_fields)
+# [combinations] keys that a method does not read (xi is the factor of eq. 6.10b only; "none"
+# builds no combination, so only the explicit ones are read)
+UNREAD_BY_METHOD = {"6.10": {"xi"}, "6.10ab": set(),
+                    "none": set(Combinations.model_fields) - {"method", "extra"}}
 # project tables a route cannot use, and why
 ROUTE_ONLY_TABLES = {"load_cases": ("opensees", "a tables model lists its load cases in "
                                     "load_cases.csv")}
@@ -236,8 +240,14 @@ def validate_project(raw: dict, *, file: str) -> tuple[ProjectFile, BaseModel, d
         if table in raw and source != only:
             raise InputError(f"[{table}] is used only by source = \"{only}\" ({why})", file=file,
                              field=table)
+    given = set(raw.get("combinations", {}))
+    unread = sorted(given & UNREAD_BY_METHOD[project.combinations.method])
+    if source == "opensees" and unread:
+        raise InputError(f"[combinations] {', '.join(unread)} is not used with method = "
+                         f"\"{project.combinations.method}\"", file=file,
+                         field=f"combinations.{unread[0]}")
     if source == "tables":
-        unused = sorted(set(raw.get("combinations", {})) - set(TABLES_COMBINATION_KEYS))
+        unused = sorted(given - set(TABLES_COMBINATION_KEYS))
         if unused:
             raise InputError(f"[combinations] {', '.join(unused)} is used only by source = "
                              f"\"opensees\"; a tables model reads "

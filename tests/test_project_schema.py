@@ -182,3 +182,12 @@ def test_p_delta_keys_in_a_linear_run_are_refused(tmp_path, text, field) -> None
     assert 'used only with analysis = "p-delta"' in message
     _read(tmp_path, text.replace('script = "model.py"\n',
                                  'script = "model.py"\nanalysis = "p-delta"\n'))
+
+
+@pytest.mark.parametrize("text, field", [
+    (OPENSEES + "[combinations]\nxi = 0.9\n", "combinations.xi"),   # 6.10 reads no xi
+    (OPENSEES + "[combinations]\nmethod = \"none\"\ngamma_Q = 1.5\n", "combinations.gamma_Q"),
+])
+def test_combination_keys_the_method_does_not_read_are_refused(tmp_path, text, field) -> None:
+    assert "is not used with method" in _refused(tmp_path, text, field)
+    _read(tmp_path, OPENSEES + "[combinations]\nmethod = \"6.10ab\"\nxi = 0.9\n")
