@@ -22,6 +22,7 @@ import pandas as pd
 from postproc import loads
 from postproc.errors import InputError
 from postproc.frame import Frame
+from postproc.project_schema import SCRIPT_TIME_LIMIT_S, OpenSeesModel
 from postproc.results import DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
 
 from .opensees_export import export_tables
@@ -29,8 +30,7 @@ from .opensees_model import (Captured, axis_map, import_opensees, read_domain, r
                              to_en)
 from .opensees_run import Job, clear_patterns, forces_along, run_jobs, station_grid
 
-MODEL_KEYS = {"source", "script", "builder", "analysis", "major_axis", "stations", "sections",
-              "element_sections", "grades", "processes", "imperfection"}
+MODEL_KEYS = set(OpenSeesModel.model_fields)  # the project schema's [model] keys
 ANALYSES = ("linear", "p-delta")
 REACTION_COLUMNS = ["FX_N", "FY_N", "FZ_N", "MX_Nm", "MY_Nm", "MZ_Nm"]
 __all__ = ["load", "export_tables", "load_cases", "build_frame"]
@@ -47,6 +47,7 @@ class Options:
     major_axis: str
     stations: int
     processes: int | None
+    time_limit_s: float | None = None
 
 
 def model_options(model: dict, project_path: Path) -> Options:
@@ -78,7 +79,8 @@ def model_options(model: dict, project_path: Path) -> Options:
                          field="model.processes")
     return Options(script=(Path(project_path).parent / str(model["script"])).resolve(),
                    builder=model.get("builder") or None, analysis=analysis,
-                   major_axis=major_axis, stations=stations, processes=processes)
+                   major_axis=major_axis, stations=stations, processes=processes,
+                   time_limit_s=float(model.get("script_time_limit_s", SCRIPT_TIME_LIMIT_S)))
 
 
 def _whole(value: object) -> bool:
@@ -103,7 +105,8 @@ def load(project: dict, project_path: Path) -> tuple[Frame, Results]:
     pdelta = opt.analysis == "p-delta"
 
     ops = import_opensees()
-    watched = run_user_model(ops, opt.script, opt.builder, pdelta=pdelta)
+    watched = run_user_model(ops, opt.script, opt.builder, pdelta=pdelta,
+                             time_limit_s=opt.time_limit_s)
     captured = read_domain(ops, watched, script=str(opt.script))
     if pdelta:
         unseen = [e for e, t in zip(captured.elements.index, captured.elements["truss"])

@@ -18,7 +18,9 @@ from __future__ import annotations
 import contextlib
 import functools
 import runpy
+import signal
 import sys
+import threading
 from dataclasses import dataclass, field
 from pathlib import Path
 
@@ -109,10 +111,40 @@ def watching(ops, watched: Watched, *, pdelta: bool):
             setattr(ops, name, original)
 
 
-def run_user_model(ops, script: Path, builder: str | None, *, pdelta: bool) -> Watched:
+class ScriptTimeLimit(BaseException):
+    """The model script ran past its time limit (a BaseException: a script's own `except
+    Exception` must not swallow it)."""
+
+
+@contextlib.contextmanager
+def time_limit(seconds: float | None):
+    """Raise ScriptTimeLimit in the main thread after `seconds` (no limit elsewhere: Python
+    delivers signals to the main thread only). A script stuck inside one OpenSees call is
+    stopped when that call returns."""
+    usable = (seconds is not None and hasattr(signal, "setitimer")
+              and threading.current_thread() is threading.main_thread())
+    if not usable:
+        yield
+        return
+
+    def expired(signum, frame):
+        raise ScriptTimeLimit()
+
+    previous = signal.signal(signal.SIGALRM, expired)
+    signal.setitimer(signal.ITIMER_REAL, float(seconds))
+    try:
+        yield
+    finally:
+        signal.setitimer(signal.ITIMER_REAL, 0.0)
+        signal.signal(signal.SIGALRM, previous)
+
+
+def run_user_model(ops, script: Path, builder: str | None, *, pdelta: bool,
+                   time_limit_s: float | None = None) -> Watched:
     """Run the user's script (and builder function) once; returns what was watched.
 
-    Any exception in their code becomes an InputError naming the script.
+    Any exception in their code becomes an InputError naming the script; so does running longer
+    than `time_limit_s` ([model] script_time_limit_s).
     """
     watched = Watched()
     if not script.is_file():
@@ -120,14 +152,23 @@ def run_user_model(ops, script: Path, builder: str | None, *, pdelta: bool) -> W
     ops.wipe()
     with watching(ops, watched, pdelta=pdelta):
         try:
-            namespace = runpy.run_path(str(script), run_name="framesweep_model")
-            if builder:
-                function = namespace.get(builder)
-                if not callable(function):
-                    raise InputError(f"the script defines no function {builder!r}",
-                                     file=str(script), field="model.builder")
-                function()
+            with time_limit(time_limit_s):
+                namespace = runpy.run_path(str(script), run_name="framesweep_model")
+                if builder:
+                    function = namespace.get(builder)
+                    if not callable(function):
+                        raise InputError(f"the script defines no function {builder!r}",
+                                         file=str(script), field="model.builder")
+                    function()
         except InputError:
+            raise
+        except ScriptTimeLimit:
+            raise InputError(f"the model script did not finish within {time_limit_s:g} s (the "
+                             "time limit [model] script_time_limit_s); does it wait for input, "
+                             "loop, or run a long analysis of its own? Raise the limit if it "
+                             "really needs longer", file=str(script), field="model.script") \
+                from None
+        except KeyboardInterrupt:
             raise
         except BaseException as exc:  # SystemExit from a script counts as a failure too
             raise InputError(f"the model script raised {type(exc).__name__}: {exc}. Run it "

@@ -15,8 +15,10 @@ chord (P-Delta in the end moments, no P-delta inside an element).
 from __future__ import annotations
 
 import os
+import signal
 import sys
-from concurrent.futures import ProcessPoolExecutor
+import threading
+from concurrent.futures import InvalidStateError, ProcessPoolExecutor
 from concurrent.futures.process import BrokenProcessPool
 from dataclasses import dataclass
 import multiprocessing
@@ -176,6 +178,11 @@ _WORKER: dict = {}
 def _worker_start(script: str, builder: str | None, pdelta: bool) -> None:
     from pathlib import Path
 
+    # Ctrl-C reaches the whole process group: the parent handles it and stops the workers,
+    # which end at once on its SIGTERM (not through the parent's handler, inherited by fork)
+    signal.signal(signal.SIGINT, signal.SIG_IGN)
+    signal.signal(signal.SIGTERM, signal.SIG_DFL)
+
     ops = import_opensees()
     watched = run_user_model(ops, Path(script), builder, pdelta=pdelta)
     captured = read_domain(ops, watched, script=script)
@@ -232,13 +239,36 @@ def _in_pool(jobs: list[Job], cores: int, progress: Progress, initargs: tuple) -
     # fork where there is one: a spawned worker would re-import the caller's main module
     methods = multiprocessing.get_all_start_methods()
     context = multiprocessing.get_context("fork" if "fork" in methods else "spawn")
-    with ProcessPoolExecutor(max_workers=cores, mp_context=context, initializer=_worker_start,
-                             initargs=initargs) as pool:
+    pool = ProcessPoolExecutor(max_workers=cores, mp_context=context, initializer=_worker_start,
+                               initargs=initargs)
+    try:
         outcomes = []
         for outcome in pool.map(_worker_job, jobs, chunksize=max(1, len(jobs) // (4 * cores))):
             outcomes.append(outcome)
             progress.step()
+    except BaseException:
+        # interrupted or failed: do not wait for the queued analyses; end this pool's workers
+        workers = list((getattr(pool, "_processes", None) or {}).values())
+        _quiet_cancelled_futures()
+        pool.shutdown(wait=False, cancel_futures=True)
+        for worker in workers:
+            worker.terminate()
+        raise
+    pool.shutdown()
     return outcomes
+
+
+def _quiet_cancelled_futures() -> None:
+    """The pool's manager thread, seeing its workers ended, may try to fail futures already
+    cancelled and print InvalidStateError (a race in concurrent.futures); that is not news."""
+    previous = threading.excepthook
+
+    def hook(args) -> None:
+        if not isinstance(args.exc_value, InvalidStateError):
+            previous(args)
+
+    if getattr(previous, "__name__", "") != "hook":
+        threading.excepthook = hook
 
 
 # ---------------------------------------------------------------- forces along elements

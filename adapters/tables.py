@@ -19,19 +19,19 @@ import pandas as pd
 from postproc import materials
 from postproc.errors import InputError
 from postproc.frame import Frame, empty_ties
+from postproc.project_schema import TABLE_FILES
 from postproc.results import COMBINATION_COLUMNS, DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
 from postproc.sections import build_sections
 from postproc.units import factor
 
 DEFAULT_UNITS = {"length": "m", "force": "kN", "moment": "kNm"}
-FILES = {"nodes": "nodes.csv", "elements": "elements.csv", "sections": "sections.csv",
-         "supports": "supports.csv", "forces": "forces.csv", "displacements": "displacements.csv",
-         "load_cases": "load_cases.csv", "combinations": "combinations.csv", "ties": "ties.csv"}
+FILES = TABLE_FILES  # file key -> default name; the project schema's [model] keys
 # CSV column -> (internal column, kind of quantity)
 FORCE_FIELDS = {"N": ("N_N", "force"), "Vy": ("Vy_N", "force"), "Vz": ("Vz_N", "force"),
                 "T": ("T_Nm", "moment"), "My": ("My_Nm", "moment"), "Mz": ("Mz_Nm", "moment")}
 FORCES_2D_REQUIRED = ("N", "Vz", "My")
 SUPPORT_FIELDS = ("ux", "uy", "uz", "rx", "ry", "rz")
+MAGNITUDE_LIMIT = 1e15  # N, N*m or m: far beyond any frame, far below float overflow when squared
 _HEADER = re.compile(r"^\s*([^\[\]]+?)\s*(?:\[\s*([^\]]*?)\s*\])?\s*$")
 
 
@@ -114,6 +114,10 @@ class Table:
         if kind is not None:
             unit = self.column_units.get(column) or self.units[kind]
             values = values * factor(kind, unit, file=self.name, field=column)
+        # no frame has a value this large in SI; beyond it squares overflow in the checks
+        self.refuse(np.isinf(values) | (np.abs(values) > MAGNITUDE_LIMIT), column,
+                    lambda k: f"{text.iloc[k]!r} is beyond any plausible value (more than "
+                    f"{MAGNITUDE_LIMIT:.0e} in SI units)")
         return values
 
     def unique_ids(self, column: str) -> pd.Series:

@@ -99,7 +99,8 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
         table = _mark_unusable_combinations(pd.DataFrame(columns=KEY_COLUMNS), pd.DataFrame(),
                                             combos, members)
         return CheckOutcome(table=_mark_unchecked_members(table, members), members=members,
-                            stability=pd.DataFrame(index=pd.Index([], name="combination")),
+                            stability=_with_analysis_status(
+                                pd.DataFrame(index=pd.Index([], name="combination")), combos),
                             lengths=pd.DataFrame(columns=["member", "combination"]),
                             settings=settings, combinations=combos)
 
@@ -119,9 +120,13 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
     rows = build_member_rows(frame, checked.forces, members, settings, lengths)
     rows, blocks = run_checks(rows, families or CHECK_FAMILIES, overrides=overrides)
     table = results_table(rows, blocks, settings.utilisation_limit)
+    # members without forces first, so that a combination's frame path applies to them too
+    covered = np.zeros(len(rows.member), dtype=bool)
+    for block in blocks:
+        covered |= np.asarray(block.applies, bool)
+    table = _mark_unchecked_members(table, members, rows, list(uls), covered)
     table = _mark_unusable_combinations(table, per_combination, combos, members)
     table = _explain_missing_lengths(table, lengths)
-    table = _mark_unchecked_members(table, members, set(rows.member))
     if "path" in per_combination and len(table):
         # the analysis path of 5.2.1/5.2.2 that each row's forces went through, and on the
         # amplified path which part of the forces was amplified
@@ -132,8 +137,19 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
                          table["combination"].map(per_combination[column]).fillna("").to_numpy())
         bows = stability.bow_imperfections_needed(frame, members, checked, alpha)
         table = _mark_member_bows(table, bows, settings.bow_imperfections)
-    return CheckOutcome(table=table, members=members, stability=per_combination,
+    return CheckOutcome(table=table, members=members,
+                        stability=_with_analysis_status(per_combination, combos),
                         lengths=lengths, settings=settings, combinations=combos)
+
+
+def _with_analysis_status(per_combination: pd.DataFrame, combos: pd.DataFrame) -> pd.DataFrame:
+    """Every ULS combination, analysed or not, with the status and message of its analysis
+    first: a combination whose analysis failed is listed with the reason, never left out."""
+    uls = combos[combos["kind"] == "ULS"]
+    status = pd.DataFrame({"analysis_status": uls["status"].astype(str),
+                           "analysis_message": uls["message"].fillna("").astype(str)},
+                          index=pd.Index(uls.index, name="combination"))
+    return status.join(per_combination, how="outer").rename_axis("combination")
 
 
 BOW_NOTES = {
@@ -243,23 +259,53 @@ def run_checks(rows: MemberRows, families: list[CheckFamily], *,
 
 
 def _mark_unchecked_members(table: pd.DataFrame, members: Members,
-                            with_forces: set | None = None) -> pd.DataFrame:
-    """Every member appears in the table. A member with no ULS forces at all (no combination,
-    every analysis failed) gets a not-evaluated row, so a run that checked nothing can never look
-    like a pass; a member whose forces are zero everywhere gets a 'no internal forces' row with
-    utilisation 0."""
-    checked = set(table["member"]) if len(table) else set()
-    missing = [m for m in members.members.index if m not in checked]
-    if not missing:
+                            rows: MemberRows | None = None, combinations: list | None = None,
+                            covered: np.ndarray | None = None) -> pd.DataFrame:
+    """Every (member, ULS combination) appears in the table with a status. `covered` (R,)
+    says which member rows have at least one check row in `table`.
+
+    - a pair with member rows but no check row (its forces are zero at every station): a
+      'no internal forces' row, utilisation 0, pass;
+    - a pair without forces in a combination that was analysed: not evaluated;
+    - a member with no ULS combination at all (none given, every analysis failed): one
+      not-evaluated row, so a run that checked nothing can never look like a pass.
+    """
+    names = list(combinations or [])
+    if not names:
+        checked = set(table["member"]) if len(table) else set()
+        missing = [m for m in members.members.index if m not in checked]
+        return _append(table, pd.DataFrame({
+            "member": missing, "combination": "", "check": "forces", "clause": "6.1",
+            "x_m": np.nan, "utilisation": np.nan, "status": NOT_EVALUATED,
+            "reason": "no ULS combination with forces for this member"}))
+    ids = members.members.index
+    # (members, combinations) grids from the member rows: cheap next to hashing the long table
+    has_rows = np.zeros((len(ids), len(names)), dtype=bool)
+    has_check = np.zeros_like(has_rows)
+    if rows is not None and len(rows.member):
+        m = pd.Categorical(np.asarray(rows.member, dtype=object), categories=ids).codes
+        c = pd.Categorical(np.asarray(rows.combination, dtype=object), categories=names).codes
+        known = (m >= 0) & (c >= 0)
+        has_rows[m[known], c[known]] = True
+        checked = known & (covered if covered is not None else True)
+        has_check[m[checked], c[checked]] = True
+    missing_m, missing_c = np.nonzero(~has_check)
+    if not len(missing_m):
         return table
-    loaded = np.array([with_forces is not None and m in with_forces for m in missing])
-    extra = pd.DataFrame({
-        "member": missing, "combination": "", "check": np.where(loaded, "no internal forces",
-                                                                "forces"),
-        "clause": "6.1", "x_m": np.nan, "utilisation": np.where(loaded, 0.0, np.nan),
-        "status": np.where(loaded, PASS, NOT_EVALUATED).astype(object),
-        "reason": np.where(loaded, "", "no ULS combination with forces for this member"
-                           ).astype(object)})
+    zero = has_rows[missing_m, missing_c]
+    return _append(table, pd.DataFrame({
+        "member": ids.to_numpy(dtype=object)[missing_m],
+        "combination": np.asarray(names, dtype=object)[missing_c],
+        "check": np.where(zero, "no internal forces", "forces"), "clause": "6.1",
+        "x_m": np.nan, "utilisation": np.where(zero, 0.0, np.nan),
+        "status": np.where(zero, PASS, NOT_EVALUATED).astype(object),
+        "reason": np.where(zero, "", "no forces for this member in this combination"
+                           ).astype(object)}))
+
+
+def _append(table: pd.DataFrame, extra: pd.DataFrame) -> pd.DataFrame:
+    if not len(extra):
+        return table
     return pd.concat([table, extra], ignore_index=True, sort=False) if len(table) else extra
 
 
@@ -290,7 +336,8 @@ def _length_overrides(overrides: pd.DataFrame | None) -> pd.DataFrame | None:
     if overrides is None or overrides.empty:
         return None
     columns = {"L_cr_y": "L_cr_y_m", "L_cr_z": "L_cr_z_m", "L_cr_T": "L_cr_T_m", "L_LT": "L_LT_m"}
-    return overrides[["member", *columns]].rename(columns=columns)
+    where = [c for c in ("file", "entry") if c in overrides.columns]  # for located messages
+    return overrides[["member", *columns, *where]].rename(columns=columns)
 
 
 def _with_member_info(rows: MemberRows, overrides: pd.DataFrame | None) -> MemberRows:

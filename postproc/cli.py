@@ -1,19 +1,30 @@
 """The `framesweep` command.
 
-Exit codes: 0 every check evaluated and passed; 1 at least one check over utilisation 1.0;
-2 bad input (nothing written); 3 some checks could not be evaluated and none failed.
+Exit codes, one meaning each: 0 every check evaluated and passed; 1 at least one check over the
+utilisation limit; 2 bad input (a message names the file, row and field; no results are
+written); 3 some checks could not be evaluated and none failed; 4 an internal error (a short
+message on the console, the traceback in framesweep-error.log in the output folder); 130 the run
+was interrupted (Ctrl-C; 143 for a termination signal).
 """
 
 from __future__ import annotations
 
 import argparse
+import signal
 import sys
+import traceback
 from pathlib import Path
 
 from . import CAUTION, __version__
 from .errors import FramesweepError, InputError
 
 EXIT_PASS, EXIT_FAIL, EXIT_INPUT, EXIT_NOT_EVALUATED = 0, 1, 2, 3
+EXIT_INTERNAL = 4
+EXIT_INTERRUPTED = 130  # 128 + SIGINT, the shell's convention
+
+
+class Terminated(KeyboardInterrupt):
+    """A termination signal, handled like Ctrl-C so the run cleans up."""
 
 
 def _parser() -> argparse.ArgumentParser:
@@ -21,7 +32,8 @@ def _parser() -> argparse.ArgumentParser:
         prog="framesweep",
         description="Check every member of an analysed steel frame for every load combination "
                     "to EN 1993-1-1.",
-        epilog="Exit codes: 0 all pass, 1 some fail, 2 bad input, 3 some not evaluated. " + CAUTION)
+        epilog="Exit codes: 0 all pass, 1 some fail, 2 bad input, 3 some not evaluated, "
+               "4 internal error, 130 interrupted. " + CAUTION)
     parser.add_argument("--version", action="version", version=f"framesweep {__version__}")
     commands = parser.add_subparsers(dest="command", required=True)
     run = commands.add_parser("run", help="check a project and write the outputs")
@@ -36,6 +48,8 @@ def _parser() -> argparse.ArgumentParser:
 
 def main(argv: list[str] | None = None) -> int:
     args = _parser().parse_args(argv)
+    out = getattr(args, "out", None)
+    previous = _on_terminate()
     try:
         if args.command == "sections":
             return _sections(args.filter)
@@ -46,6 +60,35 @@ def main(argv: list[str] | None = None) -> int:
     except FramesweepError as exc:
         print(f"framesweep: {exc}", file=sys.stderr)
         return EXIT_INPUT
+    except KeyboardInterrupt as exc:
+        terminated = isinstance(exc, Terminated)
+        print(f"\nframesweep: {'terminated' if terminated else 'interrupted'}; no results "
+              "written", file=sys.stderr)
+        return 128 + signal.SIGTERM if terminated else EXIT_INTERRUPTED
+    except Exception:  # a fault of framesweep itself, never of the input: ask for a report
+        from .report.writer import write_error_log
+
+        text = traceback.format_exc()
+        log = write_error_log(out, text) if out is not None else None
+        where = (f"the details are in {log}" if log else
+                 f"the details follow:\n{text}")
+        print(f"framesweep: internal error (a fault of framesweep, not of your input). Please "
+              f"report it with the project files; {where}", file=sys.stderr)
+        return EXIT_INTERNAL
+    finally:
+        if previous is not None:
+            signal.signal(signal.SIGTERM, previous)
+
+
+def _on_terminate():
+    """Turn SIGTERM into Terminated in the main thread (so outputs are cleaned up)."""
+    def handler(signum, frame):
+        raise Terminated()
+
+    try:
+        return signal.signal(signal.SIGTERM, handler)
+    except ValueError:  # not the main thread
+        return None
 
 
 def _sections(filter_text: str | None) -> int:
@@ -61,12 +104,21 @@ def _sections(filter_text: str | None) -> int:
 
 def _run(project: Path, out: Path, *, quiet: bool) -> int:
     from .report.summaries import member_summary
-    from .report.writer import OUTPUT_FILES, write_outputs
+    from .report.writer import OUTPUT_FILES, discard_outputs, prepare_output, write_outputs
     from .run import run_project
 
-    output = run_project(project)
-    outcome = output.outcome
-    write_outputs(outcome, out, title=output.project.title, source=output.frame.source)
+    staging = prepare_output(out)  # a bad output path is refused before any computation
+    try:
+        output = run_project(project)
+        outcome = output.outcome
+        write_outputs(outcome, out, title=output.project.title, source=output.frame.source,
+                      warnings=output.warnings, staging=staging)
+    except BaseException as exc:
+        reason = (f"bad input: {exc}" if isinstance(exc, InputError) else
+                  "interrupted" if isinstance(exc, KeyboardInterrupt) else
+                  f"{type(exc).__name__}: {exc}")
+        discard_outputs(out, staging, reason)
+        raise
     counts = outcome.counts
     if not quiet:
         summary = member_summary(outcome.table, outcome.members.members)
@@ -89,9 +141,25 @@ def _run(project: Path, out: Path, *, quiet: bool) -> int:
         for name, what in OUTPUT_FILES.items():
             print(f"  {out / name}: {what}")
         print(f"\n{CAUTION}\n")
+    _print_problems(output)
     print(f"{counts['pass']} checks pass, {counts['fail']} fail, "
           f"{counts['not evaluated']} not evaluated; outputs in {out}/")
     return outcome.exit_code
+
+
+def _print_problems(output) -> None:
+    """Failed analyses and plausibility warnings, on stderr, each with where it is."""
+    combos = output.outcome.combinations
+    if len(combos) and "status" in combos:
+        failed = combos[combos["status"] != "ok"]
+        for name, message in zip(failed.index[:10], failed["message"].iloc[:10]):
+            print(f"framesweep: analysis of combination {name!r} failed ({output.frame.source}): "
+                  f"{message}; its members are not evaluated", file=sys.stderr)
+        if len(failed) > 10:
+            print(f"framesweep: ... {len(failed) - 10} more failed combinations in stability.csv",
+                  file=sys.stderr)
+    for where, text in zip(output.warnings["where"], output.warnings["warning"]):
+        print(f"framesweep: warning: {where}: {text}", file=sys.stderr)
 
 
 if __name__ == "__main__":

@@ -140,15 +140,24 @@ def _declared_nodes(frame: Frame, restraint_nodes: pd.DataFrame | None) -> pd.Da
                                  "node, direction", file=name, field=col)
         for k, (node, direction) in enumerate(zip(table["node"].astype(str),
                                                   table["direction"].astype(str))):
+            file, row, entry = _entry(table, k, name)
             if node not in frame.nodes.index:
                 raise TopologyError(f"restraint at node '{node}', which is not a node of the "
-                                    "frame", file=name, row=k, field="node")
+                                    "frame", file=file, row=row, field=f"{entry}node")
             if direction.strip() not in RESTRAINT_DIRECTIONS:
                 raise InputError(f"direction '{direction}' is not one of "
-                                 f"{', '.join(RESTRAINT_DIRECTIONS)}", file=name, row=k,
-                                 field="direction")
+                                 f"{', '.join(RESTRAINT_DIRECTIONS)}", file=file, row=row,
+                                 field=f"{entry}direction")
             rows.append((node, direction.strip(), name))
     return pd.DataFrame(rows, columns=["node", "direction", "source"])
+
+
+def _entry(table: pd.DataFrame, k: int, name: str) -> tuple[str, int | None, str]:
+    """Where restraint k was written (file, row, field prefix): the project file's entry
+    ('restraints[3].') when the table says so (columns file, entry), else its row from 1."""
+    if "file" in table.columns and "entry" in table.columns:
+        return str(table["file"].iloc[k]), None, f"{table['entry'].iloc[k]}."
+    return name, k + 1, ""
 
 
 def _chain_order(elements: list[str], ends: dict[str, tuple[str, str]],

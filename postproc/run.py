@@ -2,11 +2,15 @@
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+import warnings
+from dataclasses import dataclass, field
 from pathlib import Path
+
+import pandas as pd
 
 from .checker import CheckOutcome, check_frame
 from .frame import Frame
+from .plausibility import COLUMNS, numerical_warnings, plausibility_warnings
 from .project import Project, read_project
 from .results import Results
 
@@ -17,6 +21,7 @@ class RunOutput:
     frame: Frame
     results: Results
     outcome: CheckOutcome
+    warnings: pd.DataFrame = field(default_factory=lambda: pd.DataFrame(columns=COLUMNS))
 
 
 def load_model(project: Project) -> tuple[Frame, Results]:
@@ -27,13 +32,32 @@ def load_model(project: Project) -> tuple[Frame, Results]:
         return tables.load(project)
     from adapters import opensees
 
-    return opensees.load(project.raw, project.path)
+    return opensees.load({**project.raw, "model": project.model}, project.path)
+
+
+def forces_source(project: Project) -> str:
+    """Where the forces come from, for messages: the forces table or the model script."""
+    model = project.model
+    if model["source"] == "tables":
+        return str(project.resolve(model.get("directory", ".")) / model.get("forces",
+                                                                            "forces.csv"))
+    return str(project.resolve(model["script"]))
 
 
 def run_project(path: str | Path) -> RunOutput:
     """Read a project, load its model, check every member; raises InputError on bad input."""
     project = read_project(path)
     frame, results = load_model(project)
-    outcome = check_frame(frame, results, project.settings, overrides=project.overrides,
-                          groups=project.groups, restraint_nodes=project.restraint_nodes)
-    return RunOutput(project, frame, results, outcome)
+    with warnings.catch_warnings(record=True) as caught:
+        # numpy's floating point warnings are collected and reported once, not flooded
+        warnings.simplefilter("always", RuntimeWarning)
+        outcome = check_frame(frame, results, project.settings, overrides=project.overrides,
+                              groups=project.groups, restraint_nodes=project.restraint_nodes)
+    numeric = [w for w in caught if issubclass(w.category, RuntimeWarning)]
+    for w in caught:  # anything else is shown as usual
+        if not issubclass(w.category, RuntimeWarning):
+            warnings.warn_explicit(w.message, w.category, w.filename, w.lineno)
+    found = pd.concat([plausibility_warnings(frame, results, outcome,
+                                             forces_file=forces_source(project)),
+                       numerical_warnings(numeric)], ignore_index=True)
+    return RunOutput(project, frame, results, outcome, found)

@@ -1,20 +1,34 @@
 """Design settings: the national parameters and choices the checks use.
 
 Defaults are the values recommended by EN 1993-1-1 (NDP notes). A project file overrides them; the
-report echoes every value that was used.
+report echoes every value that was used. The [design] table of a project file is validated against
+these fields (postproc/project_schema.py): each field's annotation is its type, and `limits(...)`
+beside it declares its range, so a new field joins the schema without a second list.
 """
 
 from __future__ import annotations
 
-from dataclasses import asdict, dataclass, fields
+from dataclasses import asdict, dataclass, field
+from typing import Literal, get_args
 
-from .errors import InputError
+Annex = Literal["A", "B", "both"]
+LtbMethod = Literal["general", "rolled"]
+ANNEXES, LTB_METHODS = get_args(Annex), get_args(LtbMethod)
+PLAUSIBLE_FACTOR = {"ge": 0.5, "le": 2.0}  # partial factors and eta: beyond this, a typing error
 
-ANNEXES = ("A", "B", "both")
-LTB_METHODS = ("general", "rolled")
-K_ZY_ZERO = ("off", "I", "I and RHS")
-BOW_COVERS = ("member checks", "analysis", "not covered")
-CLASSIFICATIONS = ("in-order", "also-elastic")
+KZyZero = Literal["off", "I", "I and RHS"]
+BowCover = Literal["member checks", "analysis", "not covered"]
+Classification = Literal["in-order", "also-elastic"]
+K_ZY_ZERO, BOW_COVERS, CLASSIFICATIONS = get_args(KZyZero), get_args(BowCover), \
+    get_args(Classification)
+
+
+def limits(default, *, unless: str | None = None, **bounds: float):
+    """A dataclass field with its allowed range (pydantic bounds: gt, ge, lt, le).
+
+    `unless` names a bool field that, when true, lifts the upper bound (lt, le).
+    """
+    return field(default=default, metadata={"bounds": bounds, "unless": unless})
 
 
 @dataclass(frozen=True)
@@ -31,7 +45,10 @@ class DesignSettings:
         beta_LT: 6.3.2.3 factor beta, NDP (recommended 0.75).
         eta: shear area factor of 6.2.6(3); 1.0 is the conservative value that 6.2.6(3) allows.
         default_grade: steel grade for elements that name none.
-        utilisation_limit: a check fails above this utilisation (1.0).
+        utilisation_limit: a check fails above this utilisation (1.0); within (0, 1.0] unless
+            utilisation_limit_above_one is true.
+        utilisation_limit_above_one: allow a utilisation_limit above 1.0 (a deliberate choice,
+            echoed in the outputs; never needed for a check to EN 1993-1-1).
         f_modification: 6.3.2.3(2): divide chi_LT by the factor f of eq. (6.58) (True, the
             clause's "may"); False keeps chi_LT of eq. (6.57). Only with ltb_method 'rolled'.
         negligible_rules_in_interaction: also apply, inside 6.3.3, the rules by which buckling
@@ -63,68 +80,39 @@ class DesignSettings:
             alternative to 6.2.3 to 6.2.10, not a requirement.
     """
 
-    gamma_M0: float = 1.00
-    gamma_M1: float = 1.00
-    gamma_M2: float = 1.25
-    annex: str = "B"
-    ltb_method: str = "rolled"
-    lambda_LT_0: float = 0.4
-    beta_LT: float = 0.75
-    eta: float = 1.0
+    gamma_M0: float = limits(1.00, **PLAUSIBLE_FACTOR)
+    gamma_M1: float = limits(1.00, **PLAUSIBLE_FACTOR)
+    gamma_M2: float = limits(1.25, **PLAUSIBLE_FACTOR)
+    annex: Annex = "B"
+    ltb_method: LtbMethod = "rolled"
+    lambda_LT_0: float = limits(0.4, ge=0.0, le=1.0)
+    beta_LT: float = limits(0.75, gt=0.0, le=1.0)
+    eta: float = limits(1.0, **PLAUSIBLE_FACTOR)
     default_grade: str = "S355"
-    utilisation_limit: float = 1.0
+    utilisation_limit: float = limits(1.0, gt=0.0, le=1.0, unless="utilisation_limit_above_one")
+    utilisation_limit_above_one: bool = False
     f_modification: bool = True
     negligible_rules_in_interaction: bool = False
-    k_zy_zero: str = "off"
+    k_zy_zero: KZyZero = "off"
     class_3_at_actual_stress: bool = False
     amplify_whole_when_sway_unknown: bool = False
-    bow_imperfections: str = "member checks"
-    classification: str = "in-order"
+    bow_imperfections: BowCover = "member checks"
+    classification: Classification = "in-order"
     linear_sum_check: bool = False
 
     def __post_init__(self) -> None:
-        if self.annex not in ANNEXES:
-            raise InputError(f"annex must be one of {', '.join(ANNEXES)}, got '{self.annex}'",
-                             field="design.annex")
-        if self.ltb_method not in LTB_METHODS:
-            raise InputError(f"ltb_method must be one of {', '.join(LTB_METHODS)}, "
-                             f"got '{self.ltb_method}'", field="design.ltb_method")
-        if self.k_zy_zero not in K_ZY_ZERO:
-            raise InputError(f"k_zy_zero must be one of {', '.join(repr(k) for k in K_ZY_ZERO)}, "
-                             f"got '{self.k_zy_zero}'", field="design.k_zy_zero")
-        for name in ("f_modification", "negligible_rules_in_interaction",
-                     "class_3_at_actual_stress"):
-            if not isinstance(getattr(self, name), bool):
-                raise InputError(f"{name} must be true or false, got {getattr(self, name)!r}",
-                                 field=f"design.{name}")
-        if self.bow_imperfections not in BOW_COVERS:
-            raise InputError(f"bow_imperfections must be one of {', '.join(BOW_COVERS)}, "
-                             f"got '{self.bow_imperfections}'", field="design.bow_imperfections")
-        if not isinstance(self.amplify_whole_when_sway_unknown, bool):
-            raise InputError("amplify_whole_when_sway_unknown must be true or false, got "
-                             f"{self.amplify_whole_when_sway_unknown!r}",
-                             field="design.amplify_whole_when_sway_unknown")
-        if self.classification not in CLASSIFICATIONS:
-            raise InputError(f"classification must be one of {', '.join(CLASSIFICATIONS)}, "
-                             f"got '{self.classification}'", field="design.classification")
-        if not isinstance(self.linear_sum_check, bool):
-            raise InputError(f"linear_sum_check must be true or false, got "
-                             f"'{self.linear_sum_check}'", field="design.linear_sum_check")
-        for name in ("gamma_M0", "gamma_M1", "gamma_M2", "eta"):
-            value = getattr(self, name)
-            if not (0.5 <= value <= 2.0):
-                raise InputError(f"{name} = {value} is outside the plausible range 0.5 to 2.0",
-                                 field=f"design.{name}")
+        from .project_schema import validate_design
+
+        validate_design(asdict(self))
 
     @classmethod
     def from_mapping(cls, values: dict, *, file: str | None = None) -> "DesignSettings":
-        """Build from a project file's [design] table; unknown keys are an error."""
-        known = {f.name for f in fields(cls)}
-        unknown = sorted(set(values) - known)
-        if unknown:
-            raise InputError(f"unknown design setting(s) {', '.join(unknown)}; known: "
-                             f"{', '.join(sorted(known))}", file=file, field="design")
-        return cls(**values)
+        """Build from a project file's [design] table: unknown keys, wrong types and values out
+        of range raise InputError naming the file and the key."""
+        from .project_schema import validate_design
+
+        return cls(**validate_design(values, file=file))
 
     def as_dict(self) -> dict:
         return asdict(self)
+

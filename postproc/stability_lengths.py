@@ -439,11 +439,17 @@ def _apply_overrides(out: pd.DataFrame, overrides: pd.DataFrame, known: set[str]
                          field="member")
     origin = {"L_cr_y_m": "origin_y", "L_cr_z_m": "origin_z", "L_LT_m": "origin_LT",
               "L_cr_T_m": "origin_T"}
-    for row, r in enumerate(overrides.itertuples(index=False)):
+    located = {"file", "entry"} <= set(overrides.columns)
+    for k, r in enumerate(overrides.itertuples(index=False)):
         m = str(getattr(r, "member"))
+        # where the override was written: the project file's [members.<name>], else row k + 1
+        file, row, prefix = ((str(r.file), None, f"{r.entry}.") if located
+                             else (None, k + 1, ""))
         if m not in known:
-            raise InputError(f"member '{m}' is not a design member of this frame", row=row,
-                             field="member")
+            raise InputError(f"member '{m}' is not a design member of this frame (design "
+                             f"members: {', '.join(sorted(known)[:20])}"
+                             f"{' ...' if len(known) > 20 else ''})", file=file, row=row,
+                             field=f"{prefix}member" if not located else prefix.rstrip("."))
         sel = out["member"] == m
         for col in OVERRIDE_COLUMNS:
             if col not in overrides.columns:
@@ -453,7 +459,8 @@ def _apply_overrides(out: pd.DataFrame, overrides: pd.DataFrame, known: set[str]
                 continue
             if not v > 0:
                 raise InputError(f"{col} = {v} must be a positive length in m (or empty to "
-                                 "keep the found value)", row=row, field=col)
+                                 "keep the found value)", file=file, row=row,
+                                 field=f"{prefix}{col}")
             out.loc[sel, col] = float(v)
             out.loc[sel, origin[col]] = "override from the project"
             if col in ("L_cr_y_m", "L_cr_z_m"):

@@ -51,8 +51,9 @@ def _table(frame: pd.DataFrame, *, max_rows: int = 500) -> str:
 
 
 def html_report(outcome: CheckOutcome, summary: pd.DataFrame, failures: pd.DataFrame, *,
-                title: str, source: str) -> str:
+                title: str, source: str, warnings: pd.DataFrame | None = None) -> str:
     counts = outcome.counts
+    warnings = warnings if warnings is not None else pd.DataFrame(columns=["where", "warning"])
     esc = html.escape
     rows = []
     for _, m in summary.sort_values("max_utilisation", ascending=False,
@@ -87,6 +88,8 @@ tr.ne td {{ font-style: italic; }}
 <h2>Outcome</h2>
 <p>{counts['pass']} checks pass, <b>{counts['fail']} fail</b>, <i>{counts['not evaluated']} could not
 be evaluated</i> (these are not passes: see the reasons).</p>
+<h2>Plausibility warnings</h2>
+{_table(warnings) if len(warnings) else '<p>None.</p>'}
 <h2>Design settings used</h2><table>{settings}</table>
 <h2>Frame stability per combination</h2>{_table(outcome.stability.reset_index())}
 <h2>Members</h2>

@@ -22,6 +22,9 @@ from . import shapes
 SHAPES = ("I", "RHS", "CHS", "GENERIC")
 FABRICATIONS = ("rolled", "welded", "hot-finished", "cold-formed", "")
 DIMENSIONS = ["h", "b", "t_w", "t_f", "r", "a_w", "t", "r_o"]
+# no steel section has a dimension over 10 m, nor a property over 1e12 in cm units (the largest
+# rolled sections' warping constants are near 1e8 cm6); beyond these the unit must be wrong
+LARGEST_MM, LARGEST_PROPERTY = 1e4, 1e12
 PROPERTIES = ["A", "Av_z", "Av_y", "I_y", "I_z", "W_el_y", "W_el_z", "W_pl_y", "W_pl_z", "i_y",
               "i_z", "I_t", "I_w", "t_max"]
 PARTS = ["c_web", "t_web", "c_flange", "t_flange"]
@@ -81,6 +84,10 @@ class _Row:
         if not np.isfinite(number) or number < 0.0 or (number == 0.0 and not allow_zero):
             allowed = "zero or positive" if allow_zero else "positive"
             raise self.error(f"{value!r} is not allowed; the value must be {allowed}", field)
+        limit = LARGEST_MM if field.endswith("_mm") else LARGEST_PROPERTY
+        if number > limit:
+            raise self.error(f"{value!r} is beyond any steel section (more than {limit:g} in "
+                             "the column's unit): is the unit right?", field)
         return number
 
 

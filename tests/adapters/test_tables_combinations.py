@@ -222,7 +222,7 @@ def test_combination_settings_are_used(demo: Path) -> None:
 def test_misspelled_combination_key_is_refused(demo: Path) -> None:
     _set_combinations(demo, '[combinations]\nmethod = "6.10"\ngamma_G_sub = 1.2\n')
     error = _refused(demo)
-    assert Path(error.file).name == "project.toml" and error.field == "combinations"
+    assert Path(error.file).name == "project.toml" and error.field == "combinations.gamma_G_sub"
     assert "gamma_G_sub" in str(error)
 
 
