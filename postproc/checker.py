@@ -57,6 +57,12 @@ class CheckOutcome:
         lengths: per (member, combination): buckling lengths and where they came from.
         settings: the design settings used.
         combinations: the Results combinations table (status of each analysis).
+        stations: the member forces the checks used, one row per (member, combination, station):
+            x_m, N_N, V_y_N, V_z_N, T_Nm, M_y_Nm, M_z_Nm (after sway amplification); carried for
+            the report's diagrams, never recomputed there.
+        value_columns: per check, its value columns in the order the check family fills them
+            (the order of a hand calculation).
+        frame: the analysed frame (node coordinates for the drawing).
     """
 
     table: pd.DataFrame
@@ -65,6 +71,9 @@ class CheckOutcome:
     lengths: pd.DataFrame
     settings: DesignSettings
     combinations: pd.DataFrame = field(default_factory=pd.DataFrame)
+    stations: pd.DataFrame = field(default_factory=pd.DataFrame)
+    value_columns: dict[str, tuple[str, ...]] = field(default_factory=dict)
+    frame: Frame | None = None
 
     @property
     def counts(self) -> dict[str, int]:
@@ -98,7 +107,7 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
         return CheckOutcome(table=_mark_unchecked_members(table, members), members=members,
                             stability=pd.DataFrame(index=pd.Index([], name="combination")),
                             lengths=pd.DataFrame(columns=["member", "combination"]),
-                            settings=settings, combinations=combos)
+                            settings=settings, combinations=combos, frame=frame)
 
     alpha = stability.critical_load_factors(frame, uls_results, members)
     paths = stability.analysis_path(alpha, uls_results.combinations)
@@ -120,8 +129,22 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
         position = list(table.columns).index("reason") + 1
         table.insert(position, "analysis_path",
                      table["combination"].map(per_combination["path"]).fillna("").to_numpy())
+    value_columns: dict[str, tuple[str, ...]] = {}
+    for block in blocks:
+        value_columns.setdefault(block.check, tuple(block.values))
     return CheckOutcome(table=table, members=members, stability=per_combination,
-                        lengths=lengths, settings=settings, combinations=combos)
+                        lengths=lengths, settings=settings, combinations=combos,
+                        stations=station_forces(rows), value_columns=value_columns, frame=frame)
+
+
+def station_forces(rows: MemberRows) -> pd.DataFrame:
+    """The forces of every row at its real stations as a plain long table (padding dropped)."""
+    valid = rows.valid
+    r, _ = np.nonzero(valid)
+    return pd.DataFrame({
+        "member": rows.member[r], "combination": rows.combination[r], "x_m": rows.x[valid],
+        "N_N": rows.N[valid], "V_y_N": rows.Vy[valid], "V_z_N": rows.Vz[valid],
+        "T_Nm": rows.T[valid], "M_y_Nm": rows.My[valid], "M_z_Nm": rows.Mz[valid]})
 
 
 def iter_checks(rows: MemberRows, families: list[CheckFamily], *,

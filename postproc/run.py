@@ -8,6 +8,7 @@ from pathlib import Path
 from .checker import CheckOutcome, check_frame
 from .frame import Frame
 from .project import Project, read_project
+from .report.progress import QUIET, Stages
 from .results import Results
 
 
@@ -30,10 +31,13 @@ def load_model(project: Project) -> tuple[Frame, Results]:
     return opensees.load(project.raw, project.path)
 
 
-def run_project(path: str | Path) -> RunOutput:
-    """Read a project, load its model, check every member; raises InputError on bad input."""
+def run_project(path: str | Path, *, stages: Stages = QUIET) -> RunOutput:
+    """Read a project, load its model, check every member; raises InputError on bad input.
+    `stages` shows the long stages on a terminal (postproc/report/progress.py)."""
     project = read_project(path)
-    frame, results = load_model(project)
-    outcome = check_frame(frame, results, project.settings, overrides=project.overrides,
-                          groups=project.groups, restraint_nodes=project.restraint_nodes)
+    with stages.stage("reading the model and its analyses"):
+        frame, results = load_model(project)
+    with stages.stage("stability, buckling lengths and checks"):
+        outcome = check_frame(frame, results, project.settings, overrides=project.overrides,
+                              groups=project.groups, restraint_nodes=project.restraint_nodes)
     return RunOutput(project, frame, results, outcome)

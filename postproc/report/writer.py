@@ -14,24 +14,26 @@ from pathlib import Path
 import pandas as pd
 
 from ..checker import CheckOutcome
+from .bundle import REPORT_FILES, write_report_outputs
 from .display import to_display
-from .html import html_report
+from .options import ReportOptions
+from .progress import QUIET, Stages
 from .summaries import failures_by_combination, member_grouping, member_summary
 
 OUTPUT_FILES = {
-    "utilisation.csv": "every (member, combination, check): utilisation, status, clause, values",
     "summary.csv": "one row per member: largest utilisation, governing combination and check",
     "failures.csv": "overstressed members by combination",
     "members.csv": "design members: their elements, kind, section and restraint points",
     "stability.csv": "per combination: alpha_cr, sway mode, analysis path",
     "buckling_lengths.csv": "per member and combination: buckling lengths and their origin",
     "settings.csv": "the design settings and national parameters used",
-    "report.html": "the report: caution, settings, stability, members, failures",
 }
 
 
-def write_outputs(outcome: CheckOutcome, out_dir: str | Path, *, title: str, source: str) -> Path:
-    """Write every output file of a run into out_dir; returns the folder."""
+def write_outputs(outcome: CheckOutcome, out_dir: str | Path, *, title: str, source: str,
+                  options: ReportOptions | None = None, stages: Stages = QUIET) -> Path:
+    """Write every output file of a run into out_dir; returns the folder. The report's files
+    (report/bundle.py) depend on `options`; one left over from an earlier run is removed."""
     out_dir = Path(out_dir)
     out_dir.parent.mkdir(parents=True, exist_ok=True)
     summary = member_summary(outcome.table, outcome.members.members)
@@ -40,18 +42,22 @@ def write_outputs(outcome: CheckOutcome, out_dir: str | Path, *, title: str, sou
                             columns=["setting", "value"])
     staging = Path(tempfile.mkdtemp(prefix=f".{out_dir.name}.", dir=out_dir.parent))
     try:
-        _csv(outcome.table, staging / "utilisation.csv")
         _csv(summary, staging / "summary.csv")
         _csv(failures, staging / "failures.csv")
         _csv(member_grouping(outcome.members), staging / "members.csv")
         _csv(outcome.stability.reset_index(), staging / "stability.csv")
         _csv(outcome.lengths, staging / "buckling_lengths.csv")
         _csv(settings, staging / "settings.csv", convert=False)
-        html = html_report(outcome, summary, failures, title=title, source=source)
-        (staging / "report.html").write_text(html, encoding="utf-8")
+        report = write_report_outputs(outcome, staging, summary, failures, title=title,
+                                      source=source, options=options, stages=stages)
         out_dir.mkdir(parents=True, exist_ok=True)
-        for name in OUTPUT_FILES:
-            os.replace(staging / name, out_dir / name)
+        for name in [*OUTPUT_FILES, *REPORT_FILES]:
+            if (out_dir / name).is_dir():  # os.replace cannot replace a folder that has files
+                shutil.rmtree(out_dir / name)
+            if name in report or name in OUTPUT_FILES:
+                os.replace(staging / name, out_dir / name)
+            elif (out_dir / name).exists():
+                (out_dir / name).unlink()
     finally:
         shutil.rmtree(staging, ignore_errors=True)
     return out_dir

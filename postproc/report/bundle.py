@@ -1,0 +1,138 @@
+"""The report's files, written into the writer's staging folder: report.html, the calculation
+sheets, the long table (Parquet always, CSV when small or asked for), the workbook and the frame
+per combination. Every number is read from the CheckOutcome; nothing is recomputed here."""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import pandas as pd
+
+from ..checker import CheckOutcome
+from .cells import formula_safe_table
+from .display import to_display
+from .links import member_slug
+from .options import ReportOptions
+from .pages import combinations_html, report_html, sheet_page
+from .progress import QUIET, Stages
+from .sheets import build_sheet, sheet_html, sheet_markdown
+from .spreadsheet import write_parquet, write_workbook
+from .summaries import member_grouping
+from .views import governing_checks
+
+REPORT_FILES = {
+    "report.html": "the report: summary, the frame drawn, members, stability, settings, sheets",
+    "utilisation.parquet": "every (member, combination, check) with all intermediate values (SI)",
+    "utilisation.csv": "the same long table as CSV, display units (when small or asked for)",
+    "report.xlsx": "workbook: members, governing checks, failures, stability, buckling lengths, "
+                   "settings",
+    "sheets": "a calculation sheet per member: Markdown (and HTML for large jobs)",
+    "combinations.html": "the frame shaded by each combination (when asked for)",
+}
+
+
+def csv_wanted(table: pd.DataFrame, options: ReportOptions) -> bool:
+    """The long table is also written as CSV when asked for or when it has at most
+    options.csv_row_limit rows."""
+    return not options.summary_only and (options.full_csv or len(table) <= options.csv_row_limit)
+
+
+def ordered_summary(summary: pd.DataFrame) -> pd.DataFrame:
+    """Members with the largest utilisation first; members with nothing evaluated at the top."""
+    return summary.sort_values("max_utilisation", ascending=False, na_position="first",
+                               kind="stable").reset_index(drop=True)
+
+
+def write_report_outputs(outcome: CheckOutcome, folder: Path, summary: pd.DataFrame,
+                         failures: pd.DataFrame, *, title: str, source: str,
+                         options: ReportOptions | None = None, stages: Stages = QUIET
+                         ) -> dict[str, str]:
+    """Write the report's files into `folder`; returns {file or folder name: what it holds}."""
+    options = options or ReportOptions()
+    summary = ordered_summary(summary)
+    written: dict[str, str] = {}
+    table = outcome.table
+    if not options.summary_only:
+        with stages.stage("writing the long table (Parquet)"):
+            write_parquet(table, folder / "utilisation.parquet")
+        written["utilisation.parquet"] = REPORT_FILES["utilisation.parquet"]
+        if csv_wanted(table, options):
+            with stages.stage("writing the long table (CSV)"):
+                formula_safe_table(to_display(table)).to_csv(folder / "utilisation.csv",
+                                                              index=False, float_format="%.6g")
+            written["utilisation.csv"] = REPORT_FILES["utilisation.csv"]
+    inline = len(summary) <= options.inline_sheet_limit
+    sections: list[str] = []
+    if not options.summary_only:
+        governing = governing_checks(table)
+        with stages.stage("writing the workbook"):
+            settings = pd.DataFrame(
+                [("design", k, str(v)) for k, v in sorted(outcome.settings.as_dict().items())]
+                + [("report", k, str(v)) for k, v in sorted(options.as_dict().items())],
+                columns=["kind", "setting", "value"])
+            write_workbook({"members": summary, "governing checks": governing,
+                            "failures": failures,
+                            "stability": outcome.stability.reset_index(),
+                            "buckling lengths": outcome.lengths, "settings": settings},
+                           folder / "report.xlsx",
+                           notes=[f"{title}: framesweep results, one sheet per view.",
+                                  "Units are in the column headings."])
+        written["report.xlsx"] = REPORT_FILES["report.xlsx"]
+        sections = _write_sheets(outcome, folder, summary, governing, title=title,
+                                 options=options, inline=inline, stages=stages)
+        written["sheets"] = REPORT_FILES["sheets"]
+        if options.per_combination:
+            with stages.stage("drawing the frame per combination"):
+                text = combinations_html(outcome, title=title, options=options,
+                                         inline_sheets=inline)
+                (folder / "combinations.html").write_text(text, encoding="utf-8")
+            written["combinations.html"] = REPORT_FILES["combinations.html"]
+    written = {"report.html": REPORT_FILES["report.html"], **written}
+    with stages.stage("writing report.html"):
+        text = report_html(outcome, summary, failures, title=title, source=source,
+                           options=options, sheets=sections if inline else [],
+                           inline_sheets=inline, files=written)
+        (folder / "report.html").write_text(text, encoding="utf-8")
+    return written
+
+
+def _write_sheets(outcome: CheckOutcome, folder: Path, summary: pd.DataFrame,
+                  governing: pd.DataFrame, *, title: str, options: ReportOptions, inline: bool,
+                  stages: Stages) -> list[str]:
+    """A sheet per member: Markdown files always, HTML pages when not inline; returns the HTML
+    sections when inline."""
+    sheets_dir = folder / "sheets"
+    sheets_dir.mkdir()
+    table = outcome.table
+    by_member = table.groupby("member", sort=False).indices
+    governing_by = governing.groupby("member", sort=False).indices
+    lengths = outcome.lengths
+    lengths_by = lengths.groupby("member", sort=False).indices if len(lengths) else {}
+    stations = outcome.stations
+    stations_by = stations.groupby("member", sort=False).indices if len(stations) else {}
+    grouping = member_grouping(outcome.members).set_index("member")
+    limit = outcome.settings.utilisation_limit
+    sections = []
+    with stages.stage("writing calculation sheets", total=len(summary)) as tick:
+        for _, row in summary.iterrows():
+            member = str(row["member"])
+            sheet = build_sheet(
+                member, table.iloc[by_member.get(member, [])],
+                governing.iloc[governing_by.get(member, [])], row,
+                grouping.loc[member] if member in grouping.index else None,
+                lengths.iloc[lengths_by.get(member, [])] if len(lengths) else lengths,
+                outcome.stability,
+                stations.iloc[stations_by.get(member, [])] if len(stations) else stations,
+                outcome.value_columns)
+            stem = member_slug(member)
+            (sheets_dir / f"{stem}.md").write_text(
+                sheet_markdown(sheet, utilisation_limit=limit), encoding="utf-8")
+            section = sheet_html(sheet, utilisation_limit=limit)
+            if inline:
+                sections.append(section)
+            else:
+                (sheets_dir / f"{stem}.html").write_text(
+                    sheet_page(section, title=f"{title}: member {member}", paper=options.paper),
+                    encoding="utf-8")
+            tick(1)
+    return sections

@@ -1,0 +1,29 @@
+"""Text cells made safe for spreadsheets: a cell that a spreadsheet would read as a formula."""
+
+from __future__ import annotations
+
+import pandas as pd
+
+# A spreadsheet treats a text cell starting with one of these as a formula (or as the start of
+# one, after a tab or carriage return); a leading apostrophe makes it plain text again.
+FORMULA_STARTS = ("=", "+", "-", "@", "\t", "\r")
+
+
+def formula_safe(value: object) -> object:
+    """The value, with a leading apostrophe if it is text a spreadsheet would run as a formula."""
+    if isinstance(value, str) and value.startswith(FORMULA_STARTS):
+        return "'" + value
+    return value
+
+
+def formula_safe_table(table: pd.DataFrame) -> pd.DataFrame:
+    """A copy whose text cells (object and string columns, and the headers) are formula-safe;
+    numeric columns are left as numbers."""
+    out = table.copy()
+    for column in out.columns:
+        if not (pd.api.types.is_object_dtype(out[column])
+                or pd.api.types.is_string_dtype(out[column])):
+            continue
+        out[column] = out[column].map(formula_safe)
+    out.columns = [formula_safe(str(c)) for c in out.columns]
+    return out
