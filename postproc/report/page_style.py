@@ -35,6 +35,11 @@ svg.histogram { width: 100%; max-width: 40em; height: auto; font-size: 11px; }
 svg.diagram { width: 19em; height: auto; font-size: 10px; }
 svg.interaction { width: 19em; height: auto; font-size: 10px; }
 .sheet { border-top: 3px double #333; margin-top: 2em; }
+.facts { display: grid; grid-template-columns: repeat(auto-fit, minmax(28em, 1fr)); gap: 1em; }
+.checks { columns: 26em; column-gap: 1.5em; }
+.check { break-inside: avoid; }
+.check h5 { font-size: 1em; margin: 0.8em 0 0.2em 0; }
+.check p { margin: 0.2em 0; }
 .sheet:target { outline: 3px solid #3e4989; outline-offset: 4px; }
 table.compact { font-size: 0.82em; }
 .filters input, .filters select, button { font-size: 1em; margin-right: 0.8em; }
@@ -43,10 +48,12 @@ table.sortable th[aria-sort=ascending]::after { content: " \\25B2"; }
 table.sortable th[aria-sort=descending]::after { content: " \\25BC"; }
 @page { size: @PAPER@ landscape; margin: 12mm; }
 @media print {
-  body { margin: 0; max-width: none; font-size: 9pt; }
+  body { margin: 0; max-width: none; font-size: 8pt; }
+  .checks { columns: 3; column-gap: 1em; }
+  .facts { grid-template-columns: 1fr 1fr; }
   .noprint, .filters { display: none; }
   .scroll { overflow: visible; }
-  table { width: 100%; table-layout: fixed; }
+  table { width: 100%; table-layout: auto; }
   td, th { overflow-wrap: anywhere; word-break: break-word; }
   thead { display: table-header-group; }
   tr, .check, svg, figure { break-inside: avoid; }

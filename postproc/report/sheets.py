@@ -197,10 +197,10 @@ def sheet_html(sheet: Sheet, *, utilisation_limit: float) -> str:
     parts = [f'<section class="sheet" id="{sheet_anchor(sheet.member)}">',
              f'<h3>Calculation sheet: member {esc(sheet.member)}</h3>',
              '<p class="noprint"><a href="#members">back to the members table</a></p>',
-             f'<table class="compact head">{head}</table>',
-             '<h4>Buckling lengths and restraints (governing combination)</h4>', lengths,
-             '<h4>Frame stability and analysis path (governing combination)</h4>', stab,
-             '<h4>Checks, governing combination of each</h4>']
+             '<div class="facts"><div>', f'<table class="compact head">{head}</table>',
+             '</div><div><h4>Buckling lengths and restraints (governing combination)</h4>',
+             lengths, '<h4>Frame stability and analysis path (governing combination)</h4>', stab,
+             '</div></div><h4>Checks, governing combination of each</h4><div class="checks">']
     for c in sheet.checks:
         word = STATUS_WORDS.get(c["status"], c["status"])
         result = (f"utilisation {esc(c['utilisation'])}: <b>{esc(word)}</b>"
@@ -215,7 +215,7 @@ def sheet_html(sheet: Sheet, *, utilisation_limit: float) -> str:
             + (f"<table class='compact values'><tr><th>quantity</th><th>value</th>"
                f"<th>clause, equation or table</th></tr>{values}</table>" if values else "")
             + "</div>")
-    parts.append("<h4>Forces along the member (governing combination)</h4>")
+    parts.append("</div><h4>Forces along the member (governing combination)</h4>")
     parts.append(force_diagrams_svg(sheet.forces))
     parts.append("<h4>Interaction 6.61/6.62, every combination</h4>")
     parts.append(interaction_svg(sheet.interaction, utilisation_limit))
