@@ -6,6 +6,7 @@ from __future__ import annotations
 
 from pathlib import Path
 
+import numpy as np
 import pandas as pd
 
 from ..checker import CheckOutcome
@@ -29,6 +30,39 @@ REPORT_FILES = {
     "sheets": "a calculation sheet per member: Markdown (and HTML for large jobs)",
     "combinations.html": "the frame shaded by each combination (when asked for)",
 }
+
+
+SHEET_ROW_COLUMNS = ["member", "combination", "check", "utilisation", "status", "section_class",
+                     "class_part", "term_N", "term_M_y", "term_M_z"]
+
+
+def member_slices(table: pd.DataFrame):
+    """A function member -> that member's rows, from one stable sort by member (slices, not
+    lookups, so a large table is not copied once per member)."""
+    if table is None or not len(table) or "member" not in table:
+        empty = table if table is not None else pd.DataFrame()
+        return lambda member: empty.iloc[0:0] if len(empty) else empty
+    ordered = table.sort_values("member", kind="stable", key=lambda m: m.astype(str))
+    names = ordered["member"].astype(str).to_numpy()
+    starts = {}
+    bounds = np.flatnonzero(np.r_[True, names[1:] != names[:-1], True])
+    for a, b in zip(bounds[:-1], bounds[1:]):
+        starts[names[a]] = (a, b)
+    return lambda member: ordered.iloc[slice(*starts.get(member, (0, 0)))]
+
+
+def member_records(table: pd.DataFrame):
+    """A function member -> that member's rows as a list of dicts (made once for the table)."""
+    if not len(table):
+        return lambda member: []
+    ordered = table.sort_values("member", kind="stable", key=lambda m: m.astype(str))
+    records = ordered.to_dict("records")
+    names = [str(r["member"]) for r in records]
+    spans: dict[str, tuple[int, int]] = {}
+    for k, name in enumerate(names):
+        a, _ = spans.get(name, (k, k))
+        spans[name] = (a, k + 1)
+    return lambda member: records[slice(*spans.get(member, (0, 0)))]
 
 
 def csv_wanted(table: pd.DataFrame, options: ReportOptions) -> bool:
@@ -103,26 +137,23 @@ def _write_sheets(outcome: CheckOutcome, folder: Path, summary: pd.DataFrame,
     sections when inline."""
     sheets_dir = folder / "sheets"
     sheets_dir.mkdir()
-    table = outcome.table
-    by_member = table.groupby("member", sort=False).indices
-    governing_by = governing.groupby("member", sort=False).indices
-    lengths = outcome.lengths
-    lengths_by = lengths.groupby("member", sort=False).indices if len(lengths) else {}
-    stations = outcome.stations
-    stations_by = stations.groupby("member", sort=False).indices if len(stations) else {}
+    # the sheets read only a few columns of every row (the values come from `governing`), and
+    # each member's rows as one contiguous slice of member-sorted tables: cheap on a wide table
+    slim = outcome.table[[c for c in SHEET_ROW_COLUMNS if c in outcome.table.columns]]
+    rows_of = member_slices(slim)
+    governing_of = member_records(governing)
+    lengths_of = member_slices(outcome.lengths)
+    stations_of = member_slices(outcome.stations)
     grouping = member_grouping(outcome.members).set_index("member")
     limit = outcome.settings.utilisation_limit
     sections = []
     with stages.stage("writing calculation sheets", total=len(summary)) as tick:
-        for _, row in summary.iterrows():
+        for row in summary.to_dict("records"):
             member = str(row["member"])
             sheet = build_sheet(
-                member, table.iloc[by_member.get(member, [])],
-                governing.iloc[governing_by.get(member, [])], row,
+                member, rows_of(member), governing_of(member), row,
                 grouping.loc[member] if member in grouping.index else None,
-                lengths.iloc[lengths_by.get(member, [])] if len(lengths) else lengths,
-                outcome.stability,
-                stations.iloc[stations_by.get(member, [])] if len(stations) else stations,
+                lengths_of(member), outcome.stability, stations_of(member),
                 outcome.value_columns)
             stem = member_slug(member)
             (sheets_dir / f"{stem}.md").write_text(

@@ -101,6 +101,13 @@ def fmt(value: object) -> str:
     return "" if value is None else str(value)
 
 
+def _text(value: object) -> str:
+    """Text of a cell; '' for a missing one (never 'nan')."""
+    if value is None or value is pd.NA or (isinstance(value, float) and np.isnan(value)):
+        return ""
+    return str(value)
+
+
 @dataclass
 class Sheet:
     """What one member's sheet shows; every field a selection from the carried tables."""
@@ -116,12 +123,12 @@ class Sheet:
     interaction: pd.DataFrame = field(default_factory=pd.DataFrame)
 
 
-def build_sheet(member: str, rows: pd.DataFrame, governing: pd.DataFrame, summary: pd.Series,
+def build_sheet(member: str, rows: pd.DataFrame, governing: list[dict], summary: dict,
                 grouping: pd.Series | None, lengths: pd.DataFrame, stability: pd.DataFrame,
                 stations: pd.DataFrame, value_columns: dict[str, tuple[str, ...]]) -> Sheet:
     """Gather one member's sheet. `rows`: its rows of the results table; `governing`: its
-    governing row per check; `lengths`, `stations`: its rows of those tables."""
-    combo = str(summary.get("governing_combination") or "")
+    governing row per check (records); `lengths`, `stations`: its rows of those tables."""
+    combo = _text(summary.get("governing_combination"))
     if not combo and len(rows):
         combo = str(rows["combination"].iloc[0])
     header = {"member": member, "section": str(summary.get("section", "")),
@@ -132,11 +139,11 @@ def build_sheet(member: str, rows: pd.DataFrame, governing: pd.DataFrame, summar
               "governing check": (f"{summary.get('governing_check')} "
                                   f"({summary.get('governing_clause')})"
                                   if isinstance(summary.get("governing_check"), str) else "none"),
-              "why not evaluated": str(summary.get("not_evaluated_reason", "") or "")}
+              "why not evaluated": _text(summary.get("not_evaluated_reason"))}
     if "section_class" in rows and rows["section_class"].notna().any():
         worst = rows.loc[rows["section_class"].astype(float).idxmax()]
         header["section class"] = (f"{fmt(worst['section_class'])} (governed by "
-                                   f"{worst.get('class_part', '') or 'the whole section'}; "
+                                   f"{_text(worst.get('class_part')) or 'the whole section'}; "
                                    f"{worst['combination']})")
     if grouping is not None:
         header["elements"] = str(grouping.get("elements", ""))
@@ -149,17 +156,17 @@ def build_sheet(member: str, rows: pd.DataFrame, governing: pd.DataFrame, summar
                                ("L_cr_T_m", "origin_T"), ("L_LT_m", "origin_LT")):
             if column in first:
                 length_rows.append((display_name(column)[0], fmt(first[column]),
-                                    str(first.get(origin, "") or "")))
+                                    _text(first.get(origin))))
     stab: dict[str, str] = {}
     if combo in stability.index:
         for key, value in stability.loc[combo].items():
             stab[str(key)] = fmt(value)
     checks = []
-    for _, g in governing.iterrows():
+    for g in governing:
         check = str(g["check"])
         values = []
         for column in value_columns.get(check, ()):
-            if column in g and fmt(g[column]) != "":
+            if column in g and fmt(g[column]) != "" and g[column] is not pd.NA:
                 name, scale = display_name(column)
                 value = g[column] * scale if isinstance(g[column], (int, float, np.number)) \
                     and not isinstance(g[column], (bool, np.bool_)) else g[column]
@@ -167,8 +174,8 @@ def build_sheet(member: str, rows: pd.DataFrame, governing: pd.DataFrame, summar
         checks.append({"check": check, "clause": str(g["clause"]),
                        "combination": str(g["combination"]), "x_m": fmt(g["x_m"]),
                        "utilisation": fmt(g["utilisation"]), "status": str(g["status"]),
-                       "reason": str(g["reason"] or ""),
-                       "path": str(g.get("analysis_path", "") or ""), "values": values})
+                       "reason": _text(g["reason"]),
+                       "path": _text(g.get("analysis_path")), "values": values})
     forces = stations[stations["combination"] == combo].sort_values("x_m") if len(stations) \
         else stations
     interaction = rows[rows["check"].astype(str).str.startswith("interaction")]
@@ -231,9 +238,10 @@ def _others_html(others: pd.DataFrame, not_evaluated: set, limit: float) -> str:
     esc = html.escape
     head = "".join(f"<th>{esc(str(c))}</th>" for c in others.columns)
     body = []
-    for combo, row in others.iterrows():
+    checks = [str(c) for c in others.columns]
+    for combo, values in zip(others.index, others.to_numpy(float)):
         cells = []
-        for check, u in row.items():
+        for check, u in zip(checks, values):
             if (str(combo), str(check)) in not_evaluated:
                 cells.append("<td class='ne'>? n/e</td>")
             elif np.isfinite(u):
@@ -308,7 +316,7 @@ def interaction_svg(points: pd.DataFrame, limit: float) -> str:
         return o + s - b / top * s
 
     marks = []
-    for (_, r), a, b in zip(usable.iterrows(), n, m):
+    for r, a, b in zip(usable.to_dict("records"), n, m):
         failing = r["status"] == FAIL
         fill = "#000" if failing else "none"
         title = html.escape(f"{r['combination']}: {r['check']}, utilisation {fmt(r['utilisation'])}")
@@ -362,16 +370,17 @@ def sheet_markdown(sheet: Sheet, *, utilisation_limit: float) -> str:
     if len(sheet.forces):
         cols = [(c, f"{lab} [{unit}]") for c, lab, unit in FORCE_COLUMNS if c in sheet.forces]
         rows = [(fmt(r["x_m"]), *(fmt(r[c] * 1e-3) for c, _ in cols))
-                for _, r in sheet.forces.iterrows()]
+                for r in sheet.forces.to_dict("records")]
         out += _md_table(["x [m]", *(h for _, h in cols)], rows)
     else:
         out.append("No force stations for this combination.")
     out += ["", "## Every combination (utilisation per check)", ""]
     if not sheet.others.empty:
         rows = []
-        for combo, row in sheet.others.iterrows():
+        checks = [str(c) for c in sheet.others.columns]
+        for combo, values in zip(sheet.others.index, sheet.others.to_numpy(float)):
             cells = []
-            for check, u in row.items():
+            for check, u in zip(checks, values):
                 if (str(combo), str(check)) in sheet.not_evaluated:
                     cells.append("? n/e")
                 elif np.isfinite(u):

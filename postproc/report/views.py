@@ -28,8 +28,8 @@ def combination_utilisations(rows: pd.DataFrame) -> pd.DataFrame:
     """A member's rows as combination x check: utilisation, or NaN where not evaluated."""
     if rows.empty:
         return pd.DataFrame()
-    return rows.pivot_table(index="combination", columns="check", values="utilisation",
-                            aggfunc="max", dropna=False, sort=True)
+    # (member, combination, check) is unique in the table, so a plain pivot is enough
+    return rows.pivot(index="combination", columns="check", values="utilisation").sort_index()
 
 
 def not_evaluated_cells(rows: pd.DataFrame) -> set[tuple[str, str]]:

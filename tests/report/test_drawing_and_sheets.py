@@ -92,7 +92,7 @@ def one_member_rows() -> pd.DataFrame:
 
 def test_sheet_shows_the_governing_values_with_their_clauses_and_the_reason() -> None:
     rows = one_member_rows()
-    governing = rows.iloc[[0, 1]]
+    governing = rows.iloc[[0, 1]].to_dict("records")
     summary = pd.Series({"member": "M1", "section": "IPE 300", "grade": "S355", "kind": "beam",
                          "length_m": 6.0, "status": "fail", "max_utilisation": 1.1,
                          "governing_combination": "C1", "governing_check": "interaction 6.61",
