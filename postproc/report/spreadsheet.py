@@ -22,15 +22,16 @@ def arrow_ready(table: pd.DataFrame) -> pd.DataFrame:
         values = out[column]
         if not pd.api.types.is_object_dtype(values):
             continue
-        present = values.dropna()
-        if present.map(lambda v: isinstance(v, (bool, np.bool_))).all() and len(present):
+        kind = pd.api.types.infer_dtype(values, skipna=True)  # one pass in C
+        if kind == "boolean":
             out[column] = values.astype("boolean")
-        elif present.map(lambda v: isinstance(v, str)).any() or not len(present):
-            out[column] = values.map(lambda v: v if v is None or isinstance(v, str)
-                                     else (None if isinstance(v, float) and np.isnan(v)
-                                           else str(v))).astype("string")
-        else:
+        elif kind in ("string", "empty"):
+            out[column] = values.astype("string")
+        elif kind in ("floating", "integer", "mixed-integer-float", "decimal"):
             out[column] = pd.to_numeric(values, errors="coerce")
+        else:  # mixed text and numbers: keep every cell, as text
+            out[column] = values.map(lambda v: v if isinstance(v, str) or pd.isna(v)
+                                     else str(v)).astype("string")
     return out
 
 

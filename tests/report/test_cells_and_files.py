@@ -68,3 +68,13 @@ def test_parquet_keeps_mixed_columns(tmp_path: Path) -> None:
     assert back["u"].tolist()[:1] == [0.1] and np.isnan(back["u"][1])
     assert back["mixed"].tolist()[1] == "text"
     assert list(arrow_ready(table).columns) == list(table.columns)
+
+
+def test_progress_is_quiet_when_not_a_terminal(capsys: pytest.CaptureFixture) -> None:
+    from postproc.report.progress import Stages
+
+    stages = Stages()  # under pytest standard error is captured, not a terminal
+    assert not stages.enabled
+    with stages.stage("checks", total=3) as tick:
+        tick(1)
+    assert capsys.readouterr().err == ""
