@@ -24,6 +24,13 @@ def formula_safe_table(table: pd.DataFrame) -> pd.DataFrame:
         if not (pd.api.types.is_object_dtype(out[column])
                 or pd.api.types.is_string_dtype(out[column])):
             continue
-        out[column] = out[column].map(formula_safe)
+        values = out[column]
+        text = values.map(type).eq(str) if pd.api.types.is_object_dtype(values) else \
+            values.notna()
+        hit = (text & values.astype("string").str.startswith(FORMULA_STARTS).fillna(False))
+        if hit.any():
+            values = values.astype(object).copy()
+            values[hit.to_numpy(bool)] = "'" + values[hit.to_numpy(bool)].astype(str)
+            out[column] = values
     out.columns = [formula_safe(str(c)) for c in out.columns]
     return out
