@@ -78,3 +78,11 @@ def test_progress_is_quiet_when_not_a_terminal(capsys: pytest.CaptureFixture) ->
     with stages.stage("checks", total=3) as tick:
         tick(1)
     assert capsys.readouterr().err == ""
+
+
+def test_display_units_and_the_unitless_n_term() -> None:
+    from postproc.report.display import display_name
+
+    assert display_name("N_Ed_N") == ("N_Ed [kN]", 1e-3)
+    assert display_name("M_y_Ed_Nm") == ("M_y_Ed [kNm]", 1e-3)
+    assert display_name("term_N") == ("term_N", 1.0)  # the N term of eq. (6.61), a ratio

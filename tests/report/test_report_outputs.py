@@ -101,3 +101,14 @@ def test_large_jobs_get_a_page_per_sheet_and_per_combination_drawings(tmp_path: 
     n = pd.read_parquet(out / "utilisation.parquet")["combination"].nunique()
     assert combos.count('<svg id="combination-') == n
     assert combos.count('class="member ') == n * len(summary)
+
+
+def test_a3_paper_and_bad_options(tmp_path: Path, capsys: pytest.CaptureFixture) -> None:
+    out = tmp_path / "out"
+    run(out, "--paper", "A3", "--summary-only")
+    assert "@page { size: A3 landscape" in (out / "report.html").read_text(encoding="utf-8")
+    code = main(["run", str(EXAMPLE / "project.toml"), "--out", str(tmp_path / "bad"),
+                 "--quiet", "--csv-row-limit", "-1"])
+    assert code == 2
+    assert "--csv-row-limit" in capsys.readouterr().err
+    assert not (tmp_path / "bad").exists()
