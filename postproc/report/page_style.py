@@ -7,7 +7,7 @@ body { font-family: sans-serif; margin: 1.5em; max-width: 90em; line-height: 1.3
 h1 { font-size: 1.6em; } h2 { border-bottom: 2px solid #333; margin-top: 1.6em; }
 table { border-collapse: collapse; font-size: 0.88em; margin: 0.4em 0; }
 td, th { padding: 0.2em 0.5em; border-bottom: 1px solid #ccc; text-align: left;
-         vertical-align: top; overflow-wrap: anywhere; }
+         vertical-align: top; overflow-wrap: break-word; }
 th { background: #eee; }
 td.num { text-align: right; font-variant-numeric: tabular-nums; }
 .caution { border: 2px solid #333; padding: 0.6em; }

@@ -147,7 +147,7 @@ def members_table(summary: pd.DataFrame, *, inline_sheets: bool) -> str:
         governing = (f"{esc(str(check))} ({esc(str(m.get('governing_clause', '')))})"
                      if isinstance(check, str) else "")
         why = str(m.get("not_evaluated_reason", "") or "")
-        if status == NOT_EVALUATED:
+        if int(m["not_evaluated"]) > 0:  # a failing member can have checks not evaluated too
             why = f"{int(m['not_evaluated'])} of {int(m['checks'])} checks not evaluated: {why}"
         rows.append(
             f'<tr class="{cls}" data-status="{esc(status)}">'
@@ -198,7 +198,7 @@ def report_html(outcome: CheckOutcome, summary: pd.DataFrame, failures: pd.DataF
     members_by_status = summary["status"].value_counts()
     worst = summary[np.isfinite(summary["max_utilisation"].astype(float))].nlargest(
         10, "max_utilisation")
-    not_eval = summary[summary["status"] == NOT_EVALUATED]
+    not_eval = summary[summary["not_evaluated"] > 0]  # failing members included
     contents = [("summary", "Summary"), ("frame", "The frame"), ("members", "Members"),
                 ("stability", "Frame stability"), ("settings", "Settings used"),
                 ("sheets", "Calculation sheets"), ("files", "Output files")]
