@@ -13,7 +13,7 @@ import pytest
 
 from postproc.members import design_members
 from postproc.report.drawing import default_views, frame_svg, member_polylines, projected
-from postproc.report.sheets import (Sheet, build_sheet, interaction_svg, sheet_html,
+from postproc.report.sheets import (build_sheet, interaction_svg, sheet_html,
                                     sheet_markdown, value_source)
 from tests.test_members import FIXED, make_frame, pitched_portal
 
@@ -76,7 +76,8 @@ def test_views_of_plane_and_space_frames() -> None:
 
 
 def one_member_rows() -> pd.DataFrame:
-    """Two combinations of one member; the values are invented for the layout only."""
+    """Two combinations of one member. The inputs only exercise selection and layout: every
+    expected value below is read back from them; no outside value is compared."""
     return pd.DataFrame({
         "member": ["M1"] * 4, "combination": ["C1", "C1", "C2", "C2"],
         "check": ["compression", "interaction 6.61", "compression", "interaction 6.61"],
