@@ -60,6 +60,12 @@ class CheckOutcome:
         lengths: per (member, combination): buckling lengths and where they came from.
         settings: the design settings used.
         combinations: the Results combinations table (status of each analysis).
+        stations: the member forces the checks used, one row per (member, combination, station):
+            x_m, N_N, V_y_N, V_z_N, T_Nm, M_y_Nm, M_z_Nm (after sway amplification); carried for
+            the report's diagrams, never recomputed there.
+        value_columns: per check, its value columns in the order the check family fills them
+            (the order of a hand calculation).
+        frame: the analysed frame (node coordinates for the drawing).
     """
 
     table: pd.DataFrame
@@ -68,6 +74,9 @@ class CheckOutcome:
     lengths: pd.DataFrame
     settings: DesignSettings
     combinations: pd.DataFrame = field(default_factory=pd.DataFrame)
+    stations: pd.DataFrame = field(default_factory=pd.DataFrame)
+    value_columns: dict[str, tuple[str, ...]] = field(default_factory=dict)
+    frame: Frame | None = None
 
     @property
     def counts(self) -> dict[str, int]:
@@ -102,7 +111,7 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
                             stability=_with_analysis_status(
                                 pd.DataFrame(index=pd.Index([], name="combination")), combos),
                             lengths=pd.DataFrame(columns=["member", "combination"]),
-                            settings=settings, combinations=combos)
+                            settings=settings, combinations=combos, frame=frame)
 
     alpha = stability.critical_load_factors(frame, uls_results, members)
     paths = stability.analysis_path(alpha, uls_results.combinations)
@@ -137,9 +146,23 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
                          table["combination"].map(per_combination[column]).fillna("").to_numpy())
         bows = stability.bow_imperfections_needed(frame, members, checked, alpha)
         table = _mark_member_bows(table, bows, settings.bow_imperfections)
+    value_columns: dict[str, tuple[str, ...]] = {}
+    for block in blocks:
+        value_columns.setdefault(block.check, tuple(block.values))
     return CheckOutcome(table=table, members=members,
                         stability=_with_analysis_status(per_combination, combos),
-                        lengths=lengths, settings=settings, combinations=combos)
+                        lengths=lengths, settings=settings, combinations=combos,
+                        stations=station_forces(rows), value_columns=value_columns, frame=frame)
+
+
+def station_forces(rows: MemberRows) -> pd.DataFrame:
+    """The forces of every row at its real stations as a plain long table (padding dropped)."""
+    valid = rows.valid
+    r, _ = np.nonzero(valid)
+    return pd.DataFrame({
+        "member": rows.member[r], "combination": rows.combination[r], "x_m": rows.x[valid],
+        "N_N": rows.N[valid], "V_y_N": rows.Vy[valid], "V_z_N": rows.Vz[valid],
+        "T_Nm": rows.T[valid], "M_y_Nm": rows.My[valid], "M_z_Nm": rows.Mz[valid]})
 
 
 def _with_analysis_status(per_combination: pd.DataFrame, combos: pd.DataFrame) -> pd.DataFrame:

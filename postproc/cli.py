@@ -17,6 +17,7 @@ from pathlib import Path
 
 from . import CAUTION, __version__
 from .errors import FramesweepError, InputError
+from .report.options import PAPER_SIZES, VIEWS_3D, ReportOptions
 
 EXIT_PASS, EXIT_FAIL, EXIT_INPUT, EXIT_NOT_EVALUATED = 0, 1, 2, 3
 EXIT_INTERNAL = 4
@@ -40,6 +41,28 @@ def _parser() -> argparse.ArgumentParser:
     run.add_argument("project", type=Path, help="project file (TOML)")
     run.add_argument("--out", type=Path, default=Path("out"), help="output folder (default: out)")
     run.add_argument("--quiet", action="store_true", help="print only the outcome line")
+    report = run.add_argument_group("report outputs")
+    report.add_argument("--summary-only", action="store_true",
+                        help="write only the summary views and a short report (no sheets, "
+                             "long table or workbook)")
+    report.add_argument("--full-csv", action="store_true",
+                        help="also write the long table as utilisation.csv whatever its size")
+    report.add_argument("--csv-row-limit", type=int, default=ReportOptions.csv_row_limit,
+                        help="write utilisation.csv when the long table has at most this many "
+                             "rows (default %(default)s); utilisation.parquet is always written")
+    report.add_argument("--per-combination", action="store_true",
+                        help="also draw the frame shaded by each combination "
+                             "(combinations.html)")
+    report.add_argument("--views", nargs="+", default=list(ReportOptions.views),
+                        choices=VIEWS_3D, help="views of a space frame to draw "
+                                                "(default: axonometric)")
+    report.add_argument("--paper", choices=PAPER_SIZES, default=ReportOptions.paper,
+                        help="printed page size, landscape (default %(default)s)")
+    report.add_argument("--inline-sheet-limit", type=int,
+                        default=ReportOptions.inline_sheet_limit,
+                        help="up to this many members the calculation sheets are part of "
+                             "report.html, above it one page each under sheets/ "
+                             "(default %(default)s)")
     sections = commands.add_parser("sections", help="list catalogue sections and their properties")
     sections.add_argument("filter", nargs="?", default=None,
                           help="part of a designation or family, e.g. IPE or 'HEB 2'")
@@ -53,7 +76,12 @@ def main(argv: list[str] | None = None) -> int:
     try:
         if args.command == "sections":
             return _sections(args.filter)
-        return _run(args.project, args.out, quiet=args.quiet)
+        options = ReportOptions(
+            csv_row_limit=args.csv_row_limit, full_csv=args.full_csv,
+            summary_only=args.summary_only, per_combination=args.per_combination,
+            views=tuple(args.views), paper=args.paper,
+            inline_sheet_limit=args.inline_sheet_limit)
+        return _run(args.project, args.out, quiet=args.quiet, options=options)
     except InputError as exc:
         print(f"framesweep: bad input: {exc}", file=sys.stderr)
         return EXIT_INPUT
@@ -102,17 +130,20 @@ def _sections(filter_text: str | None) -> int:
     return EXIT_PASS
 
 
-def _run(project: Path, out: Path, *, quiet: bool) -> int:
+def _run(project: Path, out: Path, *, quiet: bool, options: ReportOptions | None = None) -> int:
+    from .report.bundle import REPORT_FILES
+    from .report.progress import QUIET, Stages
     from .report.summaries import member_summary
     from .report.writer import OUTPUT_FILES, discard_outputs, prepare_output, write_outputs
     from .run import run_project
 
     staging = prepare_output(out)  # a bad output path is refused before any computation
+    stages = QUIET if quiet else Stages()
     try:
-        output = run_project(project)
+        output = run_project(project, stages=stages)
         outcome = output.outcome
         write_outputs(outcome, out, title=output.project.title, source=output.frame.source,
-                      warnings=output.warnings, staging=staging)
+                      warnings=output.warnings, staging=staging, options=options, stages=stages)
     except BaseException as exc:
         reason = (f"bad input: {exc}" if isinstance(exc, InputError) else
                   "interrupted" if isinstance(exc, KeyboardInterrupt) else
@@ -138,8 +169,9 @@ def _run(project: Path, out: Path, *, quiet: bool) -> int:
         print(stability[columns].to_string(index=False, float_format=lambda v: f"{v:.2f}")
               if len(stability) else "  none: no ULS combination with forces")
         print()
-        for name, what in OUTPUT_FILES.items():
-            print(f"  {out / name}: {what}")
+        for name, what in {**OUTPUT_FILES, **REPORT_FILES}.items():
+            if (out / name).exists():
+                print(f"  {out / name}: {what}")
         print(f"\n{CAUTION}\n")
     _print_problems(output)
     print(f"{counts['pass']} checks pass, {counts['fail']} fail, "

@@ -12,6 +12,7 @@ from .checker import CheckOutcome, check_frame
 from .frame import Frame
 from .plausibility import COLUMNS, numerical_warnings, plausibility_warnings
 from .project import Project, read_project
+from .report.progress import QUIET, Stages
 from .results import Results
 
 
@@ -44,15 +45,18 @@ def forces_source(project: Project) -> str:
     return str(project.resolve(model["script"]))
 
 
-def run_project(path: str | Path) -> RunOutput:
-    """Read a project, load its model, check every member; raises InputError on bad input."""
+def run_project(path: str | Path, *, stages: Stages = QUIET) -> RunOutput:
+    """Read a project, load its model, check every member; raises InputError on bad input.
+    `stages` shows the long stages on a terminal (postproc/report/progress.py)."""
     project = read_project(path)
-    frame, results = load_model(project)
+    with stages.stage("reading the model and its analyses"):
+        frame, results = load_model(project)
     with warnings.catch_warnings(record=True) as caught:
         # numpy's floating point warnings are collected and reported once, not flooded
         warnings.simplefilter("always", RuntimeWarning)
-        outcome = check_frame(frame, results, project.settings, overrides=project.overrides,
-                              groups=project.groups, restraint_nodes=project.restraint_nodes)
+        with stages.stage("stability, buckling lengths and checks"):
+            outcome = check_frame(frame, results, project.settings, overrides=project.overrides,
+                                  groups=project.groups, restraint_nodes=project.restraint_nodes)
     numeric = [w for w in caught if issubclass(w.category, RuntimeWarning)]
     for w in caught:  # anything else is shown as usual
         if not issubclass(w.category, RuntimeWarning):

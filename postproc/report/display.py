@@ -8,10 +8,14 @@ import pandas as pd
 SUFFIXES = {"_Nm": ("kNm", 1e-3), "_N": ("kN", 1e-3), "_Pa": ("MPa", 1e-6),
             "_m2": ("cm2", 1e4), "_m3": ("cm3", 1e6), "_m4": ("cm4", 1e8), "_m6": ("cm6", 1e12),
             "_m": ("m", 1.0)}
+# ratios whose names happen to end like a unit suffix (term_N is the N term of eq. (6.61)/(6.62))
+UNITLESS = {"term_N"}
 
 
 def display_name(column: str) -> tuple[str, float]:
     """Display header and factor for an SI column name, e.g. 'N_Ed_N' -> ('N_Ed [kN]', 1e-3)."""
+    if column in UNITLESS:
+        return column, 1.0
     for suffix, (unit, scale) in SUFFIXES.items():
         if column.endswith(suffix):
             return f"{column[: -len(suffix)]} [{unit}]", scale

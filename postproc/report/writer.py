@@ -25,12 +25,14 @@ import pandas as pd
 
 from ..checker import CheckOutcome
 from ..errors import InputError
+from .bundle import REPORT_FILES, write_report_outputs
+from .cells import formula_safe_table
 from .display import to_display
-from .html import html_report
+from .options import ReportOptions
+from .progress import QUIET, Stages
 from .summaries import failures_by_combination, member_grouping, member_summary
 
 OUTPUT_FILES = {
-    "utilisation.csv": "every (member, combination, check): utilisation, status, clause, values",
     "summary.csv": "one row per member: largest utilisation, governing combination and check",
     "failures.csv": "overstressed members by combination",
     "members.csv": "design members: their elements, kind, section and restraint points",
@@ -38,13 +40,11 @@ OUTPUT_FILES = {
     "buckling_lengths.csv": "per member and combination: buckling lengths and their origin",
     "settings.csv": "the design settings and national parameters used",
     "warnings.csv": "plausibility warnings: what looks wrong in the input, and where",
-    "report.html": "the report: caution, settings, stability, members, failures",
 }
 FAILED_NOTE = "run-failed.txt"
 ERROR_LOG = "framesweep-error.log"
-OWN_FILES = {*OUTPUT_FILES, FAILED_NOTE, ERROR_LOG}
+OWN_FILES = {*OUTPUT_FILES, *REPORT_FILES, FAILED_NOTE, ERROR_LOG}
 STAGING, REPLACED = "being-written", "being-replaced"
-FORMULA_START = re.compile(r"^[=+\-@\t\r]")
 
 
 def prepare_output(out_dir: str | Path) -> Path:
@@ -100,8 +100,11 @@ def _alive(pid: int) -> bool:
 
 
 def write_outputs(outcome: CheckOutcome, out_dir: str | Path, *, title: str, source: str,
-                  warnings: pd.DataFrame | None = None, staging: Path | None = None) -> Path:
-    """Write every output file of a run into out_dir, all or nothing; returns the folder."""
+                  warnings: pd.DataFrame | None = None, staging: Path | None = None,
+                  options: ReportOptions | None = None, stages: Stages = QUIET) -> Path:
+    """Write every output file of a run into out_dir, all or nothing; returns the folder. The
+    report's files (report/bundle.py: report.html, the long table, workbook, sheets) depend on
+    `options`; the whole folder is replaced, so none is left over from an earlier run."""
     out_dir = Path(out_dir).absolute()
     staging = staging or prepare_output(out_dir)
     try:
@@ -109,7 +112,6 @@ def write_outputs(outcome: CheckOutcome, out_dir: str | Path, *, title: str, sou
         failures = failures_by_combination(outcome.table)
         settings = pd.DataFrame(sorted(outcome.settings.as_dict().items()),
                                 columns=["setting", "value"])
-        _csv(outcome.table, staging / "utilisation.csv")
         _csv(summary, staging / "summary.csv")
         _csv(failures, staging / "failures.csv")
         _csv(member_grouping(outcome.members), staging / "members.csv")
@@ -119,9 +121,8 @@ def write_outputs(outcome: CheckOutcome, out_dir: str | Path, *, title: str, sou
         warnings = warnings if warnings is not None else pd.DataFrame(columns=["where",
                                                                              "warning"])
         _csv(warnings, staging / "warnings.csv", convert=False)
-        html = html_report(outcome, summary, failures, title=title, source=source,
-                           warnings=warnings)
-        (staging / "report.html").write_text(html, encoding="utf-8")
+        write_report_outputs(outcome, staging, summary, failures, title=title, source=source,
+                             options=options, stages=stages, warnings=warnings)
         _swap_in(staging, out_dir)
     finally:
         shutil.rmtree(staging, ignore_errors=True)
@@ -147,8 +148,11 @@ def discard_outputs(out_dir: str | Path, staging: Path | None, reason: str) -> N
     out_dir = Path(out_dir)
     if not out_dir.is_dir():
         return
-    for name in OUTPUT_FILES:
-        (out_dir / name).unlink(missing_ok=True)
+    for name in [*OUTPUT_FILES, *REPORT_FILES]:
+        if (out_dir / name).is_dir():
+            shutil.rmtree(out_dir / name, ignore_errors=True)
+        else:
+            (out_dir / name).unlink(missing_ok=True)
     stamp = datetime.datetime.now(datetime.timezone.utc).strftime("%Y-%m-%d %H:%M:%S UTC")
     (out_dir / FAILED_NOTE).write_text(
         f"The framesweep run of {stamp} failed, so this folder holds no results.\n"
@@ -168,21 +172,6 @@ def write_error_log(out_dir: str | Path, text: str) -> Path | None:
         return None
 
 
-def escape_formulas(table: pd.DataFrame) -> pd.DataFrame:
-    """A copy whose text cells that start like a formula begin with an apostrophe instead."""
-    out = table.copy()
-    for column in out.columns:
-        values = out[column]
-        if values.dtype == object or pd.api.types.is_string_dtype(values):
-            # look at each distinct value once: long tables repeat a few names many times
-            risky = [v for v in pd.unique(values.to_numpy())
-                     if isinstance(v, str) and FORMULA_START.match(v)]
-            if risky:
-                out[column] = values.where(~values.isin(risky), "'" + values.astype(str))
-    header = {c: "'" + c for c in out.columns if isinstance(c, str) and FORMULA_START.match(c)}
-    return out.rename(columns=header) if header else out
-
-
 def _csv(table: pd.DataFrame, path: Path, *, convert: bool = True) -> None:
     frame = to_display(table) if convert else table
-    escape_formulas(frame).to_csv(path, index=False, float_format="%.6g")
+    formula_safe_table(frame).to_csv(path, index=False, float_format="%.6g")

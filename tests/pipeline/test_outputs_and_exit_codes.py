@@ -18,7 +18,7 @@ import pytest
 
 import postproc.run
 from postproc.cli import main
-from postproc.report.writer import escape_formulas
+from postproc.report.cells import formula_safe_table
 
 ROOT = Path(__file__).resolve().parents[2]
 DEMO = ROOT / "examples" / "hillside_depot"
@@ -36,7 +36,7 @@ def _run(project: Path, out: Path, *extra: str) -> int:
 
 
 def _never_computed(monkeypatch) -> None:
-    def refuse(path):
+    def refuse(path, **_):
         raise AssertionError("the computation started")
     monkeypatch.setattr(postproc.run, "run_project", refuse)
 
@@ -74,7 +74,7 @@ def test_a_folder_with_other_files_is_refused(demo, tmp_path, capsys, monkeypatc
 
 def test_internal_error_exits_4_with_a_log_and_no_traceback(demo, tmp_path, capsys,
                                                             monkeypatch) -> None:
-    def broken(path):
+    def broken(path, **_):
         raise ZeroDivisionError("a fault inside framesweep")
     monkeypatch.setattr(postproc.run, "run_project", broken)
     out = tmp_path / "out"
@@ -88,7 +88,7 @@ def test_internal_error_exits_4_with_a_log_and_no_traceback(demo, tmp_path, caps
 
 
 def test_ctrl_c_exits_130_and_leaves_no_staging(demo, tmp_path, capsys, monkeypatch) -> None:
-    def interrupted(path):
+    def interrupted(path, **_):
         raise KeyboardInterrupt
     monkeypatch.setattr(postproc.run, "run_project", interrupted)
     out = tmp_path / "out"
@@ -165,9 +165,9 @@ def test_formula_like_text_is_escaped_in_every_csv(demo, tmp_path) -> None:
     assert {"'=C01", "'@C02", "'+C11", "'-C12"} <= set(summary["member"])
 
 
-def test_escape_formulas_leaves_numbers_and_plain_text_alone() -> None:
+def test_formula_safe_table_leaves_numbers_and_plain_text_alone() -> None:
     table = pd.DataFrame({"name": ["=1+2", "\tx", "\rx", "plain", None], "u": [-1.0, 2, 3, 4, 5]})
-    out = escape_formulas(table)
+    out = formula_safe_table(table)
     assert list(out["name"][:4]) == ["'=1+2", "'\tx", "'\rx", "plain"] and pd.isna(out["name"][4])
     assert list(out["u"]) == [-1.0, 2, 3, 4, 5]
 

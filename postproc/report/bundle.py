@@ -1,0 +1,170 @@
+"""The report's files, written into the writer's staging folder: report.html, the calculation
+sheets, the long table (Parquet always, CSV when small or asked for), the workbook and the frame
+per combination. Every number is read from the CheckOutcome; nothing is recomputed here."""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+import numpy as np
+import pandas as pd
+
+from ..checker import CheckOutcome
+from .cells import formula_safe_table
+from .display import to_display
+from .links import member_slug
+from .options import ReportOptions
+from .pages import combinations_html, report_html, sheet_page
+from .progress import QUIET, Stages
+from .sheets import build_sheet, sheet_html, sheet_markdown
+from .spreadsheet import write_parquet, write_workbook
+from .summaries import member_grouping
+from .views import governing_checks
+
+REPORT_FILES = {
+    "report.html": "the report: summary, the frame drawn, members, stability, settings, sheets",
+    "utilisation.parquet": "every (member, combination, check) with all intermediate values (SI)",
+    "utilisation.csv": "the same long table as CSV, display units (when small or asked for)",
+    "report.xlsx": "workbook: members, governing checks, failures, stability, buckling lengths, "
+                   "settings",
+    "sheets": "a calculation sheet per member: Markdown (and HTML for large jobs)",
+    "combinations.html": "the frame shaded by each combination (when asked for)",
+}
+
+
+SHEET_ROW_COLUMNS = ["member", "combination", "check", "utilisation", "status", "section_class",
+                     "class_part", "term_N", "term_M_y", "term_M_z"]
+
+
+def member_slices(table: pd.DataFrame):
+    """A function member -> that member's rows, from one stable sort by member (slices, not
+    lookups, so a large table is not copied once per member)."""
+    if table is None or not len(table) or "member" not in table:
+        empty = table if table is not None else pd.DataFrame()
+        return lambda member: empty.iloc[0:0] if len(empty) else empty
+    ordered = table.sort_values("member", kind="stable", key=lambda m: m.astype(str))
+    names = ordered["member"].astype(str).to_numpy()
+    starts = {}
+    bounds = np.flatnonzero(np.r_[True, names[1:] != names[:-1], True])
+    for a, b in zip(bounds[:-1], bounds[1:]):
+        starts[names[a]] = (a, b)
+    return lambda member: ordered.iloc[slice(*starts.get(member, (0, 0)))]
+
+
+def member_records(table: pd.DataFrame):
+    """A function member -> that member's rows as a list of dicts (made once for the table)."""
+    if not len(table):
+        return lambda member: []
+    ordered = table.sort_values("member", kind="stable", key=lambda m: m.astype(str))
+    records = ordered.to_dict("records")
+    names = [str(r["member"]) for r in records]
+    spans: dict[str, tuple[int, int]] = {}
+    for k, name in enumerate(names):
+        a, _ = spans.get(name, (k, k))
+        spans[name] = (a, k + 1)
+    return lambda member: records[slice(*spans.get(member, (0, 0)))]
+
+
+def csv_wanted(table: pd.DataFrame, options: ReportOptions) -> bool:
+    """The long table is also written as CSV when asked for or when it has at most
+    options.csv_row_limit rows."""
+    return not options.summary_only and (options.full_csv or len(table) <= options.csv_row_limit)
+
+
+def ordered_summary(summary: pd.DataFrame) -> pd.DataFrame:
+    """Members with the largest utilisation first; members with nothing evaluated at the top."""
+    return summary.sort_values("max_utilisation", ascending=False, na_position="first",
+                               kind="stable").reset_index(drop=True)
+
+
+def write_report_outputs(outcome: CheckOutcome, folder: Path, summary: pd.DataFrame,
+                         failures: pd.DataFrame, *, title: str, source: str,
+                         options: ReportOptions | None = None, stages: Stages = QUIET,
+                         warnings: pd.DataFrame | None = None) -> dict[str, str]:
+    """Write the report's files into `folder`; returns {file or folder name: what it holds}.
+    `warnings`: the plausibility warnings of the run (where, warning), shown in the report."""
+    options = options or ReportOptions()
+    summary = ordered_summary(summary)
+    written: dict[str, str] = {}
+    table = outcome.table
+    if not options.summary_only:
+        with stages.stage("writing the long table (Parquet)"):
+            write_parquet(table, folder / "utilisation.parquet")
+        written["utilisation.parquet"] = REPORT_FILES["utilisation.parquet"]
+        if csv_wanted(table, options):
+            with stages.stage("writing the long table (CSV)"):
+                formula_safe_table(to_display(table)).to_csv(folder / "utilisation.csv",
+                                                              index=False, float_format="%.6g")
+            written["utilisation.csv"] = REPORT_FILES["utilisation.csv"]
+    inline = len(summary) <= options.inline_sheet_limit
+    sections: list[str] = []
+    if not options.summary_only:
+        governing = governing_checks(table)
+        with stages.stage("writing the workbook"):
+            settings = pd.DataFrame(
+                [("design", k, str(v)) for k, v in sorted(outcome.settings.as_dict().items())]
+                + [("report", k, str(v)) for k, v in sorted(options.as_dict().items())],
+                columns=["kind", "setting", "value"])
+            write_workbook({"members": summary, "governing checks": governing,
+                            "failures": failures,
+                            "stability": outcome.stability.reset_index(),
+                            "buckling lengths": outcome.lengths, "settings": settings},
+                           folder / "report.xlsx",
+                           notes=[f"{title}: framesweep results, one sheet per view.",
+                                  "Units are in the column headings."])
+        written["report.xlsx"] = REPORT_FILES["report.xlsx"]
+        sections = _write_sheets(outcome, folder, summary, governing, title=title,
+                                 options=options, inline=inline, stages=stages)
+        written["sheets"] = REPORT_FILES["sheets"]
+        if options.per_combination:
+            with stages.stage("drawing the frame per combination"):
+                text = combinations_html(outcome, title=title, options=options,
+                                         inline_sheets=inline)
+                (folder / "combinations.html").write_text(text, encoding="utf-8")
+            written["combinations.html"] = REPORT_FILES["combinations.html"]
+    written = {"report.html": REPORT_FILES["report.html"], **written}
+    with stages.stage("writing report.html"):
+        text = report_html(outcome, summary, failures, title=title, source=source,
+                           options=options, sheets=sections if inline else [],
+                           inline_sheets=inline, files=written, warnings=warnings)
+        (folder / "report.html").write_text(text, encoding="utf-8")
+    return written
+
+
+def _write_sheets(outcome: CheckOutcome, folder: Path, summary: pd.DataFrame,
+                  governing: pd.DataFrame, *, title: str, options: ReportOptions, inline: bool,
+                  stages: Stages) -> list[str]:
+    """A sheet per member: Markdown files always, HTML pages when not inline; returns the HTML
+    sections when inline."""
+    sheets_dir = folder / "sheets"
+    sheets_dir.mkdir()
+    # the sheets read only a few columns of every row (the values come from `governing`), and
+    # each member's rows as one contiguous slice of member-sorted tables: cheap on a wide table
+    slim = outcome.table[[c for c in SHEET_ROW_COLUMNS if c in outcome.table.columns]]
+    rows_of = member_slices(slim)
+    governing_of = member_records(governing)
+    lengths_of = member_slices(outcome.lengths)
+    stations_of = member_slices(outcome.stations)
+    grouping = member_grouping(outcome.members).set_index("member")
+    limit = outcome.settings.utilisation_limit
+    sections = []
+    with stages.stage("writing calculation sheets", total=len(summary)) as tick:
+        for row in summary.to_dict("records"):
+            member = str(row["member"])
+            sheet = build_sheet(
+                member, rows_of(member), governing_of(member), row,
+                grouping.loc[member] if member in grouping.index else None,
+                lengths_of(member), outcome.stability, stations_of(member),
+                outcome.value_columns)
+            stem = member_slug(member)
+            (sheets_dir / f"{stem}.md").write_text(
+                sheet_markdown(sheet, utilisation_limit=limit), encoding="utf-8")
+            section = sheet_html(sheet, utilisation_limit=limit)
+            if inline:
+                sections.append(section)
+            else:
+                (sheets_dir / f"{stem}.html").write_text(
+                    sheet_page(section, title=f"{title}: member {member}", paper=options.paper),
+                    encoding="utf-8")
+            tick(1)
+    return sections

@@ -1,0 +1,38 @@
+"""Views of the results table that the report, the sheets and the workbook share: the governing
+row of each (member, check) and the rows grouped per member. Selection and sorting only."""
+
+from __future__ import annotations
+
+import numpy as np
+import pandas as pd
+
+from ..checks.base import NOT_EVALUATED
+
+
+def governing_checks(table: pd.DataFrame) -> pd.DataFrame:
+    """One row per (member, check): the evaluated row of largest utilisation, or where the check
+    was never evaluated for the member, its first not-evaluated row (with the reason)."""
+    if table.empty:
+        return table.copy()
+    order = pd.DataFrame({
+        "evaluated": (table["status"] != NOT_EVALUATED).to_numpy(),
+        "u": table["utilisation"].to_numpy(float)}, index=table.index)
+    ranked = table.assign(_evaluated=order["evaluated"], _u=np.nan_to_num(order["u"], nan=-1.0))
+    ranked = ranked.sort_values(["member", "check", "_evaluated", "_u"],
+                                ascending=[True, True, False, False], kind="stable")
+    first = ranked.drop_duplicates(["member", "check"]).drop(columns=["_evaluated", "_u"])
+    return first.reset_index(drop=True)
+
+
+def combination_utilisations(rows: pd.DataFrame) -> pd.DataFrame:
+    """A member's rows as combination x check: utilisation, or NaN where not evaluated."""
+    if rows.empty:
+        return pd.DataFrame()
+    # (member, combination, check) is unique in the table, so a plain pivot is enough
+    return rows.pivot(index="combination", columns="check", values="utilisation").sort_index()
+
+
+def not_evaluated_cells(rows: pd.DataFrame) -> set[tuple[str, str]]:
+    """(combination, check) pairs of a member's rows that were not evaluated."""
+    hit = rows[rows["status"] == NOT_EVALUATED]
+    return set(zip(hit["combination"].astype(str), hit["check"].astype(str)))
