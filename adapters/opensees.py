@@ -3,7 +3,7 @@
 `load(project, project_path)` runs the user's script in this process (their code, with their
 rights), reads the model back from the OpenSees domain, builds the load combinations of
 `postproc.loads` from the load patterns, analyses them and returns a Frame and Results in SI and
-in the sign convention of `postproc.results`. The project keys are documented in docs/opensees.md.
+in the sign convention of `postproc.model.results`. The project keys are documented in docs/opensees.md.
 
 - analysis = "linear" (default): each load pattern is solved once; combinations are superposed.
 - analysis = "p-delta": one P-delta analysis per combination, 'Linear' geometric transformations
@@ -21,9 +21,9 @@ import pandas as pd
 
 from postproc import loads
 from postproc.errors import InputError
-from postproc.frame import Frame
+from postproc.model.frame import Frame
 from postproc.project_schema import SCRIPT_TIME_LIMIT_S, OpenSeesModel
-from postproc.results import DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
+from postproc.model.results import DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
 
 from .opensees_export import export_tables
 from .opensees_model import (Captured, axis_map, import_opensees, read_domain, run_user_model,
@@ -97,7 +97,7 @@ def load(project: dict, project_path: Path) -> tuple[Frame, Results]:
 
     Returns:
         The Frame and the Results of every combination, SI, sign convention of
-        `postproc.results`. Raises InputError for bad input (naming file and field).
+        `postproc.model.results`. Raises InputError for bad input (naming file and field).
     """
     file = str(project_path)
     model = dict(project.get("model", {}))

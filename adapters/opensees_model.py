@@ -189,7 +189,7 @@ class Captured:
     elements: pd.DataFrame       # index element; node_i, node_j, type, truss, section_tag,
                                  # xaxis, yaxis, zaxis (3-vectors), I_y_os, I_z_os (NaN unknown)
     supports: pd.DataFrame       # index node; ux .. rz booleans
-    ties: pd.DataFrame           # postproc.frame TIE_COLUMNS: node, master, dofs, rigid
+    ties: pd.DataFrame           # postproc.model.frame TIE_COLUMNS: node, master, dofs, rigid
     node_loads: pd.DataFrame     # pattern, node, FX_N, FY_N, FZ_N, MX_Nm, MY_Nm, MZ_Nm
     element_loads: pd.DataFrame  # ELEMENT_LOAD_COLUMNS, OpenSees local axes
     patterns: list[str]

@@ -19,7 +19,7 @@ import numpy as np
 import pandas as pd
 
 from postproc.errors import InputError
-from postproc.frame import Frame
+from postproc.model.frame import Frame
 
 from .opensees_model import Captured
 from .opensees_run import Job

@@ -18,9 +18,9 @@ import pandas as pd
 
 from postproc import materials
 from postproc.errors import InputError
-from postproc.frame import Frame, empty_ties
+from postproc.model.frame import Frame, empty_ties
 from postproc.project_schema import TABLE_FILES
-from postproc.results import COMBINATION_COLUMNS, DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
+from postproc.model.results import COMBINATION_COLUMNS, DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
 from postproc.sections import build_sections
 from postproc.units import factor
 

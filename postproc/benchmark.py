@@ -36,10 +36,10 @@ import numpy as np
 import pandas as pd
 
 from .checker import CHECK_FAMILIES, iter_checks
-from .frame import Frame
-from .member_rows import build_member_rows
-from .members import one_member_per_element
-from .results import FORCE_COLUMNS
+from .model.frame import Frame
+from .model.member_rows import build_member_rows
+from .model.members import one_member_per_element
+from .model.results import FORCE_COLUMNS
 from .sections import build_sections
 from .settings import DesignSettings
 

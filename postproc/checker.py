@@ -21,16 +21,16 @@ from typing import Callable, Iterator
 import numpy as np
 import pandas as pd
 
-from .checks.base import (FAIL, NOT_EVALUATED, PASS, CheckBlock, MemberRows, block_concat,
+from .model.rows import (FAIL, NOT_EVALUATED, PASS, CheckBlock, MemberRows, block_concat,
                           rows_concat, rows_slice)
 from .checks.cross_section import cross_section_checks
 from .checks.interaction import interaction_checks
 from .checks.member_buckling import (buckling_values, flexural_buckling_checks,
                                      lateral_torsional_checks)
-from .frame import Frame
-from .member_rows import build_member_rows
-from .members import Members, design_members
-from .results import Results
+from .model.frame import Frame
+from .model.member_rows import build_member_rows
+from .model.members import Members, design_members
+from .model.results import Results
 from .sections.classification import section_class
 from .sections.effective import effective_properties_where
 from .row_reductions import row_any

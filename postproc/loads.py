@@ -44,7 +44,7 @@ import numpy as np
 import pandas as pd
 
 from .errors import InputError
-from .results import FORCE_COLUMNS
+from .model.results import FORCE_COLUMNS
 
 PERMANENT = "permanent"
 
@@ -557,7 +557,7 @@ def superpose(case_forces: pd.DataFrame, factors: pd.DataFrame, *,
 
     Args:
         case_forces: columns load_case, `keys` and `columns` (by default the forces table of
-            `postproc.results` per load case: element, x_m, N_N .. Mz_Nm).
+            `postproc.model.results` per load case: element, x_m, N_N .. Mz_Nm).
         factors: long factors table (combination, load_case, factor).
         keys: columns that identify a value within one load case.
         columns: value columns to combine.

@@ -14,9 +14,9 @@ import pandas as pd
 
 from . import materials
 from .checker import CHECK_FAMILIES, _with_member_info, results_table
-from .checks.base import MemberRows
+from .model.rows import MemberRows
 from .errors import InputError
-from .member_rows import member_properties
+from .model.member_rows import member_properties
 from .sections import build_sections
 from .settings import DesignSettings
 
@@ -39,7 +39,7 @@ def check_member(section: str | dict, grade: str = "S355", *, length: float,
         section: a catalogue designation ("IPE 300") or a dict in the form of a sections.csv row.
         grade: steel grade.
         length: member length, m.
-        N_Ed: axial force, N (negative in compression: postproc/results.py convention).
+        N_Ed: axial force, N (negative in compression: postproc/model/results.py convention).
         My_ends, Mz_ends: end moments (start, end), N*m. The diagram between them is linear plus
             a parabolic span part My_span / Mz_span (the extra moment at mid-length, as from a
             uniform load), unless My_diagram / Mz_diagram give the values at the stations.

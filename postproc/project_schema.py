@@ -18,7 +18,7 @@ import pydantic
 from pydantic import BaseModel, BeforeValidator, ConfigDict, Field, ValidationError
 
 from .errors import InputError
-from .members import RESTRAINT_DIRECTIONS
+from .model.members import RESTRAINT_DIRECTIONS
 from .settings import DesignSettings
 
 CONFIG = ConfigDict(extra="forbid", strict=True, allow_inf_nan=False)

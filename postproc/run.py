@@ -9,11 +9,11 @@ from pathlib import Path
 import pandas as pd
 
 from .checker import CheckOutcome, check_frame
-from .frame import Frame
+from .model.frame import Frame
 from .plausibility import COLUMNS, numerical_warnings, plausibility_warnings
 from .project import Project, read_project
 from .report.progress import QUIET, Stages
-from .results import Results
+from .model.results import Results
 
 
 @dataclass(frozen=True)

@@ -19,9 +19,9 @@ import numpy as np
 import pandas as pd
 
 from .errors import InputError, TopologyError
-from .frame import NODE_COLUMNS, Frame, local_axes
-from .members import Members, member_axes, moment_released
-from .results import Results
+from .model.frame import NODE_COLUMNS, Frame, local_axes
+from .model.members import Members, member_axes, moment_released
+from .model.results import Results
 from .stability_eigen import (E_STEEL, SUB_PER_MEMBER, Mesh, buckling_modes, build_mesh,
                               section_columns, translations)
 from .stability_sway import SwayPart, amplified_forces, sway_part  # noqa: F401

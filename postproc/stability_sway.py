@@ -25,9 +25,9 @@ import numpy as np
 import pandas as pd
 import scipy.linalg as sla
 
-from .frame import NODE_COLUMNS, Frame
-from .members import Members
-from .results import FORCE_COLUMNS, Results
+from .model.frame import NODE_COLUMNS, Frame
+from .model.members import Members
+from .model.results import FORCE_COLUMNS, Results
 from .stability_eigen import Mesh, build_mesh
 
 LEVEL_TOL_M = 0.01          # column tops within 10 mm count as one level
@@ -44,7 +44,7 @@ class SwayPart:
         elements: (e,) frame element ids, in frame order.
         length_m: (e,) element lengths.
         ends: (C, e, 2, 6) internal forces (FORCE_COLUMNS order, sign convention of
-            `postproc.results`) at x = 0 and x = L; NaN for a combination whose sway part is
+            `postproc.model.results`) at x = 0 and x = L; NaN for a combination whose sway part is
             unknown.
         note: (C,) '' where known, else why it is not.
         method: how the sway part was found.

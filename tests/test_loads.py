@@ -10,7 +10,7 @@ import pytest
 
 from postproc import loads
 from postproc.errors import InputError
-from postproc.results import FORCE_COLUMNS
+from postproc.model.results import FORCE_COLUMNS
 
 EXACT = 1e-12  # factors are products of two decimal numbers: no tolerance needed beyond rounding
 

@@ -1,7 +1,7 @@
 """Design members: grouping, classification, restraint points, bad input.
 
 Frames here are small invented shapes (a pitched portal, a braced bay, a space frame corner); the
-expected groupings follow from the rules in `postproc.members`, the lengths from the geometry.
+expected groupings follow from the rules in `postproc.model.members`, the lengths from the geometry.
 """
 
 from __future__ import annotations
@@ -11,8 +11,8 @@ import pandas as pd
 import pytest
 
 from postproc.errors import InputError, TopologyError
-from postproc.frame import Frame
-from postproc.members import Members, design_members, one_member_per_element
+from postproc.model.frame import Frame
+from postproc.model.members import Members, design_members, one_member_per_element
 
 GEOMETRY_TOL = 1e-9     # lengths are sums of chord lengths: exact to round-off
 

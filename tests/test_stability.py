@@ -19,9 +19,9 @@ import pandas as pd
 import pytest
 
 from postproc.errors import InputError, TopologyError
-from postproc.frame import Frame
-from postproc.members import design_members
-from postproc.results import Results
+from postproc.model.frame import Frame
+from postproc.model.members import design_members
+from postproc.model.results import Results
 from postproc.stability import (amplify_sway_effects, analysis_path, bow_imperfections_needed,
                                 buckling_lengths, critical_load_factors, effective_length_ratio,
                                 equivalent_horizontal_forces, sway_imperfection)

@@ -18,9 +18,9 @@ import pandas as pd
 import pytest
 from scipy.optimize import brentq
 
-from postproc.frame import Frame
-from postproc.members import Members, design_members
-from postproc.results import Results
+from postproc.model.frame import Frame
+from postproc.model.members import Members, design_members
+from postproc.model.results import Results
 from postproc.stability import analysis_path, buckling_lengths, critical_load_factors
 from postproc.stability_lengths import SHOWN_LENGTH_CAP, restraint_positions, shown_lengths
 

@@ -24,9 +24,9 @@ import pytest
 import scipy.linalg as sla
 from scipy.optimize import brentq
 
-from postproc.frame import Frame
-from postproc.members import design_members
-from postproc.results import Results
+from postproc.model.frame import Frame
+from postproc.model.members import design_members
+from postproc.model.results import Results
 from postproc.stability import analysis_path, buckling_lengths, critical_load_factors
 from tests.test_stability import (FIXED, I_HEB200_Y, PINNED, combos, constant_forces, make_frame,
                                   portal)

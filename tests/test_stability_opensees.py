@@ -20,9 +20,9 @@ import pandas as pd
 import pytest
 import scipy.linalg as sla
 
-from postproc.frame import Frame
-from postproc.members import design_members
-from postproc.results import Results
+from postproc.model.frame import Frame
+from postproc.model.members import design_members
+from postproc.model.results import Results
 from postproc.stability import (amplify_sway_effects, analysis_path, critical_load_factors)
 
 ops = pytest.importorskip("openseespy.opensees")
@@ -133,7 +133,7 @@ def opensees_alpha(model, loads) -> float:
 
 
 def first_order_results(model, loads, comb="U1") -> Results:
-    """Forces of a linear OpenSees analysis in the sign convention of postproc.results."""
+    """Forces of a linear OpenSees analysis in the sign convention of postproc.model.results."""
     nodes, elements, *_ = model
     build_opensees(model, "Linear", loads)
     static(1, "Linear")
@@ -142,7 +142,7 @@ def first_order_results(model, loads, comb="U1") -> Results:
         n1, v1, m1, n2, v2, m2 = ops.eleResponse(k + 1, "localForce")
         length = float(np.hypot(*(np.subtract(nodes[j], nodes[i]))))
         # internal force on the positive face: minus the end force at i, plus the end force at j;
-        # local z of a plane element is the OpenSees local y, local y is -Z (postproc.frame)
+        # local z of a plane element is the OpenSees local y, local y is -Z (postproc.model.frame)
         rows.append((comb, eid, 0.0, -n1, 0.0, -v1, 0.0, m1, 0.0))
         rows.append((comb, eid, length, n2, 0.0, v2, 0.0, -m2, 0.0))
     forces = pd.DataFrame(rows, columns=["combination", "element", "x_m", "N_N", "Vy_N", "Vz_N",

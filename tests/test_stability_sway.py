@@ -14,9 +14,9 @@ import numpy as np
 import pandas as pd
 import pytest
 
-from postproc.frame import Frame
-from postproc.members import design_members
-from postproc.results import Results
+from postproc.model.frame import Frame
+from postproc.model.members import design_members
+from postproc.model.results import Results
 from postproc.stability import sub_elements, sway_part
 from postproc.stability_eigen import build_mesh
 from postproc.stability_sway import solve

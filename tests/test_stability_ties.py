@@ -32,9 +32,9 @@ import scipy.linalg as sla
 from scipy.optimize import brentq
 
 from postproc.errors import InputError, TopologyError
-from postproc.frame import Frame
-from postproc.members import design_members
-from postproc.results import Results
+from postproc.model.frame import Frame
+from postproc.model.members import design_members
+from postproc.model.results import Results
 from postproc.stability import critical_load_factors
 from tests.test_stability import combos, constant_forces
 

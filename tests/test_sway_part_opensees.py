@@ -19,9 +19,9 @@ import numpy as np
 import pandas as pd
 import pytest
 
-from postproc.frame import Frame
-from postproc.members import design_members
-from postproc.results import Results
+from postproc.model.frame import Frame
+from postproc.model.members import design_members
+from postproc.model.results import Results
 from postproc.stability import (amplified_part, amplify_sway_effects, analysis_path,
                                 critical_load_factors, sway_imperfection, sway_part)
 
@@ -110,7 +110,7 @@ def analyse(model, transf: str, node_loads, steps: int):
         n1, v1, m1, n2, v2, m2 = ops.eleResponse(k + 1, "localForce")
         length = float(np.hypot(*np.subtract(nodes[j], nodes[i])))
         # positive face: minus the end force at i, plus the end force at j; local z of a plane
-        # element is the OpenSees local y, local y is -Z (postproc.frame)
+        # element is the OpenSees local y, local y is -Z (postproc.model.frame)
         rows.append(("U1", eid, 0.0, -n1, 0.0, -v1, 0.0, m1, 0.0))
         rows.append(("U1", eid, length, n2, 0.0, v2, 0.0, -m2, 0.0))
     forces = pd.DataFrame(rows, columns=["combination", "element", "x_m", "N_N", "Vy_N", "Vz_N",

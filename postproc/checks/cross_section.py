@@ -54,7 +54,7 @@ from ..errors import InputError
 from ..sections.classification import section_class
 from ..sections.effective import STRESS_KEYS, parts_at_stress
 from . import effective_rows as eff_rows
-from .base import CheckBlock, MemberRows, at_station, no_reason, row_any
+from ..model.rows import CheckBlock, MemberRows, at_station, no_reason, row_any
 
 NOISE = 1e-6
 """Forces below NOISE x (A f_y, W f_y, ...) are numerical noise and count as 0."""

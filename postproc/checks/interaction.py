@@ -48,7 +48,7 @@ from ..ec3 import effective_resistance as er
 from ..ec3 import moment_factors as mf
 from . import effective_rows as eff_rows
 from ..row_reductions import row_sum
-from .base import CheckBlock, MemberRows, no_reason
+from ..model.rows import CheckBlock, MemberRows, no_reason
 
 CLASS_4 = eff_rows.CLASS_4_NO_GEOMETRY
 BUCKLING_KEYS = ("chi_y", "chi_z", "chi_LT", "lambda_bar_y", "lambda_bar_z", "N_cr_y_N",

@@ -12,7 +12,7 @@ symmetric member numerically (Rayleigh-Ritz), vectorised over rows:
   reproduces the closed form for uniform moment exactly and is an approximation otherwise, as the
   three-factor formula is;
 - work of the moment V = lambda int(M(x) u'' phi) dx and of the load height
-  -lambda/2 int(q_z z_g phi^2) dx with q_z = -M''(x) (see `postproc.results`: dMy/dx = Vz and
+  -lambda/2 int(q_z z_g phi^2) dx with q_z = -M''(x) (see `postproc.model.results`: dMy/dx = Vz and
   dVz/dx = -q_z). A load pointing from its point of application towards the shear centre
   (q_z z_g < 0, e.g. gravity on the top flange with z up) destabilises.
 

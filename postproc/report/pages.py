@@ -16,7 +16,7 @@ import pandas as pd
 
 from .. import CAUTION, __version__
 from ..checker import CheckOutcome
-from ..checks.base import FAIL, NOT_EVALUATED, PASS
+from ..model.rows import FAIL, NOT_EVALUATED, PASS
 from .colours import utilisation_colour
 from .display import to_display
 from .drawing import VIEW_TITLES, default_views, frame_svg, legend_svg, member_polylines

@@ -17,7 +17,7 @@ from dataclasses import dataclass, field
 import numpy as np
 import pandas as pd
 
-from ..checks.base import FAIL, NOT_EVALUATED
+from ..model.rows import FAIL, NOT_EVALUATED
 from .colours import utilisation_colour
 from .display import display_name
 from .links import sheet_anchor

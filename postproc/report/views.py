@@ -6,7 +6,7 @@ from __future__ import annotations
 import numpy as np
 import pandas as pd
 
-from ..checks.base import NOT_EVALUATED
+from ..model.rows import NOT_EVALUATED
 
 
 def governing_checks(table: pd.DataFrame) -> pd.DataFrame:

@@ -1,6 +1,6 @@
 """Cross-section classification, EN 1993-1-1:2005, 5.5.2 and Table 5.2, under the actual forces.
 
-Sign convention of `postproc.results`: N > 0 is tension. Inside this module stresses and forces
+Sign convention of `postproc.model.results`: N > 0 is tension. Inside this module stresses and forces
 are taken positive in COMPRESSION (N_c = -N_Ed), as Table 5.2 draws them.
 
 How the stress distribution of each part is found:

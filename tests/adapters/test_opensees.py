@@ -14,7 +14,7 @@ import pandas as pd
 import pytest
 
 from postproc.errors import InputError
-from postproc.frame import local_axes
+from postproc.model.frame import local_axes
 
 pytest.importorskip("openseespy.opensees")  # needs libblas3 and liblapack3 on Linux
 from adapters import opensees  # noqa: E402
@@ -87,7 +87,7 @@ def test_simply_supported_beam_uniform_load(tmp_path):
     assert mid.to_numpy() == pytest.approx(-w * L**2 / 8, rel=SOLVER)
     # the whole diagram is the parabola w X (L - X) / 2, at every station (equilibrium)
     np.testing.assert_allclose(f["My_Nm"], -w * f["X"] * (L - f["X"]) / 2, atol=SOLVER * w * L**2)
-    # shear V = w (L/2 - X), dMy/dx = Vz (postproc.results)
+    # shear V = w (L/2 - X), dMy/dx = Vz (postproc.model.results)
     np.testing.assert_allclose(f["Vz_N"], -w * (L / 2 - f["X"]), atol=SOLVER * w * L)
     # reactions w L / 2 upwards at each end (equilibrium)
     r = results.reactions.set_index("node")
@@ -217,7 +217,7 @@ def test_axis_mapping_column_bent_about_each_axis(tmp_path, major, vecxz, Iy, Iz
     base = at(results, "unit", "1").iloc[0]
     ex, ey, ez = local_axes(frame)[0]
     # cantilever: base moment H h about global Y (statics); its components on the frame's own
-    # local axes are what the adapter must report as My and Mz (postproc.frame, results)
+    # local axes are what the adapter must report as My and Mz (postproc.model.frame, results)
     moment = H * h * np.array([0.0, 1.0, 0.0])
     assert base["My_Nm"] == pytest.approx(moment @ ey, abs=1e-6 * H * h)
     assert base["Mz_Nm"] == pytest.approx(moment @ ez, abs=1e-6 * H * h)
@@ -537,7 +537,7 @@ def test_3d_beam_loads_in_both_local_directions(tmp_path):
     np.testing.assert_allclose(f["My_Nm"], My, atol=SOLVER * P * L)
     np.testing.assert_allclose(f["Mz_Nm"], Mz, atol=SOLVER * P * L)
     assert a in set(np.round(x, 12))  # the point load position is a station
-    # dMy/dx = Vz and dMz/dx = -Vy (postproc.results): with V linear between stations, the
+    # dMy/dx = Vz and dMz/dx = -Vy (postproc.model.results): with V linear between stations, the
     # secant slope of M equals the mean of V at the two ends of each interval. At the point
     # load V jumps, so intervals touching it are left out.
     mid = (f["Vz_N"].to_numpy()[1:] + f["Vz_N"].to_numpy()[:-1]) / 2
@@ -762,7 +762,7 @@ def test_platform_diaphragm_reaches_the_buckling_analysis(tmp_path, diaphragm):
     the Euler load of one cantilever, pi^2 E I / (4 L^2)."""
     from scipy.optimize import brentq
 
-    from postproc.members import design_members
+    from postproc.model.members import design_members
     from postproc.stability import critical_load_factors
 
     script = PLATFORM.replace("{diaphragm}", str(diaphragm)).replace("{extra}", "pass")
@@ -792,7 +792,7 @@ def test_platform_diaphragm_reaches_the_buckling_analysis(tmp_path, diaphragm):
 def test_equal_freedoms_and_rigid_links_are_read(tmp_path):
     """equalDOF: the listed freedoms, equal; rigidLink 'beam': all six, rigid body; 'bar': the
     translations, equal (OpenSees' meaning of each). The frame they build stays analysable."""
-    from postproc.members import design_members
+    from postproc.model.members import design_members
     from postproc.stability import critical_load_factors
 
     extra = ("ops.equalDOF(51, 52, 1, 2)\n"
@@ -818,7 +818,7 @@ def test_ties_round_trip_through_the_tables(tmp_path):
     """The diaphragm of the platform written to ties.csv and read back by the tables adapter:
     the same ties and the same alpha_cr (the same numbers in, the same analysis)."""
     from adapters import tables
-    from postproc.members import design_members
+    from postproc.model.members import design_members
     from postproc.project import read_project
     from postproc.stability import critical_load_factors
 

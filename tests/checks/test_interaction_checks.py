@@ -8,7 +8,7 @@ and tests/ec3/test_interaction_annex_a.py (Annex A): tolerance HAND (0.1 %, four
 import numpy as np
 import pytest
 
-from postproc.checks.base import FAIL, NOT_EVALUATED, PASS, MemberRows
+from postproc.model.rows import FAIL, NOT_EVALUATED, PASS, MemberRows
 from postproc.checks.interaction import CLASS_4, interaction_checks
 from postproc.settings import DesignSettings
 

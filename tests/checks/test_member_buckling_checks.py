@@ -13,7 +13,7 @@ import numpy as np
 import pytest
 
 from postproc.checks import member_buckling as fam
-from postproc.checks.base import FAIL, NOT_EVALUATED, PASS, MemberRows
+from postproc.model.rows import FAIL, NOT_EVALUATED, PASS, MemberRows
 from postproc.settings import DesignSettings
 
 EXACT = 1e-12  # same arithmetic as the clause functions, only rounding differs

@@ -5,7 +5,7 @@ Contract (what the checker reads):
   'rafter', 'brace', 'member'), n_elements, start_node, end_node.
 - `member_elements`: columns member, element, position (0, 1, ... along the member), x0_m (where
   the element starts along the member), flipped (True where the element runs against the member's
-  direction: then Vz and Mz change sign, see `postproc.results`).
+  direction: then Vz and Mz change sign, see `postproc.model.results`).
 - `restraints`: columns member, x_m (from the member's start), direction, source. Directions are
   in the member's local axes (EN 1993-1-1 1.7): 'z' = displacement along local z is prevented
   (governs buckling about y-y), 'y' = displacement along local y is prevented (buckling about z-z,
@@ -53,7 +53,7 @@ import networkx as nx
 import numpy as np
 import pandas as pd
 
-from .errors import InputError, TopologyError
+from ..errors import InputError, TopologyError
 from .frame import NODE_COLUMNS, Frame, element_vectors, local_axes, released
 
 COLLINEAR_COS = np.cos(np.radians(1.0))     # chords within 1 degree count as collinear

@@ -22,7 +22,7 @@ from dataclasses import dataclass, field
 import numpy as np
 import pandas as pd
 
-from .errors import InputError
+from ..errors import InputError
 
 NODE_COLUMNS = ["x_m", "y_m", "z_m"]
 ELEMENT_COLUMNS = ["node_i", "node_j", "section", "grade", "vz_x", "vz_y", "vz_z",

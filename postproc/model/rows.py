@@ -23,7 +23,7 @@ class MemberRows:
     """Everything a check needs, as arrays over R rows (member, combination).
 
     Forces (R, S), SI, member axes (x from the member's start, y-y major, z-z minor), sign
-    convention of `postproc.results`; padded stations are NaN in every force array and in x.
+    convention of `postproc.model.results`; padded stations are NaN in every force array and in x.
 
     Attributes:
         member: (R,) member ids (str).
