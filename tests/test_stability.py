@@ -22,7 +22,7 @@ from postproc.errors import InputError, TopologyError
 from postproc.model.frame import Frame
 from postproc.model.members import design_members
 from postproc.model.results import Results
-from postproc.stability import (amplify_sway_effects, analysis_path, bow_imperfections_needed,
+from postproc.stability.frame_stability import (amplify_sway_effects, analysis_path, bow_imperfections_needed,
                                 buckling_lengths, critical_load_factors, effective_length_ratio,
                                 equivalent_horizontal_forces, sway_imperfection)
 
@@ -211,7 +211,7 @@ def test_braced_frame_has_no_sway_mode():
 
 def test_sparse_solver_agrees_with_the_dense_one(monkeypatch):
     # larger models use sparse LU and scipy's eigsh; force them on a small model
-    import postproc.stability_eigen as eig
+    import postproc.stability.eigen as eig
     f = portal(PINNED, beam="IPE 300", brace=True)
     axial = {"U1": {"C1": -3e5, "C2": -2e5, "R1": -1e4}}
     dense = run(f, axial)[2]

@@ -27,7 +27,7 @@ from scipy.optimize import brentq
 from postproc.model.frame import Frame
 from postproc.model.members import design_members
 from postproc.model.results import Results
-from postproc.stability import analysis_path, buckling_lengths, critical_load_factors
+from postproc.stability.frame_stability import analysis_path, buckling_lengths, critical_load_factors
 from tests.test_stability import (FIXED, I_HEB200_Y, PINNED, combos, constant_forces, make_frame,
                                   portal)
 
@@ -150,7 +150,7 @@ def test_sway_mode_behind_more_member_modes_than_the_first_search(monkeypatch, d
     """A diagonal so slender (alpha 0.07) that its first six modes all come before the sway mode
     (5, the two-freedom model): the search goes on, in the dense solver to all modes, in the
     sparse one to eighteen, and both find the sway mode."""
-    import postproc.stability_eigen as eig
+    import postproc.stability.eigen as eig
     if not dense:
         monkeypatch.setattr(eig, "DENSE_MAX", 0)
     f, C, P, a_sway = bay_case(0.07, 5.0)
@@ -164,8 +164,8 @@ def test_sway_mode_behind_more_member_modes_than_the_first_search(monkeypatch, d
 def test_no_sway_mode_below_10_is_said_and_not_passed(monkeypatch):
     """With the search cut short before the sway mode (the sparse solver, a single mode
     searched), alpha_cr is not found: NaN, path 'not evaluated', and the note says why."""
-    import postproc.stability as st
-    import postproc.stability_eigen as eig
+    import postproc.stability.frame_stability as st
+    import postproc.stability.eigen as eig
     monkeypatch.setattr(eig, "DENSE_MAX", 0)
     monkeypatch.setattr(st, "MODES_FIRST", 1)
     monkeypatch.setattr(st, "MODES_MAX", 1)

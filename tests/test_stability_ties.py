@@ -35,7 +35,7 @@ from postproc.errors import InputError, TopologyError
 from postproc.model.frame import Frame
 from postproc.model.members import design_members
 from postproc.model.results import Results
-from postproc.stability import critical_load_factors
+from postproc.stability.frame_stability import critical_load_factors
 from tests.test_stability import combos, constant_forces
 
 E, G = 210e9, 81e9          # Pa, EN 1993-1-1 3.2.6(1)

@@ -20,7 +20,7 @@ import pytest
 from postproc.model.frame import Frame
 from postproc.model.members import design_members
 from postproc.model.results import Results
-from postproc.stability import critical_load_factors
+from postproc.stability.frame_stability import critical_load_factors
 
 E = 210e9                   # Pa, EN 1993-1-1 3.2.6(1)
 I_HEB200_Y = 5696e-8        # m4, handbook (from memory)

@@ -10,7 +10,7 @@ have opposite signs.
 Reference: a geometrically non-linear OpenSees analysis of the same model (PDelta transformation,
 Newton, 20 load steps), source OpenSees. The tool's side: a linear OpenSees analysis of the same
 model (forces and node displacements), the tool's own alpha_cr, the sway part separated by
-`postproc.stability_sway` and amplified by 1 / (1 - 1/alpha_cr).
+`postproc.stability.sway` and amplified by 1 / (1 - 1/alpha_cr).
 """
 
 from __future__ import annotations
@@ -22,7 +22,7 @@ import pytest
 from postproc.model.frame import Frame
 from postproc.model.members import design_members
 from postproc.model.results import Results
-from postproc.stability import (amplified_part, amplify_sway_effects, analysis_path,
+from postproc.stability.frame_stability import (amplified_part, amplify_sway_effects, analysis_path,
                                 critical_load_factors, sway_imperfection, sway_part)
 
 ops = pytest.importorskip("openseespy.opensees")
@@ -195,7 +195,7 @@ def test_amplified_sway_moments_come_with_non_sway_lengths():
     """5.2.2(8): with the sway effects amplified (and the imperfection in the forces) the
     columns are checked with their non-sway in-plane length, never a sway length on top; the
     same forces without the imperfection take sway lengths and are not amplified."""
-    from postproc.stability import buckling_lengths
+    from postproc.stability.frame_stability import buckling_lengths
 
     model = portal()
     frame = to_frame(model)

@@ -18,7 +18,7 @@ from .frame import Frame, element_vectors
 from .members import Members, member_axes
 from .results import FORCE_COLUMNS
 from ..settings import DesignSettings
-from ..stability_lengths import restraint_positions
+from ..stability.lengths import restraint_positions
 
 # Force columns that change sign when the member runs against the element (local y and x reverse)
 FLIP_SIGN = {"Vz_N", "Mz_Nm"}

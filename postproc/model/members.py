@@ -17,7 +17,7 @@ orientation, neither releases anything there, and the node is not held in every 
 model bends in (the in-plane direction of a plane frame; local y and z of a space frame).
 Everything else ends a member. So a lateral restraint alone, or a member framing in that holds
 nothing, leaves the member whole: its buckling lengths are split axis by axis at the points that
-hold that axis (`postproc.stability_lengths`). `groups` from the project file overrides this for
+hold that axis (`postproc.stability.lengths`). `groups` from the project file overrides this for
 the elements it names.
 
 Kinds, from orientation and connectivity (tilt = angle of the chord from the vertical):

@@ -763,7 +763,7 @@ def test_platform_diaphragm_reaches_the_buckling_analysis(tmp_path, diaphragm):
     from scipy.optimize import brentq
 
     from postproc.model.members import design_members
-    from postproc.stability import critical_load_factors
+    from postproc.stability.frame_stability import critical_load_factors
 
     script = PLATFORM.replace("{diaphragm}", str(diaphragm)).replace("{extra}", "pass")
     frame, res = run(tmp_path, script, platform_project())
@@ -793,7 +793,7 @@ def test_equal_freedoms_and_rigid_links_are_read(tmp_path):
     """equalDOF: the listed freedoms, equal; rigidLink 'beam': all six, rigid body; 'bar': the
     translations, equal (OpenSees' meaning of each). The frame they build stays analysable."""
     from postproc.model.members import design_members
-    from postproc.stability import critical_load_factors
+    from postproc.stability.frame_stability import critical_load_factors
 
     extra = ("ops.equalDOF(51, 52, 1, 2)\n"
              "    ops.node(101, 6.0, 9.0, 3.5)\n"
@@ -820,7 +820,7 @@ def test_ties_round_trip_through_the_tables(tmp_path):
     from adapters import tables
     from postproc.model.members import design_members
     from postproc.project import read_project
-    from postproc.stability import critical_load_factors
+    from postproc.stability.frame_stability import critical_load_factors
 
     script = PLATFORM.replace("{diaphragm}", "True").replace("{extra}", "pass")
     frame, results = run(tmp_path, script, platform_project())

@@ -36,10 +36,10 @@ from __future__ import annotations
 import numpy as np
 import pandas as pd
 
-from .errors import InputError
-from .model.frame import NODE_COLUMNS, Frame, local_axes, released
-from .model.members import Members, member_axes, moment_released
-from .model.results import Results
+from ..errors import InputError
+from ..model.frame import NODE_COLUMNS, Frame, local_axes, released
+from ..model.members import Members, member_axes, moment_released
+from ..model.results import Results
 
 E_STEEL = 210e9                       # Pa, EN 1993-1-1 3.2.6(1)
 COLLINEAR_COS = np.cos(np.radians(10.0))

@@ -1,14 +1,14 @@
 """Frame stability: alpha_cr, the analysis path, sway amplification and frame imperfections.
 
 - `critical_load_factors`: alpha_cr per ULS combination by linear eigenvalue buckling of the whole
-  frame (`postproc.stability_eigen`), and by the storey method of 5.2.1(4)B where its conditions
+  frame (`postproc.stability.eigen`), and by the storey method of 5.2.1(4)B where its conditions
   hold (`storey_alpha`).
 - `analysis_path`: 5.2.1(3) and 5.2.2: first-order, amplified, sway lengths, second-order in
   forces, second-order needed, unstable.
 - `amplified_part`, `amplify_sway_effects`: 5.2.2(5B), the sway part (from
-  `postproc.stability_sway`) amplified.
+  `postproc.stability.sway`) amplified.
 - `sway_imperfection`, `equivalent_horizontal_forces`, `bow_imperfections_needed`: 5.3.2.
-- `buckling_lengths` lives in `postproc.stability_lengths` and is re-exported here.
+- `buckling_lengths` lives in `postproc.stability.lengths` and is re-exported here.
 """
 
 from __future__ import annotations
@@ -18,14 +18,14 @@ import dataclasses
 import numpy as np
 import pandas as pd
 
-from .errors import InputError, TopologyError
-from .model.frame import NODE_COLUMNS, Frame, local_axes
-from .model.members import Members, member_axes, moment_released
-from .model.results import Results
-from .stability_eigen import (E_STEEL, SUB_PER_MEMBER, Mesh, buckling_modes, build_mesh,
+from ..errors import InputError, TopologyError
+from ..model.frame import NODE_COLUMNS, Frame, local_axes
+from ..model.members import Members, member_axes, moment_released
+from ..model.results import Results
+from .eigen import (E_STEEL, SUB_PER_MEMBER, Mesh, buckling_modes, build_mesh,
                               section_columns, translations)
-from .stability_sway import SwayPart, amplified_forces, sway_part  # noqa: F401
-from .stability_lengths import (buckling_lengths, effective_length_ratio,  # noqa: F401
+from .sway import SwayPart, amplified_forces, sway_part  # noqa: F401
+from .lengths import (buckling_lengths, effective_length_ratio,  # noqa: F401
                                 member_compression)
 
 ALPHA_FIRST_ORDER = 10.0    # 5.2.1(3), eq. (5.1), elastic analysis
@@ -287,7 +287,7 @@ def storey_alpha(frame: Frame, results: Results, members: Members, combos: list[
       include the equivalent horizontal forces where the forces carry them.
     - delta_H,Ed: the largest column drift of the storey under the horizontal loads alone,
       first-order: each level takes the difference of the storey shears below and above it,
-      shared by its column tops, on the frame's elastic stiffness (`postproc.stability_sway`).
+      shared by its column tops, on the frame's elastic stiffness (`postproc.stability.sway`).
       The displacements of the combination are not used: they hold the vertical loads' sway
       too, and may be second-order.
     - Not applicable (NaN with the reason): a space frame (the clause is for plane portals and
@@ -298,7 +298,7 @@ def storey_alpha(frame: Frame, results: Results, members: Members, combos: list[
 
     Returns (alpha_cr_storey (C,), note (C,)).
     """
-    from .stability_sway import LEVEL_TOL_M as TOP_TOL_M, unit_sway_cases
+    from .sway import LEVEL_TOL_M as TOP_TOL_M, unit_sway_cases
 
     n = len(combos)
     notes = np.full(n, "", dtype=object)
@@ -574,7 +574,7 @@ def amplify_sway_effects(results: Results, paths: pd.DataFrame, sway: SwayPart |
     (see `amplified_part`; where the column is absent, 'sway part' if `sway` is given, else
     'whole forces'):
     - 'sway part': F + (amplification - 1) F_sway for every force component, F_sway from
-      `postproc.stability_sway` (the frame held against sway, holding forces reversed);
+      `postproc.stability.sway` (the frame held against sway, holding forces reversed);
     - 'whole forces': shear forces and bending moments times the amplification; axial forces and
       torsion as they are.
     Other combinations are returned unchanged.

@@ -34,8 +34,8 @@ import scipy.linalg as sla
 import scipy.sparse as sp
 import scipy.sparse.linalg as spla
 
-from .errors import InputError, TopologyError
-from .model.frame import NODE_COLUMNS, RELEASABLE, Frame, element_vectors, local_axes, released
+from ..errors import InputError, TopologyError
+from ..model.frame import NODE_COLUMNS, RELEASABLE, Frame, element_vectors, local_axes, released
 
 E_STEEL = 210e9     # Pa, EN 1993-1-1 3.2.6(1)
 G_STEEL = 81e9      # Pa, EN 1993-1-1 3.2.6(1), G = E / (2 (1 + 0.3)) rounded as the standard does
