@@ -31,7 +31,7 @@ from .model.frame import Frame
 from .model.member_rows import build_member_rows
 from .model.members import Members, design_members
 from .model.results import Results
-from .sections.classification import section_class
+from .ec3.classification import section_class
 from .sections.effective import effective_properties_where
 from .row_reductions import row_any
 from .settings import DesignSettings

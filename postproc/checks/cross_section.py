@@ -51,7 +51,7 @@ import numpy as np
 from ..ec3 import cross_section as cs
 from ..ec3 import effective_resistance as er
 from ..errors import InputError
-from ..sections.classification import section_class
+from ..ec3.classification import section_class
 from ..sections.effective import STRESS_KEYS, parts_at_stress
 from . import effective_rows as eff_rows
 from ..model.rows import CheckBlock, MemberRows, at_station, no_reason, row_any

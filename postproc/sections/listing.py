@@ -9,7 +9,7 @@ import pandas as pd
 from ..materials import strengths
 from . import catalogue as cat
 from .builder import build_sections
-from .classification import epsilon, internal_part_limit_elastic, outstand_limit_elastic
+from ..ec3.classification import epsilon, internal_part_limit_elastic, outstand_limit_elastic
 from .effective import effective_properties
 
 GRADES = ("S235", "S275", "S355", "S460")
