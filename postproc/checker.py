@@ -33,7 +33,7 @@ from .model.members import Members, design_members
 from .model.results import Results
 from .ec3.classification import section_class
 from .sections.effective import effective_properties_where
-from .row_reductions import row_any
+from .numerics.row_reductions import row_any
 from .settings import DesignSettings
 from . import stability
 

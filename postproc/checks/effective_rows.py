@@ -10,7 +10,7 @@ from __future__ import annotations
 
 import numpy as np
 
-from ..row_reductions import row_any
+from ..numerics.row_reductions import row_any
 from ..sections.effective import effective_properties_where
 from ..model.rows import MemberRows
 

@@ -47,7 +47,7 @@ from ..ec3 import interaction_annex_b as annex_b
 from ..ec3 import effective_resistance as er
 from ..ec3 import moment_factors as mf
 from . import effective_rows as eff_rows
-from ..row_reductions import row_sum
+from ..numerics.row_reductions import row_sum
 from ..model.rows import CheckBlock, MemberRows, no_reason
 
 CLASS_4 = eff_rows.CLASS_4_NO_GEOMETRY

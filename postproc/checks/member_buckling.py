@@ -50,7 +50,7 @@ from ..ec3 import critical_moment as cm
 from ..ec3 import flexural_buckling as fb
 from ..ec3 import lateral_torsional as lt
 from . import effective_rows as eff_rows
-from ..row_reductions import row_any, row_sum
+from ..numerics.row_reductions import row_any, row_sum
 from ..model.rows import CheckBlock, MemberRows, no_reason
 
 MAX_SEGMENTS = 64  # equal parts of L_LT at most (restraint points: every span)

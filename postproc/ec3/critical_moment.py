@@ -37,10 +37,10 @@ from __future__ import annotations
 
 import numpy as np
 
-from ..row_reductions import row_all as _row_all
-from ..row_reductions import row_any as _row_any
-from ..row_reductions import row_max as _row_max
-from ..row_reductions import row_sum as _row_count
+from ..numerics.row_reductions import row_all as _row_all
+from ..numerics.row_reductions import row_any as _row_any
+from ..numerics.row_reductions import row_max as _row_max
+from ..numerics.row_reductions import row_sum as _row_count
 
 N_TERMS = 8  # sine terms per field: within about 1 % of 24 terms (see the tests)
 _MAX_GROUPS = 64  # beyond this many station patterns, integrate row by row instead

@@ -26,11 +26,11 @@ from __future__ import annotations
 import numpy as np
 import pandas as pd
 
-from ..row_reductions import row_any as _row_any
-from ..row_reductions import row_argmax as _row_argmax
-from ..row_reductions import row_cumsum as _row_cumsum
-from ..row_reductions import row_max as _row_max
-from ..row_reductions import row_sum as _row_sum
+from ..numerics.row_reductions import row_any as _row_any
+from ..numerics.row_reductions import row_argmax as _row_argmax
+from ..numerics.row_reductions import row_cumsum as _row_cumsum
+from ..numerics.row_reductions import row_max as _row_max
+from ..numerics.row_reductions import row_sum as _row_sum
 
 LINEAR, SPAN_SMALLER, SPAN_LARGER, NO_MOMENT, INVALID = (
     "linear", "span moment smaller than end moment", "span moment larger than end moment",

@@ -11,7 +11,7 @@ from dataclasses import dataclass, field, fields
 
 import numpy as np
 
-from ..row_reductions import row_any
+from ..numerics.row_reductions import row_any
 
 from ..settings import DesignSettings
 
