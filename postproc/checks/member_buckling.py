@@ -50,7 +50,7 @@ from ..ec3 import critical_moment as cm
 from ..ec3 import flexural_buckling as fb
 from ..ec3 import lateral_torsional as lt
 from . import effective_rows as eff_rows
-from ..numerics.row_reductions import row_any, row_sum
+from ..numerics.row_reductions import row_any, row_max, row_sum
 from ..model.rows import CheckBlock, MemberRows, no_reason
 
 MAX_SEGMENTS = 64  # equal parts of L_LT at most (restraint points: every span)
@@ -80,8 +80,8 @@ def _member_class(rows: MemberRows) -> np.ndarray:
         return np.full(rows.n_rows, np.nan)
     cls = np.where(rows.valid, np.asarray(cls, float), np.nan)
     unknown = ((cls == 0) | np.isnan(cls)) & rows.valid
-    worst = cm._row_max(np.where(np.isnan(cls), 0.0, cls))
-    return np.where(cm._row_any(unknown) | (worst == 0), np.nan, worst)
+    worst = row_max(np.where(np.isnan(cls), 0.0, cls))
+    return np.where(row_any(unknown) | (worst == 0), np.nan, worst)
 
 
 def _info(rows: MemberRows, key: str, default: float) -> np.ndarray:
@@ -458,8 +458,8 @@ def lateral_torsional_checks(rows: MemberRows) -> list[CheckBlock]:
     b = _buckling(rows)
     st = rows.settings
     My = np.where(rows.valid, rows.My, 0.0)
-    nan_force = cm._row_any(np.isnan(rows.My) & rows.valid)
-    bent = cm._row_any(np.abs(np.nan_to_num(My)) > 0) | nan_force
+    nan_force = row_any(np.isnan(rows.My) & rows.valid)
+    bent = row_any(np.abs(np.nan_to_num(My)) > 0) | nan_force
     applies = bent & np.asarray(b["ltb_susceptible"], bool)
     reason = np.asarray(b.get("reason_LT", b["reason"]), dtype=object).copy()
     _add(reason, nan_force, "bending moment M_y not known at some station")

@@ -16,6 +16,7 @@ import numpy as np
 import pytest
 
 from postproc.ec3 import critical_moment as cm
+from postproc.numerics import rayleigh_ritz as rr
 
 E, G = 210e9, 81e9  # EN 1993-1-1 3.2.6
 I_z, I_t, I_w = 604e-8, 20.1e-8, 126e-9  # IPE 300, REFERENCES.md (from memory)
@@ -173,12 +174,12 @@ def test_per_row_path_matches_grouped_path(monkeypatch):
     xi[:, 0], xi[:, -1] = 0.0, 1.0
     M = rng.normal(size=(R, 5)) * 1e5
     grouped = cm.M_cr(xi, M, 6.0, E, G, I_z, I_t, I_w, z_g=np.full(R, 0.1))
-    monkeypatch.setattr(cm, "_MAX_GROUPS", 4)
+    monkeypatch.setattr(rr, "MAX_GROUPS", 4)
     per_row = cm.M_cr(xi, M, 6.0, E, G, I_z, I_t, I_w, z_g=np.full(R, 0.1))
     # both integrate the piecewise-linear diagram exactly: same matrices up to rounding
     np.testing.assert_allclose(per_row, grouped, rtol=1e-7)
     plain_g = cm.M_cr(xi, M, 6.0, E, G, I_z, I_t, I_w)
-    monkeypatch.setattr(cm, "_MAX_GROUPS", 64)
+    monkeypatch.setattr(rr, "MAX_GROUPS", 64)
     plain = cm.M_cr(xi, M, 6.0, E, G, I_z, I_t, I_w)
     # float32 power iteration: agreement to its certificate tolerance, not to rounding
     np.testing.assert_allclose(plain_g, plain, rtol=1e-5)
@@ -202,7 +203,7 @@ def test_largest_eigenvalue_certificate_and_fallback():
     Q, _ = np.linalg.qr(rng.normal(size=(6, 6)))
     A[0] = Q @ np.diag([2.0, 2.0, 1.0, 0.5, 0.1, 0.0]) @ Q.T
     A[1] = 0.0
-    got = cm.largest_eigenvalue_psd(A)
+    got = rr.largest_eigenvalue_psd(A)
     exact = np.linalg.eigvalsh(A)[:, -1]
     # the certified result is an upper bound within tol * trace; 1e-3 covers tol * n
     assert np.all(got >= exact * (1 - 1e-6))
@@ -213,7 +214,7 @@ def test_station_patterns_group_equal_rows():
     # rows repeating three station patterns (with padding) are grouped as whole-row sorting would
     base = np.array([[0.0, 0.5, 1.0, np.inf], [-1.0, 0.0, 1.0, 2.0], [0.0, 0.25, 1.0, np.inf]])
     pick = np.random.default_rng(5).integers(0, 3, 200)
-    patterns, inverse = cm._station_patterns(base[pick])
+    patterns, inverse = rr.station_patterns(base[pick])
     assert patterns.shape[0] == 3
     np.testing.assert_array_equal(patterns[inverse], base[pick])
 
@@ -234,12 +235,12 @@ def test_repeated_station_at_an_element_joint():
     M = fn(rows)
     z = np.full(rows.shape[0], 0.15)
     grouped = cm.M_cr(rows, M, 6.0, E, G, I_z, I_t, I_w, z_g=z)
-    saved = cm._MAX_GROUPS
+    saved = rr.MAX_GROUPS
     try:
-        cm._MAX_GROUPS = 1
+        rr.MAX_GROUPS = 1
         per_row = cm.M_cr(rows, M, 6.0, E, G, I_z, I_t, I_w, z_g=z)
     finally:
-        cm._MAX_GROUPS = saved
+        rr.MAX_GROUPS = saved
     np.testing.assert_allclose(per_row, grouped, rtol=1e-9)
 
 
@@ -255,7 +256,7 @@ def test_load_height_fast_solution_is_certified_from_below(monkeypatch):
     def never_certified(A, Q, **kw):
         return np.full(A.shape[0], np.nan), np.zeros(A.shape[0], bool)
 
-    monkeypatch.setattr(cm, "smallest_root_quadratic", never_certified)
+    monkeypatch.setattr(rr, "smallest_root_quadratic", never_certified)
     exact = cm.M_cr(xi, M, 6.0, E, G, I_z, I_t, I_w, z_g=z_g)
     # certified values lie below the exact ones by at most the certificate's margin (0.1 %)
     assert np.all(fast <= exact * (1 + 1e-9))
