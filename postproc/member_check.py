@@ -13,7 +13,8 @@ import numpy as np
 import pandas as pd
 
 from . import materials
-from .checker import CHECK_FAMILIES, _with_member_info, results_table
+from .checker import CHECK_FAMILIES, results_table
+from .checks.member_info import with_member_info
 from .model.rows import MemberRows
 from .errors import InputError
 from .model.member_rows import member_properties
@@ -121,7 +122,7 @@ def check_member(section: str | dict, grade: str = "S355", *, length: float,
         section=section_arrays, f_y=f_y, f_u=f_u,
         E=np.array([materials.E]), G=np.array([materials.G]), lengths=lengths, info=info,
         settings=settings)
-    rows = _with_member_info(rows, None)
+    rows = with_member_info(rows, None)
     blocks = [b for family in CHECK_FAMILIES for b in family(rows)]
     table = results_table(rows, blocks, settings.utilisation_limit)
     buckling = {k: np.asarray(v)[0] for k, v in rows.info["buckling"].items()}

@@ -11,7 +11,7 @@ from __future__ import annotations
 import numpy as np
 import pandas as pd
 
-from .checker import CheckOutcome
+from .model.outcome import CheckOutcome
 from .model.frame import Frame
 from .model.results import Results
 

@@ -8,7 +8,8 @@ from pathlib import Path
 
 import pandas as pd
 
-from .checker import CheckOutcome, check_frame
+from .checker import check_frame
+from .model.outcome import CheckOutcome
 from .model.frame import Frame
 from .plausibility import COLUMNS, numerical_warnings, plausibility_warnings
 from .project import Project, read_project

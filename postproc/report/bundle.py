@@ -9,7 +9,7 @@ from pathlib import Path
 import numpy as np
 import pandas as pd
 
-from ..checker import CheckOutcome
+from ..model.outcome import CheckOutcome
 from .cells import formula_safe_table
 from .display import to_display
 from .links import member_slug

@@ -15,7 +15,7 @@ import numpy as np
 import pandas as pd
 
 from .. import CAUTION, __version__
-from ..checker import CheckOutcome
+from ..model.outcome import CheckOutcome
 from ..model.rows import FAIL, NOT_EVALUATED, PASS
 from .colours import utilisation_colour
 from .display import to_display

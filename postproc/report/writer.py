@@ -23,7 +23,7 @@ from pathlib import Path
 
 import pandas as pd
 
-from ..checker import CheckOutcome
+from ..model.outcome import CheckOutcome
 from ..errors import InputError
 from .bundle import REPORT_FILES, write_report_outputs
 from .cells import formula_safe_table
