@@ -18,7 +18,7 @@ GEOMETRY_TOL = 1e-9     # lengths are sums of chord lengths: exact to round-off
 
 
 def sections() -> pd.DataFrame:
-    """IPE 300 and HEB 200, handbook values of /work/shared/REFERENCES.md (from memory), SI."""
+    """IPE 300 and HEB 200, handbook values of docs/references.md (from memory), SI."""
     return pd.DataFrame({
         "A": [53.8e-4, 78.1e-4], "I_y": [8356e-8, 5696e-8], "I_z": [604e-8, 2003e-8],
         "I_t": [20.1e-8, 59.3e-8], "I_w": [126e-9, 171e-9], "shape": ["I", "I"],

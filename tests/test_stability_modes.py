@@ -14,7 +14,7 @@ Sources of the expected values:
   test. It is exact for the eigenproblem here: a straight-line (chord) displacement and a bow
   that vanishes at both ends are orthogonal in both the bending and the geometric stiffness
   (integral of w' over the member is zero), so the bows of the members do not enter the sway mode.
-- Sections: handbook values, REFERENCES.md (from memory); E = 210 GPa, EN 1993-1-1 3.2.6.
+- Sections: handbook values, docs/references.md (from memory); E = 210 GPa, EN 1993-1-1 3.2.6.
 """
 
 from __future__ import annotations
@@ -32,7 +32,7 @@ from tests.test_stability import (FIXED, I_HEB200_Y, PINNED, combos, constant_fo
                                   portal)
 
 E = 210e9                   # Pa, EN 1993-1-1 3.2.6(1)
-A_IPE300, I_IPE300_Z = 53.8e-4, 604e-8      # m2, m4, handbook (REFERENCES.md, from memory)
+A_IPE300, I_IPE300_Z = 53.8e-4, 604e-8      # m2, m4, handbook (docs/references.md, from memory)
 A_STIFF = 1.0               # the modelling device of tests/test_stability.sections()
 CLOSED_FORM_REL = 0.01      # four cubic elements per member err by ~0.1 %
 

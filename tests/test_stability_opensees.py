@@ -10,7 +10,7 @@ Reference for amplified moments: a geometrically non-linear (P-Delta, Newton) Op
 the same frame under the same loads, against the first-order OpenSees moments times
 1/(1 - 1/alpha_cr) (5.2.2(5B)). The tool's own alpha_cr is used for the amplification.
 
-Frames are invented (a two-bay shed frame); sections from /work/shared/REFERENCES.md.
+Frames are invented (a two-bay shed frame); sections from docs/references.md.
 """
 
 from __future__ import annotations
@@ -33,7 +33,7 @@ ALPHA_REL = 0.02                # the brief's 2 %: both sides are discretised di
 MOMENT_REL = 0.05               # the brief's 5 %: 1/(1 - 1/alpha_cr) is an approximation
 PARTS = 10                      # elements per member in both models
 
-SECTIONS = pd.DataFrame({       # handbook values, REFERENCES.md (from memory), SI
+SECTIONS = pd.DataFrame({       # handbook values, docs/references.md (from memory), SI
     "A": [78.1e-4, 53.8e-4], "I_y": [5696e-8, 8356e-8], "I_z": [2003e-8, 604e-8],
     "I_t": [59.3e-8, 20.1e-8], "I_w": [171e-9, 126e-9], "shape": ["I", "I"],
 }, index=pd.Index(["HEB 200", "IPE 300"], name="section"))

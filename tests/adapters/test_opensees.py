@@ -53,7 +53,7 @@ def build_model():
     ops.fix(1, 1, 1, {fix_rot})
     ops.fix(n + 1, 0, 1, 0)
     ops.geomTransf('Linear', 1)
-    ops.section('Elastic', 7, 2.1e11, 53.8e-4, 8356e-8)   # IPE 300 (REFERENCES.md)
+    ops.section('Elastic', 7, 2.1e11, 53.8e-4, 8356e-8)   # IPE 300 (docs/references.md)
     for k in range(n):
         ops.element('elasticBeamColumn', k + 1, k + 1, k + 2, 7, 1)
     ops.timeSeries('Linear', 1)
@@ -179,7 +179,7 @@ def build_model():
     ops.node(1, 0.0, 0.0, 0.0); ops.node(2, 0.0, 0.0, 3.0)
     ops.fix(1, 1, 1, 1, 1, 1, 1)
     ops.geomTransf('Linear', 1, *{vecxz})
-    # HEB 200, I_y (major) 5696 cm4, I_z 2003 cm4 (REFERENCES.md): A E G J Iy Iz
+    # HEB 200, I_y (major) 5696 cm4, I_z 2003 cm4 (docs/references.md): A E G J Iy Iz
     ops.element('elasticBeamColumn', 1, 1, 2, 78.1e-4, 2.1e11, 8.1e10, 59.3e-8, {Iy}, {Iz}, 1)
     ops.timeSeries('Linear', 1)
     ops.pattern('Plain', 1, 1)
@@ -348,7 +348,7 @@ def build_model():
         ops.node(k + 1, 0.0, k * L / n)
     ops.fix(1, 1, 1, 1)
     ops.geomTransf('Linear', 1)
-    ops.section('Elastic', 1, 2.1e11, 78.1e-4, 5696e-8)   # HEB 200 (REFERENCES.md)
+    ops.section('Elastic', 1, 2.1e11, 78.1e-4, 5696e-8)   # HEB 200 (docs/references.md)
     for k in range(n):
         ops.element('elasticBeamColumn', k + 1, k + 1, k + 2, 1, 1)
     ops.timeSeries('Linear', 1)

@@ -1,13 +1,13 @@
 """Numerical elastic critical moment M_cr (Rayleigh-Ritz) against closed forms and published C1.
 
-Outside values (REFERENCES.md): the closed form of M_cr for uniform moment with fork supports
+Outside values (docs/references.md): the closed form of M_cr for uniform moment with fork supports
 (textbook elastic stability); IPE 300 handbook properties ("from memory" there); C1 for end moments
 psi = 0.5 (1.31) and psi = 0 (1.77), a uniformly distributed load (1.13) and a central point load
-(1.35), "from memory" as REFERENCES.md marks them. Published C1 values are for a small torsion
+(1.35), "from memory" as docs/references.md marks them. Published C1 values are for a small torsion
 parameter (long members): these tests use a 12 m span, where the exact values still lie within
 about 2 % of them; hence the 3 % tolerance. The load-height factors C2 = 0.45 (uniform load) and
 0.55 (central point load) of the three-factor formula are recalled "from memory", not from
-REFERENCES.md.
+docs/references.md.
 """
 
 from __future__ import annotations
@@ -19,13 +19,13 @@ from postproc.ec3 import critical_moment as cm
 from postproc.numerics import rayleigh_ritz as rr
 
 E, G = 210e9, 81e9  # EN 1993-1-1 3.2.6
-I_z, I_t, I_w = 604e-8, 20.1e-8, 126e-9  # IPE 300, REFERENCES.md (from memory)
+I_z, I_t, I_w = 604e-8, 20.1e-8, 126e-9  # IPE 300, docs/references.md (from memory)
 CLOSED_FORM = 0.01  # brief: within 1 % of the closed form for uniform moment
 PUBLISHED_C1 = 0.03  # brief: within 3 % of the published C1 (recalled values)
 
 
 def closed_form(L, k=1.0, k_w=1.0):
-    """REFERENCES.md: M_cr = pi^2 E I_z / L^2 sqrt(I_w / I_z + L^2 G I_t / (pi^2 E I_z)), with
+    """docs/references.md: M_cr = pi^2 E I_z / L^2 sqrt(I_w / I_z + L^2 G I_t / (pi^2 E I_z)), with
     the effective-length factors of the three-factor formula (common practice)."""
     return (np.pi**2 * E * I_z / (k * L) ** 2
             * np.sqrt((k / k_w) ** 2 * I_w / I_z + (k * L) ** 2 * G * I_t / (np.pi**2 * E * I_z)))
