@@ -18,6 +18,8 @@ import dataclasses
 import numpy as np
 import pandas as pd
 
+from ..ec3.global_analysis import (alpha_cr_storey, equivalent_horizontal_force, sway_amplification,
+                                   sway_imperfection_factors)
 from ..errors import InputError, TopologyError
 from ..model.frame import NODE_COLUMNS, Frame, local_axes
 from ..model.members import Members, member_axes, moment_released
@@ -382,7 +384,7 @@ def storey_alpha(frame: Frame, results: Results, members: Members, combos: list[
             for ai, a in enumerate(horiz):
                 delta = np.abs(drift[k, a]).max()
                 if V[si] > 0 and abs(H[si, ai]) > 1e-6 * V[si] and delta > 0:
-                    best = min(best, abs(H[si, ai]) / V[si] * h[k][0] / delta)
+                    best = min(best, alpha_cr_storey(H[si, ai], V[si], h[k][0], delta))
         if np.isfinite(best):
             alpha[c] = best
             notes[c] = (f"lowest of {len(S)} storey(s); drift under the horizontal loads alone, "
@@ -510,7 +512,7 @@ def analysis_path(alpha: pd.DataFrame, combinations: pd.DataFrame) -> pd.DataFra
                       "imperfection (5.3.2): first-order forces as they are, members in the sway "
                       "mode checked with sway buckling lengths (5.2.2(3)c, 5.2.2(8))")
         elif a >= ALPHA_AMPLIFY_MIN:
-            path, amp = "amplified", 1.0 / (1.0 - 1.0 / a)
+            path, amp = "amplified", sway_amplification(a)
             reason = (f"{source} = {a:.2f} in 3..10: sway effects amplified by "
                       f"1/(1 - 1/alpha_cr) = {amp:.3f} (5.2.2(5B)), members checked with "
                       "non-sway buckling lengths (5.2.2(8))")
@@ -649,9 +651,8 @@ def sway_imperfection(frame: Frame, *, m: int | None = None, h: float | None = N
     if m < 1:
         raise InputError(f"m = {m} must be at least 1", field="m")
     phi_0 = 1.0 / 200.0
-    alpha_h = float(np.clip(2.0 / np.sqrt(h), 2.0 / 3.0, 1.0))
-    alpha_m = float(np.sqrt(0.5 * (1.0 + 1.0 / m)))
-    return {"phi": phi_0 * alpha_h * alpha_m, "phi_0": phi_0, "alpha_h": alpha_h,
+    phi, alpha_h, alpha_m = (float(v) for v in sway_imperfection_factors(h, m, phi_0=phi_0))
+    return {"phi": phi, "phi_0": phi_0, "alpha_h": alpha_h,
             "alpha_m": alpha_m, "h_m": float(h), "m": int(m), "note": "; ".join(notes)}
 
 
@@ -686,7 +687,7 @@ def equivalent_horizontal_forces(frame: Frame, vertical_node_loads: pd.DataFrame
                              row=k, field="V_N")
     if not (np.isfinite(phi) and phi >= 0):
         raise InputError(f"phi = {phi} must be a non-negative number", field="phi")
-    H = (1.0 if direction[0] == "+" else -1.0) * phi * V
+    H = (1.0 if direction[0] == "+" else -1.0) * equivalent_horizontal_force(phi, V)
     zero = np.zeros(len(V))
     # in a plane frame the horizontal axis is X; in a space frame X or Y, Z being vertical
     fx = H if direction[1] == "X" else zero
