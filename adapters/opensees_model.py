@@ -29,6 +29,11 @@ import pandas as pd
 
 from postproc.errors import InputError
 
+__all__ = ["BEAM_TYPES", "Captured", "DIAPHRAGM_DOFS", "DOF_NAMES", "ELEMENT_LOAD_COLUMNS",
+           "LOAD_CLASSES", "ScriptTimeLimit", "TIE_COMMANDS", "TRUSS_TYPES", "WATCHED", "Watched",
+           "axis_map", "import_opensees", "read_domain", "run_user_model", "tie_table",
+           "time_limit", "to_en", "watching"]
+
 # element class names read (eleType) -> kind
 BEAM_TYPES = {"ElasticBeam2d", "ElasticBeam3d", "ForceBeamColumn2d", "ForceBeamColumn3d",
               "DispBeamColumn2d", "DispBeamColumn3d"}

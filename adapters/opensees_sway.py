@@ -24,6 +24,8 @@ from postproc.model.frame import Frame
 from .opensees_model import Captured
 from .opensees_run import Job
 
+__all__ = ["TINY", "jobs", "node_loads_global"]
+
 TINY = 1e-6  # net horizontal load below TINY times the vertical load counts as none
 
 

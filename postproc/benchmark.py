@@ -44,6 +44,9 @@ from .model.results import FORCE_COLUMNS
 from .sections import build_sections
 from .settings import DesignSettings
 
+__all__ = ["DESIGNATIONS", "KEEP_STAGE", "Kept", "ROWS_STAGE", "STAGE_LABELS", "STATIONS",
+           "STATUS_CODES", "main", "run_checks", "synthetic_model"]
+
 STATIONS = 5
 ROWS_STAGE = "member rows"
 KEEP_STAGE = "keep"

@@ -46,6 +46,12 @@ import pandas as pd
 from .errors import InputError
 from .model.results import FORCE_COLUMNS
 
+__all__ = ["CATEGORIES", "COMBINATION_KEYS", "FACTORS_COLUMNS", "FAVOURABLE_PERMANENT",
+           "GENERATION_KEYS", "MAX_COMBINATIONS", "METHODS", "PERMANENT", "PSI", "TABLE_A1_2B",
+           "check_cases", "combination_note", "explicit_combinations", "load_case_table",
+           "project_combinations", "psi_factors", "sls_characteristic_combinations", "sls_count",
+           "superpose", "uls_combinations", "uls_count"]
+
 PERMANENT = "permanent"
 
 # EN 1990:2002, Table A1.1, recommended (psi_0, psi_1, psi_2) for buildings.

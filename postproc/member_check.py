@@ -21,6 +21,8 @@ from .model.member_rows import member_properties
 from .sections import build_sections
 from .settings import DesignSettings
 
+__all__ = ["check_member"]
+
 
 def check_member(section: str | dict, grade: str = "S355", *, length: float,
                  N_Ed: float = 0.0, My_ends: tuple[float, float] = (0.0, 0.0),

@@ -15,6 +15,10 @@ from .model.outcome import CheckOutcome
 from .model.frame import Frame
 from .model.results import Results
 
+__all__ = ["ALPHA_CR_LOW", "COLUMNS", "ELEMENT_SHORT_M", "FORCE_HIGH_N", "MOMENT_HIGH_NM",
+           "SHEAR_MISMATCH", "SHEAR_SEGMENTS", "STOREY_HEIGHT_HIGH_M", "UTILISATION_HIGH",
+           "UTILISATION_LOW", "numerical_warnings", "plausibility_warnings"]
+
 ALPHA_CR_LOW = 0.1        # a frame this far below its critical load cannot stand: units or model
 STOREY_HEIGHT_HIGH_M = 100.0   # a column longer than this suggests coordinates in mm read as m
 ELEMENT_SHORT_M = 0.01    # elements shorter than 10 mm suggest coordinates in m read as mm

@@ -21,6 +21,12 @@ from .errors import InputError
 from .model.members import RESTRAINT_DIRECTIONS
 from .settings import DesignSettings
 
+__all__ = ["CONFIG", "Combinations", "ExtraCombination", "Factor", "Imperfection", "Length",
+           "LoadCase", "MemberOverride", "Name", "OVERRIDE_KEYS", "OpenSeesModel", "P_DELTA_ONLY",
+           "ProjectFile", "ROUTES", "ROUTE_ONLY_TABLES", "Restraint", "SCRIPT_TIME_LIMIT_S",
+           "Strict", "TABLE_FILES", "TablesModel", "UNREAD_BY_METHOD", "Units", "design_model",
+           "known_keys", "validate_design", "validate_project"]
+
 CONFIG = ConfigDict(extra="forbid", strict=True, allow_inf_nan=False)
 Name = Annotated[str, BeforeValidator(lambda v: str(v) if isinstance(v, int)
                                       and not isinstance(v, bool) else v)]

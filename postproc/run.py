@@ -16,6 +16,8 @@ from .project import Project, read_project
 from .report.progress import QUIET, Stages
 from .model.results import Results
 
+__all__ = ["RunOutput", "forces_source", "load_model", "run_project"]
+
 
 @dataclass(frozen=True)
 class RunOutput:

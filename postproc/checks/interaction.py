@@ -50,6 +50,8 @@ from . import effective_rows as eff_rows
 from ..numerics.row_reductions import row_sum
 from ..model.rows import CheckBlock, MemberRows, no_reason
 
+__all__ = ["BUCKLING_KEYS", "CLASS_4", "N_BASIS", "interaction_checks"]
+
 CLASS_4 = eff_rows.CLASS_4_NO_GEOMETRY
 BUCKLING_KEYS = ("chi_y", "chi_z", "chi_LT", "lambda_bar_y", "lambda_bar_z", "N_cr_y_N",
                  "N_cr_z_N", "N_cr_T_N", "M_cr_0_Nm", "C_1", "ltb_susceptible",

@@ -53,6 +53,10 @@ from . import effective_rows as eff_rows
 from ..numerics.row_reductions import row_any, row_max, row_sum
 from ..model.rows import CheckBlock, MemberRows, no_reason
 
+__all__ = ["CLASS_4", "CLASS_UNKNOWN", "GENERIC", "GIVEN_LENGTH", "MAX_SEGMENTS", "NO_POSITIONS",
+           "POINT_TOL_M", "REAL_SPANS", "SEGMENT_BASIS", "buckling_values",
+           "flexural_buckling_checks", "lateral_torsional_checks"]
+
 MAX_SEGMENTS = 64  # equal parts of L_LT at most (restraint points: every span)
 POINT_TOL_M = 1e-6  # restraint points closer than this count as one; at an end, as the end
 # how a row's lateral-torsional buckling segments were found (index into SEGMENT_BASIS)

@@ -42,6 +42,10 @@ from __future__ import annotations
 
 import numpy as np
 
+__all__ = ["Array", "chs_limits", "class_from_limits", "epsilon", "internal_part_limit_elastic",
+           "internal_part_limits_plastic", "k_sigma_outstand", "outstand_limit_elastic",
+           "outstand_limits_plastic", "section_class"]
+
 Array = np.ndarray
 _TINY = 1e-9  # a moment below 1e-9 f_y W counts as zero (pure compression or pure tension)
 _PART_NAMES = np.array(["unknown", "web", "flange", "wall", "given"], dtype=object)

@@ -20,6 +20,8 @@ from .results import FORCE_COLUMNS
 from ..settings import DesignSettings
 from ..stability.lengths import restraint_positions
 
+__all__ = ["FLIP_SIGN", "LENGTH_KEYS", "build_member_rows", "member_properties"]
+
 # Force columns that change sign when the member runs against the element (local y and x reverse)
 FLIP_SIGN = {"Vz_N", "Mz_Nm"}
 LENGTH_KEYS = ("L_cr_y", "L_cr_z", "L_cr_T", "L_LT")

@@ -56,6 +56,11 @@ import pandas as pd
 from ..errors import InputError, TopologyError
 from .frame import NODE_COLUMNS, Frame, element_vectors, local_axes, released
 
+__all__ = ["BEAM_MAX_SLOPE_DEG", "COLLINEAR_COS", "COLUMN_MAX_TILT_DEG", "FAR_END_WALK_LIMIT",
+           "FRAMING_MIN_COMPONENT", "Members", "RAFTER_MAX_SLOPE_DEG", "RESTRAINT_DIRECTIONS",
+           "design_members", "in_plane_moment", "member_axes", "moment_released",
+           "one_member_per_element"]
+
 COLLINEAR_COS = np.cos(np.radians(1.0))     # chords within 1 degree count as collinear
 COLUMN_MAX_TILT_DEG = 10.0                  # from the vertical
 BEAM_MAX_SLOPE_DEG = 3.0                    # from the horizontal

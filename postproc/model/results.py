@@ -21,6 +21,9 @@ from dataclasses import dataclass
 
 import pandas as pd
 
+__all__ = ["COMBINATION_COLUMNS", "DISPLACEMENT_COLUMNS", "FORCE_COLUMNS", "FORCE_KEYS", "Results",
+           "empty_combinations"]
+
 FORCE_COLUMNS = ["N_N", "Vy_N", "Vz_N", "T_Nm", "My_Nm", "Mz_Nm"]
 FORCE_KEYS = ["combination", "element", "x_m"]
 DISPLACEMENT_COLUMNS = ["ux_m", "uy_m", "uz_m", "rx_rad", "ry_rad", "rz_rad"]

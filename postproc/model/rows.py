@@ -15,6 +15,9 @@ from ..numerics.row_reductions import row_any
 
 from ..settings import DesignSettings
 
+__all__ = ["CheckBlock", "FAIL", "MemberRows", "NOT_EVALUATED", "PASS", "at_station",
+           "block_concat", "governing", "no_reason", "rows_concat", "rows_slice"]
+
 PASS, FAIL, NOT_EVALUATED = "pass", "fail", "not evaluated"
 
 

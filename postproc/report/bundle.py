@@ -21,6 +21,9 @@ from .spreadsheet import write_parquet, write_workbook
 from .summaries import member_grouping
 from .views import governing_checks
 
+__all__ = ["REPORT_FILES", "SHEET_ROW_COLUMNS", "csv_wanted", "member_records", "member_slices",
+           "ordered_summary", "write_report_outputs"]
+
 REPORT_FILES = {
     "report.html": "the report: summary, the frame drawn, members, stability, settings, sheets",
     "utilisation.parquet": "every (member, combination, check) with all intermediate values (SI)",

@@ -19,6 +19,9 @@ from ..model.members import Members
 from .colours import NOT_EVALUATED_COLOUR, VIRIDIS, utilisation_colour
 from .links import sheet_href
 
+__all__ = ["HEIGHT", "LINE", "MARGIN", "VIEW_TITLES", "WIDTH", "default_views", "frame_svg",
+           "legend_svg", "member_polylines", "projected", "short_label"]
+
 VIEW_TITLES = {"elevation": "elevation", "axonometric": "axonometric view", "plan": "plan",
                "elevation-x": "elevation looking along Y", "elevation-y": "elevation looking along X"}
 WIDTH, HEIGHT, MARGIN = 960.0, 560.0, 40.0

@@ -24,6 +24,10 @@ from .links import sheet_href
 from .options import ReportOptions
 from .page_style import SCRIPT, STYLE
 
+__all__ = ["STATUS_TEXT", "combination_shading", "combinations_html", "drawings", "esc",
+           "failing_by_combination", "histogram_svg", "member_shading", "members_table", "page",
+           "paged_table", "report_html", "sheet_page"]
+
 esc = html.escape
 STATUS_TEXT = {PASS: "pass", FAIL: "&#10007; FAIL", NOT_EVALUATED: "? not evaluated"}
 

@@ -7,6 +7,8 @@ import pandas as pd
 
 from ..model.rows import FAIL, NOT_EVALUATED, PASS
 
+__all__ = ["failures_by_combination", "member_grouping", "member_summary"]
+
 
 def member_summary(table: pd.DataFrame, members: pd.DataFrame) -> pd.DataFrame:
     """One row per member: largest utilisation, governing combination, check and clause, status.

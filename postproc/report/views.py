@@ -8,6 +8,8 @@ import pandas as pd
 
 from ..model.rows import NOT_EVALUATED
 
+__all__ = ["combination_utilisations", "governing_checks", "not_evaluated_cells"]
+
 
 def governing_checks(table: pd.DataFrame) -> pd.DataFrame:
     """One row per (member, check): the evaluated row of largest utilisation, or where the check

@@ -32,6 +32,10 @@ from .options import ReportOptions
 from .progress import QUIET, Stages
 from .summaries import failures_by_combination, member_grouping, member_summary
 
+__all__ = ["ERROR_LOG", "FAILED_NOTE", "OUTPUT_FILES", "OWN_FILES", "REPLACED", "STAGING",
+           "discard_outputs", "prepare_output", "remove_leftovers", "write_error_log",
+           "write_outputs"]
+
 OUTPUT_FILES = {
     "summary.csv": "one row per member: largest utilisation, governing combination and check",
     "failures.csv": "overstressed members by combination",

@@ -30,6 +30,13 @@ from .sway import SwayPart, amplified_forces, sway_part  # noqa: F401
 from .lengths import (buckling_lengths, effective_length_ratio,  # noqa: F401
                                 member_compression)
 
+__all__ = ["ALPHA_AMPLIFY_MIN", "ALPHA_FIRST_ORDER", "COLUMN_TILT_COS", "LEVEL_TOL_M",
+           "MODES_FIRST", "MODES_MAX", "ModeGauge", "PATHS", "STOREY_RAFTER_N_CR_SHARE",
+           "STOREY_ROOF_SLOPE", "SWAY_DRIFT_SHARE_MIN", "amplified_part", "amplify_sway_effects",
+           "analysis_path", "axial_at", "bow_imperfections_needed", "critical_load_factors",
+           "equivalent_horizontal_forces", "is_sway", "storey_alpha", "sub_elements",
+           "sway_imperfection"]
+
 ALPHA_FIRST_ORDER = 10.0    # 5.2.1(3), eq. (5.1), elastic analysis
 ALPHA_AMPLIFY_MIN = 3.0     # 5.2.2(5B)
 LEVEL_TOL_M = 0.01          # column ends within 10 mm count as one level

@@ -41,6 +41,10 @@ from ..model.frame import NODE_COLUMNS, Frame, local_axes, released
 from ..model.members import Members, member_axes, moment_released
 from ..model.results import Results
 
+__all__ = ["COLLINEAR_COS", "E_STEEL", "FAR_END_FACTOR", "FRAME_MODE_ORIGIN", "OVERRIDE_COLUMNS",
+           "SHOWN_LENGTH_CAP", "SWAY_PATHS", "X_TOL_M", "buckling_lengths",
+           "effective_length_ratio", "member_compression", "restraint_positions", "shown_lengths"]
+
 E_STEEL = 210e9                       # Pa, EN 1993-1-1 3.2.6(1)
 COLLINEAR_COS = np.cos(np.radians(10.0))
 X_TOL_M = 1e-6

@@ -30,6 +30,9 @@ from ..model.members import Members
 from ..model.results import FORCE_COLUMNS, Results
 from .eigen import Mesh, build_mesh
 
+__all__ = ["LEVEL_TOL_M", "SWAY_METHOD", "SwayPart", "UnitSway", "amplified_forces", "solve",
+           "sway_coordinates", "sway_part", "unit_sway_cases"]
+
 LEVEL_TOL_M = 0.01          # column tops within 10 mm count as one level
 SWAY_METHOD = ("frame held against sway at each storey, holding forces reversed "
                "(frame stiffness from the sections table, column-top displacements as given)")
