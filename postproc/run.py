@@ -36,7 +36,7 @@ def load_model(project: Project) -> tuple[Frame, Results]:
         return tables.load(project)
     from adapters import opensees
 
-    return opensees.load({**project.raw, "model": project.model}, project.path)
+    return opensees.load(project)
 
 
 def forces_source(project: Project) -> str:

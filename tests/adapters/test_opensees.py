@@ -32,7 +32,7 @@ def run(tmp_path: Path, script: str, project: str, **kw):
     (tmp_path / "model.py").write_text(textwrap.dedent(script))
     text = textwrap.dedent(project)
     (tmp_path / "project.toml").write_text(text)
-    return opensees.load(tomllib.loads(text), tmp_path / "project.toml")
+    return opensees.load_table(tomllib.loads(text), tmp_path / "project.toml")
 
 
 def at(results, combination: str, element: str) -> pd.DataFrame:
@@ -301,7 +301,7 @@ def test_bundled_frames_reactions_balance_applied_loads(example):
 
     project_file = ROOT / "examples" / example / "project.toml"
     project, captured, cases, factors = _captured_and_factors(project_file)
-    frame, results = opensees.load(project, project_file)
+    frame, results = opensees.load_table(project, project_file)
     names = list(results.combinations.index)
     pattern_of = dict(zip(cases["load_case"], cases["pattern"]))
     patterns = list(cases["pattern"])
@@ -322,7 +322,7 @@ def test_bundled_frames_reactions_balance_applied_loads(example):
 
 def test_platform_dead_load_total_by_hand():
     project_file = ROOT / "examples" / "platform_3d" / "project.toml"
-    frame, results = opensees.load(tomllib.loads(project_file.read_text()), project_file)
+    frame, results = opensees.load_table(tomllib.loads(project_file.read_text()), project_file)
     r = results.reactions[results.reactions["combination"] == "ULS 1.35 dead"]
     # hand sum of pattern 1 in models/platform_3d.py: main beams 2 x 12 m x 1.32 kN/m +
     # 12 m x 2.22 kN/m, secondary beams 3 x 8 m x 0.31 kN/m = 65.76 kN; times gamma_G,sup 1.35
@@ -455,7 +455,7 @@ def test_export_tables_round_trip(tmp_path, example, ndm):
     from postproc.project import read_project
 
     project_file = ROOT / "examples" / example / "project.toml"
-    frame, results = opensees.load(tomllib.loads(project_file.read_text()), project_file)
+    frame, results = opensees.load_table(tomllib.loads(project_file.read_text()), project_file)
     opensees.export_tables(frame, results, tmp_path / "tables")
     (tmp_path / "project.toml").write_text(
         f'[model]\nsource = "tables"\ndirectory = "tables"\nndm = {ndm}\n'
@@ -478,8 +478,8 @@ def test_two_processes_give_the_same_results_as_one():
     project = tomllib.loads(project_file.read_text())
     one = dict(project, model={**project["model"], "processes": 1})
     two = dict(project, model={**project["model"], "processes": 2})
-    _, r1 = opensees.load(one, project_file)
-    _, r2 = opensees.load(two, project_file)
+    _, r1 = opensees.load_table(one, project_file)
+    _, r2 = opensees.load_table(two, project_file)
     # the same analyses in other processes: identical numbers (deterministic solver)
     pd.testing.assert_frame_equal(r1.forces, r2.forces)
     pd.testing.assert_frame_equal(r1.combinations, r2.combinations)
@@ -621,7 +621,7 @@ def test_pdelta_space_frame_directions():
     project = tomllib.loads(project_file.read_text())
     project["model"]["analysis"] = "p-delta"
     project["combinations"]["sls"] = False
-    frame, results = opensees.load(project, project_file)
+    frame, results = opensees.load_table(project, project_file)
     names = set(results.combinations.index)
     # gravity only: four directions (our rule, after EN 1993-1-1 5.3.2(8), one at a time)
     assert {f"ULS 1.35 dead [sway {d}]" for d in ("+X", "-X", "+Y", "-Y")} <= names
@@ -682,7 +682,7 @@ def test_portal_combinations_leave_the_relieving_wind_out():
     6, 2 identical. 19 generated, 15 ULS kept. SLS (eq. 6.14b): 13 generated, 2 identical, 11.
     """
     project_file = ROOT / "examples" / "portal_shed" / "project.toml"
-    _, results = opensees.load(tomllib.loads(project_file.read_text()), project_file)
+    _, results = opensees.load_table(tomllib.loads(project_file.read_text()), project_file)
     kinds = results.combinations["kind"].value_counts()
     assert (kinds["ULS"], kinds["SLS"]) == (15, 11)
     names = set(results.combinations.index)
