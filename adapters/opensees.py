@@ -1,9 +1,9 @@
 """OpenSees adapter: run the user's openseespy model, analyse every combination, read the results.
 
-`load(project, project_path)` runs the user's script in this process (their code, with their
+`load(project)` (the parsed `Project`, as for every adapter) runs the user's script in this process (their code, with their
 rights), reads the model back from the OpenSees domain, builds the load combinations of
 `postproc.loads` from the load patterns, analyses them and returns a Frame and Results in SI and
-in the sign convention of `postproc.results`. The project keys are documented in docs/opensees.md.
+in the sign convention of `postproc.model.results`. The project keys are documented in docs/opensees.md.
 
 - analysis = "linear" (default): each load pattern is solved once; combinations are superposed.
 - analysis = "p-delta": one P-delta analysis per combination, 'Linear' geometric transformations
@@ -21,9 +21,10 @@ import pandas as pd
 
 from postproc import loads
 from postproc.errors import InputError
-from postproc.frame import Frame
+from postproc.model.frame import Frame
+from postproc.project import Project
 from postproc.project_schema import SCRIPT_TIME_LIMIT_S, OpenSeesModel
-from postproc.results import DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
+from postproc.model.results import DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
 
 from .opensees_export import export_tables
 from .opensees_model import (Captured, axis_map, import_opensees, read_domain, run_user_model,
@@ -33,7 +34,7 @@ from .opensees_run import Job, clear_patterns, forces_along, run_jobs, station_g
 MODEL_KEYS = set(OpenSeesModel.model_fields)  # the project schema's [model] keys
 ANALYSES = ("linear", "p-delta")
 REACTION_COLUMNS = ["FX_N", "FY_N", "FZ_N", "MX_Nm", "MY_Nm", "MZ_Nm"]
-__all__ = ["load", "export_tables", "load_cases", "build_frame"]
+__all__ = ["load", "load_table", "export_tables", "load_cases", "build_frame"]
 STIFFNESS_WARNING = 0.10  # relative difference between model and catalogue I worth a warning
 
 
@@ -87,8 +88,16 @@ def _whole(value: object) -> bool:
     return isinstance(value, int) and not isinstance(value, bool)
 
 
-def load(project: dict, project_path: Path) -> tuple[Frame, Results]:
+def load(project: Project) -> tuple[Frame, Results]:
     """Build, analyse and read the project's openseespy model (see docs/opensees.md).
+
+    The adapter entry every route shares: the parsed project in, Frame and Results out.
+    """
+    return load_table({**project.raw, "model": project.model}, project.path)
+
+
+def load_table(project: dict, project_path: Path) -> tuple[Frame, Results]:
+    """`load` from the project file's tables as parsed (a dict) and the file's path.
 
     Args:
         project: the parsed project file (tables [model], [load_cases], [combinations],
@@ -97,7 +106,7 @@ def load(project: dict, project_path: Path) -> tuple[Frame, Results]:
 
     Returns:
         The Frame and the Results of every combination, SI, sign convention of
-        `postproc.results`. Raises InputError for bad input (naming file and field).
+        `postproc.model.results`. Raises InputError for bad input (naming file and field).
     """
     file = str(project_path)
     model = dict(project.get("model", {}))

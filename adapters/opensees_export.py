@@ -11,8 +11,10 @@ from pathlib import Path
 import pandas as pd
 
 from postproc.errors import AnalysisError
-from postproc.frame import Frame
-from postproc.results import DISPLACEMENT_COLUMNS, Results
+from postproc.model.frame import Frame
+from postproc.model.results import DISPLACEMENT_COLUMNS, Results
+
+__all__ = ["FLOAT", "FORCE_HEADERS", "export_tables"]
 
 FLOAT = "%.17g"  # round-trips every double exactly
 FORCE_HEADERS = {"N_N": "N [N]", "Vy_N": "Vy [N]", "Vz_N": "Vz [N]", "T_Nm": "T [Nm]",

@@ -29,6 +29,11 @@ import pandas as pd
 
 from postproc.errors import InputError
 
+__all__ = ["BEAM_TYPES", "Captured", "DIAPHRAGM_DOFS", "DOF_NAMES", "ELEMENT_LOAD_COLUMNS",
+           "LOAD_CLASSES", "ScriptTimeLimit", "TIE_COMMANDS", "TRUSS_TYPES", "WATCHED", "Watched",
+           "axis_map", "import_opensees", "read_domain", "run_user_model", "tie_table",
+           "time_limit", "to_en", "watching"]
+
 # element class names read (eleType) -> kind
 BEAM_TYPES = {"ElasticBeam2d", "ElasticBeam3d", "ForceBeamColumn2d", "ForceBeamColumn3d",
               "DispBeamColumn2d", "DispBeamColumn3d"}
@@ -189,7 +194,7 @@ class Captured:
     elements: pd.DataFrame       # index element; node_i, node_j, type, truss, section_tag,
                                  # xaxis, yaxis, zaxis (3-vectors), I_y_os, I_z_os (NaN unknown)
     supports: pd.DataFrame       # index node; ux .. rz booleans
-    ties: pd.DataFrame           # postproc.frame TIE_COLUMNS: node, master, dofs, rigid
+    ties: pd.DataFrame           # postproc.model.frame TIE_COLUMNS: node, master, dofs, rigid
     node_loads: pd.DataFrame     # pattern, node, FX_N, FY_N, FZ_N, MX_Nm, MY_Nm, MZ_Nm
     element_loads: pd.DataFrame  # ELEMENT_LOAD_COLUMNS, OpenSees local axes
     patterns: list[str]

@@ -28,6 +28,10 @@ import pandas as pd
 
 from .opensees_model import Captured, import_opensees, read_domain, run_user_model
 
+__all__ = ["Job", "Outcome", "PARALLEL_FROM", "PATTERN_TAG", "PDELTA_ITERATIONS", "PDELTA_STEPS",
+           "PDELTA_TOLERANCE_M", "Progress", "SERIES_TAG", "clear_patterns", "forces_along",
+           "run_jobs", "solve", "station_grid"]
+
 PDELTA_STEPS = 10
 PDELTA_TOLERANCE_M = 1e-10  # norm of the displacement increment; far below any relevant movement
 PDELTA_ITERATIONS = 50

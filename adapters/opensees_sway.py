@@ -19,10 +19,12 @@ import numpy as np
 import pandas as pd
 
 from postproc.errors import InputError
-from postproc.frame import Frame
+from postproc.model.frame import Frame
 
 from .opensees_model import Captured
 from .opensees_run import Job
+
+__all__ = ["TINY", "jobs", "node_loads_global"]
 
 TINY = 1e-6  # net horizontal load below TINY times the vertical load counts as none
 

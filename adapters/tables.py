@@ -18,9 +18,10 @@ import pandas as pd
 
 from postproc import materials
 from postproc.errors import InputError
-from postproc.frame import Frame, empty_ties
+from postproc.model.frame import Frame, empty_ties
+from postproc.project import Project
 from postproc.project_schema import TABLE_FILES
-from postproc.results import COMBINATION_COLUMNS, DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
+from postproc.model.results import COMBINATION_COLUMNS, DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
 from postproc.sections import build_sections
 from postproc.units import factor
 
@@ -126,7 +127,7 @@ class Table:
         return ids
 
 
-def load(project, project_path: Path | None = None) -> tuple[Frame, Results]:
+def load(project: Project) -> tuple[Frame, Results]:
     """Read the CSV tables named by a project's [model] table into a Frame and Results.
 
     `project` is a `postproc.project.Project`. [model] keys: `directory` (folder of the tables,

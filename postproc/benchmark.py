@@ -6,12 +6,12 @@ Annex A, and prints the throughput, the ratio of check time to read time, the ti
 and the peak memory of the process.
 
 What is timed as "checks", end to end: the member rows from the forces table (one design member
-per element), then chunk by chunk (`postproc.checker.iter_checks`): section class at every
+per element), then chunk by chunk (`postproc.engine.iter_checks`): section class at every
 station and the member buckling values, every check family, and keeping what a large run keeps,
 the governing utilisation (float64) and status (int8) of every row and check. No chunk's
 intermediate values outlive the chunk, so memory does not grow with the full set of values. Not
 timed: making the synthetic model, writing the CSV, and the results table (one long DataFrame of
-every intermediate value, which a normal run builds with `postproc.checker.run_checks` and
+every intermediate value, which a normal run builds with `postproc.engine.run_checks` and
 `results_table`).
 Printed per stage: member rows (main thread), then, summed over the worker threads (a thread per
 core, so with two cores they add up to more than the wall time): section class per station with
@@ -35,13 +35,17 @@ from pathlib import Path
 import numpy as np
 import pandas as pd
 
-from .checker import CHECK_FAMILIES, iter_checks
-from .frame import Frame
-from .member_rows import build_member_rows
-from .members import one_member_per_element
-from .results import FORCE_COLUMNS
+from .checker import CHECK_FAMILIES
+from .engine import iter_checks
+from .model.frame import Frame
+from .model.member_rows import build_member_rows
+from .model.members import one_member_per_element
+from .model.results import FORCE_COLUMNS
 from .sections import build_sections
 from .settings import DesignSettings
+
+__all__ = ["DESIGNATIONS", "KEEP_STAGE", "Kept", "ROWS_STAGE", "STAGE_LABELS", "STATIONS",
+           "STATUS_CODES", "main", "run_checks", "synthetic_model"]
 
 STATIONS = 5
 ROWS_STAGE = "member rows"

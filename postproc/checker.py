@@ -1,5 +1,9 @@
 """The checker: every member, every combination, every check, in one long results table.
 
+Orchestration only: it calls each stage in order and assembles the table; the chunked, threaded
+run of the check families is `postproc.engine`, the member information each chunk gets is
+`postproc.checks.member_info`, and the outcome a report reads is `postproc.model.outcome`.
+
 Stages (data flows one way):
 1. design members (graph layer), 2. frame stability per combination (alpha_cr, analysis path,
 sway amplification), 3. buckling lengths, 4. member rows (padded arrays), 5. section class per
@@ -9,89 +13,32 @@ family, 8. the long table.
 
 from __future__ import annotations
 
-import itertools
-import os
-import threading
-import time
-from collections import deque
-from concurrent.futures import Future, ThreadPoolExecutor
-from dataclasses import dataclass, field, replace
-from typing import Callable, Iterator
+from dataclasses import replace
 
 import numpy as np
 import pandas as pd
 
-from .checks.base import (FAIL, NOT_EVALUATED, PASS, CheckBlock, MemberRows, block_concat,
-                          rows_concat, rows_slice)
+from .engine import CheckFamily, run_checks
+from .model.outcome import KEY_COLUMNS, CheckOutcome
+from .model.rows import FAIL, NOT_EVALUATED, PASS, CheckBlock, MemberRows
 from .checks.cross_section import cross_section_checks
 from .checks.interaction import interaction_checks
-from .checks.member_buckling import (buckling_values, flexural_buckling_checks,
-                                     lateral_torsional_checks)
-from .frame import Frame
-from .member_rows import build_member_rows
-from .members import Members, design_members
-from .results import Results
-from .sections.classification import section_class
-from .sections.effective import effective_properties_where
-from .row_reductions import row_any
+from .checks.member_buckling import flexural_buckling_checks, lateral_torsional_checks
+from .model.frame import Frame
+from .model.member_rows import build_member_rows
+from .model.members import Members, design_members
+from .model.results import Results
 from .settings import DesignSettings
 from . import stability
 
-CheckFamily = Callable[[MemberRows], list[CheckBlock]]
+__all__ = ["CHECK_FAMILIES", "check_frame", "results_table", "station_forces"]
+
 CHECK_FAMILIES: list[CheckFamily] = [
     cross_section_checks,
     flexural_buckling_checks,
     lateral_torsional_checks,
     interaction_checks,
 ]
-CHUNK_ROWS = 20_000  # rows per chunk: (rows x stations) arrays of a few MB stay in cache
-KEY_COLUMNS = ["member", "combination", "check", "clause", "x_m", "utilisation", "status", "reason"]
-
-
-@dataclass(frozen=True)
-class CheckOutcome:
-    """Everything a report needs.
-
-    Attributes:
-        table: the long results table, one row per (member, combination, check): KEY_COLUMNS,
-            then the intermediate values of each check (SI, names with unit suffixes).
-        members: the design members used.
-        stability: per combination: alpha_cr, sway_mode, path, amplification, reason.
-        lengths: per (member, combination): buckling lengths and where they came from.
-        settings: the design settings used.
-        combinations: the Results combinations table (status of each analysis).
-        stations: the member forces the checks used, one row per (member, combination, station):
-            x_m, N_N, V_y_N, V_z_N, T_Nm, M_y_Nm, M_z_Nm (after sway amplification); carried for
-            the report's diagrams, never recomputed there.
-        value_columns: per check, its value columns in the order the check family fills them
-            (the order of a hand calculation).
-        frame: the analysed frame (node coordinates for the drawing).
-    """
-
-    table: pd.DataFrame
-    members: Members
-    stability: pd.DataFrame
-    lengths: pd.DataFrame
-    settings: DesignSettings
-    combinations: pd.DataFrame = field(default_factory=pd.DataFrame)
-    stations: pd.DataFrame = field(default_factory=pd.DataFrame)
-    value_columns: dict[str, tuple[str, ...]] = field(default_factory=dict)
-    frame: Frame | None = None
-
-    @property
-    def counts(self) -> dict[str, int]:
-        status = self.table["status"]
-        return {s: int((status == s).sum()) for s in (PASS, FAIL, NOT_EVALUATED)}
-
-    @property
-    def exit_code(self) -> int:
-        """0 all pass, 1 at least one fail, 3 some not evaluated and none failed."""
-        counts = self.counts
-        if counts[FAIL]:
-            return 1
-        if counts[NOT_EVALUATED]:
-            return 3
-        return 0
 
 
 def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
@@ -201,86 +148,6 @@ def _mark_member_bows(table: pd.DataFrame, bows: pd.DataFrame, covered_by: str) 
     return table
 
 
-def iter_checks(rows: MemberRows, families: list[CheckFamily], *,
-                overrides: pd.DataFrame | None = None, chunk_rows: int = CHUNK_ROWS,
-                threads: int | None = None, timings: dict[str, float] | None = None,
-                keep: Callable[[MemberRows, list[CheckBlock]], object] | None = None
-                ) -> Iterator[tuple[MemberRows, object]]:
-    """Section classes, member buckling values and every check family, chunk by chunk.
-
-    Rows are independent, so they are cut into chunks that fit the processor caches and run on
-    a thread per core (numpy releases the interpreter lock inside its array operations). Yields
-    (rows of the chunk with their member information, one block per check) in row order; only a
-    few chunks are in flight at a time, so a caller that keeps less than the whole blocks never
-    holds a full-size set of intermediate values.
-
-    timings: if given, the seconds spent in each stage are added to it, summed over the worker
-        threads: 'classification and buckling values' (section class per station, member
-        overrides, member buckling values), one entry per family (the family's __name__) and
-        'keep' (the time of `keep`).
-    keep: if given, applied to (rows, blocks) of each chunk on the worker thread, and the chunk
-        yields (rows, keep(rows, blocks)) instead: the blocks are dropped there, so a caller
-        that keeps a digest never holds a chunk's full blocks on its own thread.
-    """
-    n = rows.n_rows
-    bounds = [(a, min(a + chunk_rows, n)) for a in range(0, n, chunk_rows)] or [(0, 0)]
-    lock = threading.Lock()
-
-    def add(stage: str, seconds: float) -> None:
-        if timings is not None:
-            with lock:
-                timings[stage] = timings.get(stage, 0.0) + seconds
-
-    def one(bound: tuple[int, int]) -> tuple[MemberRows, list[CheckBlock]]:
-        t0 = time.perf_counter()
-        part = _with_member_info(rows_slice(rows, *bound), overrides)
-        add("classification and buckling values", time.perf_counter() - t0)
-        blocks = []
-        for family in families:
-            t0 = time.perf_counter()
-            blocks.extend(family(part))
-            add(getattr(family, "__name__", str(family)), time.perf_counter() - t0)
-        if keep is None:
-            return part, blocks
-        t0 = time.perf_counter()
-        kept = keep(part, blocks)
-        add("keep", time.perf_counter() - t0)
-        return part, kept
-
-    workers = min(threads or os.cpu_count() or 1, len(bounds))
-    if workers <= 1:
-        for bound in bounds:
-            yield one(bound)
-        return
-    with ThreadPoolExecutor(workers) as pool:
-        pending: deque[Future] = deque()
-        ahead = iter(bounds)
-        for bound in itertools.islice(ahead, 2 * workers):
-            pending.append(pool.submit(one, bound))
-        while pending:
-            result = pending.popleft().result()
-            for bound in itertools.islice(ahead, 1):
-                pending.append(pool.submit(one, bound))
-            yield result
-
-
-def run_checks(rows: MemberRows, families: list[CheckFamily], *,
-               overrides: pd.DataFrame | None = None, chunk_rows: int = CHUNK_ROWS,
-               threads: int | None = None) -> tuple[MemberRows, list[CheckBlock]]:
-    """Section classes, member buckling values and every check family for all rows.
-
-    The chunks of `iter_checks` joined in row order. Returns the rows with their member
-    information and one block per check.
-    """
-    parts = list(iter_checks(rows, families, overrides=overrides, chunk_rows=chunk_rows,
-                             threads=threads))
-    if len(parts) == 1:
-        return parts[0]
-    joined_rows = rows_concat([p for p, _ in parts])
-    blocks = [block_concat([p[1][k] for p in parts]) for k in range(len(parts[0][1]))]
-    return joined_rows, blocks
-
-
 def _mark_unchecked_members(table: pd.DataFrame, members: Members,
                             rows: MemberRows | None = None, combinations: list | None = None,
                             covered: np.ndarray | None = None) -> pd.DataFrame:
@@ -361,40 +228,6 @@ def _length_overrides(overrides: pd.DataFrame | None) -> pd.DataFrame | None:
     columns = {"L_cr_y": "L_cr_y_m", "L_cr_z": "L_cr_z_m", "L_cr_T": "L_cr_T_m", "L_LT": "L_LT_m"}
     where = [c for c in ("file", "entry") if c in overrides.columns]  # for located messages
     return overrides[["member", *columns, *where]].rename(columns=columns)
-
-
-def _with_member_info(rows: MemberRows, overrides: pd.DataFrame | None) -> MemberRows:
-    """Add the section class per station, member overrides and the member buckling values."""
-    info = dict(rows.info)
-    section = {k: v[:, None] for k, v in rows.section.items()}
-    cls, part = section_class(section, rows.f_y[:, None], rows.N, rows.My, rows.Mz,
-                              require_elastic=rows.settings.classification == "also-elastic")
-    info["section_class"], info["class_part"] = cls, part
-    # effective properties (EN 1993-1-5) of the rows with a class 4 station, shared by all checks
-    info["effective"] = effective_properties_where(rows.section, rows.f_y, row_any(cls == 4))
-    if overrides is not None and not overrides.empty:
-        by_member = overrides.set_index("member")
-        aligned = by_member.reindex(rows.member)
-        if "ltb_restrained" in aligned:
-            info["ltb_restrained"] = aligned["ltb_restrained"].fillna(False).to_numpy(bool)
-        for key in ("z_g", "k_LT", "k_w"):
-            values = aligned[key].to_numpy(float)
-            if not np.isnan(values).all():
-                default = 0.0 if key == "z_g" else 1.0
-                info[key] = np.where(np.isnan(values), default, values)
-        a_net = aligned["A_net_cm2"].to_numpy(float) * 1e-4
-        if not np.isnan(a_net).all():
-            info["A_net"] = a_net
-    rows = replace(rows, info=info)
-    buckling = buckling_values(rows)
-    if overrides is not None and not overrides.empty and "torsion_susceptible" in overrides:
-        given = overrides.set_index("member")["torsion_susceptible"].reindex(rows.member)
-        mask = given.notna().to_numpy()
-        if mask.any():
-            buckling["torsion_susceptible"] = np.where(
-                mask, given.fillna(False).to_numpy(bool), buckling["torsion_susceptible"])
-    info["buckling"] = buckling
-    return replace(rows, info=info)
 
 
 def results_table(rows: MemberRows, blocks: list[CheckBlock], limit: float = 1.0) -> pd.DataFrame:

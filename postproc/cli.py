@@ -19,6 +19,9 @@ from . import CAUTION, __version__
 from .errors import FramesweepError, InputError
 from .report.options import PAPER_SIZES, VIEWS_3D, ReportOptions
 
+__all__ = ["EXIT_FAIL", "EXIT_INPUT", "EXIT_INTERNAL", "EXIT_INTERRUPTED", "EXIT_NOT_EVALUATED",
+           "EXIT_PASS", "Terminated", "main"]
+
 EXIT_PASS, EXIT_FAIL, EXIT_INPUT, EXIT_NOT_EVALUATED = 0, 1, 2, 3
 EXIT_INTERNAL = 4
 EXIT_INTERRUPTED = 130  # 128 + SIGINT, the shell's convention

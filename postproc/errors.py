@@ -2,6 +2,9 @@
 
 from __future__ import annotations
 
+__all__ = ["AnalysisError", "FramesweepError", "InputError", "MaterialError", "SectionError",
+           "TopologyError"]
+
 
 class FramesweepError(Exception):
     """Base class of every error the tool raises on purpose."""

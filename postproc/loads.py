@@ -44,7 +44,13 @@ import numpy as np
 import pandas as pd
 
 from .errors import InputError
-from .results import FORCE_COLUMNS
+from .model.results import FORCE_COLUMNS
+
+__all__ = ["CATEGORIES", "COMBINATION_KEYS", "FACTORS_COLUMNS", "FAVOURABLE_PERMANENT",
+           "GENERATION_KEYS", "MAX_COMBINATIONS", "METHODS", "PERMANENT", "PSI", "TABLE_A1_2B",
+           "check_cases", "combination_note", "explicit_combinations", "load_case_table",
+           "project_combinations", "psi_factors", "sls_characteristic_combinations", "sls_count",
+           "superpose", "uls_combinations", "uls_count"]
 
 PERMANENT = "permanent"
 
@@ -557,7 +563,7 @@ def superpose(case_forces: pd.DataFrame, factors: pd.DataFrame, *,
 
     Args:
         case_forces: columns load_case, `keys` and `columns` (by default the forces table of
-            `postproc.results` per load case: element, x_m, N_N .. Mz_Nm).
+            `postproc.model.results` per load case: element, x_m, N_N .. Mz_Nm).
         factors: long factors table (combination, load_case, factor).
         keys: columns that identify a value within one load case.
         columns: value columns to combine.

@@ -25,6 +25,8 @@ import numpy as np
 
 from .errors import MaterialError
 
+__all__ = ["E", "G", "GRADES", "NU", "T_LIMIT_1", "T_LIMIT_2", "grade_name", "strengths"]
+
 E = 210e9
 """Modulus of elasticity, Pa. EN 1993-1-1:2005, 3.2.6(1)."""
 G = 81e9

@@ -13,12 +13,15 @@ import numpy as np
 import pandas as pd
 
 from . import materials
-from .checker import CHECK_FAMILIES, _with_member_info, results_table
-from .checks.base import MemberRows
+from .checker import CHECK_FAMILIES, results_table
+from .checks.member_info import with_member_info
+from .model.rows import MemberRows
 from .errors import InputError
-from .member_rows import member_properties
+from .model.member_rows import member_properties
 from .sections import build_sections
 from .settings import DesignSettings
+
+__all__ = ["check_member"]
 
 
 def check_member(section: str | dict, grade: str = "S355", *, length: float,
@@ -39,7 +42,7 @@ def check_member(section: str | dict, grade: str = "S355", *, length: float,
         section: a catalogue designation ("IPE 300") or a dict in the form of a sections.csv row.
         grade: steel grade.
         length: member length, m.
-        N_Ed: axial force, N (negative in compression: postproc/results.py convention).
+        N_Ed: axial force, N (negative in compression: postproc/model/results.py convention).
         My_ends, Mz_ends: end moments (start, end), N*m. The diagram between them is linear plus
             a parabolic span part My_span / Mz_span (the extra moment at mid-length, as from a
             uniform load), unless My_diagram / Mz_diagram give the values at the stations.
@@ -121,7 +124,7 @@ def check_member(section: str | dict, grade: str = "S355", *, length: float,
         section=section_arrays, f_y=f_y, f_u=f_u,
         E=np.array([materials.E]), G=np.array([materials.G]), lengths=lengths, info=info,
         settings=settings)
-    rows = _with_member_info(rows, None)
+    rows = with_member_info(rows, None)
     blocks = [b for family in CHECK_FAMILIES for b in family(rows)]
     table = results_table(rows, blocks, settings.utilisation_limit)
     buckling = {k: np.asarray(v)[0] for k, v in rows.info["buckling"].items()}

@@ -11,9 +11,13 @@ from __future__ import annotations
 import numpy as np
 import pandas as pd
 
-from .checker import CheckOutcome
-from .frame import Frame
-from .results import Results
+from .model.outcome import CheckOutcome
+from .model.frame import Frame
+from .model.results import Results
+
+__all__ = ["ALPHA_CR_LOW", "COLUMNS", "ELEMENT_SHORT_M", "FORCE_HIGH_N", "MOMENT_HIGH_NM",
+           "SHEAR_MISMATCH", "SHEAR_SEGMENTS", "STOREY_HEIGHT_HIGH_M", "UTILISATION_HIGH",
+           "UTILISATION_LOW", "numerical_warnings", "plausibility_warnings"]
 
 ALPHA_CR_LOW = 0.1        # a frame this far below its critical load cannot stand: units or model
 STOREY_HEIGHT_HIGH_M = 100.0   # a column longer than this suggests coordinates in mm read as m
@@ -95,8 +99,8 @@ def _forces(results: Results, outcome: CheckOutcome, forces_file: str) -> list[t
 def _shear_against_moment(results: Results, outcome: CheckOutcome,
                           forces_file: str) -> list[tuple[str, str]]:
     """Segments where the chord slope of M differs from the mean shear (dMy/dx = Vz and
-    dMz/dx = -Vy, postproc/results.py; exact for a uniform span load between stations)."""
-    forces = results.forces  # sorted by combination, element, x_m (postproc/results.py)
+    dMz/dx = -Vy, postproc/model/results.py; exact for a uniform span load between stations)."""
+    forces = results.forces  # sorted by combination, element, x_m (postproc/model/results.py)
     if len(forces) < 2:
         return []
     comb = forces["combination"].to_numpy()

@@ -18,6 +18,8 @@ from .project_schema import OVERRIDE_KEYS  # noqa: F401 (re-exported)
 from .project_schema import MemberOverride, Restraint, validate_project
 from .settings import DesignSettings
 
+__all__ = ["OVERRIDE_FLAGS", "OVERRIDE_LENGTHS", "OVERRIDE_NUMBERS", "Project", "read_project"]
+
 OVERRIDE_LENGTHS = ("L_cr_y", "L_cr_z", "L_cr_T", "L_LT")
 OVERRIDE_FLAGS = ("ltb_restrained", "torsion_susceptible")
 OVERRIDE_NUMBERS = ("z_g", "A_net_cm2", "k_LT", "k_w")

@@ -18,8 +18,14 @@ import pydantic
 from pydantic import BaseModel, BeforeValidator, ConfigDict, Field, ValidationError
 
 from .errors import InputError
-from .members import RESTRAINT_DIRECTIONS
+from .model.members import RESTRAINT_DIRECTIONS
 from .settings import DesignSettings
+
+__all__ = ["CONFIG", "Combinations", "ExtraCombination", "Factor", "Imperfection", "Length",
+           "LoadCase", "MemberOverride", "Name", "OVERRIDE_KEYS", "OpenSeesModel", "P_DELTA_ONLY",
+           "ProjectFile", "ROUTES", "ROUTE_ONLY_TABLES", "Restraint", "SCRIPT_TIME_LIMIT_S",
+           "Strict", "TABLE_FILES", "TablesModel", "UNREAD_BY_METHOD", "Units", "design_model",
+           "known_keys", "validate_design", "validate_project"]
 
 CONFIG = ConfigDict(extra="forbid", strict=True, allow_inf_nan=False)
 Name = Annotated[str, BeforeValidator(lambda v: str(v) if isinstance(v, int)

@@ -8,12 +8,15 @@ from pathlib import Path
 
 import pandas as pd
 
-from .checker import CheckOutcome, check_frame
-from .frame import Frame
+from .checker import check_frame
+from .model.outcome import CheckOutcome
+from .model.frame import Frame
 from .plausibility import COLUMNS, numerical_warnings, plausibility_warnings
 from .project import Project, read_project
 from .report.progress import QUIET, Stages
-from .results import Results
+from .model.results import Results
+
+__all__ = ["RunOutput", "forces_source", "load_model", "run_project"]
 
 
 @dataclass(frozen=True)
@@ -33,7 +36,7 @@ def load_model(project: Project) -> tuple[Frame, Results]:
         return tables.load(project)
     from adapters import opensees
 
-    return opensees.load({**project.raw, "model": project.model}, project.path)
+    return opensees.load(project)
 
 
 def forces_source(project: Project) -> str:

@@ -11,6 +11,10 @@ from __future__ import annotations
 from dataclasses import asdict, dataclass, field
 from typing import Literal, get_args
 
+__all__ = ["ANNEXES", "Annex", "BOW_COVERS", "BowCover", "CLASSIFICATIONS", "Classification",
+           "DesignSettings", "KZyZero", "K_ZY_ZERO", "LTB_METHODS", "LtbMethod", "PLAUSIBLE_FACTOR",
+           "limits"]
+
 Annex = Literal["A", "B", "both"]
 LtbMethod = Literal["general", "rolled"]
 ANNEXES, LTB_METHODS = get_args(Annex), get_args(LtbMethod)

@@ -7,6 +7,8 @@ from __future__ import annotations
 
 from .errors import InputError
 
+__all__ = ["FORCE", "KINDS", "LENGTH", "MOMENT", "STRESS", "factor"]
+
 LENGTH = {"m": 1.0, "mm": 1e-3, "cm": 1e-2}
 FORCE = {"N": 1.0, "kN": 1e3, "MN": 1e6}
 MOMENT = {"Nm": 1.0, "N*m": 1.0, "kNm": 1e3, "kN*m": 1e3, "Nmm": 1e-3, "N*mm": 1e-3, "MNm": 1e6}

@@ -1,7 +1,7 @@
 """Load combinations against EN 1990:2002 Annex A1 (recommended values), and superposition.
 
 Sources: EN 1990 Table A1.1 (psi factors) and Table A1.2(B) (partial factors), as gathered in
-/work/shared/REFERENCES.md; category C, D, F, G, H and temperature rows of Table A1.1 from memory.
+docs/references.md; category C, D, F, G, H and temperature rows of Table A1.1 from memory.
 """
 
 import numpy as np
@@ -10,7 +10,7 @@ import pytest
 
 from postproc import loads
 from postproc.errors import InputError
-from postproc.results import FORCE_COLUMNS
+from postproc.model.results import FORCE_COLUMNS
 
 EXACT = 1e-12  # factors are products of two decimal numbers: no tolerance needed beyond rounding
 

@@ -1,7 +1,7 @@
 """Steel grades: EN 1993-1-1:2005 3.2.6 constants and Table 3.1 strengths.
 
 Table 3.1 values are recalled from the standard (from memory); the EN 10025-2 rows also appear in
-REFERENCES.md, the project's list of trusted outside values.
+docs/references.md, the project's list of trusted outside values.
 """
 
 import numpy as np
@@ -21,7 +21,7 @@ def test_elastic_constants():
 
 
 @pytest.mark.parametrize("grade, fy1, fu1, fy2, fu2", [
-    # EN 1993-1-1 Table 3.1, EN 10025-2 rows (REFERENCES.md lists f_y; f_u from memory)
+    # EN 1993-1-1 Table 3.1, EN 10025-2 rows (docs/references.md lists f_y; f_u from memory)
     ("S235", 235, 360, 215, 360),
     ("S275", 275, 430, 255, 410),
     ("S355", 355, 490, 335, 470),

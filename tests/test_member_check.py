@@ -9,7 +9,7 @@ from postproc.errors import InputError
 from postproc.member_check import check_member
 from postproc.settings import DesignSettings
 
-# HEB 200: A = 78.1 cm2, W_pl,y = 643 cm3 (REFERENCES.md handbook table, from memory);
+# HEB 200: A = 78.1 cm2, W_pl,y = 643 cm3 (docs/references.md handbook table, from memory);
 # S355 f_y = 355 MPa for t <= 40 mm (EN 1993-1-1 Table 3.1); gamma_M0 = 1.0 (6.1 note 2B).
 HANDBOOK = 0.005  # handbook properties against computed ones: 0.5 %
 

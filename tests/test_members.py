@@ -1,7 +1,7 @@
 """Design members: grouping, classification, restraint points, bad input.
 
 Frames here are small invented shapes (a pitched portal, a braced bay, a space frame corner); the
-expected groupings follow from the rules in `postproc.members`, the lengths from the geometry.
+expected groupings follow from the rules in `postproc.model.members`, the lengths from the geometry.
 """
 
 from __future__ import annotations
@@ -11,14 +11,14 @@ import pandas as pd
 import pytest
 
 from postproc.errors import InputError, TopologyError
-from postproc.frame import Frame
-from postproc.members import Members, design_members, one_member_per_element
+from postproc.model.frame import Frame
+from postproc.model.members import Members, design_members, one_member_per_element
 
 GEOMETRY_TOL = 1e-9     # lengths are sums of chord lengths: exact to round-off
 
 
 def sections() -> pd.DataFrame:
-    """IPE 300 and HEB 200, handbook values of /work/shared/REFERENCES.md (from memory), SI."""
+    """IPE 300 and HEB 200, handbook values of docs/references.md (from memory), SI."""
     return pd.DataFrame({
         "A": [53.8e-4, 78.1e-4], "I_y": [8356e-8, 5696e-8], "I_z": [604e-8, 2003e-8],
         "I_t": [20.1e-8, 59.3e-8], "I_w": [126e-9, 171e-9], "shape": ["I", "I"],

@@ -7,7 +7,7 @@ Sources of the expected values:
   elastic stability, common knowledge of the trade.
 - 5.2.1(3), 5.2.1(4)B eq. (5.2), 5.2.2(5B), 5.3.2(3) eq. (5.5), 5.3.2(6) and (7) of
   EN 1993-1-1:2005.
-- Section values: /work/shared/REFERENCES.md handbook table (from memory); E = 210 GPa, 3.2.6.
+- Section values: docs/references.md handbook table (from memory); E = 210 GPa, 3.2.6.
 """
 
 from __future__ import annotations
@@ -19,15 +19,15 @@ import pandas as pd
 import pytest
 
 from postproc.errors import InputError, TopologyError
-from postproc.frame import Frame
-from postproc.members import design_members
-from postproc.results import Results
-from postproc.stability import (amplify_sway_effects, analysis_path, bow_imperfections_needed,
+from postproc.model.frame import Frame
+from postproc.model.members import design_members
+from postproc.model.results import Results
+from postproc.stability.frame_stability import (amplify_sway_effects, analysis_path, bow_imperfections_needed,
                                 buckling_lengths, critical_load_factors, effective_length_ratio,
                                 equivalent_horizontal_forces, sway_imperfection)
 
 E = 210e9                   # Pa, EN 1993-1-1 3.2.6(1)
-I_HEB200_Y = 5696e-8        # m4, handbook (REFERENCES.md, from memory)
+I_HEB200_Y = 5696e-8        # m4, handbook (docs/references.md, from memory)
 I_HEB200_Z = 2003e-8
 CLOSED_FORM_REL = 0.01      # the brief's 1 %: four cubic elements per member err by ~0.1 %
 EXACT_REL = 1e-9            # pure arithmetic of the standard's formulas
@@ -37,7 +37,7 @@ FORCE_COLS = ["combination", "element", "x_m", "N_N", "Vy_N", "Vz_N", "T_Nm", "M
 
 
 def sections() -> pd.DataFrame:
-    """HEB 200, IPE 300 (handbook, REFERENCES.md, from memory) and a stiff beam standing in for
+    """HEB 200, IPE 300 (handbook, docs/references.md, from memory) and a stiff beam standing in for
     a rigid one (1000 times the column's stiffness, a modelling device, not a real section)."""
     return pd.DataFrame({
         "A": [78.1e-4, 53.8e-4, 1.0], "I_y": [I_HEB200_Y, 8356e-8, 1000 * I_HEB200_Y],
@@ -211,7 +211,7 @@ def test_braced_frame_has_no_sway_mode():
 
 def test_sparse_solver_agrees_with_the_dense_one(monkeypatch):
     # larger models use sparse LU and scipy's eigsh; force them on a small model
-    import postproc.stability_eigen as eig
+    import postproc.stability.eigen as eig
     f = portal(PINNED, beam="IPE 300", brace=True)
     axial = {"U1": {"C1": -3e5, "C2": -2e5, "R1": -1e4}}
     dense = run(f, axial)[2]

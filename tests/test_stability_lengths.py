@@ -18,11 +18,11 @@ import pandas as pd
 import pytest
 from scipy.optimize import brentq
 
-from postproc.frame import Frame
-from postproc.members import Members, design_members
-from postproc.results import Results
-from postproc.stability import analysis_path, buckling_lengths, critical_load_factors
-from postproc.stability_lengths import SHOWN_LENGTH_CAP, restraint_positions, shown_lengths
+from postproc.model.frame import Frame
+from postproc.model.members import Members, design_members
+from postproc.model.results import Results
+from postproc.stability.frame_stability import analysis_path, buckling_lengths, critical_load_factors
+from postproc.stability.lengths import SHOWN_LENGTH_CAP, restraint_positions, shown_lengths
 
 E = 210e9                   # Pa, EN 1993-1-1 3.2.6(1)
 I_HEB200_Y = 5696e-8        # m4, handbook (from memory)

@@ -14,7 +14,7 @@ Sources of the expected values:
   test. It is exact for the eigenproblem here: a straight-line (chord) displacement and a bow
   that vanishes at both ends are orthogonal in both the bending and the geometric stiffness
   (integral of w' over the member is zero), so the bows of the members do not enter the sway mode.
-- Sections: handbook values, REFERENCES.md (from memory); E = 210 GPa, EN 1993-1-1 3.2.6.
+- Sections: handbook values, docs/references.md (from memory); E = 210 GPa, EN 1993-1-1 3.2.6.
 """
 
 from __future__ import annotations
@@ -24,15 +24,15 @@ import pytest
 import scipy.linalg as sla
 from scipy.optimize import brentq
 
-from postproc.frame import Frame
-from postproc.members import design_members
-from postproc.results import Results
-from postproc.stability import analysis_path, buckling_lengths, critical_load_factors
+from postproc.model.frame import Frame
+from postproc.model.members import design_members
+from postproc.model.results import Results
+from postproc.stability.frame_stability import analysis_path, buckling_lengths, critical_load_factors
 from tests.test_stability import (FIXED, I_HEB200_Y, PINNED, combos, constant_forces, make_frame,
                                   portal)
 
 E = 210e9                   # Pa, EN 1993-1-1 3.2.6(1)
-A_IPE300, I_IPE300_Z = 53.8e-4, 604e-8      # m2, m4, handbook (REFERENCES.md, from memory)
+A_IPE300, I_IPE300_Z = 53.8e-4, 604e-8      # m2, m4, handbook (docs/references.md, from memory)
 A_STIFF = 1.0               # the modelling device of tests/test_stability.sections()
 CLOSED_FORM_REL = 0.01      # four cubic elements per member err by ~0.1 %
 
@@ -150,7 +150,7 @@ def test_sway_mode_behind_more_member_modes_than_the_first_search(monkeypatch, d
     """A diagonal so slender (alpha 0.07) that its first six modes all come before the sway mode
     (5, the two-freedom model): the search goes on, in the dense solver to all modes, in the
     sparse one to eighteen, and both find the sway mode."""
-    import postproc.stability_eigen as eig
+    import postproc.stability.eigen as eig
     if not dense:
         monkeypatch.setattr(eig, "DENSE_MAX", 0)
     f, C, P, a_sway = bay_case(0.07, 5.0)
@@ -164,8 +164,8 @@ def test_sway_mode_behind_more_member_modes_than_the_first_search(monkeypatch, d
 def test_no_sway_mode_below_10_is_said_and_not_passed(monkeypatch):
     """With the search cut short before the sway mode (the sparse solver, a single mode
     searched), alpha_cr is not found: NaN, path 'not evaluated', and the note says why."""
-    import postproc.stability as st
-    import postproc.stability_eigen as eig
+    import postproc.stability.frame_stability as st
+    import postproc.stability.eigen as eig
     monkeypatch.setattr(eig, "DENSE_MAX", 0)
     monkeypatch.setattr(st, "MODES_FIRST", 1)
     monkeypatch.setattr(st, "MODES_MAX", 1)

@@ -10,7 +10,7 @@ Reference for amplified moments: a geometrically non-linear (P-Delta, Newton) Op
 the same frame under the same loads, against the first-order OpenSees moments times
 1/(1 - 1/alpha_cr) (5.2.2(5B)). The tool's own alpha_cr is used for the amplification.
 
-Frames are invented (a two-bay shed frame); sections from /work/shared/REFERENCES.md.
+Frames are invented (a two-bay shed frame); sections from docs/references.md.
 """
 
 from __future__ import annotations
@@ -20,10 +20,10 @@ import pandas as pd
 import pytest
 import scipy.linalg as sla
 
-from postproc.frame import Frame
-from postproc.members import design_members
-from postproc.results import Results
-from postproc.stability import (amplify_sway_effects, analysis_path, critical_load_factors)
+from postproc.model.frame import Frame
+from postproc.model.members import design_members
+from postproc.model.results import Results
+from postproc.stability.frame_stability import (amplify_sway_effects, analysis_path, critical_load_factors)
 
 ops = pytest.importorskip("openseespy.opensees")
 pytestmark = pytest.mark.opensees
@@ -33,7 +33,7 @@ ALPHA_REL = 0.02                # the brief's 2 %: both sides are discretised di
 MOMENT_REL = 0.05               # the brief's 5 %: 1/(1 - 1/alpha_cr) is an approximation
 PARTS = 10                      # elements per member in both models
 
-SECTIONS = pd.DataFrame({       # handbook values, REFERENCES.md (from memory), SI
+SECTIONS = pd.DataFrame({       # handbook values, docs/references.md (from memory), SI
     "A": [78.1e-4, 53.8e-4], "I_y": [5696e-8, 8356e-8], "I_z": [2003e-8, 604e-8],
     "I_t": [59.3e-8, 20.1e-8], "I_w": [171e-9, 126e-9], "shape": ["I", "I"],
 }, index=pd.Index(["HEB 200", "IPE 300"], name="section"))
@@ -133,7 +133,7 @@ def opensees_alpha(model, loads) -> float:
 
 
 def first_order_results(model, loads, comb="U1") -> Results:
-    """Forces of a linear OpenSees analysis in the sign convention of postproc.results."""
+    """Forces of a linear OpenSees analysis in the sign convention of postproc.model.results."""
     nodes, elements, *_ = model
     build_opensees(model, "Linear", loads)
     static(1, "Linear")
@@ -142,7 +142,7 @@ def first_order_results(model, loads, comb="U1") -> Results:
         n1, v1, m1, n2, v2, m2 = ops.eleResponse(k + 1, "localForce")
         length = float(np.hypot(*(np.subtract(nodes[j], nodes[i]))))
         # internal force on the positive face: minus the end force at i, plus the end force at j;
-        # local z of a plane element is the OpenSees local y, local y is -Z (postproc.frame)
+        # local z of a plane element is the OpenSees local y, local y is -Z (postproc.model.frame)
         rows.append((comb, eid, 0.0, -n1, 0.0, -v1, 0.0, m1, 0.0))
         rows.append((comb, eid, length, n2, 0.0, v2, 0.0, -m2, 0.0))
     forces = pd.DataFrame(rows, columns=["combination", "element", "x_m", "N_N", "Vy_N", "Vz_N",

@@ -1,6 +1,6 @@
 """The sway part of 5.2.2(5B) in a space frame: shift, racking and twist of a storey.
 
-Statics of the method (postproc/stability_sway.py): in a space frame every column top is held
+Statics of the method (postproc/stability/sway.py): in a space frame every column top is held
 along X and Y, so a frame loaded only by horizontal forces at its column tops has them taken
 straight back by the props of the held frame, which then carries nothing; the sway part is the
 whole response, whatever the plan stiffness of the beams. The displacements given
@@ -14,12 +14,12 @@ import numpy as np
 import pandas as pd
 import pytest
 
-from postproc.frame import Frame
-from postproc.members import design_members
-from postproc.results import Results
-from postproc.stability import sub_elements, sway_part
-from postproc.stability_eigen import build_mesh
-from postproc.stability_sway import solve
+from postproc.model.frame import Frame
+from postproc.model.members import design_members
+from postproc.model.results import Results
+from postproc.stability.frame_stability import sub_elements, sway_part
+from postproc.stability.eigen import build_mesh
+from postproc.stability.sway import solve
 
 SECTIONS = pd.DataFrame({       # handbook values (from memory), SI
     "A": [78.1e-4, 53.8e-4], "I_y": [5696e-8, 8356e-8], "I_z": [2003e-8, 604e-8],

@@ -20,7 +20,7 @@ Sources of the expected values:
   handler; the load factor at which the tangent stiffness becomes singular (the smallest positive
   generalised eigenvalue of K_E and K_E - K_T, both read with printA), as in
   tests/test_stability_opensees.py.
-- Sections: handbook values, REFERENCES.md (from memory); E = 210 GPa, G = 81 GPa, 3.2.6.
+- Sections: handbook values, docs/references.md (from memory); E = 210 GPa, G = 81 GPa, 3.2.6.
 """
 
 from __future__ import annotations
@@ -32,16 +32,16 @@ import scipy.linalg as sla
 from scipy.optimize import brentq
 
 from postproc.errors import InputError, TopologyError
-from postproc.frame import Frame
-from postproc.members import design_members
-from postproc.results import Results
-from postproc.stability import critical_load_factors
+from postproc.model.frame import Frame
+from postproc.model.members import design_members
+from postproc.model.results import Results
+from postproc.stability.frame_stability import critical_load_factors
 from tests.test_stability import combos, constant_forces
 
 E, G = 210e9, 81e9          # Pa, EN 1993-1-1 3.2.6(1)
 H = 3.5
 XS, YS = (0.0, 6.0), (0.0, 4.0, 8.0)
-SECTIONS = pd.DataFrame({   # handbook values, REFERENCES.md (from memory), SI
+SECTIONS = pd.DataFrame({   # handbook values, docs/references.md (from memory), SI
     "A": [78.1e-4, 53.8e-4], "I_y": [5696e-8, 8356e-8], "I_z": [2003e-8, 604e-8],
     "I_t": [59.3e-8, 20.1e-8], "I_w": [171e-9, 126e-9], "shape": ["I", "I"],
 }, index=pd.Index(["HEB 200", "IPE 300"], name="section"))

@@ -17,10 +17,10 @@ import numpy as np
 import pandas as pd
 import pytest
 
-from postproc.frame import Frame
-from postproc.members import design_members
-from postproc.results import Results
-from postproc.stability import critical_load_factors
+from postproc.model.frame import Frame
+from postproc.model.members import design_members
+from postproc.model.results import Results
+from postproc.stability.frame_stability import critical_load_factors
 
 E = 210e9                   # Pa, EN 1993-1-1 3.2.6(1)
 I_HEB200_Y = 5696e-8        # m4, handbook (from memory)
@@ -48,7 +48,7 @@ def frame(nodes, elements, bases) -> Frame:
 
 def results(f: Frame, per_element: dict[str, tuple[float, float]]) -> Results:
     """Constant N and Vz along each element named; zero elsewhere. Columns run upwards, so
-    their local z is -X (postproc.frame) and Vz = -H/2 pushes the part below along +X."""
+    their local z is -X (postproc.model.frame) and Vz = -H/2 pushes the part below along +X."""
     ends = f.nodes.loc[f.elements["node_j"], ["x_m", "y_m"]].to_numpy() - \
         f.nodes.loc[f.elements["node_i"], ["x_m", "y_m"]].to_numpy()
     rows = []

@@ -10,7 +10,7 @@ have opposite signs.
 Reference: a geometrically non-linear OpenSees analysis of the same model (PDelta transformation,
 Newton, 20 load steps), source OpenSees. The tool's side: a linear OpenSees analysis of the same
 model (forces and node displacements), the tool's own alpha_cr, the sway part separated by
-`postproc.stability_sway` and amplified by 1 / (1 - 1/alpha_cr).
+`postproc.stability.sway` and amplified by 1 / (1 - 1/alpha_cr).
 """
 
 from __future__ import annotations
@@ -19,10 +19,10 @@ import numpy as np
 import pandas as pd
 import pytest
 
-from postproc.frame import Frame
-from postproc.members import design_members
-from postproc.results import Results
-from postproc.stability import (amplified_part, amplify_sway_effects, analysis_path,
+from postproc.model.frame import Frame
+from postproc.model.members import design_members
+from postproc.model.results import Results
+from postproc.stability.frame_stability import (amplified_part, amplify_sway_effects, analysis_path,
                                 critical_load_factors, sway_imperfection, sway_part)
 
 ops = pytest.importorskip("openseespy.opensees")
@@ -110,7 +110,7 @@ def analyse(model, transf: str, node_loads, steps: int):
         n1, v1, m1, n2, v2, m2 = ops.eleResponse(k + 1, "localForce")
         length = float(np.hypot(*np.subtract(nodes[j], nodes[i])))
         # positive face: minus the end force at i, plus the end force at j; local z of a plane
-        # element is the OpenSees local y, local y is -Z (postproc.frame)
+        # element is the OpenSees local y, local y is -Z (postproc.model.frame)
         rows.append(("U1", eid, 0.0, -n1, 0.0, -v1, 0.0, m1, 0.0))
         rows.append(("U1", eid, length, n2, 0.0, v2, 0.0, -m2, 0.0))
     forces = pd.DataFrame(rows, columns=["combination", "element", "x_m", "N_N", "Vy_N", "Vz_N",
@@ -195,7 +195,7 @@ def test_amplified_sway_moments_come_with_non_sway_lengths():
     """5.2.2(8): with the sway effects amplified (and the imperfection in the forces) the
     columns are checked with their non-sway in-plane length, never a sway length on top; the
     same forces without the imperfection take sway lengths and are not amplified."""
-    from postproc.stability import buckling_lengths
+    from postproc.stability.frame_stability import buckling_lengths
 
     model = portal()
     frame = to_frame(model)

@@ -95,7 +95,7 @@ def analyse(case: str) -> tuple[list[dict], list[dict]]:
         n_i, v_i, m_i = ops.eleResponse(etags[name], "localForce")[:3]
         q = -udl[int(name[2])] * 1e3 if name.startswith("B") else 0.0  # local y load, N/m
         for x in np.linspace(0.0, length, STATIONS):
-            # resultants on the positive face (postproc/results.py): N, Vz (in plane), My
+            # resultants on the positive face (postproc/model/results.py): N, Vz (in plane), My
             rows.append({"load_case": case, "element": name, "x [m]": round(x, 4),
                          "N [kN]": -n_i / 1e3, "Vz [kN]": -(v_i + q * x) / 1e3,
                          "My [kNm]": (m_i - x * v_i - q * x * x / 2) / 1e3})

@@ -51,10 +51,14 @@ import numpy as np
 from ..ec3 import cross_section as cs
 from ..ec3 import effective_resistance as er
 from ..errors import InputError
-from ..sections.classification import section_class
+from ..ec3.classification import section_class
 from ..sections.effective import STRESS_KEYS, parts_at_stress
 from . import effective_rows as eff_rows
-from .base import CheckBlock, MemberRows, at_station, no_reason, row_any
+from ..model.rows import CheckBlock, MemberRows, at_station, no_reason, row_any
+
+__all__ = ["CLASS_4", "CLASS_4_CHS", "CLASS_UNKNOWN", "LINEAR_SUM", "NAN_FORCE",
+           "NM_NEEDS_GEOMETRY", "NOISE", "SHEAR_BUCKLING", "SHEAR_LINEAR_SUM", "SHEAR_UNKNOWN",
+           "TORSION", "TORSION_NEGLIGIBLE", "WEB_UNKNOWN", "cross_section_checks"]
 
 NOISE = 1e-6
 """Forces below NOISE x (A f_y, W f_y, ...) are numerical noise and count as 0."""

@@ -10,9 +10,12 @@ from __future__ import annotations
 
 import numpy as np
 
-from ..row_reductions import row_any
+from ..numerics.row_reductions import row_any
 from ..sections.effective import effective_properties_where
-from .base import MemberRows
+from ..model.rows import MemberRows
+
+__all__ = ["CLASS_4_CHS", "CLASS_4_NO_GEOMETRY", "UNITS", "VALUE_KEYS", "class_4_reason",
+           "column_name", "effective_values"]
 
 CLASS_4_CHS = ("class 4 circular hollow section: shell buckling (EN 1993-1-6) is not covered")
 CLASS_4_NO_GEOMETRY = ("class 4 section without the dimensions of an I section or RHS: "

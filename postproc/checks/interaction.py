@@ -38,6 +38,8 @@ and 4), and Annex A takes W_eff,y in lambda_bar_0 and A_eff / W_eff,y in epsilon
 
 from __future__ import annotations
 
+from dataclasses import dataclass
+
 import numpy as np
 import pandas as pd
 
@@ -47,8 +49,10 @@ from ..ec3 import interaction_annex_b as annex_b
 from ..ec3 import effective_resistance as er
 from ..ec3 import moment_factors as mf
 from . import effective_rows as eff_rows
-from ..row_reductions import row_sum
-from .base import CheckBlock, MemberRows, no_reason
+from ..numerics.row_reductions import row_sum
+from ..model.rows import CheckBlock, MemberRows, no_reason
+
+__all__ = ["BUCKLING_KEYS", "CLASS_4", "N_BASIS", "SharedInputs", "interaction_checks"]
 
 CLASS_4 = eff_rows.CLASS_4_NO_GEOMETRY
 BUCKLING_KEYS = ("chi_y", "chi_z", "chi_LT", "lambda_bar_y", "lambda_bar_z", "N_cr_y_N",
@@ -202,7 +206,53 @@ def _section_kind(shape: np.ndarray) -> np.ndarray:
     return kinds[np.where(shape == "I", 1, np.where((shape == "RHS") | (shape == "CHS"), 2, 0))]
 
 
-def _common(rows: MemberRows) -> dict:
+@dataclass(frozen=True)
+class SharedInputs:
+    """What both annexes read, computed once per chunk of rows (`_common`); (R,) arrays unless said.
+
+    Attributes:
+        b: the member buckling values (`postproc.checks.member_buckling.buckling_values`).
+        d: design values: N_Ed (compression positive), M_y_Ed, M_z_Ed (largest |M|), compressed,
+            applies (bent and able to buckle).
+        sec: gross section properties A, W_pl_y, W_pl_z, W_el_y, W_el_z, I_y, I_z, I_t.
+        cls: the member's section class (the worst station; NaN unknown).
+        k_class: the class the annexes' factors use (class 4 takes class 3).
+        eff: effective properties of class 4 rows (`effective_rows.effective_values`).
+        twist, ltb: the member is susceptible to torsional deformations / to LTB.
+        chi_y, chi_z, chi_LT: reduction factors; rules: which 6.3.1.2(4) / 6.3.2.2(4) rules set a
+            factor to 1 (text per row).
+        res: Table 6.7 resistances N_Rk_N, M_y_Rk_Nm, M_z_Rk_Nm, Delta_M_y_Ed_Nm, Delta_M_z_Ed_Nm.
+        rule_setting: `DesignSettings.negligible_rules_in_interaction`.
+        x_seg, M_seg, seg_note: the governing LTB segment's stations, moments and how found.
+        reason: why a row cannot be evaluated ('' where it can).
+        beyond: N_Ed at or above N_cr_min, the lowest elastic critical force.
+        diagrams: the read moment diagrams about y and z (`moment_factors.read_diagram`).
+    """
+
+    b: dict
+    d: dict
+    sec: dict
+    cls: np.ndarray
+    k_class: np.ndarray
+    eff: dict
+    twist: np.ndarray
+    ltb: np.ndarray
+    chi_LT: np.ndarray
+    chi_y: np.ndarray
+    chi_z: np.ndarray
+    rules: np.ndarray
+    res: dict
+    rule_setting: str
+    x_seg: np.ndarray
+    M_seg: np.ndarray
+    seg_note: np.ndarray
+    reason: np.ndarray
+    beyond: np.ndarray
+    N_cr_min: np.ndarray
+    diagrams: dict
+
+
+def _common(rows: MemberRows) -> SharedInputs:
     """Everything both annexes share: design values, buckling values, Table 6.7, diagrams."""
     b = _buckling(rows)
     missing = [k for k in BUCKLING_KEYS if k not in b]
@@ -253,18 +303,17 @@ def _common(rows: MemberRows) -> dict:
     N_cr_min = np.fmin(np.asarray(b["N_cr_y_N"], float), np.asarray(b["N_cr_z_N"], float))
     N_cr_min = np.where(twist, np.fmin(N_cr_min, np.asarray(b["N_cr_T_N"], float)), N_cr_min)
     beyond = d["N_Ed"] >= N_cr_min
-    return {"b": b, "d": d, "sec": sec, "cls": cls, "k_class": k_class, "eff": eff,
-            "twist": twist, "ltb": ltb, "chi_LT": chi_LT,
-            "chi_y": chi_y, "chi_z": chi_z, "rules": rules, "res": res,
-            "rule_setting": rows.settings.negligible_rules_in_interaction, "x_seg": x_seg,
-            "M_seg": M_seg, "seg_note": seg_note, "reason": reason, "beyond": beyond, "N_cr_min": N_cr_min,
-            "diagrams": diagrams}
+    return SharedInputs(b=b, d=d, sec=sec, cls=cls, k_class=k_class, eff=eff, twist=twist,
+                        ltb=ltb, chi_LT=chi_LT, chi_y=chi_y, chi_z=chi_z, rules=rules, res=res,
+                        rule_setting=rows.settings.negligible_rules_in_interaction, x_seg=x_seg,
+                        M_seg=M_seg, seg_note=seg_note, reason=reason, beyond=beyond,
+                        N_cr_min=N_cr_min, diagrams=diagrams)
 
 
-def _finish(rows: MemberRows, c: dict, eq: dict[str, np.ndarray], label: str, clause: str,
+def _finish(rows: MemberRows, c: SharedInputs, eq: dict[str, np.ndarray], label: str, clause: str,
             values: dict[str, np.ndarray], reason: np.ndarray) -> CheckBlock:
     """Utilisation and the block; a NaN sum never passes."""
-    d, beyond, N_cr_min = c["d"], c["beyond"], c["N_cr_min"]
+    d, beyond, N_cr_min = c.d, c.beyond, c.N_cr_min
     with np.errstate(invalid="ignore", divide="ignore"):
         # At or above an elastic critical force the member cannot carry N_Ed at all: report
         # the failure (at least N_Ed / N_cr >= 1) rather than amplification factors of no meaning.
@@ -280,38 +329,38 @@ def _finish(rows: MemberRows, c: dict, eq: dict[str, np.ndarray], label: str, cl
                       values=values)
 
 
-def _equations(rows: MemberRows, c: dict, k: dict[str, np.ndarray]
+def _equations(rows: MemberRows, c: SharedInputs, k: dict[str, np.ndarray]
                ) -> tuple[dict[str, np.ndarray], dict[str, np.ndarray]]:
-    d, b, res = c["d"], c["b"], c["res"]
+    d, b, res = c.d, c.b, c.res
     g = rows.settings.gamma_M1
-    common = dict(chi_LT=c["chi_LT"], N_Rk=res["N_Rk_N"], M_y_Rk=res["M_y_Rk_Nm"],
+    common = dict(chi_LT=c.chi_LT, N_Rk=res["N_Rk_N"], M_y_Rk=res["M_y_Rk_Nm"],
                   M_z_Rk=res["M_z_Rk_Nm"], Delta_M_y_Ed=res["Delta_M_y_Ed_Nm"],
                   Delta_M_z_Ed=res["Delta_M_z_Ed_Nm"], gamma_M1=g)
     e61 = annex_b.interaction_6_61(d["N_Ed"], d["M_y_Ed"], d["M_z_Ed"],
-                                   chi_y=c["chi_y"], k_yy=k["k_yy"],
+                                   chi_y=c.chi_y, k_yy=k["k_yy"],
                                    k_yz=k["k_yz"], **common)
     e62 = annex_b.interaction_6_62(d["N_Ed"], d["M_y_Ed"], d["M_z_Ed"],
-                                   chi_z=c["chi_z"], k_zy=k["k_zy"],
+                                   chi_z=c.chi_z, k_zy=k["k_zy"],
                                    k_zz=k["k_zz"], **common)
     return e61, e62
 
 
-def _shared_values(c: dict, k: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
-    b, res, d = c["b"], c["res"], c["d"]
+def _shared_values(c: SharedInputs, k: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
+    b, res, d = c.b, c.res, c.d
     R = res["N_Rk_N"].shape[0]
     return {"N_Ed_basis": d["basis"], "N_t_Ed_N": d["N_t_Ed"],
-            "chi_y": c["chi_y"], "chi_z": c["chi_z"], "chi_LT": c["chi_LT"],
-            "negligible_rules_applied": c["rules"],
-            "negligible_rules_in_interaction": np.full(R, c["rule_setting"]),
+            "chi_y": c.chi_y, "chi_z": c.chi_z, "chi_LT": c.chi_LT,
+            "negligible_rules_applied": c.rules,
+            "negligible_rules_in_interaction": np.full(R, c.rule_setting),
             "lambda_bar_y": np.asarray(b["lambda_bar_y"], float),
             "lambda_bar_z": np.asarray(b["lambda_bar_z"], float),
             "k_yy": k["k_yy"], "k_yz": k["k_yz"], "k_zy": k["k_zy"], "k_zz": k["k_zz"],
             "N_Rk_N": res["N_Rk_N"], "M_y_Rk_Nm": res["M_y_Rk_Nm"], "M_z_Rk_Nm": res["M_z_Rk_Nm"],
             "Delta_M_y_Ed_Nm": res["Delta_M_y_Ed_Nm"], "Delta_M_z_Ed_Nm": res["Delta_M_z_Ed_Nm"],
-            **{eff_rows.column_name(k): c["eff"][k]
+            **{eff_rows.column_name(k): c.eff[k]
                for k in ("A_eff", "W_eff_y", "W_eff_z", "e_N_y", "e_N_z")},
-            "section_class": c["cls"], "torsion_susceptible": c["twist"],
-            "ltb_susceptible": c["ltb"], "C_mLT_diagram": c["seg_note"],
+            "section_class": c.cls, "torsion_susceptible": c.twist,
+            "ltb_susceptible": c.ltb, "C_mLT_diagram": c.seg_note,
             "LT_segment_start_m": b.get("interaction_segment_start_m",
                                         b.get("ltb_segment_start_m", np.full(R, np.nan))),
             "LT_segment_end_m": b.get("interaction_segment_end_m",
@@ -325,7 +374,7 @@ def _diagram_values(tag: str, shape: dict[str, np.ndarray]) -> dict[str, np.ndar
             f"alpha_h_{tag}": shape["alpha_h"], f"span_load_{tag}": shape["load"]}
 
 
-def _k_zy_zero(rows: MemberRows, c: dict) -> np.ndarray:
+def _k_zy_zero(rows: MemberRows, c: SharedInputs) -> np.ndarray:
     """Rows where the note to Table B.1 is taken (k_zy = 0), as `settings.k_zy_zero` allows:
     members not susceptible to torsional deformation, under axial compression and uniaxial
     bending M_y,Ed (no M_z,Ed anywhere), of the section shapes the setting names."""
@@ -333,29 +382,29 @@ def _k_zy_zero(rows: MemberRows, c: dict) -> np.ndarray:
     shape = np.asarray(rows.section["shape"], dtype=object)
     named = {"off": np.zeros(shape.shape, bool), "I": shape == "I",
              "I and RHS": (shape == "I") | (shape == "RHS")}[setting]
-    d = c["d"]
-    return named & ~c["twist"] & d["compressed"] & (d["M_z_Ed"] == 0) & (d["M_y_Ed"] > 0)
+    d = c.d
+    return named & ~c.twist & d["compressed"] & (d["M_z_Ed"] == 0) & (d["M_y_Ed"] > 0)
 
 
-def _annex_b_blocks(rows: MemberRows, c: dict, suffix: str) -> list[CheckBlock]:
-    d, b = c["d"], c["b"]
+def _annex_b_blocks(rows: MemberRows, c: SharedInputs, suffix: str) -> list[CheckBlock]:
+    d, b = c.d, c.b
     R = rows.n_rows
     f_y = mf.C_m_annex_b(rows.x, rows.My, sway=rows.info.get("sway_y"),
-                         diagram=c["diagrams"]["y"])
+                         diagram=c.diagrams["y"])
     f_z = mf.C_m_annex_b(rows.x, rows.Mz, sway=rows.info.get("sway_z"),
-                         diagram=c["diagrams"]["z"])
-    f_LT = mf.C_m_annex_b(c["x_seg"], c["M_seg"], sway=np.zeros(R, dtype=bool))
+                         diagram=c.diagrams["z"])
+    f_LT = mf.C_m_annex_b(c.x_seg, c.M_seg, sway=np.zeros(R, dtype=bool))
     g = rows.settings.gamma_M1
-    chi_y, chi_z = c["chi_y"], c["chi_z"]
-    n_y = annex_b.n_ratio(d["N_Ed"], chi_y, c["res"]["N_Rk_N"], gamma_M1=g)
-    n_z = annex_b.n_ratio(d["N_Ed"], chi_z, c["res"]["N_Rk_N"], gamma_M1=g)
+    chi_y, chi_z = c.chi_y, c.chi_z
+    n_y = annex_b.n_ratio(d["N_Ed"], chi_y, c.res["N_Rk_N"], gamma_M1=g)
+    n_z = annex_b.n_ratio(d["N_Ed"], chi_z, c.res["N_Rk_N"], gamma_M1=g)
     k = annex_b.k_factors_annex_b(
         C_my=f_y["C_m"], C_mz=f_z["C_m"], C_mLT=f_LT["C_m"],
         lambda_bar_y=np.asarray(b["lambda_bar_y"], float),
         lambda_bar_z=np.asarray(b["lambda_bar_z"], float), n_y=n_y, n_z=n_z,
-        section_class=c["k_class"], section_kind=_section_kind(rows.section["shape"]),
-        torsion_susceptible=c["twist"], k_zy_zero=_k_zy_zero(rows, c))
-    reason = c["reason"].copy()
+        section_class=c.k_class, section_kind=_section_kind(rows.section["shape"]),
+        torsion_susceptible=c.twist, k_zy_zero=_k_zy_zero(rows, c))
+    reason = c.reason.copy()
     _add(reason, np.isnan(f_y["C_m"]) | np.isnan(f_z["C_m"]) | np.isnan(f_LT["C_m"]),
          "moment diagram could not be read (missing moments at stations)")
     values = {**_shared_values(c, k), "n_y": n_y, "n_z": n_z,
@@ -372,21 +421,21 @@ def _annex_b_blocks(rows: MemberRows, c: dict, suffix: str) -> list[CheckBlock]:
                     reason)]
 
 
-def _annex_a_blocks(rows: MemberRows, c: dict, suffix: str) -> list[CheckBlock]:
-    d, b, sec, cls = c["d"], c["b"], c["sec"], c["cls"]
+def _annex_a_blocks(rows: MemberRows, c: SharedInputs, suffix: str) -> list[CheckBlock]:
+    d, b, sec, cls = c.d, c.b, c.sec, c.cls
     R = rows.n_rows
     N_Ed, M_y, M_z = d["N_Ed"], d["M_y_Ed"], d["M_z_Ed"]
     N_cr_y = np.asarray(b["N_cr_y_N"], float)
     N_cr_z = np.asarray(b["N_cr_z_N"], float)
     N_cr_T = np.asarray(b["N_cr_T_N"], float)
     f_y0 = mf.C_mi_0_annex_a(rows.x, rows.My, E=rows.E, I_i=sec["I_y"], L=rows.length,
-                             N_Ed=N_Ed, N_cr_i=N_cr_y, diagram=c["diagrams"]["y"])
+                             N_Ed=N_Ed, N_cr_i=N_cr_y, diagram=c.diagrams["y"])
     f_z0 = mf.C_mi_0_annex_a(rows.x, rows.Mz, E=rows.E, I_i=sec["I_z"], L=rows.length,
-                             N_Ed=N_Ed, N_cr_i=N_cr_z, diagram=c["diagrams"]["z"])
+                             N_Ed=N_Ed, N_cr_i=N_cr_z, diagram=c.diagrams["z"])
     plastic = (cls == 1) | (cls == 2)
     class_4 = cls == 4
-    W_y = np.where(plastic, sec["W_pl_y"], np.where(class_4, c["eff"]["W_eff_y"], sec["W_el_y"]))
-    twist = c["twist"]
+    W_y = np.where(plastic, sec["W_pl_y"], np.where(class_4, c.eff["W_eff_y"], sec["W_el_y"]))
+    twist = c.twist
     # Not susceptible to torsional deformation: no LTB, so lambda_bar_0 = 0 (M_cr,0 unbounded).
     lam_0 = np.where(twist, annex_a.lambda_bar_0(W_y, rows.f_y,
                                                  np.asarray(b["M_cr_0_Nm"], float)), 0.0)
@@ -397,15 +446,15 @@ def _annex_a_blocks(rows: MemberRows, c: dict, suffix: str) -> list[CheckBlock]:
     with np.errstate(invalid="ignore", divide="ignore"):
         # N_Ed = 0 (a beam): eps_y unbounded, so C_my tends to 1 (Table A.1)
         eps_y = np.where(M_y == 0, 0.0,
-                         M_y / N_Ed * np.where(class_4, c["eff"]["A_eff"] / c["eff"]["W_eff_y"],
+                         M_y / N_Ed * np.where(class_4, c.eff["A_eff"] / c.eff["W_eff_y"],
                                                sec["A"] / sec["W_el_y"]))
         a_LT = np.maximum(1 - sec["I_t"] / sec["I_y"], 0.0)
     cm = annex_a.C_m_annex_a(C_my_0=f_y0["C_m0"], C_mz_0=f_z0["C_m0"], lambda_bar_0=lam_0,
                              lambda_bar_0_limit=limit, epsilon_y=eps_y, a_LT=a_LT, N_Ed=N_Ed,
                              N_cr_z=N_cr_z, N_cr_T=N_cr_T)
     aux = annex_a.auxiliary_terms(
-        N_Ed=N_Ed, M_y_Ed=M_y, M_z_Ed=M_z, chi_y=c["chi_y"], chi_z=c["chi_z"],
-        chi_LT=c["chi_LT"],
+        N_Ed=N_Ed, M_y_Ed=M_y, M_z_Ed=M_z, chi_y=c.chi_y, chi_z=c.chi_z,
+        chi_LT=c.chi_LT,
         lambda_bar_y=np.asarray(b["lambda_bar_y"], float),
         lambda_bar_z=np.asarray(b["lambda_bar_z"], float), lambda_bar_0=lam_0, N_cr_y=N_cr_y,
         N_cr_z=N_cr_z, C_my=cm["C_my"], C_mz=cm["C_mz"], A=sec["A"], f_y=rows.f_y,
@@ -417,14 +466,14 @@ def _annex_a_blocks(rows: MemberRows, c: dict, suffix: str) -> list[CheckBlock]:
                                   C_mz=cm["C_mz"], C_mLT=cm["C_mLT"], mu_y=aux["mu_y"],
                                   mu_z=aux["mu_z"], w_y=aux["w_y"], w_z=aux["w_z"],
                                   C_yy=aux["C_yy"], C_yz=aux["C_yz"], C_zy=aux["C_zy"],
-                                  C_zz=aux["C_zz"], section_class=c["k_class"])
-    reason = c["reason"].copy()
+                                  C_zz=aux["C_zz"], section_class=c.k_class)
+    reason = c.reason.copy()
     _add(reason, np.isnan(f_y0["C_m0"]) | np.isnan(f_z0["C_m0"]),
          "moment diagram could not be read (missing moments at stations)")
     _add(reason, twist & np.isnan(lam_0), "M_cr,0 not available for lambda_bar_0 (Annex A)")
     _add(reason, twist & np.isnan(N_cr_T), "N_cr,T not available (Annex A)")
     # Rows at or above N_cr fail in _finish; their Annex A factors have no meaning.
-    _add(reason, ~c["beyond"] & ~np.isnan(cls) & (cls <= 4)
+    _add(reason, ~c.beyond & ~np.isnan(cls) & (cls <= 4)
          & (np.isnan(k["k_yy"]) | np.isnan(k["k_zz"]) | np.isnan(limit)),
          "Annex A factors could not be evaluated (section properties missing)")
     values = {**_shared_values(c, k), "C_my_0": f_y0["C_m0"], "C_mz_0": f_z0["C_m0"],

@@ -1,7 +1,7 @@
 """Member buckling checks: flexural and torsional buckling (6.3.1) and lateral-torsional buckling
 (6.3.2), and the per-row buckling values the interaction checks (6.3.3) reuse.
 
-Row data read here (see `postproc.checks.base.MemberRows`):
+Row data read here (see `postproc.model.rows.MemberRows`):
 - lengths 'L_cr_y', 'L_cr_z', 'L_cr_T', 'L_LT' (m, NaN unknown: that check is not evaluated).
 - section columns shape, fabrication, h, b, t_f, A, I_y, I_z, I_t, I_w, W_pl_y, W_el_y.
 - info 'section_class' (R, S) int per station (0 unknown), 'ltb_restrained' (R,) bool,
@@ -12,7 +12,7 @@ Row data read here (see `postproc.checks.base.MemberRows`):
   (optional: S460 selects the right-hand column of Table 6.2; without it the safe column is used),
   'buckling' (the dict of `buckling_values`, when the checker has computed it already),
   'ltb_points_m' (R, P) m (optional: positions of the lateral restraint points along the
-  member, ascending, NaN padding; `postproc.member_rows`), 'L_LT_override' (R,) (optional:
+  member, ascending, NaN padding; `postproc.model.member_rows`), 'L_LT_override' (R,) (optional:
   True where the project file gives L_LT).
 
 Lateral-torsional buckling segments (`_segment_plan`), the segment with the highest
@@ -50,8 +50,12 @@ from ..ec3 import critical_moment as cm
 from ..ec3 import flexural_buckling as fb
 from ..ec3 import lateral_torsional as lt
 from . import effective_rows as eff_rows
-from ..row_reductions import row_any, row_sum
-from .base import CheckBlock, MemberRows, no_reason
+from ..numerics.row_reductions import row_any, row_max, row_sum
+from ..model.rows import CheckBlock, MemberRows, no_reason
+
+__all__ = ["CLASS_4", "CLASS_UNKNOWN", "GENERIC", "GIVEN_LENGTH", "MAX_SEGMENTS", "NO_POSITIONS",
+           "POINT_TOL_M", "REAL_SPANS", "SEGMENT_BASIS", "buckling_values",
+           "flexural_buckling_checks", "lateral_torsional_checks"]
 
 MAX_SEGMENTS = 64  # equal parts of L_LT at most (restraint points: every span)
 POINT_TOL_M = 1e-6  # restraint points closer than this count as one; at an end, as the end
@@ -80,8 +84,8 @@ def _member_class(rows: MemberRows) -> np.ndarray:
         return np.full(rows.n_rows, np.nan)
     cls = np.where(rows.valid, np.asarray(cls, float), np.nan)
     unknown = ((cls == 0) | np.isnan(cls)) & rows.valid
-    worst = cm._row_max(np.where(np.isnan(cls), 0.0, cls))
-    return np.where(cm._row_any(unknown) | (worst == 0), np.nan, worst)
+    worst = row_max(np.where(np.isnan(cls), 0.0, cls))
+    return np.where(row_any(unknown) | (worst == 0), np.nan, worst)
 
 
 def _info(rows: MemberRows, key: str, default: float) -> np.ndarray:
@@ -458,8 +462,8 @@ def lateral_torsional_checks(rows: MemberRows) -> list[CheckBlock]:
     b = _buckling(rows)
     st = rows.settings
     My = np.where(rows.valid, rows.My, 0.0)
-    nan_force = cm._row_any(np.isnan(rows.My) & rows.valid)
-    bent = cm._row_any(np.abs(np.nan_to_num(My)) > 0) | nan_force
+    nan_force = row_any(np.isnan(rows.My) & rows.valid)
+    bent = row_any(np.abs(np.nan_to_num(My)) > 0) | nan_force
     applies = bent & np.asarray(b["ltb_susceptible"], bool)
     reason = np.asarray(b.get("reason_LT", b["reason"]), dtype=object).copy()
     _add(reason, nan_force, "bending moment M_y not known at some station")

@@ -14,6 +14,14 @@ from __future__ import annotations
 import numpy as np
 from numpy.typing import ArrayLike
 
+__all__ = ["A_v_z_I", "Array", "M_N_Rd_CHS", "M_N_y_Rd_I", "M_N_y_Rd_RHS", "M_N_z_Rd_I",
+           "M_N_z_Rd_RHS", "M_c_Rd", "M_y_V_Rd_I", "N_c_Rd", "N_pl_Rd", "N_t_Rd", "N_u_Rd", "SQRT3",
+           "V_pl_Rd", "V_pl_T_Rd_hollow", "a_I", "a_f_RHS", "a_w_RHS", "alpha_beta",
+           "biaxial_moment_utilisation", "epsilon", "is_elastic", "is_plastic", "linear_sum",
+           "moment_share_of_linear_sum", "no_reduction_y_I", "no_reduction_z_I",
+           "reduced_for_shear", "rho_shear", "sigma_x_Ed", "tau_t_Ed", "utilisation_N_M",
+           "web_part", "web_slenderness_ratio"]
+
 Array = np.ndarray
 SQRT3 = float(np.sqrt(3.0))
 

@@ -13,6 +13,9 @@ from __future__ import annotations
 import numpy as np
 from numpy.typing import ArrayLike
 
+__all__ = ["Array", "M_c_Rd_class_4", "N_c_Rd_class_4", "f_y_for_raised_epsilon",
+           "resistances_table_6_7_class_4", "sigma_com_Ed", "utilisation_6_44"]
+
 Array = np.ndarray
 
 

@@ -14,7 +14,7 @@ from __future__ import annotations
 import numpy as np
 from numpy.typing import ArrayLike
 
-from ..sections.classification import k_sigma_outstand
+from .classification import k_sigma_outstand
 
 Array = np.ndarray
 

@@ -9,6 +9,9 @@ from __future__ import annotations
 
 import numpy as np
 
+__all__ = ["ALPHA", "CURVES", "N_b_Rd", "N_cr_flexural", "N_cr_torsional", "Phi", "buckling_curves",
+           "buckling_negligible", "chi", "i_0_squared", "imperfection_factor", "lambda_bar"]
+
 CURVES = ("a0", "a", "b", "c", "d")
 ALPHA = {"a0": 0.13, "a": 0.21, "b": 0.34, "c": 0.49, "d": 0.76}
 

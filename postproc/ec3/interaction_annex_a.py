@@ -13,6 +13,9 @@ from __future__ import annotations
 
 import numpy as np
 
+__all__ = ["C_m_annex_a", "auxiliary_terms", "k_factors_annex_a", "lambda_bar_0",
+           "lambda_bar_0_limit"]
+
 
 def lambda_bar_0(W_y: np.ndarray, f_y: np.ndarray, M_cr_0: np.ndarray) -> np.ndarray:
     """EN 1993-1-1:2005, Annex A, Table A.1.

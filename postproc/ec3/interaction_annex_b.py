@@ -10,6 +10,10 @@ from __future__ import annotations
 
 import numpy as np
 
+__all__ = ["HOLLOW", "I_SECTION", "UNKNOWN_SHAPE", "interaction_6_61", "interaction_6_62",
+           "k_factors_annex_b", "k_yy_table_b1", "k_yz_table_b1", "k_zy_table_b1", "k_zy_table_b2",
+           "k_zz_table_b1", "n_ratio", "resistances_table_6_7"]
+
 # Section kinds for the k_zz row of Table B.1 (I-sections or rectangular hollow sections).
 I_SECTION, HOLLOW, UNKNOWN_SHAPE = "I", "hollow", "unknown"
 

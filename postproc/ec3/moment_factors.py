@@ -26,11 +26,16 @@ from __future__ import annotations
 import numpy as np
 import pandas as pd
 
-from ..row_reductions import row_any as _row_any
-from ..row_reductions import row_argmax as _row_argmax
-from ..row_reductions import row_cumsum as _row_cumsum
-from ..row_reductions import row_max as _row_max
-from ..row_reductions import row_sum as _row_sum
+from ..numerics.row_reductions import row_any as _row_any
+from ..numerics.row_reductions import row_argmax as _row_argmax
+from ..numerics.row_reductions import row_cumsum as _row_cumsum
+from ..numerics.row_reductions import row_max as _row_max
+from ..numerics.row_reductions import row_sum as _row_sum
+
+__all__ = ["CONCENTRATED", "C_M_SWAY", "C_m_annex_b", "C_m_table_b3", "C_mi_0_annex_a",
+           "C_mi_0_general", "C_mi_0_linear", "DISTRIBUTED", "INVALID", "LINEAR", "NONE",
+           "NO_MOMENT", "SPAN_LARGER", "SPAN_SMALLER", "UNDETERMINED", "chord_deflection",
+           "diagram_shape", "read_diagram", "sway_flags"]
 
 LINEAR, SPAN_SMALLER, SPAN_LARGER, NO_MOMENT, INVALID = (
     "linear", "span moment smaller than end moment", "span moment larger than end moment",

@@ -9,7 +9,7 @@ from pathlib import Path
 import numpy as np
 import pandas as pd
 
-from ..checker import CheckOutcome
+from ..model.outcome import CheckOutcome
 from .cells import formula_safe_table
 from .display import to_display
 from .links import member_slug
@@ -20,6 +20,9 @@ from .sheets import build_sheet, sheet_html, sheet_markdown
 from .spreadsheet import write_parquet, write_workbook
 from .summaries import member_grouping
 from .views import governing_checks
+
+__all__ = ["REPORT_FILES", "SHEET_ROW_COLUMNS", "csv_wanted", "member_records", "member_slices",
+           "ordered_summary", "write_report_outputs"]
 
 REPORT_FILES = {
     "report.html": "the report: summary, the frame drawn, members, stability, settings, sheets",

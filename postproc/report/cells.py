@@ -4,6 +4,8 @@ from __future__ import annotations
 
 import pandas as pd
 
+__all__ = ["FORMULA_STARTS", "formula_safe", "formula_safe_table"]
+
 # A spreadsheet treats a text cell starting with one of these as a formula (or as the start of
 # one, after a tab or carriage return); a leading apostrophe makes it plain text again.
 FORMULA_STARTS = ("=", "+", "-", "@", "\t", "\r")

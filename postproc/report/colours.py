@@ -8,6 +8,8 @@ from __future__ import annotations
 
 import numpy as np
 
+__all__ = ["NOT_EVALUATED_COLOUR", "VIRIDIS", "utilisation_colour"]
+
 # viridis sampled at 0, 1/8, ..., 1 (from memory of the published colour map)
 VIRIDIS = np.array([[0x44, 0x01, 0x54], [0x48, 0x28, 0x78], [0x3e, 0x49, 0x89],
                     [0x31, 0x68, 0x8e], [0x26, 0x82, 0x8e], [0x1f, 0x9e, 0x89],

@@ -4,6 +4,8 @@ from __future__ import annotations
 
 import pandas as pd
 
+__all__ = ["SUFFIXES", "UNITLESS", "display_name", "to_display"]
+
 # suffix -> (display unit, factor from SI)
 SUFFIXES = {"_Nm": ("kNm", 1e-3), "_N": ("kN", 1e-3), "_Pa": ("MPa", 1e-6),
             "_m2": ("cm2", 1e4), "_m3": ("cm3", 1e6), "_m4": ("cm4", 1e8), "_m6": ("cm6", 1e12),

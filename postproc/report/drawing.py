@@ -13,11 +13,14 @@ import html
 import numpy as np
 import pandas as pd
 
-from ..checks.base import FAIL, NOT_EVALUATED
-from ..frame import Frame
-from ..members import Members
+from ..model.rows import FAIL, NOT_EVALUATED
+from ..model.frame import Frame
+from ..model.members import Members
 from .colours import NOT_EVALUATED_COLOUR, VIRIDIS, utilisation_colour
 from .links import sheet_href
+
+__all__ = ["HEIGHT", "LINE", "MARGIN", "VIEW_TITLES", "WIDTH", "default_views", "frame_svg",
+           "legend_svg", "member_polylines", "projected", "short_label"]
 
 VIEW_TITLES = {"elevation": "elevation", "axonometric": "axonometric view", "plan": "plan",
                "elevation-x": "elevation looking along Y", "elevation-y": "elevation looking along X"}

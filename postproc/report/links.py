@@ -4,6 +4,8 @@ from __future__ import annotations
 
 import re
 
+__all__ = ["member_slug", "sheet_anchor", "sheet_href"]
+
 _UNSAFE = re.compile(r"[^A-Za-z0-9_-]")
 
 

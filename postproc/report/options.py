@@ -8,6 +8,8 @@ from dataclasses import asdict, dataclass
 
 from ..errors import InputError
 
+__all__ = ["PAPER_SIZES", "ReportOptions", "VIEWS_3D"]
+
 PAPER_SIZES = ("A4", "A3")
 VIEWS_3D = ("axonometric", "plan", "elevation-x", "elevation-y")
 

@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+__all__ = ["SCRIPT", "STYLE"]
+
 STYLE = """
 body { font-family: sans-serif; margin: 1.5em; max-width: 90em; line-height: 1.35; }
 h1 { font-size: 1.6em; } h2 { border-bottom: 2px solid #333; margin-top: 1.6em; }

@@ -15,14 +15,18 @@ import numpy as np
 import pandas as pd
 
 from .. import CAUTION, __version__
-from ..checker import CheckOutcome
-from ..checks.base import FAIL, NOT_EVALUATED, PASS
+from ..model.outcome import CheckOutcome
+from ..model.rows import FAIL, NOT_EVALUATED, PASS
 from .colours import utilisation_colour
 from .display import to_display
 from .drawing import VIEW_TITLES, default_views, frame_svg, legend_svg, member_polylines
 from .links import sheet_href
 from .options import ReportOptions
 from .page_style import SCRIPT, STYLE
+
+__all__ = ["STATUS_TEXT", "combination_shading", "combinations_html", "drawings", "esc",
+           "failing_by_combination", "histogram_svg", "member_shading", "members_table", "page",
+           "paged_table", "report_html", "sheet_page"]
 
 esc = html.escape
 STATUS_TEXT = {PASS: "pass", FAIL: "&#10007; FAIL", NOT_EVALUATED: "? not evaluated"}

@@ -6,6 +6,8 @@ from __future__ import annotations
 from contextlib import contextmanager
 from typing import Callable, Iterator
 
+__all__ = ["QUIET", "Stages", "Tick"]
+
 Tick = Callable[[int], None]
 
 

@@ -17,11 +17,15 @@ from dataclasses import dataclass, field
 import numpy as np
 import pandas as pd
 
-from ..checks.base import FAIL, NOT_EVALUATED
+from ..model.rows import FAIL, NOT_EVALUATED
 from .colours import utilisation_colour
 from .display import display_name
 from .links import sheet_anchor
 from .views import combination_utilisations, not_evaluated_cells
+
+__all__ = ["ANNEX_SOURCES", "FORCE_COLUMNS", "STATUS_WORDS", "Sheet", "VALUE_SOURCES",
+           "build_sheet", "fmt", "force_diagrams_svg", "interaction_svg", "sheet_html",
+           "sheet_markdown", "value_source"]
 
 # Where each intermediate value comes from in EN 1993-1-1:2005 (clause, equation or table; read
 # from the standard's numbering, recalled from memory). Keyed by check family prefix, then symbol.

@@ -11,6 +11,8 @@ import pandas as pd
 from .cells import formula_safe, formula_safe_table
 from .display import to_display
 
+__all__ = ["XLSX_MAX_ROWS", "arrow_ready", "write_parquet", "write_workbook"]
+
 XLSX_MAX_ROWS = 1_048_575  # rows below the header that one worksheet holds
 
 

@@ -5,7 +5,9 @@ from __future__ import annotations
 import numpy as np
 import pandas as pd
 
-from ..checks.base import FAIL, NOT_EVALUATED, PASS
+from ..model.rows import FAIL, NOT_EVALUATED, PASS
+
+__all__ = ["failures_by_combination", "member_grouping", "member_summary"]
 
 
 def member_summary(table: pd.DataFrame, members: pd.DataFrame) -> pd.DataFrame:
@@ -56,7 +58,7 @@ def failures_by_combination(table: pd.DataFrame) -> pd.DataFrame:
 def member_grouping(members) -> pd.DataFrame:
     """One row per design member: the elements it is made of, its kind and its restraint points.
 
-    `members` is a `postproc.members.Members`.
+    `members` is a `postproc.model.members.Members`.
     """
     table = members.members.copy()
     links = members.member_elements.sort_values(["member", "position"])

@@ -6,7 +6,9 @@ from __future__ import annotations
 import numpy as np
 import pandas as pd
 
-from ..checks.base import NOT_EVALUATED
+from ..model.rows import NOT_EVALUATED
+
+__all__ = ["combination_utilisations", "governing_checks", "not_evaluated_cells"]
 
 
 def governing_checks(table: pd.DataFrame) -> pd.DataFrame:

@@ -23,7 +23,7 @@ from pathlib import Path
 
 import pandas as pd
 
-from ..checker import CheckOutcome
+from ..model.outcome import CheckOutcome
 from ..errors import InputError
 from .bundle import REPORT_FILES, write_report_outputs
 from .cells import formula_safe_table
@@ -31,6 +31,10 @@ from .display import to_display
 from .options import ReportOptions
 from .progress import QUIET, Stages
 from .summaries import failures_by_combination, member_grouping, member_summary
+
+__all__ = ["ERROR_LOG", "FAILED_NOTE", "OUTPUT_FILES", "OWN_FILES", "REPLACED", "STAGING",
+           "discard_outputs", "prepare_output", "remove_leftovers", "write_error_log",
+           "write_outputs"]
 
 OUTPUT_FILES = {
     "summary.csv": "one row per member: largest utilisation, governing combination and check",

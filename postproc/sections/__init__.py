@@ -1,4 +1,6 @@
-"""Sections: properties from dimensions, the catalogue of standard sizes, classification.
+"""Sections: properties from dimensions and the catalogue of standard sizes.
+
+Classification (Table 5.2) is a clause function: `postproc.ec3.classification`.
 
 `build_sections(specs)` turns the user's section rows (catalogue designation, dimensions, or
 explicit properties) into the sections table every later stage reads. Index `section`; columns,
@@ -22,7 +24,6 @@ See docs/sections.md for the input columns and how each property is computed.
 """
 
 from .builder import COLUMNS, build_sections
-from .classification import section_class
 from .listing import catalogue_listing
 
-__all__ = ["COLUMNS", "build_sections", "catalogue_listing", "section_class"]
+__all__ = ["COLUMNS", "build_sections", "catalogue_listing"]

@@ -19,6 +19,10 @@ from ..errors import SectionError
 from . import catalogue as cat
 from . import shapes
 
+__all__ = ["COLUMNS", "DIMENSIONS", "DIMENSION_INPUTS", "FABRICATIONS", "GENERIC_INPUTS",
+           "GENERIC_REQUIRED", "INPUT_SHAPES", "LARGEST_MM", "LARGEST_PROPERTY", "PARTS",
+           "PROPERTIES", "SHAPES", "SQRT2", "build_sections"]
+
 SHAPES = ("I", "RHS", "CHS", "GENERIC")
 FABRICATIONS = ("rolled", "welded", "hot-finished", "cold-formed", "")
 DIMENSIONS = ["h", "b", "t_w", "t_f", "r", "a_w", "t", "r_o"]

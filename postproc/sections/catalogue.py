@@ -19,6 +19,9 @@ from importlib import resources
 
 import pandas as pd
 
+__all__ = ["CATALOGUE_COLUMNS", "FAMILIES", "HOLLOW_FAMILIES", "I_FAMILIES", "catalogue", "find",
+           "name_key", "suggestions"]
+
 I_FAMILIES = ("IPE", "HEA", "HEB", "HEM")
 HOLLOW_FAMILIES = ("SHS", "RHS", "CHS")
 FAMILIES = I_FAMILIES + HOLLOW_FAMILIES

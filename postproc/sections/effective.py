@@ -30,6 +30,9 @@ import numpy as np
 
 from ..ec3 import effective_width as ew
 
+__all__ = ["Array", "KEYS", "STRESS_KEYS", "WEB_PSI_BASIS", "effective_properties",
+           "effective_properties_where", "parts_at_stress"]
+
 Array = np.ndarray
 
 WEB_PSI_BASIS = "effective compression flange and gross web (EN 1993-1-5 4.4(3)), one pass"

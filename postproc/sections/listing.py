@@ -9,8 +9,10 @@ import pandas as pd
 from ..materials import strengths
 from . import catalogue as cat
 from .builder import build_sections
-from .classification import epsilon, internal_part_limit_elastic, outstand_limit_elastic
+from ..ec3.classification import epsilon, internal_part_limit_elastic, outstand_limit_elastic
 from .effective import effective_properties
+
+__all__ = ["DISPLAY", "GRADES", "catalogue_listing", "compression_class_4"]
 
 GRADES = ("S235", "S275", "S355", "S460")
 """Grades with a class 4 column and an A_eff column in the listing."""

@@ -28,6 +28,10 @@ from __future__ import annotations
 
 import numpy as np
 
+__all__ = ["Array", "SPANDREL_AREA", "SPANDREL_CENTROID", "SPANDREL_I_OWN", "chs",
+           "hollow_corner_radii", "i_section", "rhs", "shear_area_chs", "shear_areas_i",
+           "shear_areas_rhs"]
+
 Array = np.ndarray
 
 # A spandrel is the corner region between two plates at right angles and a quarter circle of

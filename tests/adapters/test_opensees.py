@@ -14,7 +14,7 @@ import pandas as pd
 import pytest
 
 from postproc.errors import InputError
-from postproc.frame import local_axes
+from postproc.model.frame import local_axes
 
 pytest.importorskip("openseespy.opensees")  # needs libblas3 and liblapack3 on Linux
 from adapters import opensees  # noqa: E402
@@ -32,7 +32,7 @@ def run(tmp_path: Path, script: str, project: str, **kw):
     (tmp_path / "model.py").write_text(textwrap.dedent(script))
     text = textwrap.dedent(project)
     (tmp_path / "project.toml").write_text(text)
-    return opensees.load(tomllib.loads(text), tmp_path / "project.toml")
+    return opensees.load_table(tomllib.loads(text), tmp_path / "project.toml")
 
 
 def at(results, combination: str, element: str) -> pd.DataFrame:
@@ -53,7 +53,7 @@ def build_model():
     ops.fix(1, 1, 1, {fix_rot})
     ops.fix(n + 1, 0, 1, 0)
     ops.geomTransf('Linear', 1)
-    ops.section('Elastic', 7, 2.1e11, 53.8e-4, 8356e-8)   # IPE 300 (REFERENCES.md)
+    ops.section('Elastic', 7, 2.1e11, 53.8e-4, 8356e-8)   # IPE 300 (docs/references.md)
     for k in range(n):
         ops.element('elasticBeamColumn', k + 1, k + 1, k + 2, 7, 1)
     ops.timeSeries('Linear', 1)
@@ -87,7 +87,7 @@ def test_simply_supported_beam_uniform_load(tmp_path):
     assert mid.to_numpy() == pytest.approx(-w * L**2 / 8, rel=SOLVER)
     # the whole diagram is the parabola w X (L - X) / 2, at every station (equilibrium)
     np.testing.assert_allclose(f["My_Nm"], -w * f["X"] * (L - f["X"]) / 2, atol=SOLVER * w * L**2)
-    # shear V = w (L/2 - X), dMy/dx = Vz (postproc.results)
+    # shear V = w (L/2 - X), dMy/dx = Vz (postproc.model.results)
     np.testing.assert_allclose(f["Vz_N"], -w * (L / 2 - f["X"]), atol=SOLVER * w * L)
     # reactions w L / 2 upwards at each end (equilibrium)
     r = results.reactions.set_index("node")
@@ -179,7 +179,7 @@ def build_model():
     ops.node(1, 0.0, 0.0, 0.0); ops.node(2, 0.0, 0.0, 3.0)
     ops.fix(1, 1, 1, 1, 1, 1, 1)
     ops.geomTransf('Linear', 1, *{vecxz})
-    # HEB 200, I_y (major) 5696 cm4, I_z 2003 cm4 (REFERENCES.md): A E G J Iy Iz
+    # HEB 200, I_y (major) 5696 cm4, I_z 2003 cm4 (docs/references.md): A E G J Iy Iz
     ops.element('elasticBeamColumn', 1, 1, 2, 78.1e-4, 2.1e11, 8.1e10, 59.3e-8, {Iy}, {Iz}, 1)
     ops.timeSeries('Linear', 1)
     ops.pattern('Plain', 1, 1)
@@ -217,7 +217,7 @@ def test_axis_mapping_column_bent_about_each_axis(tmp_path, major, vecxz, Iy, Iz
     base = at(results, "unit", "1").iloc[0]
     ex, ey, ez = local_axes(frame)[0]
     # cantilever: base moment H h about global Y (statics); its components on the frame's own
-    # local axes are what the adapter must report as My and Mz (postproc.frame, results)
+    # local axes are what the adapter must report as My and Mz (postproc.model.frame, results)
     moment = H * h * np.array([0.0, 1.0, 0.0])
     assert base["My_Nm"] == pytest.approx(moment @ ey, abs=1e-6 * H * h)
     assert base["Mz_Nm"] == pytest.approx(moment @ ez, abs=1e-6 * H * h)
@@ -301,7 +301,7 @@ def test_bundled_frames_reactions_balance_applied_loads(example):
 
     project_file = ROOT / "examples" / example / "project.toml"
     project, captured, cases, factors = _captured_and_factors(project_file)
-    frame, results = opensees.load(project, project_file)
+    frame, results = opensees.load_table(project, project_file)
     names = list(results.combinations.index)
     pattern_of = dict(zip(cases["load_case"], cases["pattern"]))
     patterns = list(cases["pattern"])
@@ -322,7 +322,7 @@ def test_bundled_frames_reactions_balance_applied_loads(example):
 
 def test_platform_dead_load_total_by_hand():
     project_file = ROOT / "examples" / "platform_3d" / "project.toml"
-    frame, results = opensees.load(tomllib.loads(project_file.read_text()), project_file)
+    frame, results = opensees.load_table(tomllib.loads(project_file.read_text()), project_file)
     r = results.reactions[results.reactions["combination"] == "ULS 1.35 dead"]
     # hand sum of pattern 1 in models/platform_3d.py: main beams 2 x 12 m x 1.32 kN/m +
     # 12 m x 2.22 kN/m, secondary beams 3 x 8 m x 0.31 kN/m = 65.76 kN; times gamma_G,sup 1.35
@@ -348,7 +348,7 @@ def build_model():
         ops.node(k + 1, 0.0, k * L / n)
     ops.fix(1, 1, 1, 1)
     ops.geomTransf('Linear', 1)
-    ops.section('Elastic', 1, 2.1e11, 78.1e-4, 5696e-8)   # HEB 200 (REFERENCES.md)
+    ops.section('Elastic', 1, 2.1e11, 78.1e-4, 5696e-8)   # HEB 200 (docs/references.md)
     for k in range(n):
         ops.element('elasticBeamColumn', k + 1, k + 1, k + 2, 1, 1)
     ops.timeSeries('Linear', 1)
@@ -455,7 +455,7 @@ def test_export_tables_round_trip(tmp_path, example, ndm):
     from postproc.project import read_project
 
     project_file = ROOT / "examples" / example / "project.toml"
-    frame, results = opensees.load(tomllib.loads(project_file.read_text()), project_file)
+    frame, results = opensees.load_table(tomllib.loads(project_file.read_text()), project_file)
     opensees.export_tables(frame, results, tmp_path / "tables")
     (tmp_path / "project.toml").write_text(
         f'[model]\nsource = "tables"\ndirectory = "tables"\nndm = {ndm}\n'
@@ -478,8 +478,8 @@ def test_two_processes_give_the_same_results_as_one():
     project = tomllib.loads(project_file.read_text())
     one = dict(project, model={**project["model"], "processes": 1})
     two = dict(project, model={**project["model"], "processes": 2})
-    _, r1 = opensees.load(one, project_file)
-    _, r2 = opensees.load(two, project_file)
+    _, r1 = opensees.load_table(one, project_file)
+    _, r2 = opensees.load_table(two, project_file)
     # the same analyses in other processes: identical numbers (deterministic solver)
     pd.testing.assert_frame_equal(r1.forces, r2.forces)
     pd.testing.assert_frame_equal(r1.combinations, r2.combinations)
@@ -537,7 +537,7 @@ def test_3d_beam_loads_in_both_local_directions(tmp_path):
     np.testing.assert_allclose(f["My_Nm"], My, atol=SOLVER * P * L)
     np.testing.assert_allclose(f["Mz_Nm"], Mz, atol=SOLVER * P * L)
     assert a in set(np.round(x, 12))  # the point load position is a station
-    # dMy/dx = Vz and dMz/dx = -Vy (postproc.results): with V linear between stations, the
+    # dMy/dx = Vz and dMz/dx = -Vy (postproc.model.results): with V linear between stations, the
     # secant slope of M equals the mean of V at the two ends of each interval. At the point
     # load V jumps, so intervals touching it are left out.
     mid = (f["Vz_N"].to_numpy()[1:] + f["Vz_N"].to_numpy()[:-1]) / 2
@@ -621,7 +621,7 @@ def test_pdelta_space_frame_directions():
     project = tomllib.loads(project_file.read_text())
     project["model"]["analysis"] = "p-delta"
     project["combinations"]["sls"] = False
-    frame, results = opensees.load(project, project_file)
+    frame, results = opensees.load_table(project, project_file)
     names = set(results.combinations.index)
     # gravity only: four directions (our rule, after EN 1993-1-1 5.3.2(8), one at a time)
     assert {f"ULS 1.35 dead [sway {d}]" for d in ("+X", "-X", "+Y", "-Y")} <= names
@@ -682,7 +682,7 @@ def test_portal_combinations_leave_the_relieving_wind_out():
     6, 2 identical. 19 generated, 15 ULS kept. SLS (eq. 6.14b): 13 generated, 2 identical, 11.
     """
     project_file = ROOT / "examples" / "portal_shed" / "project.toml"
-    _, results = opensees.load(tomllib.loads(project_file.read_text()), project_file)
+    _, results = opensees.load_table(tomllib.loads(project_file.read_text()), project_file)
     kinds = results.combinations["kind"].value_counts()
     assert (kinds["ULS"], kinds["SLS"]) == (15, 11)
     names = set(results.combinations.index)
@@ -762,8 +762,8 @@ def test_platform_diaphragm_reaches_the_buckling_analysis(tmp_path, diaphragm):
     the Euler load of one cantilever, pi^2 E I / (4 L^2)."""
     from scipy.optimize import brentq
 
-    from postproc.members import design_members
-    from postproc.stability import critical_load_factors
+    from postproc.model.members import design_members
+    from postproc.stability.frame_stability import critical_load_factors
 
     script = PLATFORM.replace("{diaphragm}", str(diaphragm)).replace("{extra}", "pass")
     frame, res = run(tmp_path, script, platform_project())
@@ -792,8 +792,8 @@ def test_platform_diaphragm_reaches_the_buckling_analysis(tmp_path, diaphragm):
 def test_equal_freedoms_and_rigid_links_are_read(tmp_path):
     """equalDOF: the listed freedoms, equal; rigidLink 'beam': all six, rigid body; 'bar': the
     translations, equal (OpenSees' meaning of each). The frame they build stays analysable."""
-    from postproc.members import design_members
-    from postproc.stability import critical_load_factors
+    from postproc.model.members import design_members
+    from postproc.stability.frame_stability import critical_load_factors
 
     extra = ("ops.equalDOF(51, 52, 1, 2)\n"
              "    ops.node(101, 6.0, 9.0, 3.5)\n"
@@ -818,9 +818,9 @@ def test_ties_round_trip_through_the_tables(tmp_path):
     """The diaphragm of the platform written to ties.csv and read back by the tables adapter:
     the same ties and the same alpha_cr (the same numbers in, the same analysis)."""
     from adapters import tables
-    from postproc.members import design_members
+    from postproc.model.members import design_members
     from postproc.project import read_project
-    from postproc.stability import critical_load_factors
+    from postproc.stability.frame_stability import critical_load_factors
 
     script = PLATFORM.replace("{diaphragm}", "True").replace("{extra}", "pass")
     frame, results = run(tmp_path, script, platform_project())

@@ -12,7 +12,7 @@ import pytest
 from scipy.optimize import brentq
 
 from postproc.checks import cross_section as fam
-from postproc.checks.base import FAIL, NOT_EVALUATED, PASS, MemberRows
+from postproc.model.rows import FAIL, NOT_EVALUATED, PASS, MemberRows
 from postproc.errors import InputError
 from postproc.settings import DesignSettings
 

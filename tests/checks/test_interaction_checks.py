@@ -8,14 +8,14 @@ and tests/ec3/test_interaction_annex_a.py (Annex A): tolerance HAND (0.1 %, four
 import numpy as np
 import pytest
 
-from postproc.checks.base import FAIL, NOT_EVALUATED, PASS, MemberRows
+from postproc.model.rows import FAIL, NOT_EVALUATED, PASS, MemberRows
 from postproc.checks.interaction import CLASS_4, interaction_checks
 from postproc.settings import DesignSettings
 
 HAND = 1e-3
 L = 4.0
 S = 9
-# IPE 300 (handbook values, from memory; see REFERENCES.md), SI
+# IPE 300 (handbook values, from memory; see docs/references.md), SI
 IPE300 = dict(A=53.8e-4, I_y=8356e-8, I_z=604e-8, W_pl_y=628e-6, W_pl_z=125e-6, W_el_y=557e-6,
               W_el_z=80.5e-6, I_t=20.1e-8, I_w=126e3 * 1e-12)
 E, G, F_Y = 210e9, 81e9, 355e6

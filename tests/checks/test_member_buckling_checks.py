@@ -1,10 +1,10 @@
 """The member buckling check family (6.3.1, 6.3.2) on hand-built member rows.
 
-Section data: IPE 300 handbook values from /work/shared/REFERENCES.md (from memory there), I_w
+Section data: IPE 300 handbook values from docs/references.md (from memory there), I_w
 126 x 10^3 cm6 from the same table. Expected values are worked in the tests from the equation named
-beside them; M_cr for uniform moment from the closed form in REFERENCES.md; the curve choices of
+beside them; M_cr for uniform moment from the closed form in docs/references.md; the curve choices of
 Tables 6.2, 6.4 and 6.5 and eq. (6.57) from memory of the standard (its 6.3.2.3 values for curve b
-are in REFERENCES.md and checked in tests/ec3/test_lateral_torsional.py).
+are in docs/references.md and checked in tests/ec3/test_lateral_torsional.py).
 """
 
 from __future__ import annotations
@@ -13,7 +13,7 @@ import numpy as np
 import pytest
 
 from postproc.checks import member_buckling as fam
-from postproc.checks.base import FAIL, NOT_EVALUATED, PASS, MemberRows
+from postproc.model.rows import FAIL, NOT_EVALUATED, PASS, MemberRows
 from postproc.settings import DesignSettings
 
 EXACT = 1e-12  # same arithmetic as the clause functions, only rounding differs
@@ -69,7 +69,7 @@ def chi_649(lam, alpha):
 
 
 def closed_form_M_cr(L):
-    """REFERENCES.md: uniform moment, fork supports."""
+    """docs/references.md: uniform moment, fork supports."""
     s = IPE300
     return (np.pi**2 * E * s["I_z"] / L**2
             * np.sqrt(s["I_w"] / s["I_z"] + L**2 * G * s["I_t"] / (np.pi**2 * E * s["I_z"])))
@@ -150,7 +150,7 @@ def test_nan_force_is_not_a_pass():
 
 
 def test_ltb_uniform_moment_by_hand():
-    # IPE 300, 6 m, uniform M_y = 100 kNm. M_cr closed form (REFERENCES.md); 6.3.2.3 with
+    # IPE 300, 6 m, uniform M_y = 100 kNm. M_cr closed form (docs/references.md); 6.3.2.3 with
     # Table 6.5 rolled h/b = 2 <= 2: curve b (0.34); Table 6.6 psi = 1: k_c = 1, f = 1.
     rows = make_rows([IPE300], My=100e3)
     block = fam.lateral_torsional_checks(rows)[0]

@@ -1,13 +1,13 @@
 """Numerical elastic critical moment M_cr (Rayleigh-Ritz) against closed forms and published C1.
 
-Outside values (REFERENCES.md): the closed form of M_cr for uniform moment with fork supports
+Outside values (docs/references.md): the closed form of M_cr for uniform moment with fork supports
 (textbook elastic stability); IPE 300 handbook properties ("from memory" there); C1 for end moments
 psi = 0.5 (1.31) and psi = 0 (1.77), a uniformly distributed load (1.13) and a central point load
-(1.35), "from memory" as REFERENCES.md marks them. Published C1 values are for a small torsion
+(1.35), "from memory" as docs/references.md marks them. Published C1 values are for a small torsion
 parameter (long members): these tests use a 12 m span, where the exact values still lie within
 about 2 % of them; hence the 3 % tolerance. The load-height factors C2 = 0.45 (uniform load) and
 0.55 (central point load) of the three-factor formula are recalled "from memory", not from
-REFERENCES.md.
+docs/references.md.
 """
 
 from __future__ import annotations
@@ -16,15 +16,16 @@ import numpy as np
 import pytest
 
 from postproc.ec3 import critical_moment as cm
+from postproc.numerics import rayleigh_ritz as rr
 
 E, G = 210e9, 81e9  # EN 1993-1-1 3.2.6
-I_z, I_t, I_w = 604e-8, 20.1e-8, 126e-9  # IPE 300, REFERENCES.md (from memory)
+I_z, I_t, I_w = 604e-8, 20.1e-8, 126e-9  # IPE 300, docs/references.md (from memory)
 CLOSED_FORM = 0.01  # brief: within 1 % of the closed form for uniform moment
 PUBLISHED_C1 = 0.03  # brief: within 3 % of the published C1 (recalled values)
 
 
 def closed_form(L, k=1.0, k_w=1.0):
-    """REFERENCES.md: M_cr = pi^2 E I_z / L^2 sqrt(I_w / I_z + L^2 G I_t / (pi^2 E I_z)), with
+    """docs/references.md: M_cr = pi^2 E I_z / L^2 sqrt(I_w / I_z + L^2 G I_t / (pi^2 E I_z)), with
     the effective-length factors of the three-factor formula (common practice)."""
     return (np.pi**2 * E * I_z / (k * L) ** 2
             * np.sqrt((k / k_w) ** 2 * I_w / I_z + (k * L) ** 2 * G * I_t / (np.pi**2 * E * I_z)))
@@ -173,12 +174,12 @@ def test_per_row_path_matches_grouped_path(monkeypatch):
     xi[:, 0], xi[:, -1] = 0.0, 1.0
     M = rng.normal(size=(R, 5)) * 1e5
     grouped = cm.M_cr(xi, M, 6.0, E, G, I_z, I_t, I_w, z_g=np.full(R, 0.1))
-    monkeypatch.setattr(cm, "_MAX_GROUPS", 4)
+    monkeypatch.setattr(rr, "MAX_GROUPS", 4)
     per_row = cm.M_cr(xi, M, 6.0, E, G, I_z, I_t, I_w, z_g=np.full(R, 0.1))
     # both integrate the piecewise-linear diagram exactly: same matrices up to rounding
     np.testing.assert_allclose(per_row, grouped, rtol=1e-7)
     plain_g = cm.M_cr(xi, M, 6.0, E, G, I_z, I_t, I_w)
-    monkeypatch.setattr(cm, "_MAX_GROUPS", 64)
+    monkeypatch.setattr(rr, "MAX_GROUPS", 64)
     plain = cm.M_cr(xi, M, 6.0, E, G, I_z, I_t, I_w)
     # float32 power iteration: agreement to its certificate tolerance, not to rounding
     np.testing.assert_allclose(plain_g, plain, rtol=1e-5)
@@ -202,7 +203,7 @@ def test_largest_eigenvalue_certificate_and_fallback():
     Q, _ = np.linalg.qr(rng.normal(size=(6, 6)))
     A[0] = Q @ np.diag([2.0, 2.0, 1.0, 0.5, 0.1, 0.0]) @ Q.T
     A[1] = 0.0
-    got = cm.largest_eigenvalue_psd(A)
+    got = rr.largest_eigenvalue_psd(A)
     exact = np.linalg.eigvalsh(A)[:, -1]
     # the certified result is an upper bound within tol * trace; 1e-3 covers tol * n
     assert np.all(got >= exact * (1 - 1e-6))
@@ -213,7 +214,7 @@ def test_station_patterns_group_equal_rows():
     # rows repeating three station patterns (with padding) are grouped as whole-row sorting would
     base = np.array([[0.0, 0.5, 1.0, np.inf], [-1.0, 0.0, 1.0, 2.0], [0.0, 0.25, 1.0, np.inf]])
     pick = np.random.default_rng(5).integers(0, 3, 200)
-    patterns, inverse = cm._station_patterns(base[pick])
+    patterns, inverse = rr.station_patterns(base[pick])
     assert patterns.shape[0] == 3
     np.testing.assert_array_equal(patterns[inverse], base[pick])
 
@@ -234,12 +235,12 @@ def test_repeated_station_at_an_element_joint():
     M = fn(rows)
     z = np.full(rows.shape[0], 0.15)
     grouped = cm.M_cr(rows, M, 6.0, E, G, I_z, I_t, I_w, z_g=z)
-    saved = cm._MAX_GROUPS
+    saved = rr.MAX_GROUPS
     try:
-        cm._MAX_GROUPS = 1
+        rr.MAX_GROUPS = 1
         per_row = cm.M_cr(rows, M, 6.0, E, G, I_z, I_t, I_w, z_g=z)
     finally:
-        cm._MAX_GROUPS = saved
+        rr.MAX_GROUPS = saved
     np.testing.assert_allclose(per_row, grouped, rtol=1e-9)
 
 
@@ -255,7 +256,7 @@ def test_load_height_fast_solution_is_certified_from_below(monkeypatch):
     def never_certified(A, Q, **kw):
         return np.full(A.shape[0], np.nan), np.zeros(A.shape[0], bool)
 
-    monkeypatch.setattr(cm, "smallest_root_quadratic", never_certified)
+    monkeypatch.setattr(rr, "smallest_root_quadratic", never_certified)
     exact = cm.M_cr(xi, M, 6.0, E, G, I_z, I_t, I_w, z_g=z_g)
     # certified values lie below the exact ones by at most the certificate's margin (0.1 %)
     assert np.all(fast <= exact * (1 + 1e-9))

@@ -1,8 +1,8 @@
 """Flexural and torsional buckling clause functions, 6.3.1.
 
-Outside values: the evaluated table of eq. (6.49) and Table 6.1 in /work/shared/REFERENCES.md
+Outside values: the evaluated table of eq. (6.49) and Table 6.1 in docs/references.md
 (EN 1993-1-1:2005 itself); Table 6.2 of the standard "from memory" (recalled, not read off a copy at
-hand); IPE 300 properties from the handbook table in REFERENCES.md ("from memory" there); Euler's
+hand); IPE 300 properties from the handbook table in docs/references.md ("from memory" there); Euler's
 load and the torsional buckling load as textbook closed forms.
 """
 
@@ -16,7 +16,7 @@ from postproc.ec3 import flexural_buckling as fb
 # The table prints chi to 4 decimals: half a unit in the last place, plus float noise.
 TABLE_ROUNDING = 0.6e-4
 
-# EN 1993-1-1:2005 eq. (6.49) evaluated, as printed in REFERENCES.md
+# EN 1993-1-1:2005 eq. (6.49) evaluated, as printed in docs/references.md
 CHI_TABLE = {
     0.2: {"a0": 1.0000, "a": 1.0000, "b": 1.0000, "c": 1.0000, "d": 1.0000},
     0.5: {"a0": 0.9513, "a": 0.9243, "b": 0.8842, "c": 0.8430, "d": 0.7793},
@@ -26,12 +26,12 @@ CHI_TABLE = {
 }
 
 E, G = 210e9, 81e9  # EN 1993-1-1 3.2.6 (G = 81 000 N/mm2 as the standard rounds it)
-# IPE 300, REFERENCES.md handbook table (from memory): A, I_y, I_z, I_t, I_w in SI
+# IPE 300, docs/references.md handbook table (from memory): A, I_y, I_z, I_t, I_w in SI
 IPE300 = dict(A=53.8e-4, I_y=8356e-8, I_z=604e-8, I_t=20.1e-8, I_w=126e-9)
 
 
 def test_table_6_1_imperfection_factors():
-    # EN 1993-1-1:2005 Table 6.1, as listed in REFERENCES.md
+    # EN 1993-1-1:2005 Table 6.1, as listed in docs/references.md
     curves = np.array(["a0", "a", "b", "c", "d", ""], dtype=object)
     assert fb.imperfection_factor(curves)[:5].tolist() == [0.13, 0.21, 0.34, 0.49, 0.76]
     assert np.isnan(fb.imperfection_factor(curves)[5])
@@ -39,7 +39,7 @@ def test_table_6_1_imperfection_factors():
 
 @pytest.mark.parametrize("lam", sorted(CHI_TABLE))
 def test_chi_against_evaluated_table(lam):
-    # REFERENCES.md: EN 1993-1-1:2005 eq. (6.49) evaluated for every curve
+    # docs/references.md: EN 1993-1-1:2005 eq. (6.49) evaluated for every curve
     curves = list(CHI_TABLE[lam])
     alpha = fb.imperfection_factor(np.array(curves, dtype=object))
     chi = fb.chi(np.full(len(curves), lam), alpha)
@@ -83,7 +83,7 @@ def test_table_6_2_curves():
 
 
 def test_euler_load_and_length_effect():
-    # Textbook closed form N_cr = pi^2 E I / L_cr^2 (REFERENCES.md); cantilever L_cr = 2 L
+    # Textbook closed form N_cr = pi^2 E I / L_cr^2 (docs/references.md); cantilever L_cr = 2 L
     L = np.array([3.0, 6.0])
     N = fb.N_cr_flexural(np.full(2, E), np.full(2, IPE300["I_z"]), L)
     assert N[0] == pytest.approx(np.pi**2 * E * 604e-8 / 9.0, rel=1e-12)

@@ -38,7 +38,7 @@ def test_hand_calculation_ipe300_column_annex_a() -> None:
 
     From the Annex B test (steps 1-4): N_cr,y = 10 824 kN, N_cr,z = 782.4 kN, chi_y = 0.9474,
     chi_z = 0.3203, lambda_bar_y = 0.4201, lambda_bar_z = 1.5624, M_cr,0 = 159.7 kNm,
-    chi_LT = 0.7670, C_1 = 1.77 (psi = 0, REFERENCES.md, from memory).
+    chi_LT = 0.7670, C_1 = 1.77 (psi = 0, docs/references.md, from memory).
     A1. N_cr,T = (G I_t + pi^2 E I_w / L^2) / i_0^2 with i_0^2 = (I_y + I_z)/A = 0.016654 m2
         (doubly symmetric, torsional buckling, textbook closed form): N_cr,T = 1957.6 kN;
         N_cr,TF = N_cr,T (no coupling for a doubly symmetric section).

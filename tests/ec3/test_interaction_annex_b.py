@@ -123,7 +123,7 @@ def test_hand_calculation_ipe300_column() -> None:
     Loads: N_Ed = 400 kN compression; M_y,Ed = 80 kNm at the top, 0 at the foot (psi = 0);
     no M_z. Non-sway; open section free to twist: Table B.2.
 
-    Section (handbook values, from memory; REFERENCES.md table): A = 53.8 cm2, I_y = 8356 cm4,
+    Section (handbook values, from memory; docs/references.md table): A = 53.8 cm2, I_y = 8356 cm4,
     I_z = 604 cm4, W_pl,y = 628 cm3, I_t = 20.1 cm4, I_w = 126e3 cm6; W_el,y = 557 cm3 (from
     memory). f_y = 355 MPa (Table 3.1, t_f = 10.7 mm <= 40 mm), E = 210 GPa, G = 81 GPa.
     Class (Table 5.2): web c/t = 248.6/7.1 = 35.0, alpha = 0.5 (1 + N_Ed / (c t_w f_y)) = 0.819,
@@ -136,7 +136,7 @@ def test_hand_calculation_ipe300_column() -> None:
        Phi_y = 0.5 (1 + 0.21 (0.2201) + 0.1765) = 0.6114, chi_y = 0.9474 (eq. 6.49);
        Phi_z = 0.5 (1 + 0.34 (1.3624) + 2.4411) = 1.9522, chi_z = 0.3203 (eq. 6.49).
     4. M_cr,0 = pi^2 E I_z / L^2 sqrt(I_w/I_z + L^2 G I_t / (pi^2 E I_z)) = 159.7 kNm (closed
-       form, REFERENCES.md); C_1 = 1.77 for psi = 0 (REFERENCES.md, from memory);
+       form, docs/references.md); C_1 = 1.77 for psi = 0 (docs/references.md, from memory);
        M_cr = 282.7 kNm. M_y,Rk = W_pl,y f_y = 222.94 kNm (Table 6.7).
        lambda_bar_LT = sqrt(222.94/282.7) = 0.8880; 6.3.2.3, rolled I with h/b <= 2: curve b,
        Phi_LT = 0.5 (1 + 0.34 (0.4880) + 0.75 * 0.7886) = 0.8787, chi_LT = 0.7670 (eq. 6.57,

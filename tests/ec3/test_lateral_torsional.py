@@ -1,7 +1,7 @@
 """Lateral-torsional buckling clause functions, 6.3.2.
 
 Outside values: the 6.3.2.3 chi_LT values (curves b and c, recommended lambda_LT,0 = 0.4 and
-beta = 0.75) and the eq. (6.49) table in /work/shared/REFERENCES.md (EN 1993-1-1:2005 evaluated);
+beta = 0.75) and the eq. (6.49) table in docs/references.md (EN 1993-1-1:2005 evaluated);
 Tables 6.3 to 6.6 and eq. (6.58) of the standard "from memory" (recalled, not read off a copy at
 hand).
 """
@@ -14,12 +14,12 @@ import pytest
 from postproc.ec3 import lateral_torsional as lt
 from postproc.ec3.flexural_buckling import imperfection_factor
 
-TABLE_ROUNDING = 0.6e-4  # REFERENCES.md prints 4 decimals
+TABLE_ROUNDING = 0.6e-4  # docs/references.md prints 4 decimals
 
 
 @pytest.mark.parametrize("curve, expected", [
-    ("b", [0.9171, 0.6997, 0.4273]),  # REFERENCES.md, 6.3.2.3 curve b at 0.6, 1.0, 1.5
-    ("c", [0.8859, 0.6391, 0.3891]),  # REFERENCES.md, 6.3.2.3 curve c
+    ("b", [0.9171, 0.6997, 0.4273]),  # docs/references.md, 6.3.2.3 curve b at 0.6, 1.0, 1.5
+    ("c", [0.8859, 0.6391, 0.3891]),  # docs/references.md, 6.3.2.3 curve c
 ])
 def test_chi_LT_rolled_against_references(curve, expected):
     lam = np.array([0.6, 1.0, 1.5])
@@ -40,14 +40,14 @@ def test_chi_LT_rolled_plateau_and_caps():
 
 
 def test_chi_LT_general_is_eq_6_49_curve_table():
-    # eq. (6.56) has the form of eq. (6.49): REFERENCES.md table, curves a and d at 1.0 and 2.0
+    # eq. (6.56) has the form of eq. (6.49): docs/references.md table, curves a and d at 1.0 and 2.0
     chi = lt.chi_LT_general(np.array([1.0, 2.0, 1.0, 2.0]),
                             imperfection_factor(np.array(["a", "a", "d", "d"], dtype=object)))
     np.testing.assert_allclose(chi, [0.6656, 0.2229, 0.4671, 0.1766], atol=TABLE_ROUNDING)
 
 
 def test_table_6_3_imperfection_factors():
-    # EN 1993-1-1:2005 Table 6.3 (from memory; same values as Table 6.1 in REFERENCES.md)
+    # EN 1993-1-1:2005 Table 6.3 (from memory; same values as Table 6.1 in docs/references.md)
     got = lt.imperfection_factor_LT(np.array(["a", "b", "c", "d", "a0", ""], dtype=object))
     assert got[:4].tolist() == [0.21, 0.34, 0.49, 0.76] and np.isnan(got[4:]).all()
 
@@ -63,7 +63,7 @@ def test_curves_tables_6_4_and_6_5():
 
 
 def test_lambda_bar_LT_and_M_b_Rd():
-    # eq. (6.56) slenderness and eq. (6.55) resistance, IPE 300 W_pl,y = 628 cm3 (REFERENCES.md)
+    # eq. (6.56) slenderness and eq. (6.55) resistance, IPE 300 W_pl,y = 628 cm3 (docs/references.md)
     lam = lt.lambda_bar_LT(628e-6, 355e6, np.array([200e3, np.inf]))
     assert lam[0] == pytest.approx(np.sqrt(628e-6 * 355e6 / 200e3), rel=1e-12)
     assert lam[1] == 0.0  # no moment: infinite M_cr

@@ -5,9 +5,10 @@ from __future__ import annotations
 import numpy as np
 
 from postproc.benchmark import synthetic_model
-from postproc.checker import CHECK_FAMILIES, results_table, run_checks
-from postproc.member_rows import build_member_rows
-from postproc.members import one_member_per_element
+from postproc.checker import CHECK_FAMILIES, results_table
+from postproc.engine import run_checks
+from postproc.model.member_rows import build_member_rows
+from postproc.model.members import one_member_per_element
 from postproc.settings import DesignSettings
 
 

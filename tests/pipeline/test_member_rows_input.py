@@ -5,8 +5,8 @@ from __future__ import annotations
 import numpy as np
 
 from postproc.benchmark import synthetic_model
-from postproc.member_rows import build_member_rows
-from postproc.members import one_member_per_element
+from postproc.model.member_rows import build_member_rows
+from postproc.model.members import one_member_per_element
 from postproc.settings import DesignSettings
 
 

@@ -66,7 +66,7 @@ def test_all_forces_zero_is_named_with_the_forces_file(demo, tmp_path, capsys) -
 
 
 def test_shear_of_the_wrong_sign_is_named_per_member(demo, tmp_path) -> None:
-    """dMy/dx = Vz (postproc/results.py): Vz with its sign flipped contradicts every moment
+    """dMy/dx = Vz (postproc/model/results.py): Vz with its sign flipped contradicts every moment
     gradient that is not zero."""
     _edit(demo / "tables" / "forces.csv", _scale("Vz [kN]", -1.0))
     _, warned = _run(demo, tmp_path)

@@ -11,7 +11,7 @@ import numpy as np
 import pandas as pd
 import pytest
 
-from postproc.members import design_members
+from postproc.model.members import design_members
 from postproc.report.drawing import default_views, frame_svg, member_polylines, projected
 from postproc.report.sheets import (build_sheet, interaction_svg, sheet_html,
                                     sheet_markdown, value_source)

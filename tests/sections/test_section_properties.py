@@ -1,7 +1,7 @@
 """Computed section properties against handbook values.
 
 Sources, named per case below:
-- IPE 300, HEA 200, HEB 200: REFERENCES.md (the project's list of trusted outside values),
+- IPE 300, HEA 200, HEB 200: docs/references.md (the project's list of trusted outside values),
   section handbook values (from memory there).
 - IPE 200, HEA 300, SHS 100x100x5, CHS 168.3x8: handbook values recalled here (from memory).
 Catalogue dimensions are themselves recalled from EN 10365 / EN 10210-2 (from memory).
@@ -9,7 +9,7 @@ Catalogue dimensions are themselves recalled from EN 10365 / EN 10210-2 (from me
 Tolerances:
 - TOL_EXACT = 0.5 %: A, I, W are exact for the idealised outline; handbooks print 3 to 4 figures.
 - TOL_TORSION = 3 %: I_t and I_w of rolled I sections rest on fillet approximations that differ
-  between handbooks in the last digits (REFERENCES.md: "compare I_t and I_w within a few percent").
+  between handbooks in the last digits (docs/references.md: "compare I_t and I_w within a few percent").
 """
 
 import numpy as np
@@ -25,7 +25,7 @@ CM2, CM3, CM4, CM6 = 1e-4, 1e-6, 1e-8, 1e-12
 
 # designation: {column: (value in handbook units, unit factor)}; None = not compared
 HANDBOOK = {
-    # REFERENCES.md (from memory)
+    # docs/references.md (from memory)
     "IPE 300": dict(A=53.8 * CM2, I_y=8356 * CM4, W_pl_y=628 * CM3, I_z=604 * CM4,
                     W_pl_z=125 * CM3, I_t=20.1 * CM4, I_w=126e3 * CM6),
     "HEA 200": dict(A=53.8 * CM2, I_y=3692 * CM4, W_pl_y=430 * CM3, I_z=1336 * CM4,

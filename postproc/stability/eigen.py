@@ -34,8 +34,12 @@ import scipy.linalg as sla
 import scipy.sparse as sp
 import scipy.sparse.linalg as spla
 
-from .errors import InputError, TopologyError
-from .frame import NODE_COLUMNS, RELEASABLE, Frame, element_vectors, local_axes, released
+from ..errors import InputError, TopologyError
+from ..model.frame import NODE_COLUMNS, RELEASABLE, Frame, element_vectors, local_axes, released
+
+__all__ = ["ACTION_DOF", "ARPACK_SPARE", "DENSE_MAX", "DOF_NAMES", "E_STEEL", "G_STEEL", "Mesh",
+           "PIVOT_RATIO_MIN", "SUB_PER_MEMBER", "TIE_CHAIN_MAX", "buckling_modes", "build_mesh",
+           "check_connected", "section_columns", "tie_transformation", "translations"]
 
 E_STEEL = 210e9     # Pa, EN 1993-1-1 3.2.6(1)
 G_STEEL = 81e9      # Pa, EN 1993-1-1 3.2.6(1), G = E / (2 (1 + 0.3)) rounded as the standard does

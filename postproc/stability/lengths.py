@@ -20,7 +20,7 @@ Where each length comes from (the `origin_*` columns say it row by row):
   - a frame-mode length above SHOWN_LENGTH_CAP (10) times the member length (a lightly
     compressed member) is kept and used; its origin says so, and the report shows it capped
     (`shown_lengths`).
-- Each axis is split at its own points only (`postproc.members` keeps them per direction): a
+- Each axis is split at its own points only (`postproc.model.members` keeps them per direction): a
   lateral ('y') restraint shortens L_cr about z-z and L_LT, never the in-plane length.
 - The out-of-plane axis of a plane frame: the longest span between points restrained out of
   plane (supports and declared restraints; k = 1).
@@ -36,10 +36,14 @@ from __future__ import annotations
 import numpy as np
 import pandas as pd
 
-from .errors import InputError
-from .frame import NODE_COLUMNS, Frame, local_axes, released
-from .members import Members, member_axes, moment_released
-from .results import Results
+from ..errors import InputError
+from ..model.frame import NODE_COLUMNS, Frame, local_axes, released
+from ..model.members import Members, member_axes, moment_released
+from ..model.results import Results
+
+__all__ = ["COLLINEAR_COS", "E_STEEL", "FAR_END_FACTOR", "FRAME_MODE_ORIGIN", "OVERRIDE_COLUMNS",
+           "SHOWN_LENGTH_CAP", "SWAY_PATHS", "X_TOL_M", "buckling_lengths",
+           "effective_length_ratio", "member_compression", "restraint_positions", "shown_lengths"]
 
 E_STEEL = 210e9                       # Pa, EN 1993-1-1 3.2.6(1)
 COLLINEAR_COS = np.cos(np.radians(10.0))
@@ -299,7 +303,7 @@ def restraint_positions(members: Members, direction: str = "y") -> np.ndarray:
 
     Points within X_TOL_M of each other count once, and points within X_TOL_M of a member end
     are put at that end, so the spans between them are those of `_span`. The lateral-torsional
-    buckling check takes its segments from the 'y' positions (`postproc.member_rows`).
+    buckling check takes its segments from the 'y' positions (`postproc.model.member_rows`).
     """
     names = pd.Index(members.members.index.astype(str))
     lengths = members.members["length_m"].to_numpy(float)

@@ -5,7 +5,7 @@ Contract (what the checker reads):
   'rafter', 'brace', 'member'), n_elements, start_node, end_node.
 - `member_elements`: columns member, element, position (0, 1, ... along the member), x0_m (where
   the element starts along the member), flipped (True where the element runs against the member's
-  direction: then Vz and Mz change sign, see `postproc.results`).
+  direction: then Vz and Mz change sign, see `postproc.model.results`).
 - `restraints`: columns member, x_m (from the member's start), direction, source. Directions are
   in the member's local axes (EN 1993-1-1 1.7): 'z' = displacement along local z is prevented
   (governs buckling about y-y), 'y' = displacement along local y is prevented (buckling about z-z,
@@ -17,7 +17,7 @@ orientation, neither releases anything there, and the node is not held in every 
 model bends in (the in-plane direction of a plane frame; local y and z of a space frame).
 Everything else ends a member. So a lateral restraint alone, or a member framing in that holds
 nothing, leaves the member whole: its buckling lengths are split axis by axis at the points that
-hold that axis (`postproc.stability_lengths`). `groups` from the project file overrides this for
+hold that axis (`postproc.stability.lengths`). `groups` from the project file overrides this for
 the elements it names.
 
 Kinds, from orientation and connectivity (tilt = angle of the chord from the vertical):
@@ -53,8 +53,13 @@ import networkx as nx
 import numpy as np
 import pandas as pd
 
-from .errors import InputError, TopologyError
+from ..errors import InputError, TopologyError
 from .frame import NODE_COLUMNS, Frame, element_vectors, local_axes, released
+
+__all__ = ["BEAM_MAX_SLOPE_DEG", "COLLINEAR_COS", "COLUMN_MAX_TILT_DEG", "FAR_END_WALK_LIMIT",
+           "FRAMING_MIN_COMPONENT", "Members", "RAFTER_MAX_SLOPE_DEG", "RESTRAINT_DIRECTIONS",
+           "design_members", "in_plane_moment", "member_axes", "moment_released",
+           "one_member_per_element"]
 
 COLLINEAR_COS = np.cos(np.radians(1.0))     # chords within 1 degree count as collinear
 COLUMN_MAX_TILT_DEG = 10.0                  # from the vertical

@@ -22,7 +22,10 @@ from dataclasses import dataclass, field
 import numpy as np
 import pandas as pd
 
-from .errors import InputError
+from ..errors import InputError
+
+__all__ = ["ELEMENT_COLUMNS", "Frame", "NODE_COLUMNS", "RELEASABLE", "SUPPORT_COLUMNS",
+           "TIE_COLUMNS", "element_vectors", "empty_ties", "local_axes", "released"]
 
 NODE_COLUMNS = ["x_m", "y_m", "z_m"]
 ELEMENT_COLUMNS = ["node_i", "node_j", "section", "grade", "vz_x", "vz_y", "vz_z",

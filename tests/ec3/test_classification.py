@@ -12,7 +12,7 @@ import pandas as pd
 import pytest
 
 from postproc.sections import build_sections
-from postproc.sections.classification import (chs_limits, epsilon, internal_part_limit_elastic,
+from postproc.ec3.classification import (chs_limits, epsilon, internal_part_limit_elastic,
                                               internal_part_limits_plastic, k_sigma_outstand,
                                               outstand_limit_elastic, outstand_limits_plastic,
                                               section_class)

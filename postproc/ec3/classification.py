@@ -1,6 +1,6 @@
 """Cross-section classification, EN 1993-1-1:2005, 5.5.2 and Table 5.2, under the actual forces.
 
-Sign convention of `postproc.results`: N > 0 is tension. Inside this module stresses and forces
+Sign convention of `postproc.model.results`: N > 0 is tension. Inside this module stresses and forces
 are taken positive in COMPRESSION (N_c = -N_Ed), as Table 5.2 draws them.
 
 How the stress distribution of each part is found:
@@ -41,6 +41,10 @@ Parts (plate dimensions from the sections table, see `postproc.sections`):
 from __future__ import annotations
 
 import numpy as np
+
+__all__ = ["Array", "chs_limits", "class_from_limits", "epsilon", "internal_part_limit_elastic",
+           "internal_part_limits_plastic", "k_sigma_outstand", "outstand_limit_elastic",
+           "outstand_limits_plastic", "section_class"]
 
 Array = np.ndarray
 _TINY = 1e-9  # a moment below 1e-9 f_y W counts as zero (pure compression or pure tension)

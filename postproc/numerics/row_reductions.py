@@ -10,6 +10,8 @@ from __future__ import annotations
 
 import numpy as np
 
+__all__ = ["FEW", "row_all", "row_any", "row_argmax", "row_cumsum", "row_max", "row_sum"]
+
 FEW = 8  # rows shorter than this go column by column
 
 

@@ -1,14 +1,14 @@
 """Frame stability: alpha_cr, the analysis path, sway amplification and frame imperfections.
 
 - `critical_load_factors`: alpha_cr per ULS combination by linear eigenvalue buckling of the whole
-  frame (`postproc.stability_eigen`), and by the storey method of 5.2.1(4)B where its conditions
+  frame (`postproc.stability.eigen`), and by the storey method of 5.2.1(4)B where its conditions
   hold (`storey_alpha`).
 - `analysis_path`: 5.2.1(3) and 5.2.2: first-order, amplified, sway lengths, second-order in
   forces, second-order needed, unstable.
 - `amplified_part`, `amplify_sway_effects`: 5.2.2(5B), the sway part (from
-  `postproc.stability_sway`) amplified.
+  `postproc.stability.sway`) amplified.
 - `sway_imperfection`, `equivalent_horizontal_forces`, `bow_imperfections_needed`: 5.3.2.
-- `buckling_lengths` lives in `postproc.stability_lengths` and is re-exported here.
+- `buckling_lengths` lives in `postproc.stability.lengths` and is re-exported here.
 """
 
 from __future__ import annotations
@@ -18,15 +18,24 @@ import dataclasses
 import numpy as np
 import pandas as pd
 
-from .errors import InputError, TopologyError
-from .frame import NODE_COLUMNS, Frame, local_axes
-from .members import Members, member_axes, moment_released
-from .results import Results
-from .stability_eigen import (E_STEEL, SUB_PER_MEMBER, Mesh, buckling_modes, build_mesh,
+from ..ec3.global_analysis import (alpha_cr_storey, equivalent_horizontal_force, sway_amplification,
+                                   sway_imperfection_factors)
+from ..errors import InputError, TopologyError
+from ..model.frame import NODE_COLUMNS, Frame, local_axes
+from ..model.members import Members, member_axes, moment_released
+from ..model.results import Results
+from .eigen import (E_STEEL, SUB_PER_MEMBER, Mesh, buckling_modes, build_mesh,
                               section_columns, translations)
-from .stability_sway import SwayPart, amplified_forces, sway_part  # noqa: F401
-from .stability_lengths import (buckling_lengths, effective_length_ratio,  # noqa: F401
+from .sway import SwayPart, amplified_forces, sway_part  # noqa: F401
+from .lengths import (buckling_lengths, effective_length_ratio,  # noqa: F401
                                 member_compression)
+
+__all__ = ["ALPHA_AMPLIFY_MIN", "ALPHA_FIRST_ORDER", "COLUMN_TILT_COS", "LEVEL_TOL_M",
+           "MODES_FIRST", "MODES_MAX", "ModeGauge", "PATHS", "STOREY_RAFTER_N_CR_SHARE",
+           "STOREY_ROOF_SLOPE", "SWAY_DRIFT_SHARE_MIN", "amplified_part", "amplify_sway_effects",
+           "analysis_path", "axial_at", "bow_imperfections_needed", "critical_load_factors",
+           "equivalent_horizontal_forces", "is_sway", "storey_alpha", "sub_elements",
+           "sway_imperfection"]
 
 ALPHA_FIRST_ORDER = 10.0    # 5.2.1(3), eq. (5.1), elastic analysis
 ALPHA_AMPLIFY_MIN = 3.0     # 5.2.2(5B)
@@ -287,7 +296,7 @@ def storey_alpha(frame: Frame, results: Results, members: Members, combos: list[
       include the equivalent horizontal forces where the forces carry them.
     - delta_H,Ed: the largest column drift of the storey under the horizontal loads alone,
       first-order: each level takes the difference of the storey shears below and above it,
-      shared by its column tops, on the frame's elastic stiffness (`postproc.stability_sway`).
+      shared by its column tops, on the frame's elastic stiffness (`postproc.stability.sway`).
       The displacements of the combination are not used: they hold the vertical loads' sway
       too, and may be second-order.
     - Not applicable (NaN with the reason): a space frame (the clause is for plane portals and
@@ -298,7 +307,7 @@ def storey_alpha(frame: Frame, results: Results, members: Members, combos: list[
 
     Returns (alpha_cr_storey (C,), note (C,)).
     """
-    from .stability_sway import LEVEL_TOL_M as TOP_TOL_M, unit_sway_cases
+    from .sway import LEVEL_TOL_M as TOP_TOL_M, unit_sway_cases
 
     n = len(combos)
     notes = np.full(n, "", dtype=object)
@@ -382,7 +391,7 @@ def storey_alpha(frame: Frame, results: Results, members: Members, combos: list[
             for ai, a in enumerate(horiz):
                 delta = np.abs(drift[k, a]).max()
                 if V[si] > 0 and abs(H[si, ai]) > 1e-6 * V[si] and delta > 0:
-                    best = min(best, abs(H[si, ai]) / V[si] * h[k][0] / delta)
+                    best = min(best, alpha_cr_storey(H[si, ai], V[si], h[k][0], delta))
         if np.isfinite(best):
             alpha[c] = best
             notes[c] = (f"lowest of {len(S)} storey(s); drift under the horizontal loads alone, "
@@ -510,7 +519,7 @@ def analysis_path(alpha: pd.DataFrame, combinations: pd.DataFrame) -> pd.DataFra
                       "imperfection (5.3.2): first-order forces as they are, members in the sway "
                       "mode checked with sway buckling lengths (5.2.2(3)c, 5.2.2(8))")
         elif a >= ALPHA_AMPLIFY_MIN:
-            path, amp = "amplified", 1.0 / (1.0 - 1.0 / a)
+            path, amp = "amplified", sway_amplification(a)
             reason = (f"{source} = {a:.2f} in 3..10: sway effects amplified by "
                       f"1/(1 - 1/alpha_cr) = {amp:.3f} (5.2.2(5B)), members checked with "
                       "non-sway buckling lengths (5.2.2(8))")
@@ -574,7 +583,7 @@ def amplify_sway_effects(results: Results, paths: pd.DataFrame, sway: SwayPart |
     (see `amplified_part`; where the column is absent, 'sway part' if `sway` is given, else
     'whole forces'):
     - 'sway part': F + (amplification - 1) F_sway for every force component, F_sway from
-      `postproc.stability_sway` (the frame held against sway, holding forces reversed);
+      `postproc.stability.sway` (the frame held against sway, holding forces reversed);
     - 'whole forces': shear forces and bending moments times the amplification; axial forces and
       torsion as they are.
     Other combinations are returned unchanged.
@@ -649,9 +658,8 @@ def sway_imperfection(frame: Frame, *, m: int | None = None, h: float | None = N
     if m < 1:
         raise InputError(f"m = {m} must be at least 1", field="m")
     phi_0 = 1.0 / 200.0
-    alpha_h = float(np.clip(2.0 / np.sqrt(h), 2.0 / 3.0, 1.0))
-    alpha_m = float(np.sqrt(0.5 * (1.0 + 1.0 / m)))
-    return {"phi": phi_0 * alpha_h * alpha_m, "phi_0": phi_0, "alpha_h": alpha_h,
+    phi, alpha_h, alpha_m = (float(v) for v in sway_imperfection_factors(h, m, phi_0=phi_0))
+    return {"phi": phi, "phi_0": phi_0, "alpha_h": alpha_h,
             "alpha_m": alpha_m, "h_m": float(h), "m": int(m), "note": "; ".join(notes)}
 
 
@@ -686,7 +694,7 @@ def equivalent_horizontal_forces(frame: Frame, vertical_node_loads: pd.DataFrame
                              row=k, field="V_N")
     if not (np.isfinite(phi) and phi >= 0):
         raise InputError(f"phi = {phi} must be a non-negative number", field="phi")
-    H = (1.0 if direction[0] == "+" else -1.0) * phi * V
+    H = (1.0 if direction[0] == "+" else -1.0) * equivalent_horizontal_force(phi, V)
     zero = np.zeros(len(V))
     # in a plane frame the horizontal axis is X; in a space frame X or Y, Z being vertical
     fx = H if direction[1] == "X" else zero

@@ -2,7 +2,7 @@
 
 Sign convention, written down once. Internal forces are the stress resultants acting on the
 positive face of a cut (the face whose outward normal points along +x local), in the element's local
-axes (see `postproc.frame`), SI units:
+axes (see `postproc.model.frame`), SI units:
 - N_N: axial force, positive in tension.
 - Vy_N, Vz_N: shear forces along local y and z.
 - T_Nm: torsional moment about local x.
@@ -20,6 +20,9 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 import pandas as pd
+
+__all__ = ["COMBINATION_COLUMNS", "DISPLACEMENT_COLUMNS", "FORCE_COLUMNS", "FORCE_KEYS", "Results",
+           "empty_combinations"]
 
 FORCE_COLUMNS = ["N_N", "Vy_N", "Vz_N", "T_Nm", "My_Nm", "Mz_Nm"]
 FORCE_KEYS = ["combination", "element", "x_m"]

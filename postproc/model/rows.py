@@ -11,9 +11,12 @@ from dataclasses import dataclass, field, fields
 
 import numpy as np
 
-from ..row_reductions import row_any
+from ..numerics.row_reductions import row_any
 
 from ..settings import DesignSettings
+
+__all__ = ["CheckBlock", "FAIL", "MemberRows", "NOT_EVALUATED", "PASS", "at_station",
+           "block_concat", "governing", "no_reason", "rows_concat", "rows_slice"]
 
 PASS, FAIL, NOT_EVALUATED = "pass", "fail", "not evaluated"
 
@@ -23,7 +26,7 @@ class MemberRows:
     """Everything a check needs, as arrays over R rows (member, combination).
 
     Forces (R, S), SI, member axes (x from the member's start, y-y major, z-z minor), sign
-    convention of `postproc.results`; padded stations are NaN in every force array and in x.
+    convention of `postproc.model.results`; padded stations are NaN in every force array and in x.
 
     Attributes:
         member: (R,) member ids (str).

@@ -10,7 +10,7 @@ horizontal translation of the column tops of each level; in a space frame the ho
 translations of every column top, see `sway_coordinates`), the held frame has C u = 0,
 so the reversed holding forces C^T mu must produce the whole sway: C K^-1 C^T mu = C u. The sway
 part of every force is then the response to C^T mu, found from the frame's elastic stiffness K
-(the model of `postproc.stability_eigen`: section properties of the sections table, releases and
+(the model of `postproc.stability.eigen`: section properties of the sections table, releases and
 supports as given) and the displacements of the column tops in `results.displacements`.
 
 Within a frame element the sway part carries no span load, so it varies linearly between the
@@ -25,10 +25,13 @@ import numpy as np
 import pandas as pd
 import scipy.linalg as sla
 
-from .frame import NODE_COLUMNS, Frame
-from .members import Members
-from .results import FORCE_COLUMNS, Results
-from .stability_eigen import Mesh, build_mesh
+from ..model.frame import NODE_COLUMNS, Frame
+from ..model.members import Members
+from ..model.results import FORCE_COLUMNS, Results
+from .eigen import Mesh, build_mesh
+
+__all__ = ["LEVEL_TOL_M", "SWAY_METHOD", "SwayPart", "UnitSway", "amplified_forces", "solve",
+           "sway_coordinates", "sway_part", "unit_sway_cases"]
 
 LEVEL_TOL_M = 0.01          # column tops within 10 mm count as one level
 SWAY_METHOD = ("frame held against sway at each storey, holding forces reversed "
@@ -44,7 +47,7 @@ class SwayPart:
         elements: (e,) frame element ids, in frame order.
         length_m: (e,) element lengths.
         ends: (C, e, 2, 6) internal forces (FORCE_COLUMNS order, sign convention of
-            `postproc.results`) at x = 0 and x = L; NaN for a combination whose sway part is
+            `postproc.model.results`) at x = 0 and x = L; NaN for a combination whose sway part is
             unknown.
         note: (C,) '' where known, else why it is not.
         method: how the sway part was found.
@@ -182,7 +185,7 @@ def sway_part(frame: Frame, members: Members, results: Results, combos: list[str
     See the module docstring for the method. A combination without displacements of every
     column top, or a frame without columns, gets NaN with a note.
     """
-    from .stability import sub_elements
+    from .frame_stability import sub_elements
 
     eid = frame.elements.index.astype(str).tolist()
     xyz = frame.nodes[NODE_COLUMNS].astype(float)

@@ -1,0 +1,107 @@
+"""The engine: check families over member rows, chunk by chunk, on a thread per core.
+
+Rows (member, combination) are independent, so they are cut into chunks that fit the processor
+caches and run on a thread per core (numpy releases the interpreter lock inside its array
+operations). A distributed engine would plug in here: it receives MemberRows and the families and
+returns the same (rows, blocks) in row order.
+"""
+
+from __future__ import annotations
+
+import itertools
+import os
+import threading
+import time
+from collections import deque
+from concurrent.futures import Future, ThreadPoolExecutor
+from typing import Callable, Iterator
+
+import pandas as pd
+
+from .checks.member_info import with_member_info
+from .model.rows import CheckBlock, MemberRows, block_concat, rows_concat, rows_slice
+
+__all__ = ["CHUNK_ROWS", "CheckFamily", "iter_checks", "run_checks"]
+
+CheckFamily = Callable[[MemberRows], list[CheckBlock]]
+CHUNK_ROWS = 20_000  # rows per chunk: (rows x stations) arrays of a few MB stay in cache
+
+
+def iter_checks(rows: MemberRows, families: list[CheckFamily], *,
+                overrides: pd.DataFrame | None = None, chunk_rows: int = CHUNK_ROWS,
+                threads: int | None = None, timings: dict[str, float] | None = None,
+                keep: Callable[[MemberRows, list[CheckBlock]], object] | None = None
+                ) -> Iterator[tuple[MemberRows, object]]:
+    """Section classes, member buckling values and every check family, chunk by chunk.
+
+    Rows are independent, so they are cut into chunks that fit the processor caches and run on
+    a thread per core (numpy releases the interpreter lock inside its array operations). Yields
+    (rows of the chunk with their member information, one block per check) in row order; only a
+    few chunks are in flight at a time, so a caller that keeps less than the whole blocks never
+    holds a full-size set of intermediate values.
+
+    timings: if given, the seconds spent in each stage are added to it, summed over the worker
+        threads: 'classification and buckling values' (section class per station, member
+        overrides, member buckling values), one entry per family (the family's __name__) and
+        'keep' (the time of `keep`).
+    keep: if given, applied to (rows, blocks) of each chunk on the worker thread, and the chunk
+        yields (rows, keep(rows, blocks)) instead: the blocks are dropped there, so a caller
+        that keeps a digest never holds a chunk's full blocks on its own thread.
+    """
+    n = rows.n_rows
+    bounds = [(a, min(a + chunk_rows, n)) for a in range(0, n, chunk_rows)] or [(0, 0)]
+    lock = threading.Lock()
+
+    def add(stage: str, seconds: float) -> None:
+        if timings is not None:
+            with lock:
+                timings[stage] = timings.get(stage, 0.0) + seconds
+
+    def one(bound: tuple[int, int]) -> tuple[MemberRows, list[CheckBlock]]:
+        t0 = time.perf_counter()
+        part = with_member_info(rows_slice(rows, *bound), overrides)
+        add("classification and buckling values", time.perf_counter() - t0)
+        blocks = []
+        for family in families:
+            t0 = time.perf_counter()
+            blocks.extend(family(part))
+            add(getattr(family, "__name__", str(family)), time.perf_counter() - t0)
+        if keep is None:
+            return part, blocks
+        t0 = time.perf_counter()
+        kept = keep(part, blocks)
+        add("keep", time.perf_counter() - t0)
+        return part, kept
+
+    workers = min(threads or os.cpu_count() or 1, len(bounds))
+    if workers <= 1:
+        for bound in bounds:
+            yield one(bound)
+        return
+    with ThreadPoolExecutor(workers) as pool:
+        pending: deque[Future] = deque()
+        ahead = iter(bounds)
+        for bound in itertools.islice(ahead, 2 * workers):
+            pending.append(pool.submit(one, bound))
+        while pending:
+            result = pending.popleft().result()
+            for bound in itertools.islice(ahead, 1):
+                pending.append(pool.submit(one, bound))
+            yield result
+
+
+def run_checks(rows: MemberRows, families: list[CheckFamily], *,
+               overrides: pd.DataFrame | None = None, chunk_rows: int = CHUNK_ROWS,
+               threads: int | None = None) -> tuple[MemberRows, list[CheckBlock]]:
+    """Section classes, member buckling values and every check family for all rows.
+
+    The chunks of `iter_checks` joined in row order. Returns the rows with their member
+    information and one block per check.
+    """
+    parts = list(iter_checks(rows, families, overrides=overrides, chunk_rows=chunk_rows,
+                             threads=threads))
+    if len(parts) == 1:
+        return parts[0]
+    joined_rows = rows_concat([p for p, _ in parts])
+    blocks = [block_concat([p[1][k] for p in parts]) for k in range(len(parts[0][1]))]
+    return joined_rows, blocks
