@@ -27,7 +27,8 @@ from scipy.optimize import brentq
 from postproc.model.frame import Frame
 from postproc.model.members import design_members
 from postproc.model.results import Results
-from postproc.stability.frame_stability import analysis_path, buckling_lengths, critical_load_factors
+from postproc.stability.frame_stability import analysis_path, critical_load_factors
+from postproc.stability.lengths import buckling_lengths
 from tests.test_stability import (FIXED, I_HEB200_Y, PINNED, combos, constant_forces, make_frame,
                                   portal)
 

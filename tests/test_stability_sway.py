@@ -17,7 +17,8 @@ import pytest
 from postproc.model.frame import Frame
 from postproc.model.members import design_members
 from postproc.model.results import Results
-from postproc.stability.frame_stability import sub_elements, sway_part
+from postproc.stability.frame_stability import sub_elements
+from postproc.stability.sway import sway_part
 from postproc.stability.eigen import build_mesh
 from postproc.stability.sway import solve
 

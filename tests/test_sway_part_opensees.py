@@ -195,7 +195,7 @@ def test_amplified_sway_moments_come_with_non_sway_lengths():
     """5.2.2(8): with the sway effects amplified (and the imperfection in the forces) the
     columns are checked with their non-sway in-plane length, never a sway length on top; the
     same forces without the imperfection take sway lengths and are not amplified."""
-    from postproc.stability.frame_stability import buckling_lengths
+    from postproc.stability.lengths import buckling_lengths
 
     model = portal()
     frame = to_frame(model)

@@ -26,9 +26,8 @@ from ..model.members import Members, member_axes, moment_released
 from ..model.results import Results
 from .eigen import (E_STEEL, SUB_PER_MEMBER, Mesh, buckling_modes, build_mesh,
                               section_columns, translations)
-from .sway import SwayPart, amplified_forces, sway_part  # noqa: F401
-from .lengths import (buckling_lengths, effective_length_ratio,  # noqa: F401
-                                member_compression)
+from .sway import SwayPart, amplified_forces
+from .lengths import member_compression
 
 __all__ = ["ALPHA_AMPLIFY_MIN", "ALPHA_FIRST_ORDER", "COLUMN_TILT_COS", "LEVEL_TOL_M",
            "MODES_FIRST", "MODES_MAX", "ModeGauge", "PATHS", "STOREY_RAFTER_N_CR_SHARE",
