@@ -40,7 +40,6 @@ from .engine import iter_checks
 from .model.frame import Frame
 from .model.member_rows import build_member_rows
 from .model.members import one_member_per_element
-from .model.results import FORCE_COLUMNS
 from .sections import build_sections
 from .settings import DesignSettings
 

@@ -7,17 +7,15 @@
 
 from __future__ import annotations
 
-from dataclasses import replace
-
 import numpy as np
 import pandas as pd
 
 from . import materials
 from .checker import CHECK_FAMILIES, results_table
 from .checks.member_info import with_member_info
-from .model.rows import MemberRows
 from .errors import InputError
 from .model.member_rows import member_properties
+from .model.rows import MemberRows
 from .sections import build_sections
 from .settings import DesignSettings
 

@@ -110,7 +110,7 @@ class DesignSettings:
         validate_design(asdict(self))
 
     @classmethod
-    def from_mapping(cls, values: dict, *, file: str | None = None) -> "DesignSettings":
+    def from_mapping(cls, values: dict, *, file: str | None = None) -> DesignSettings:
         """Build from a project file's [design] table: unknown keys, wrong types and values out
         of range raise InputError naming the file and the key."""
         from .project_schema import validate_design

@@ -50,11 +50,11 @@ import numpy as np
 
 from ..ec3 import cross_section as cs
 from ..ec3 import effective_resistance as er
-from ..errors import InputError
 from ..ec3.classification import section_class
+from ..errors import InputError
+from ..model.rows import CheckBlock, MemberRows, at_station, no_reason, row_any
 from ..sections.effective import STRESS_KEYS, parts_at_stress
 from . import effective_rows as eff_rows
-from ..model.rows import CheckBlock, MemberRows, at_station, no_reason, row_any
 
 __all__ = ["CLASS_4", "CLASS_4_CHS", "CLASS_UNKNOWN", "LINEAR_SUM", "NAN_FORCE",
            "NM_NEEDS_GEOMETRY", "NOISE", "SHEAR_BUCKLING", "SHEAR_LINEAR_SUM", "SHEAR_UNKNOWN",

@@ -43,14 +43,14 @@ from dataclasses import dataclass
 import numpy as np
 import pandas as pd
 
+from ..ec3 import effective_resistance as er
 from ..ec3 import flexural_buckling as fb
 from ..ec3 import interaction_annex_a as annex_a
 from ..ec3 import interaction_annex_b as annex_b
-from ..ec3 import effective_resistance as er
 from ..ec3 import moment_factors as mf
-from . import effective_rows as eff_rows
-from ..numerics.row_reductions import row_sum
 from ..model.rows import CheckBlock, MemberRows, no_reason
+from ..numerics.row_reductions import row_sum
+from . import effective_rows as eff_rows
 
 __all__ = ["BUCKLING_KEYS", "CLASS_4", "N_BASIS", "SharedInputs", "interaction_checks"]
 

@@ -49,9 +49,9 @@ import numpy as np
 from ..ec3 import critical_moment as cm
 from ..ec3 import flexural_buckling as fb
 from ..ec3 import lateral_torsional as lt
-from . import effective_rows as eff_rows
-from ..numerics.row_reductions import row_any, row_max, row_sum
 from ..model.rows import CheckBlock, MemberRows, no_reason
+from ..numerics.row_reductions import row_any, row_max, row_sum
+from . import effective_rows as eff_rows
 
 __all__ = ["CLASS_4", "CLASS_UNKNOWN", "GENERIC", "GIVEN_LENGTH", "MAX_SEGMENTS", "NO_POSITIONS",
            "POINT_TOL_M", "REAL_SPANS", "SEGMENT_BASIS", "buckling_values",

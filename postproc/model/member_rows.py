@@ -13,12 +13,12 @@ import numpy as np
 import pandas as pd
 
 from .. import materials
-from .rows import MemberRows
+from ..settings import DesignSettings
+from ..stability.lengths import restraint_positions
 from .frame import Frame, element_vectors
 from .members import Members, member_axes
 from .results import FORCE_COLUMNS
-from ..settings import DesignSettings
-from ..stability.lengths import restraint_positions
+from .rows import MemberRows
 
 __all__ = ["FLIP_SIGN", "LENGTH_KEYS", "build_member_rows", "member_properties"]
 

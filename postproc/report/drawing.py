@@ -13,9 +13,9 @@ import html
 import numpy as np
 import pandas as pd
 
-from ..model.rows import FAIL, NOT_EVALUATED
 from ..model.frame import Frame
 from ..model.members import Members
+from ..model.rows import FAIL, NOT_EVALUATED
 from .colours import NOT_EVALUATED_COLOUR, VIRIDIS, utilisation_colour
 from .links import sheet_href
 

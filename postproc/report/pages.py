@@ -9,7 +9,7 @@ file that holds all of them.
 from __future__ import annotations
 
 import html
-from typing import Iterable
+from collections.abc import Iterable
 
 import numpy as np
 import pandas as pd

@@ -3,8 +3,8 @@ a terminal (a pipe, a file, a test)."""
 
 from __future__ import annotations
 
+from collections.abc import Callable, Iterator
 from contextlib import contextmanager
-from typing import Callable, Iterator
 
 __all__ = ["QUIET", "Stages", "Tick"]
 
@@ -26,8 +26,14 @@ class Stages:
         if not self.enabled:
             yield lambda n=1: None
             return
-        from rich.progress import (BarColumn, MofNCompleteColumn, Progress, SpinnerColumn,
-                                   TextColumn, TimeElapsedColumn)
+        from rich.progress import (
+            BarColumn,
+            MofNCompleteColumn,
+            Progress,
+            SpinnerColumn,
+            TextColumn,
+            TimeElapsedColumn,
+        )
 
         columns = [SpinnerColumn(), TextColumn("{task.description}")]
         if total:

@@ -18,16 +18,27 @@ import dataclasses
 import numpy as np
 import pandas as pd
 
-from ..ec3.global_analysis import (alpha_cr_storey, equivalent_horizontal_force, sway_amplification,
-                                   sway_imperfection_factors)
+from ..ec3.global_analysis import (
+    alpha_cr_storey,
+    equivalent_horizontal_force,
+    sway_amplification,
+    sway_imperfection_factors,
+)
 from ..errors import InputError, TopologyError
 from ..model.frame import NODE_COLUMNS, Frame, local_axes
 from ..model.members import Members, member_axes, moment_released
 from ..model.results import Results
-from .eigen import (E_STEEL, SUB_PER_MEMBER, Mesh, buckling_modes, build_mesh,
-                              section_columns, translations)
-from .sway import SwayPart, amplified_forces
+from .eigen import (
+    E_STEEL,
+    SUB_PER_MEMBER,
+    Mesh,
+    buckling_modes,
+    build_mesh,
+    section_columns,
+    translations,
+)
 from .lengths import member_compression
+from .sway import SwayPart, amplified_forces
 
 __all__ = ["ALPHA_AMPLIFY_MIN", "ALPHA_FIRST_ORDER", "COLUMN_TILT_COS", "LEVEL_TOL_M",
            "MODES_FIRST", "MODES_MAX", "ModeGauge", "PATHS", "STOREY_RAFTER_N_CR_SHARE",
@@ -306,7 +317,8 @@ def storey_alpha(frame: Frame, results: Results, members: Members, combos: list[
 
     Returns (alpha_cr_storey (C,), note (C,)).
     """
-    from .sway import LEVEL_TOL_M as TOP_TOL_M, unit_sway_cases
+    from .sway import LEVEL_TOL_M as TOP_TOL_M
+    from .sway import unit_sway_cases
 
     n = len(combos)
     notes = np.full(n, "", dtype=object)

@@ -445,7 +445,7 @@ def _apply_overrides(out: pd.DataFrame, overrides: pd.DataFrame, known: set[str]
               "L_cr_T_m": "origin_T"}
     located = {"file", "entry"} <= set(overrides.columns)
     for k, r in enumerate(overrides.itertuples(index=False)):
-        m = str(getattr(r, "member"))
+        m = str(r.member)
         # where the override was written: the project file's [members.<name>], else row k + 1
         file, row, prefix = ((str(r.file), None, f"{r.entry}.") if located
                              else (None, k + 1, ""))
