@@ -22,13 +22,12 @@ import pandas as pd
 from postproc import loads
 from postproc.errors import InputError
 from postproc.model.frame import Frame
+from postproc.model.results import DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
 from postproc.project import Project
 from postproc.project_schema import SCRIPT_TIME_LIMIT_S, OpenSeesModel
-from postproc.model.results import DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
 
 from .opensees_export import export_tables
-from .opensees_model import (Captured, axis_map, import_opensees, read_domain, run_user_model,
-                             to_en)
+from .opensees_model import Captured, axis_map, import_opensees, read_domain, run_user_model, to_en
 from .opensees_run import Job, clear_patterns, forces_along, run_jobs, station_grid
 
 MODEL_KEYS = set(OpenSeesModel.model_fields)  # the project schema's [model] keys

@@ -14,6 +14,7 @@ chord (P-Delta in the end moments, no P-delta inside an element).
 
 from __future__ import annotations
 
+import multiprocessing
 import os
 import signal
 import sys
@@ -21,7 +22,6 @@ import threading
 from concurrent.futures import InvalidStateError, ProcessPoolExecutor
 from concurrent.futures.process import BrokenProcessPool
 from dataclasses import dataclass
-import multiprocessing
 
 import numpy as np
 import pandas as pd

@@ -10,8 +10,8 @@ as row 1, as a spreadsheet shows them.
 from __future__ import annotations
 
 import re
+from collections.abc import Callable
 from pathlib import Path
-from typing import Callable
 
 import numpy as np
 import pandas as pd
@@ -19,9 +19,9 @@ import pandas as pd
 from postproc import materials
 from postproc.errors import InputError
 from postproc.model.frame import Frame, empty_ties
+from postproc.model.results import COMBINATION_COLUMNS, DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
 from postproc.project import Project
 from postproc.project_schema import TABLE_FILES
-from postproc.model.results import COMBINATION_COLUMNS, DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
 from postproc.sections import build_sections
 from postproc.units import factor
 
