@@ -22,8 +22,12 @@ from postproc.model.frame import Frame
 from postproc.model.members import Members, design_members
 from postproc.model.results import Results
 from postproc.stability.frame_stability import analysis_path, critical_load_factors
-from postproc.stability.lengths import buckling_lengths
-from postproc.stability.lengths import SHOWN_LENGTH_CAP, restraint_positions, shown_lengths
+from postproc.stability.lengths import (
+    SHOWN_LENGTH_CAP,
+    buckling_lengths,
+    restraint_positions,
+    shown_lengths,
+)
 
 E = 210e9                   # Pa, EN 1993-1-1 3.2.6(1)
 I_HEB200_Y = 5696e-8        # m4, handbook (from memory)

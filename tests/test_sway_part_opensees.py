@@ -22,8 +22,14 @@ import pytest
 from postproc.model.frame import Frame
 from postproc.model.members import design_members
 from postproc.model.results import Results
-from postproc.stability.frame_stability import (amplified_part, amplify_sway_effects, analysis_path,
-                                critical_load_factors, sway_imperfection, sway_part)
+from postproc.stability.frame_stability import (
+    amplified_part,
+    amplify_sway_effects,
+    analysis_path,
+    critical_load_factors,
+    sway_imperfection,
+    sway_part,
+)
 
 ops = pytest.importorskip("openseespy.opensees")
 pytestmark = pytest.mark.opensees

@@ -8,8 +8,8 @@ and tests/ec3/test_interaction_annex_a.py (Annex A): tolerance HAND (0.1 %, four
 import numpy as np
 import pytest
 
-from postproc.model.rows import FAIL, NOT_EVALUATED, PASS, MemberRows
 from postproc.checks.interaction import CLASS_4, interaction_checks
+from postproc.model.rows import FAIL, NOT_EVALUATED, PASS, MemberRows
 from postproc.settings import DesignSettings
 
 HAND = 1e-3
