@@ -28,8 +28,8 @@ from postproc.stability.frame_stability import (
     analysis_path,
     critical_load_factors,
     sway_imperfection,
-    sway_part,
 )
+from postproc.stability.sway import sway_part
 
 ops = pytest.importorskip("openseespy.opensees")
 pytestmark = pytest.mark.opensees
