@@ -86,7 +86,7 @@ def _codes(values: np.ndarray, table: np.ndarray) -> np.ndarray:
 
 def _compact(x: np.ndarray, M: np.ndarray
              ) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
-    """Sort each row by x with the real stations first; returns x, M, n (real stations), bad rows."""
+    """Sort each row by x with the real stations first: x, M, n (real stations), bad rows."""
     x = np.atleast_2d(np.asarray(x, dtype=float))
     M = np.atleast_2d(np.asarray(M, dtype=float))
     real = ~np.isnan(x)
