@@ -493,13 +493,14 @@ def _plastic_N_M(c: _Rows, N_pl: np.ndarray, M_pl_y: np.ndarray, M_pl_z: np.ndar
             continue
         at = (r[:, None] * c.S + np.arange(c.S)).reshape(-1)  # flat positions of those rows
 
-        def take(values) -> np.ndarray:
+        def take(values, r: np.ndarray = r) -> np.ndarray:
             values = np.asarray(values)
             if values.ndim < 2:
                 return values
             return np.take(values, r, axis=0)  # much faster than values[r] for many rows
 
-        def put(target: np.ndarray, values: np.ndarray) -> None:
+        def put(target: np.ndarray, values: np.ndarray, r: np.ndarray = r,
+                at: np.ndarray = at) -> None:
             target.reshape(-1)[at] = np.broadcast_to(values, (len(r), c.S)).reshape(-1)
 
         n_r, f_y = take(n), take(c.f_y)

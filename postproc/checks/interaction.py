@@ -331,7 +331,7 @@ def _finish(rows: MemberRows, c: SharedInputs, eq: dict[str, np.ndarray], label:
 
 def _equations(rows: MemberRows, c: SharedInputs, k: dict[str, np.ndarray]
                ) -> tuple[dict[str, np.ndarray], dict[str, np.ndarray]]:
-    d, b, res = c.d, c.b, c.res
+    d, res = c.d, c.res
     g = rows.settings.gamma_M1
     common = dict(chi_LT=c.chi_LT, N_Rk=res["N_Rk_N"], M_y_Rk=res["M_y_Rk_Nm"],
                   M_z_Rk=res["M_z_Rk_Nm"], Delta_M_y_Ed=res["Delta_M_y_Ed_Nm"],

@@ -2,7 +2,8 @@
 
 A row is one (design member, combination). Element stations are moved onto the member's own x
 (element offset along the member, direction flipped where the element runs backwards, which
-changes the sign of Vz and Mz: see `postproc.model.results`), then scattered into (R, S) arrays padded
+changes the sign of Vz and Mz: see `postproc.model.results`), then scattered into (R, S) arrays
+padded
 with NaN, S being the largest number of stations of any row. No Python loop over rows, and no
 sorting or joining of strings: ids become integer codes first.
 """

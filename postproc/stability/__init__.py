@@ -1,4 +1,4 @@
-"""Frame stability: alpha_cr, the analysis path, sway amplification, imperfections, buckling lengths.
+"""Frame stability: alpha_cr, analysis path, sway amplification, imperfections, buckling lengths.
 
 `frame_stability` (alpha_cr per combination, the storey method, the path of 5.2.2, imperfections,
 member bow flags), `eigen` (the frame's stiffness and its lowest buckling modes), `sway` (the sway
