@@ -23,7 +23,8 @@ __all__ = ["HEIGHT", "LINE", "MARGIN", "VIEW_TITLES", "WIDTH", "default_views", 
            "legend_svg", "member_polylines", "projected", "short_label"]
 
 VIEW_TITLES = {"elevation": "elevation", "axonometric": "axonometric view", "plan": "plan",
-               "elevation-x": "elevation looking along Y", "elevation-y": "elevation looking along X"}
+               "elevation-x": "elevation looking along Y",
+               "elevation-y": "elevation looking along X"}
 WIDTH, HEIGHT, MARGIN = 960.0, 560.0, 40.0
 LINE = {"pass": ("4", ""), FAIL: ("8", "16 6"), NOT_EVALUATED: ("5", "2 6")}
 
