@@ -198,7 +198,7 @@ def _elements(table: Table, nodes: pd.DataFrame, sections: pd.DataFrame,
     table.refuse(~section.isin(sections.index).to_numpy(), "section",
                  lambda k: f"unknown section {section.iloc[k]!r} (not in the sections table)")
     grade = table.text("grade", required=False).replace("", default_grade)
-    for k, name in enumerate(grade.unique()):
+    for name in grade.unique():
         first = int((grade == name).to_numpy().argmax())
         materials.grade_name(name, file=table.name, row=int(table.rows[first]), field="grade")
     xyz = nodes[["x_m", "y_m", "z_m"]]
