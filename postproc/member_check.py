@@ -114,7 +114,9 @@ def check_member(section: str | dict, grade: str = "S355", *, length: float,
         info["sway_y"] = np.array([sway_y])
     if sway_z is not None:
         info["sway_z"] = np.array([sway_z])
-    row = lambda values: np.asarray(values, float)[None, :]  # noqa: E731
+    def row(values) -> np.ndarray:
+        return np.asarray(values, float)[None, :]
+
     rows = MemberRows(
         member=np.array(["member"], dtype=object), combination=np.array(["given"], dtype=object),
         x=row(x), N=row(np.full(stations, N_Ed)), Vy=row(vy), Vz=row(vz),

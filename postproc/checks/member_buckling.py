@@ -254,7 +254,7 @@ def _segment_plan(rows: MemberRows, L_LT: np.ndarray
     length = np.asarray(rows.length, float)
     given = rows.info.get("L_LT_override")
     given = (np.zeros(R, bool) if given is None
-             else np.asarray(np.asarray(given, dtype=object) == True, bool))  # noqa: E712
+             else np.equal(np.asarray(given, dtype=object), True))  # True, not merely truthy
     points = rows.info.get("ltb_points_m")
     points = np.full((R, 0), np.nan) if points is None else np.asarray(points, float)
     if points.shape[1] < 2:

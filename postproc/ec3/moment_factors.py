@@ -190,7 +190,9 @@ def _diagram_compact(xs: np.ndarray, Ms: np.ndarray, n: np.ndarray, bad: np.ndar
     shape[bad] = _S_INVALID
     load = _span_load(xs, Ms, n, concentrated_share)
     load[linear | no_moment | bad] = _L_NONE
-    nan_bad = lambda v: np.where(bad, np.nan, v)  # noqa: E731
+    def nan_bad(v: np.ndarray) -> np.ndarray:
+        return np.where(bad, np.nan, v)
+
     return {"M_a_Nm": nan_bad(M_a), "M_b_Nm": nan_bad(M_b), "M_h_Nm": nan_bad(M_h),
             "psi": nan_bad(np.clip(psi, -1.0, 1.0)),
             "M_s_Nm": nan_bad(np.where(linear, np.nan, M_s)),

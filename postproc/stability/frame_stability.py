@@ -99,7 +99,9 @@ def axial_at(frame: Frame, results: Results, combos: list[str], parent: np.ndarr
     below = (Xs <= frac[None, :, None]).sum(axis=2) - 1
     lo = np.clip(below, 0, np.maximum(cnt - 2, 0))
     hi = np.minimum(lo + 1, np.maximum(cnt - 1, 0))
-    take = lambda a, i: np.take_along_axis(a, i[..., None], axis=2)[..., 0]  # noqa: E731
+    def take(a: np.ndarray, i: np.ndarray) -> np.ndarray:
+        return np.take_along_axis(a, i[..., None], axis=2)[..., 0]
+
     x0, x1, n0, n1 = take(Xs, lo), take(Xs, hi), take(Ns, lo), take(Ns, hi)
     with np.errstate(invalid="ignore", divide="ignore"):
         w = np.where(np.isfinite(x1) & (x1 > x0), (frac[None, :] - x0) / (x1 - x0), 0.0)
