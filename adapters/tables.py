@@ -287,7 +287,8 @@ def _results(files: dict, units: dict, frame: Frame, project) -> Results:
     forces = pd.DataFrame(data)
     _check_stations(forces, frame, table)
 
-    factors, notes = None, ()
+    factors: pd.DataFrame | None = None
+    notes: tuple[str, ...] = ()
     if key == "load_case":
         forces, factors = _combine(forces, table, files, units, project)
         notes = (factors.attrs["note"],)
