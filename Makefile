@@ -23,7 +23,10 @@ demo: setup
 	if [ $$rc -eq 2 ] || [ $$rc -gt 3 ]; then exit $$rc; fi; \
 	echo "framesweep finished with exit code $$rc (0 all pass, 1 some fail, 3 some not evaluated); outputs in $(DEMO_OUT)/"
 
+# Lint and type check first: a style or type error stops the run before the longer test suite.
 test: setup
+	$(VENV)/bin/ruff check .
+	$(VENV)/bin/mypy
 	$(PY) -m pytest -q
 
 bench: setup

@@ -1,9 +1,11 @@
 """OpenSees adapter: run the user's openseespy model, analyse every combination, read the results.
 
-`load(project)` (the parsed `Project`, as for every adapter) runs the user's script in this process (their code, with their
+`load(project)` (the parsed `Project`, as for every adapter) runs the user's script in this process
+(their code, with their
 rights), reads the model back from the OpenSees domain, builds the load combinations of
 `postproc.loads` from the load patterns, analyses them and returns a Frame and Results in SI and
-in the sign convention of `postproc.model.results`. The project keys are documented in docs/opensees.md.
+in the sign convention of `postproc.model.results`. The project keys are documented in
+docs/opensees.md.
 
 - analysis = "linear" (default): each load pattern is solved once; combinations are superposed.
 - analysis = "p-delta": one P-delta analysis per combination, 'Linear' geometric transformations
@@ -22,13 +24,12 @@ import pandas as pd
 from postproc import loads
 from postproc.errors import InputError
 from postproc.model.frame import Frame
+from postproc.model.results import DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
 from postproc.project import Project
 from postproc.project_schema import SCRIPT_TIME_LIMIT_S, OpenSeesModel
-from postproc.model.results import DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
 
 from .opensees_export import export_tables
-from .opensees_model import (Captured, axis_map, import_opensees, read_domain, run_user_model,
-                             to_en)
+from .opensees_model import Captured, axis_map, import_opensees, read_domain, run_user_model, to_en
 from .opensees_run import Job, clear_patterns, forces_along, run_jobs, station_grid
 
 MODEL_KEYS = set(OpenSeesModel.model_fields)  # the project schema's [model] keys
@@ -268,8 +269,8 @@ def check_stiffness(captured: Captured, frame: Frame, major_axis: str, *, file: 
             f"element {element} ({frame.elements['section'].iloc[k]}): the model's I about "
             f"OpenSees local {major_axis} is {I_major[k]:.4g} m4, close to the section's "
             f"minor-axis I_z = {I_z[k]:.4g} m4, not its I_y = {I_y[k]:.4g} m4. Check the "
-            f"element's vecxz or set [model] major_axis (now \"{major_axis}\"); for a plane frame, bending about the "
-            "minor axis is not read.", file=file, field="model.major_axis")
+            f"element's vecxz or set [model] major_axis (now \"{major_axis}\"); for a plane "
+            "frame, bending about the minor axis is not read.", file=file, field="model.major_axis")
     off = known & (np.abs(I_major - I_y) > STIFFNESS_WARNING * I_y)
     if off.any():
         k = int(np.argmax(off))

@@ -14,6 +14,7 @@ chord (P-Delta in the end moments, no P-delta inside an element).
 
 from __future__ import annotations
 
+import multiprocessing
 import os
 import signal
 import sys
@@ -21,7 +22,6 @@ import threading
 from concurrent.futures import InvalidStateError, ProcessPoolExecutor
 from concurrent.futures.process import BrokenProcessPool
 from dataclasses import dataclass
-import multiprocessing
 
 import numpy as np
 import pandas as pd
@@ -283,7 +283,7 @@ def station_grid(length: np.ndarray, point_a: pd.DataFrame, n: int) -> np.ndarra
     `point_a`: columns element_index, a (fraction of L).
     """
     base = np.linspace(0.0, 1.0, n)
-    extra = [[] for _ in range(len(length))]
+    extra: list[list[float]] = [[] for _ in range(len(length))]
     for e, a in zip(point_a["element_index"], point_a["a"]):
         extra[int(e)].append(float(a))
     rows = [np.unique(np.round(np.concatenate([base, np.array(x, float)]), 12)) for x in extra]

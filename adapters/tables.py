@@ -10,8 +10,8 @@ as row 1, as a spreadsheet shows them.
 from __future__ import annotations
 
 import re
+from collections.abc import Callable
 from pathlib import Path
-from typing import Callable
 
 import numpy as np
 import pandas as pd
@@ -19,9 +19,9 @@ import pandas as pd
 from postproc import materials
 from postproc.errors import InputError
 from postproc.model.frame import Frame, empty_ties
+from postproc.model.results import COMBINATION_COLUMNS, DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
 from postproc.project import Project
 from postproc.project_schema import TABLE_FILES
-from postproc.model.results import COMBINATION_COLUMNS, DISPLACEMENT_COLUMNS, FORCE_COLUMNS, Results
 from postproc.sections import build_sections
 from postproc.units import factor
 
@@ -198,7 +198,7 @@ def _elements(table: Table, nodes: pd.DataFrame, sections: pd.DataFrame,
     table.refuse(~section.isin(sections.index).to_numpy(), "section",
                  lambda k: f"unknown section {section.iloc[k]!r} (not in the sections table)")
     grade = table.text("grade", required=False).replace("", default_grade)
-    for k, name in enumerate(grade.unique()):
+    for name in grade.unique():
         first = int((grade == name).to_numpy().argmax())
         materials.grade_name(name, file=table.name, row=int(table.rows[first]), field="grade")
     xyz = nodes[["x_m", "y_m", "z_m"]]
@@ -287,7 +287,8 @@ def _results(files: dict, units: dict, frame: Frame, project) -> Results:
     forces = pd.DataFrame(data)
     _check_stations(forces, frame, table)
 
-    factors, notes = None, ()
+    factors: pd.DataFrame | None = None
+    notes: tuple[str, ...] = ()
     if key == "load_case":
         forces, factors = _combine(forces, table, files, units, project)
         notes = (factors.attrs["note"],)

@@ -75,13 +75,13 @@ def build_model() -> dict:
             braces.append(tag)
     ops.timeSeries("Linear", 1)
     ops.pattern("Plain", 1, 1)  # grating 0.45 kN/m2 on the main beams, beam self-weight
-    for (a, b), t in main.items():
+    for (_a, b), t in main.items():
         width = 2.0 if b != 1 else 4.0
         ops.eleLoad("-ele", t, "-type", "-beamUniform", 0.0, -(0.45e3 * width + 0.42e3), 0.0)
     for t in secondary.values():
         ops.eleLoad("-ele", t, "-type", "-beamUniform", 0.0, -0.31e3, 0.0)
     ops.pattern("Plain", 2, 1)  # pallets 6.0 kN/m2
-    for (a, b), t in main.items():
+    for (_a, b), t in main.items():
         width = 2.0 if b != 1 else 4.0
         ops.eleLoad("-ele", t, "-type", "-beamUniform", 0.0, -6.0e3 * width, 0.0)
     ops.pattern("Plain", 3, 1)  # machine: 45 kN at 2.0 m along the first bay of the middle line

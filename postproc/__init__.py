@@ -1,7 +1,8 @@
 """framesweep: checks the members of an analysed steel frame to EN 1993-1-1.
 
 The package holds the stages of the pipeline (see DEVELOPERS.md): the frame and results data model,
-sections and materials, the graph layer, stability, the clause functions, the checker and the reports.
+sections and materials, the graph layer, stability, the clause functions, the checker and the
+reports.
 """
 
 __version__ = "0.1.0"

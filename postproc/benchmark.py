@@ -40,7 +40,6 @@ from .engine import iter_checks
 from .model.frame import Frame
 from .model.member_rows import build_member_rows
 from .model.members import one_member_per_element
-from .model.results import FORCE_COLUMNS
 from .sections import build_sections
 from .settings import DesignSettings
 
@@ -59,7 +58,8 @@ DESIGNATIONS = ["IPE 200", "IPE 300", "IPE 400", "HEA 200", "HEA 300", "HEB 200"
                 "SHS 150x150x8", "CHS 168.3x8"]
 
 
-def synthetic_model(n_members: int, n_combinations: int, seed: int = 1) -> tuple[Frame, pd.DataFrame, pd.DataFrame]:
+def synthetic_model(n_members: int, n_combinations: int, seed: int = 1
+                    ) -> tuple[Frame, pd.DataFrame, pd.DataFrame]:
     """Frame of n_members single-element members and their forces for n_combinations."""
     rng = np.random.default_rng(seed)
     sections = build_sections(pd.DataFrame({"section": DESIGNATIONS, "designation": DESIGNATIONS}),
@@ -93,7 +93,8 @@ def synthetic_model(n_members: int, n_combinations: int, seed: int = 1) -> tuple
     ms = rng.uniform(-0.2, 0.2, n_rows) * wy
     my = m1[:, None] * (1 - xi) + m2[:, None] * xi + ms[:, None] * 4 * xi * (1 - xi)
     mz = (rng.uniform(-0.1, 0.1, n_rows) * wz)[:, None] * (1 - xi)
-    vz = ((m2 - m1) / length[member])[:, None] + ms[:, None] * 4 * (1 - 2 * xi) / length[member][:, None]
+    span = length[member][:, None]
+    vz = (m2 - m1)[:, None] / span + ms[:, None] * 4 * (1 - 2 * xi) / span
     combination_ids = pd.Categorical.from_codes(
         np.tile(np.arange(n_combinations), n_members).repeat(STATIONS),
         categories=[f"C{c}" for c in range(n_combinations)])

@@ -18,18 +18,18 @@ from dataclasses import replace
 import numpy as np
 import pandas as pd
 
-from .engine import CheckFamily, run_checks
-from .model.outcome import KEY_COLUMNS, CheckOutcome
-from .model.rows import FAIL, NOT_EVALUATED, PASS, CheckBlock, MemberRows
+from . import stability
 from .checks.cross_section import cross_section_checks
 from .checks.interaction import interaction_checks
 from .checks.member_buckling import flexural_buckling_checks, lateral_torsional_checks
+from .engine import CheckFamily, run_checks
 from .model.frame import Frame
 from .model.member_rows import build_member_rows
 from .model.members import Members, design_members
+from .model.outcome import KEY_COLUMNS, CheckOutcome
 from .model.results import Results
+from .model.rows import FAIL, NOT_EVALUATED, PASS, CheckBlock, MemberRows
 from .settings import DesignSettings
-from . import stability
 
 __all__ = ["CHECK_FAMILIES", "check_frame", "results_table", "station_forces"]
 

@@ -168,7 +168,7 @@ def _run(project: Path, out: Path, *, quiet: bool, options: ReportOptions | None
         columns = [c for c in ("combination", "alpha_cr", "sway_mode", "path") if c in stability]
         if "amplified_part" in stability and (stability["amplified_part"] != "").any():
             columns.append("amplified_part")   # 5.2.2(5B): which part of the forces
-        print(f"\nFrame stability per combination (EN 1993-1-1 5.2.1, 5.2.2):")
+        print("\nFrame stability per combination (EN 1993-1-1 5.2.1, 5.2.2):")
         print(stability[columns].to_string(index=False, float_format=lambda v: f"{v:.2f}")
               if len(stability) else "  none: no ULS combination with forces")
         print()

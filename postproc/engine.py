@@ -13,8 +13,8 @@ import os
 import threading
 import time
 from collections import deque
+from collections.abc import Callable, Iterator
 from concurrent.futures import Future, ThreadPoolExecutor
-from typing import Callable, Iterator
 
 import pandas as pd
 

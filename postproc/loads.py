@@ -88,7 +88,8 @@ def psi_factors(categories: Iterable[str], *, psi: Mapping[str, tuple[float, flo
     return np.array([table[c] if c in table else (np.nan,) * 3 for c in categories], dtype=float)
 
 
-def check_cases(cases: pd.DataFrame, *, file: str | None = None, rows: Sequence[int] | None = None,
+def check_cases(cases: pd.DataFrame, *, file: str | None = None,
+                rows: Sequence[int] | np.ndarray | None = None,
                 field_prefix: str | None = None) -> pd.DataFrame:
     """Validate a load case table (load_case, category, optional group and psi_0); return a copy.
 
@@ -169,8 +170,8 @@ def _accompanying_sets(variable: pd.DataFrame, leading: str | None) -> list[list
             for pick in itertools.product(*_choices(variable, leading))]
 
 
-def _set_count(variable: pd.DataFrame, leading: str | None, *, without: set[str] = frozenset()
-               ) -> int:
+def _set_count(variable: pd.DataFrame, leading: str | None, *,
+               without: frozenset[str] | set[str] = frozenset()) -> int:
     """How many sets `_accompanying_sets` gives, counted without building them; cases in
     `without` are taken as never present (to count the sets holding none of them)."""
     return math.prod(sum(c is None or c not in without for c in choice)
@@ -447,7 +448,8 @@ def project_combinations(cases: pd.DataFrame | None, settings: Mapping, *,
     except InputError as exc:
         raise InputError(exc.message, file=exc.file or file, row=exc.row,
                          field=exc.field) from None
-    known = cases["load_case"] if known_cases is None else known_cases
+    known = (known_cases if known_cases is not None else
+             () if cases is None else cases["load_case"])
     given = [explicit_combinations(settings.get("extra", {}), known_cases=known, file=file)]
     if explicit is not None:
         given.append(explicit[FACTORS_COLUMNS])
@@ -557,7 +559,7 @@ def load_case_table(table: Mapping, *, file: str, patterns: list[str] | None = N
 
 
 def superpose(case_forces: pd.DataFrame, factors: pd.DataFrame, *,
-              keys: tuple[str, ...] = ("element", "x_m"),
+              keys: tuple[str, ...] | list[str] = ("element", "x_m"),
               columns: tuple[str, ...] | list[str] = tuple(FORCE_COLUMNS)) -> pd.DataFrame:
     """Linear superposition: sum over load cases of factor times the load case's values.
 

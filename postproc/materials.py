@@ -40,7 +40,7 @@ T_LIMIT_2 = 0.080
 """m: upper thickness of the second column of Table 3.1 (the table stops here)."""
 
 # grade -> (f_y t<=40, f_u t<=40, f_y 40<t<=80, f_u 40<t<=80) in N/mm2, EN 1993-1-1 Table 3.1
-_TABLE_3_1: dict[str, tuple[float, float, float, float]] = {
+_TABLE_3_1: dict[str, tuple[float, ...]] = {
     # EN 10025-2, non-alloy structural steels
     "S235": (235, 360, 215, 360),
     "S275": (275, 430, 255, 410),

@@ -11,8 +11,8 @@ from __future__ import annotations
 import numpy as np
 import pandas as pd
 
-from .model.outcome import CheckOutcome
 from .model.frame import Frame
+from .model.outcome import CheckOutcome
 from .model.results import Results
 
 __all__ = ["ALPHA_CR_LOW", "COLUMNS", "ELEMENT_SHORT_M", "FORCE_HIGH_N", "MOMENT_HIGH_NM",

@@ -14,7 +14,6 @@ from pathlib import Path
 import pandas as pd
 
 from .errors import InputError
-from .project_schema import OVERRIDE_KEYS  # noqa: F401 (re-exported)
 from .project_schema import MemberOverride, Restraint, validate_project
 from .settings import DesignSettings
 

@@ -9,12 +9,12 @@ from pathlib import Path
 import pandas as pd
 
 from .checker import check_frame
-from .model.outcome import CheckOutcome
 from .model.frame import Frame
+from .model.outcome import CheckOutcome
+from .model.results import Results
 from .plausibility import COLUMNS, numerical_warnings, plausibility_warnings
 from .project import Project, read_project
 from .report.progress import QUIET, Stages
-from .model.results import Results
 
 __all__ = ["RunOutput", "forces_source", "load_model", "run_project"]
 

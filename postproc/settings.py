@@ -9,16 +9,28 @@ beside it declares its range, so a new field joins the schema without a second l
 from __future__ import annotations
 
 from dataclasses import asdict, dataclass, field
-from typing import Literal, get_args
+from typing import Literal, TypedDict, Unpack, get_args
 
 __all__ = ["ANNEXES", "Annex", "BOW_COVERS", "BowCover", "CLASSIFICATIONS", "Classification",
-           "DesignSettings", "KZyZero", "K_ZY_ZERO", "LTB_METHODS", "LtbMethod", "PLAUSIBLE_FACTOR",
-           "limits"]
+           "Bounds", "DesignSettings", "KZyZero", "K_ZY_ZERO", "LTB_METHODS", "LtbMethod",
+           "PLAUSIBLE_FACTOR", "limits"]
 
 Annex = Literal["A", "B", "both"]
 LtbMethod = Literal["general", "rolled"]
 ANNEXES, LTB_METHODS = get_args(Annex), get_args(LtbMethod)
-PLAUSIBLE_FACTOR = {"ge": 0.5, "le": 2.0}  # partial factors and eta: beyond this, a typing error
+
+
+class Bounds(TypedDict, total=False):
+    """The pydantic bounds a field may declare."""
+
+    gt: float
+    ge: float
+    lt: float
+    le: float
+
+
+# partial factors and eta: beyond this, a typing error
+PLAUSIBLE_FACTOR: Bounds = {"ge": 0.5, "le": 2.0}
 
 KZyZero = Literal["off", "I", "I and RHS"]
 BowCover = Literal["member checks", "analysis", "not covered"]
@@ -27,7 +39,7 @@ K_ZY_ZERO, BOW_COVERS, CLASSIFICATIONS = get_args(KZyZero), get_args(BowCover), 
     get_args(Classification)
 
 
-def limits(default, *, unless: str | None = None, **bounds: float):
+def limits(default, *, unless: str | None = None, **bounds: Unpack[Bounds]):
     """A dataclass field with its allowed range (pydantic bounds: gt, ge, lt, le).
 
     `unless` names a bool field that, when true, lifts the upper bound (lt, le).
@@ -110,7 +122,7 @@ class DesignSettings:
         validate_design(asdict(self))
 
     @classmethod
-    def from_mapping(cls, values: dict, *, file: str | None = None) -> "DesignSettings":
+    def from_mapping(cls, values: dict, *, file: str | None = None) -> DesignSettings:
         """Build from a project file's [design] table: unknown keys, wrong types and values out
         of range raise InputError naming the file and the key."""
         from .project_schema import validate_design

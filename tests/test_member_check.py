@@ -277,7 +277,8 @@ def test_beam_in_biaxial_bending_annex_a() -> None:
     I_t = 15.9 cm4; M_cr,0 = 80.8 kNm (closed form, uniform moment, L = 5 m); C_1 = 2.53 and
     chi_LT = 0.8936, M_y,Ed / (chi_LT M_pl,y) = 0.2605, M_z,Ed / M_pl,z = 0.0871 as above.
     Table A.2: C_my,0 = 0.79 + 0.21 (-0.5) = 0.685; C_mz,0 = 1.0 (N_Ed = 0).
-    lambda_0 = sqrt(171.82 / 80.8) = 1.458 > 0.2 sqrt(2.53) = 0.318; eps_y = M_y,Ed / N_Ed A / W_el,y is
+    lambda_0 = sqrt(171.82 / 80.8) = 1.458 > 0.2 sqrt(2.53) = 0.318; eps_y = M_y,Ed / N_Ed A /
+    W_el,y is
     unbounded, so C_my = 0.685 + 0.315 * 1 = 1.0; a_LT = 1 - 15.9/5790 = 0.9973;
     C_mLT = max(1, 1.0^2 * 0.9973) = 1.0. mu_y = mu_z = 1, n_pl = 0.
     w_y = 484/429 = 1.128, w_z = min(97.0/62.2, 1.5) = 1.5; lambda_z = 2.165 (lambda_z^4 = 21.95).

@@ -22,9 +22,15 @@ from postproc.errors import InputError, TopologyError
 from postproc.model.frame import Frame
 from postproc.model.members import design_members
 from postproc.model.results import Results
-from postproc.stability.frame_stability import (amplify_sway_effects, analysis_path, bow_imperfections_needed,
-                                buckling_lengths, critical_load_factors, effective_length_ratio,
-                                equivalent_horizontal_forces, sway_imperfection)
+from postproc.stability.frame_stability import (
+    amplify_sway_effects,
+    analysis_path,
+    bow_imperfections_needed,
+    critical_load_factors,
+    equivalent_horizontal_forces,
+    sway_imperfection,
+)
+from postproc.stability.lengths import buckling_lengths, effective_length_ratio
 
 E = 210e9                   # Pa, EN 1993-1-1 3.2.6(1)
 I_HEB200_Y = 5696e-8        # m4, handbook (docs/references.md, from memory)

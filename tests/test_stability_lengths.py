@@ -21,8 +21,13 @@ from scipy.optimize import brentq
 from postproc.model.frame import Frame
 from postproc.model.members import Members, design_members
 from postproc.model.results import Results
-from postproc.stability.frame_stability import analysis_path, buckling_lengths, critical_load_factors
-from postproc.stability.lengths import SHOWN_LENGTH_CAP, restraint_positions, shown_lengths
+from postproc.stability.frame_stability import analysis_path, critical_load_factors
+from postproc.stability.lengths import (
+    SHOWN_LENGTH_CAP,
+    buckling_lengths,
+    restraint_positions,
+    shown_lengths,
+)
 
 E = 210e9                   # Pa, EN 1993-1-1 3.2.6(1)
 I_HEB200_Y = 5696e-8        # m4, handbook (from memory)
@@ -201,7 +206,7 @@ def test_stub_with_a_free_tip_holds_nothing():
     assert out.at["C1-C2", "L_cr_y_m"] == pytest.approx(3.43, rel=1e-12)
 
 
-# --- 8: the sway stiffness of a beam pinned at its far end; long frame-mode lengths ----------------
+# --- 8: the sway stiffness of a beam pinned at its far end; long frame-mode lengths -------------
 
 def sway_column_and_leaning_column(L: float = 4.0) -> Frame:
     """Column C fixed at its foot, a beam rigidly joined to its top and pinned at its far end
@@ -261,7 +266,8 @@ def test_space_frame_beam_held_sideways_at_mid_span_stays_whole():
     y) but not vertically, so the main beam is one member. Hand calculation: about y-y, fixed at
     both ends and nothing between: k = 0.5 (Euler; eq. (E.1) gives exactly 0.5 at eta = 0, 0),
     L_cr,y = 3 m. About z-z and for lateral-torsional buckling: spans between lateral
-    restraints, L/2 = 3 m each (k = 1). Twist is held at the forks at the ends only: L_cr,T = 6 m."""
+    restraints, L/2 = 3 m each (k = 1). Twist is held at the forks at the ends only: L_cr,T = 6
+    m."""
     nodes = pd.DataFrame([("1", 0, 0, 3), ("2", 3, 0, 3), ("3", 6, 0, 3), ("4", 3, 4, 3)],
                          columns=["node", "x_m", "y_m", "z_m"]).set_index("node")
     els = pd.DataFrame([("M1", "1", "2", "IPE 300", "", ""), ("M2", "2", "3", "IPE 300", "", ""),

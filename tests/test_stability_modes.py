@@ -27,9 +27,17 @@ from scipy.optimize import brentq
 from postproc.model.frame import Frame
 from postproc.model.members import design_members
 from postproc.model.results import Results
-from postproc.stability.frame_stability import analysis_path, buckling_lengths, critical_load_factors
-from tests.test_stability import (FIXED, I_HEB200_Y, PINNED, combos, constant_forces, make_frame,
-                                  portal)
+from postproc.stability.frame_stability import analysis_path, critical_load_factors
+from postproc.stability.lengths import buckling_lengths
+from tests.test_stability import (
+    FIXED,
+    I_HEB200_Y,
+    PINNED,
+    combos,
+    constant_forces,
+    make_frame,
+    portal,
+)
 
 E = 210e9                   # Pa, EN 1993-1-1 3.2.6(1)
 A_IPE300, I_IPE300_Z = 53.8e-4, 604e-8      # m2, m4, handbook (docs/references.md, from memory)
@@ -164,8 +172,8 @@ def test_sway_mode_behind_more_member_modes_than_the_first_search(monkeypatch, d
 def test_no_sway_mode_below_10_is_said_and_not_passed(monkeypatch):
     """With the search cut short before the sway mode (the sparse solver, a single mode
     searched), alpha_cr is not found: NaN, path 'not evaluated', and the note says why."""
-    import postproc.stability.frame_stability as st
     import postproc.stability.eigen as eig
+    import postproc.stability.frame_stability as st
     monkeypatch.setattr(eig, "DENSE_MAX", 0)
     monkeypatch.setattr(st, "MODES_FIRST", 1)
     monkeypatch.setattr(st, "MODES_MAX", 1)

@@ -23,7 +23,11 @@ import scipy.linalg as sla
 from postproc.model.frame import Frame
 from postproc.model.members import design_members
 from postproc.model.results import Results
-from postproc.stability.frame_stability import (amplify_sway_effects, analysis_path, critical_load_factors)
+from postproc.stability.frame_stability import (
+    amplify_sway_effects,
+    analysis_path,
+    critical_load_factors,
+)
 
 ops = pytest.importorskip("openseespy.opensees")
 pytestmark = pytest.mark.opensees

@@ -17,9 +17,9 @@ import pytest
 from postproc.model.frame import Frame
 from postproc.model.members import design_members
 from postproc.model.results import Results
-from postproc.stability.frame_stability import sub_elements, sway_part
 from postproc.stability.eigen import build_mesh
-from postproc.stability.sway import solve
+from postproc.stability.frame_stability import sub_elements
+from postproc.stability.sway import solve, sway_part
 
 SECTIONS = pd.DataFrame({       # handbook values (from memory), SI
     "A": [78.1e-4, 53.8e-4], "I_y": [5696e-8, 8356e-8], "I_z": [2003e-8, 604e-8],

@@ -229,10 +229,10 @@ def opensees_alpha(diaphragm: bool) -> float:
                 member((x, y, 0.0), (x, y, H), (heb["A"], heb["I_t"], heb["I_z"], heb["I_y"]), 1,
                        False)
                 heads[a, b] = node(x, y, H)
-        for b, y in enumerate(YS):
+        for y in YS:
             member((XS[0], y, H), (XS[1], y, H), (ipe["A"], ipe["I_t"], ipe["I_z"], ipe["I_y"]),
                    2, True)
-        for a, x in enumerate(XS):
+        for x in XS:
             for b in range(len(YS) - 1):
                 member((x, YS[b], H), (x, YS[b + 1], H),
                        (ipe["A"], ipe["I_t"], ipe["I_z"], ipe["I_y"]), 2, True)
@@ -245,7 +245,7 @@ def opensees_alpha(diaphragm: bool) -> float:
         ops.timeSeries("Linear", 1)
         ops.pattern("Plain", 1, 1)
         if with_load:
-            for (a, b), n in heads.items():
+            for (_a, b), n in heads.items():
                 ops.load(n, 0.0, 0.0, -(P_HEAVY if b == 1 else P_LIGHT), 0.0, 0.0, 0.0)
         ops.system("FullGeneral")
         ops.numberer("Plain")

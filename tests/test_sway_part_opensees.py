@@ -22,8 +22,14 @@ import pytest
 from postproc.model.frame import Frame
 from postproc.model.members import design_members
 from postproc.model.results import Results
-from postproc.stability.frame_stability import (amplified_part, amplify_sway_effects, analysis_path,
-                                critical_load_factors, sway_imperfection, sway_part)
+from postproc.stability.frame_stability import (
+    amplified_part,
+    amplify_sway_effects,
+    analysis_path,
+    critical_load_factors,
+    sway_imperfection,
+)
+from postproc.stability.sway import sway_part
 
 ops = pytest.importorskip("openseespy.opensees")
 pytestmark = pytest.mark.opensees
@@ -195,7 +201,7 @@ def test_amplified_sway_moments_come_with_non_sway_lengths():
     """5.2.2(8): with the sway effects amplified (and the imperfection in the forces) the
     columns are checked with their non-sway in-plane length, never a sway length on top; the
     same forces without the imperfection take sway lengths and are not amplified."""
-    from postproc.stability.frame_stability import buckling_lengths
+    from postproc.stability.lengths import buckling_lengths
 
     model = portal()
     frame = to_frame(model)

@@ -1,7 +1,8 @@
 """Builds the CSV tables of the demo frame by a linear openseespy analysis of each load case.
 
 The demo is an invented two-storey, two-bay steel frame: the workshop wing of a depot on a
-hillside, with a plant floor at level 1 and a light roof at level 2. Forces are written per load case
+hillside, with a plant floor at level 1 and a light roof at level 2. Forces are written per load
+case
 at 7 stations per element (from equilibrium with the element's uniform load), so the tool builds the
 EN 1990 combinations itself. Each gravity case carries its equivalent horizontal forces for the
 frame imperfection (5.3.2), so the forces hold the sway imperfection as the standard asks. Node
@@ -71,13 +72,14 @@ def analyse(case: str) -> tuple[list[dict], list[dict]]:
     _, udl, nodal = CASES[case]
     ops.timeSeries("Linear", 1)
     ops.pattern("Plain", 1, 1)
-    for name, (a, b, sec) in ELEMENTS.items():
+    for name in ELEMENTS:
         if name.startswith("B") and udl[int(name[2])]:
             ops.eleLoad("-ele", etags[name], "-type", "-beamUniform", -udl[int(name[2])] * 1e3)
     horizontal = dict(nodal)
     for level in (1, 2):
         if udl[level]:  # the level's whole vertical load, applied at its left column top
-            horizontal[f"N0{level}"] = horizontal.get(f"N0{level}", 0.0) + PHI * udl[level] * 2 * BAY
+            top = f"N0{level}"
+            horizontal[top] = horizontal.get(top, 0.0) + PHI * udl[level] * 2 * BAY
     for node, fx in horizontal.items():
         ops.load(tags[node], fx * 1e3, 0.0, 0.0)
     ops.system("BandGeneral")
@@ -88,7 +90,7 @@ def analyse(case: str) -> tuple[list[dict], list[dict]]:
     ops.analysis("Static")
     assert ops.analyze(1) == 0, f"analysis of {case} failed"
     rows = []
-    for name, (a, b, sec) in ELEMENTS.items():
+    for name, (a, b, _sec) in ELEMENTS.items():
         xa, ya = NODES[a]
         xb, yb = NODES[b]
         length = float(np.hypot(xb - xa, yb - ya))

@@ -50,11 +50,11 @@ import numpy as np
 
 from ..ec3 import cross_section as cs
 from ..ec3 import effective_resistance as er
-from ..errors import InputError
 from ..ec3.classification import section_class
+from ..errors import InputError
+from ..model.rows import CheckBlock, MemberRows, at_station, no_reason, row_any
 from ..sections.effective import STRESS_KEYS, parts_at_stress
 from . import effective_rows as eff_rows
-from ..model.rows import CheckBlock, MemberRows, at_station, no_reason, row_any
 
 __all__ = ["CLASS_4", "CLASS_4_CHS", "CLASS_UNKNOWN", "LINEAR_SUM", "NAN_FORCE",
            "NM_NEEDS_GEOMETRY", "NOISE", "SHEAR_BUCKLING", "SHEAR_LINEAR_SUM", "SHEAR_UNKNOWN",
@@ -493,13 +493,14 @@ def _plastic_N_M(c: _Rows, N_pl: np.ndarray, M_pl_y: np.ndarray, M_pl_z: np.ndar
             continue
         at = (r[:, None] * c.S + np.arange(c.S)).reshape(-1)  # flat positions of those rows
 
-        def take(values) -> np.ndarray:
+        def take(values, r: np.ndarray = r) -> np.ndarray:
             values = np.asarray(values)
             if values.ndim < 2:
                 return values
             return np.take(values, r, axis=0)  # much faster than values[r] for many rows
 
-        def put(target: np.ndarray, values: np.ndarray) -> None:
+        def put(target: np.ndarray, values: np.ndarray, r: np.ndarray = r,
+                at: np.ndarray = at) -> None:
             target.reshape(-1)[at] = np.broadcast_to(values, (len(r), c.S)).reshape(-1)
 
         n_r, f_y = take(n), take(c.f_y)

@@ -10,9 +10,9 @@ from __future__ import annotations
 
 import numpy as np
 
+from ..model.rows import MemberRows
 from ..numerics.row_reductions import row_any
 from ..sections.effective import effective_properties_where
-from ..model.rows import MemberRows
 
 __all__ = ["CLASS_4_CHS", "CLASS_4_NO_GEOMETRY", "UNITS", "VALUE_KEYS", "class_4_reason",
            "column_name", "effective_values"]

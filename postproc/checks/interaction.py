@@ -43,14 +43,14 @@ from dataclasses import dataclass
 import numpy as np
 import pandas as pd
 
+from ..ec3 import effective_resistance as er
 from ..ec3 import flexural_buckling as fb
 from ..ec3 import interaction_annex_a as annex_a
 from ..ec3 import interaction_annex_b as annex_b
-from ..ec3 import effective_resistance as er
 from ..ec3 import moment_factors as mf
-from . import effective_rows as eff_rows
-from ..numerics.row_reductions import row_sum
 from ..model.rows import CheckBlock, MemberRows, no_reason
+from ..numerics.row_reductions import row_sum
+from . import effective_rows as eff_rows
 
 __all__ = ["BUCKLING_KEYS", "CLASS_4", "N_BASIS", "SharedInputs", "interaction_checks"]
 
@@ -331,7 +331,7 @@ def _finish(rows: MemberRows, c: SharedInputs, eq: dict[str, np.ndarray], label:
 
 def _equations(rows: MemberRows, c: SharedInputs, k: dict[str, np.ndarray]
                ) -> tuple[dict[str, np.ndarray], dict[str, np.ndarray]]:
-    d, b, res = c.d, c.b, c.res
+    d, res = c.d, c.res
     g = rows.settings.gamma_M1
     common = dict(chi_LT=c.chi_LT, N_Rk=res["N_Rk_N"], M_y_Rk=res["M_y_Rk_Nm"],
                   M_z_Rk=res["M_z_Rk_Nm"], Delta_M_y_Ed=res["Delta_M_y_Ed_Nm"],

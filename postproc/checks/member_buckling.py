@@ -49,9 +49,9 @@ import numpy as np
 from ..ec3 import critical_moment as cm
 from ..ec3 import flexural_buckling as fb
 from ..ec3 import lateral_torsional as lt
-from . import effective_rows as eff_rows
-from ..numerics.row_reductions import row_any, row_max, row_sum
 from ..model.rows import CheckBlock, MemberRows, no_reason
+from ..numerics.row_reductions import row_any, row_max, row_sum
+from . import effective_rows as eff_rows
 
 __all__ = ["CLASS_4", "CLASS_UNKNOWN", "GENERIC", "GIVEN_LENGTH", "MAX_SEGMENTS", "NO_POSITIONS",
            "POINT_TOL_M", "REAL_SPANS", "SEGMENT_BASIS", "buckling_values",
@@ -254,7 +254,7 @@ def _segment_plan(rows: MemberRows, L_LT: np.ndarray
     length = np.asarray(rows.length, float)
     given = rows.info.get("L_LT_override")
     given = (np.zeros(R, bool) if given is None
-             else np.asarray(np.asarray(given, dtype=object) == True, bool))  # noqa: E712
+             else np.equal(np.asarray(given, dtype=object), True))  # True, not merely truthy
     points = rows.info.get("ltb_points_m")
     points = np.full((R, 0), np.nan) if points is None else np.asarray(points, float)
     if points.shape[1] < 2:

@@ -1,6 +1,7 @@
 """Cross-section classification, EN 1993-1-1:2005, 5.5.2 and Table 5.2, under the actual forces.
 
-Sign convention of `postproc.model.results`: N > 0 is tension. Inside this module stresses and forces
+Sign convention of `postproc.model.results`: N > 0 is tension. Inside this module stresses and
+forces
 are taken positive in COMPRESSION (N_c = -N_Ed), as Table 5.2 draws them.
 
 How the stress distribution of each part is found:
@@ -274,7 +275,7 @@ def _shares(My: Array, Mz: Array, f_y: Array, W_pl_y: Array, W_pl_z: Array) -> t
 
 def _i_classes(s: dict[str, Array], f_y: Array, eps: Array, N_c: Array, My: Array,
                Mz: Array, strict: bool) -> tuple[tuple[Array, Array], tuple[Array, Array]]:
-    A, I_y, I_z = s["A"], s["I_y"], s["I_z"]
+    A, I_y = s["A"], s["I_y"]
     b, t_f = s["b"], s["t_flange"]
     c_w, t_w, c_f = s["c_web"], s["t_web"], s["c_flange"]
     bend_y = np.abs(My) > _TINY * f_y * s["W_el_y"]

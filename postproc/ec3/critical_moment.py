@@ -98,7 +98,9 @@ def M_cr(xi: np.ndarray, M: np.ndarray, L: np.ndarray, E: np.ndarray, G: np.ndar
     xi = np.asarray(xi, float)
     M = np.asarray(M, float)
     R = xi.shape[0]
-    bcast = lambda v: np.broadcast_to(np.asarray(v, float), (R,))  # noqa: E731
+    def bcast(v) -> np.ndarray:
+        return np.broadcast_to(np.asarray(v, float), (R,))
+
     L, E, G, I_z, I_t, I_w, k, k_w = (bcast(v) for v in (L, E, G, I_z, I_t, I_w, k, k_w))
     z = None if z_g is None else bcast(z_g)
     peak = peak_moment(xi, M) if M_max is None else bcast(M_max)

@@ -84,6 +84,11 @@ def N_pl_Rd(A: ArrayLike, f_y: ArrayLike, *, gamma_M0: float = 1.00) -> Array:
         A: gross area, m2.
         f_y: yield strength, Pa.
         gamma_M0: partial factor, NDP (recommended 1.00).
+
+    IPE 300 (A = 53.8 cm2) in S355: 53.8e-4 m2 * 355e6 Pa = 1909.9 kN (by hand):
+
+    >>> round(float(N_pl_Rd(53.8e-4, 355e6)) / 1e3, 1)
+    1909.9
     """
     return _a(A) * _a(f_y) / gamma_M0
 

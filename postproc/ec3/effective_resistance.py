@@ -113,7 +113,8 @@ def f_y_for_raised_epsilon(sigma_com_Ed: ArrayLike, *, gamma_M0: float = 1.00) -
 
     The strength f that gives Table 5.2's epsilon raised as 5.5.2(9) allows:
     epsilon sqrt(f_y / gamma_M0 / sigma_com,Ed) = sqrt(235 N/mm2 / f) with
-    f = gamma_M0 sigma_com,Ed, Pa. Classifying with f instead of f_y is the 5.5.2(9) class 3 test. NaN where sigma_com,Ed <= 0
+    f = gamma_M0 sigma_com,Ed, Pa. Classifying with f instead of f_y is the 5.5.2(9) class 3 test.
+    NaN where sigma_com,Ed <= 0
     (no compression: nothing to raise).
     """
     s = _a(sigma_com_Ed)

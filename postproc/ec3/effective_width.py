@@ -41,12 +41,12 @@ def k_sigma_internal(psi: ArrayLike) -> Array:
     psi below -3 is taken as -3 (outside the table; NaN would stop every check of a part in
     almost pure tension).
     """
-    psi = np.clip(_a(psi), -3.0, 1.0)
+    p = np.clip(_a(psi), -3.0, 1.0)
     with np.errstate(divide="ignore", invalid="ignore"):
-        k = np.where(psi > 0.0, 8.2 / (1.05 + psi),
-                     np.where(psi > -1.0, 7.81 - 6.29 * psi + 9.78 * psi**2,
-                              5.98 * (1.0 - psi) ** 2))
-    return np.where(psi == -1.0, 23.9, k)
+        k = np.where(p > 0.0, 8.2 / (1.05 + p),
+                     np.where(p > -1.0, 7.81 - 6.29 * p + 9.78 * p**2,
+                              5.98 * (1.0 - p) ** 2))
+    return np.where(p == -1.0, 23.9, k)
 
 
 def plate_slenderness(b_bar: ArrayLike, t: ArrayLike, epsilon: ArrayLike,

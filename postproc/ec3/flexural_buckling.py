@@ -137,6 +137,13 @@ def chi(lambda_bar: np.ndarray, alpha: np.ndarray) -> np.ndarray:
 
     Reduction factor chi = 1 / (Phi + sqrt(Phi^2 - lambda_bar^2)) <= 1; chi = 1 for
     lambda_bar <= 0.2 (6.3.1.2(4)). NaN where lambda_bar or alpha is NaN.
+
+    Curve b (alpha = 0.34, Table 6.1) at lambda_bar = 0.2, 1.0, 2.0, by hand: at 1.0 Phi =
+    0.5 (1 + 0.34 * 0.8 + 1) = 1.136, chi = 1 / (1.136 + sqrt(1.136^2 - 1)) = 0.597; at 2.0
+    Phi = 0.5 (1 + 0.34 * 1.8 + 4) = 2.806, chi = 1 / (2.806 + sqrt(2.806^2 - 4)) = 0.209:
+
+    >>> chi(np.array([0.2, 1.0, 2.0]), np.full(3, 0.34)).round(3).tolist()
+    [1.0, 0.597, 0.209]
     """
     lam = np.asarray(lambda_bar, float)
     ph = Phi(lam, alpha)

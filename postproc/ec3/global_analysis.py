@@ -26,6 +26,9 @@ def sway_amplification(alpha_cr):
     """EN 1993-1-1:2005, 5.2.2(5B), eq. (5.4).
 
     The factor 1 / (1 - 1/alpha_cr) on the sway effects of a first-order analysis (alpha_cr >= 3).
+
+    >>> sway_amplification(np.array([3.0, 5.0, 10.0])).round(4).tolist()
+    [1.5, 1.25, 1.1111]
     """
     return 1.0 / (1.0 - 1.0 / alpha_cr)
 
@@ -36,6 +39,13 @@ def sway_imperfection_factors(h, m, *, phi_0: float = 1.0 / 200.0):
     (phi, alpha_h, alpha_m): phi = phi_0 alpha_h alpha_m, alpha_h = 2 / sqrt(h) with
     2/3 <= alpha_h <= 1 (h the height of the structure, m), alpha_m = sqrt(0.5 (1 + 1/m)) (m the
     number of columns in a row carrying at least 50 % of the average column load).
+
+    h = 4 m gives alpha_h = 2 / 2 = 1.0; m = 2 gives alpha_m = sqrt(0.75) = 0.866, so
+    phi = 0.866 / 200 = 0.00433 (by hand); h = 16 m hits the lower limit 2/3:
+
+    >>> phi, alpha_h, alpha_m = sway_imperfection_factors(np.array([4.0, 16.0]), np.array([2, 2]))
+    >>> phi.round(5).tolist(), alpha_h.round(4).tolist(), alpha_m.round(4).tolist()
+    ([0.00433, 0.00289], [1.0, 0.6667], [0.866, 0.866])
     """
     alpha_h = np.clip(2.0 / np.sqrt(h), 2.0 / 3.0, 1.0)
     alpha_m = np.sqrt(0.5 * (1.0 + 1.0 / np.asarray(m, float)))

@@ -170,6 +170,8 @@ def k_factors_annex_a(*, N_Ed: np.ndarray, N_cr_y: np.ndarray, N_cr_z: np.ndarra
         p_yz = e_yz / C_yz * 0.6 * np.sqrt(w_z / w_y)
         p_zy = e_zy / C_zy * 0.6 * np.sqrt(w_y / w_z)
         p_zz = e_zz / C_zz
-    pick = lambda p, e: np.select([plastic, elastic], [p, e], default=np.nan)  # noqa: E731
+    def pick(p: np.ndarray, e: np.ndarray) -> np.ndarray:
+        return np.select([plastic, elastic], [p, e], default=np.nan)
+
     return {"k_yy": pick(p_yy, e_yy), "k_yz": pick(p_yz, e_yz), "k_zy": pick(p_zy, e_zy),
             "k_zz": pick(p_zz, e_zz)}

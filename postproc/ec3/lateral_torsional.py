@@ -243,6 +243,7 @@ def M_b_Rd(chi_LT: np.ndarray, W_y: np.ndarray, f_y: np.ndarray, *,
     return np.asarray(chi_LT, float) * W_y * f_y / gamma_M1
 
 
-__all__ = ["imperfection_factor_LT", "curve_LT_general", "curve_LT_rolled", "lambda_bar_LT", "chi_LT_general",
-           "Phi_LT_rolled", "chi_LT_rolled", "ltb_negligible", "k_c_linear", "k_c_from_diagram",
+__all__ = ["imperfection_factor_LT", "curve_LT_general", "curve_LT_rolled", "lambda_bar_LT",
+           "chi_LT_general", "Phi_LT_rolled", "chi_LT_rolled", "ltb_negligible", "k_c_linear",
+           "k_c_from_diagram",
            "f_modification", "chi_LT_mod", "W_y_for_class", "M_b_Rd"]

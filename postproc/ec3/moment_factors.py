@@ -33,7 +33,7 @@ from ..numerics.row_reductions import row_max as _row_max
 from ..numerics.row_reductions import row_sum as _row_sum
 
 __all__ = ["CONCENTRATED", "C_M_SWAY", "C_m_annex_b", "C_m_table_b3", "C_mi_0_annex_a",
-           "C_mi_0_general", "C_mi_0_linear", "DISTRIBUTED", "INVALID", "LINEAR", "NONE",
+           "C_mi_0_general", "C_mi_0_linear", "DISTRIBUTED", "Diagram", "INVALID", "LINEAR", "NONE",
            "NO_MOMENT", "SPAN_LARGER", "SPAN_SMALLER", "UNDETERMINED", "chord_deflection",
            "diagram_shape", "read_diagram", "sway_flags"]
 
@@ -44,6 +44,10 @@ NONE, DISTRIBUTED, CONCENTRATED, UNDETERMINED = (
     "none", "distributed", "concentrated", "undetermined")
 
 C_M_SWAY = 0.9  # Table B.3, note: members with a sway buckling mode.
+
+# A diagram read once by `read_diagram`: the stations in order (x, M, real stations, bad rows)
+# and the coded shape.
+Diagram = tuple[tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray], dict[str, np.ndarray]]
 
 # Diagram shapes and span loads are worked on as small integer codes (indices into these tables)
 # and turned into text once, at the end.
@@ -86,7 +90,7 @@ def _codes(values: np.ndarray, table: np.ndarray) -> np.ndarray:
 
 def _compact(x: np.ndarray, M: np.ndarray
              ) -> tuple[np.ndarray, np.ndarray, np.ndarray, np.ndarray]:
-    """Sort each row by x with the real stations first; returns x, M, n (real stations), bad rows."""
+    """Sort each row by x with the real stations first: x, M, n (real stations), bad rows."""
     x = np.atleast_2d(np.asarray(x, dtype=float))
     M = np.atleast_2d(np.asarray(M, dtype=float))
     real = ~np.isnan(x)
@@ -144,7 +148,7 @@ def _diagram(x: np.ndarray, M: np.ndarray, *, linear_tol: float = 1e-3,
                             concentrated_share=concentrated_share)
 
 
-def _diagram_compact(xs: np.ndarray, Ms: np.ndarray, n: np.ndarray, bad: np.ndarray, *,
+def _diagram_compact(xs: np.ndarray, Ms: np.ndarray, n: np.ndarray, bad: np.ndarray, /, *,
                      linear_tol: float = 1e-3, concentrated_share: float = 0.95
                      ) -> dict[str, np.ndarray]:
     """`_diagram` of a diagram already put in order by `_compact`."""
@@ -190,7 +194,9 @@ def _diagram_compact(xs: np.ndarray, Ms: np.ndarray, n: np.ndarray, bad: np.ndar
     shape[bad] = _S_INVALID
     load = _span_load(xs, Ms, n, concentrated_share)
     load[linear | no_moment | bad] = _L_NONE
-    nan_bad = lambda v: np.where(bad, np.nan, v)  # noqa: E731
+    def nan_bad(v: np.ndarray) -> np.ndarray:
+        return np.where(bad, np.nan, v)
+
     return {"M_a_Nm": nan_bad(M_a), "M_b_Nm": nan_bad(M_b), "M_h_Nm": nan_bad(M_h),
             "psi": nan_bad(np.clip(psi, -1.0, 1.0)),
             "M_s_Nm": nan_bad(np.where(linear, np.nan, M_s)),
@@ -302,7 +308,7 @@ def sway_flags(sway: np.ndarray | None, n: int) -> tuple[np.ndarray, np.ndarray]
     return known, flag
 
 
-def read_diagram(x: np.ndarray, M: np.ndarray, **shape_options: float) -> tuple:
+def read_diagram(x: np.ndarray, M: np.ndarray, **shape_options: float) -> Diagram:
     """A moment diagram read once (stations in order, shape and span load as codes), to pass as
     `diagram=` to `C_m_annex_b` and `C_mi_0_annex_a` when both need the same diagram."""
     compact = _compact(x, M)
@@ -310,7 +316,8 @@ def read_diagram(x: np.ndarray, M: np.ndarray, **shape_options: float) -> tuple:
 
 
 def C_m_annex_b(x: np.ndarray, M: np.ndarray, *, sway: np.ndarray | None = None,
-                diagram: tuple | None = None, **shape_options: float) -> dict[str, np.ndarray]:
+                diagram: Diagram | None = None, **shape_options: float
+                ) -> dict[str, np.ndarray]:
     """EN 1993-1-1:2005, Annex B, Table B.3.
 
     C_my, C_mz or C_mLT from a sampled moment diagram.
@@ -422,7 +429,7 @@ def C_mi_0_general(delta_x: np.ndarray, M_i_Ed: np.ndarray, E: np.ndarray, I_i: 
 
 def C_mi_0_annex_a(x: np.ndarray, M: np.ndarray, *, E: np.ndarray, I_i: np.ndarray,
                    L: np.ndarray, N_Ed: np.ndarray, N_cr_i: np.ndarray,
-                   diagram: tuple | None = None, **shape_options: float
+                   diagram: Diagram | None = None, **shape_options: float
                    ) -> dict[str, np.ndarray]:
     """EN 1993-1-1:2005, Annex A, Table A.2.
 

@@ -103,7 +103,8 @@ def local_axes(frame: Frame) -> np.ndarray:
         vz = vz.copy()
         if frame.ndm == 2:
             # in-plane normal to the element: rotate x by +90 degrees about global Z
-            vz[default] = np.column_stack([-ex[default, 1], ex[default, 0], np.zeros(default.sum())])
+            vz[default] = np.column_stack([-ex[default, 1], ex[default, 0],
+                                           np.zeros(default.sum())])
         else:
             up = np.array([0.0, 0.0, 1.0])
             vertical = np.abs(ex @ up) > 1.0 - 1e-9

@@ -2,7 +2,8 @@
 
 A row is one (design member, combination). Element stations are moved onto the member's own x
 (element offset along the member, direction flipped where the element runs backwards, which
-changes the sign of Vz and Mz: see `postproc.model.results`), then scattered into (R, S) arrays padded
+changes the sign of Vz and Mz: see `postproc.model.results`), then scattered into (R, S) arrays
+padded
 with NaN, S being the largest number of stations of any row. No Python loop over rows, and no
 sorting or joining of strings: ids become integer codes first.
 """
@@ -13,12 +14,12 @@ import numpy as np
 import pandas as pd
 
 from .. import materials
-from .rows import MemberRows
+from ..settings import DesignSettings
+from ..stability.lengths import restraint_positions
 from .frame import Frame, element_vectors
 from .members import Members, member_axes
 from .results import FORCE_COLUMNS
-from ..settings import DesignSettings
-from ..stability.lengths import restraint_positions
+from .rows import MemberRows
 
 __all__ = ["FLIP_SIGN", "LENGTH_KEYS", "build_member_rows", "member_properties"]
 

@@ -351,8 +351,8 @@ class _Holding:
                     far[q] = self.far_end_held(q, n, own)
                 if far[q] is not None:
                     found[d] = f"member {name(q)} framing in at node {n} (far end: {far[q]})"
-        for d, src in self.declared.get(n, []):
-            for d in {"all": ["y", "z", "torsion"]}.get(d, [d]):
+        for declared, src in self.declared.get(n, []):
+            for d in {"all": ["y", "z", "torsion"]}.get(declared, [declared]):
                 if d in ("X", "Y", "Z"):
                     g = np.eye(3)["XYZ".index(d)]
                     comp = {k: abs(g @ e) for k, e in across.items()}

@@ -7,7 +7,8 @@ axes (see `postproc.model.frame`), SI units:
 - Vy_N, Vz_N: shear forces along local y and z.
 - T_Nm: torsional moment about local x.
 - My_Nm, Mz_Nm: bending moments about local y (major) and z (minor), as vectors. With this
-  convention the normal stress at (y, z) is sigma = N/A + My*z/I_y - Mz*y/I_z, so a positive M_y puts
+  convention the normal stress at (y, z) is sigma = N/A + My*z/I_y - Mz*y/I_z, so a positive M_y
+  puts
   the +z side in tension. Equilibrium of a segment without distributed moments:
   dMy/dx = Vz and dMz/dx = -Vy.
 Stations are distances x_m from node_i along the element, in m, 0 and the element length included.

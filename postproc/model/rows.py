@@ -12,7 +12,6 @@ from dataclasses import dataclass, field, fields
 import numpy as np
 
 from ..numerics.row_reductions import row_any
-
 from ..settings import DesignSettings
 
 __all__ = ["CheckBlock", "FAIL", "MemberRows", "NOT_EVALUATED", "PASS", "at_station",

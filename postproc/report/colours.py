@@ -24,4 +24,4 @@ def utilisation_colour(u: float) -> str:
     t = min(max(u, 0.0), 1.0) * (len(VIRIDIS) - 1)
     k = min(int(t), len(VIRIDIS) - 2)
     rgb = VIRIDIS[k] + (t - k) * (VIRIDIS[k + 1] - VIRIDIS[k])
-    return "#%02x%02x%02x" % tuple(int(round(c)) for c in rgb)
+    return "#" + "".join(f"{int(round(c)):02x}" for c in rgb)

@@ -13,9 +13,9 @@ import html
 import numpy as np
 import pandas as pd
 
-from ..model.rows import FAIL, NOT_EVALUATED
 from ..model.frame import Frame
 from ..model.members import Members
+from ..model.rows import FAIL, NOT_EVALUATED
 from .colours import NOT_EVALUATED_COLOUR, VIRIDIS, utilisation_colour
 from .links import sheet_href
 
@@ -23,7 +23,8 @@ __all__ = ["HEIGHT", "LINE", "MARGIN", "VIEW_TITLES", "WIDTH", "default_views", 
            "legend_svg", "member_polylines", "projected", "short_label"]
 
 VIEW_TITLES = {"elevation": "elevation", "axonometric": "axonometric view", "plan": "plan",
-               "elevation-x": "elevation looking along Y", "elevation-y": "elevation looking along X"}
+               "elevation-x": "elevation looking along Y",
+               "elevation-y": "elevation looking along X"}
 WIDTH, HEIGHT, MARGIN = 960.0, 560.0, 40.0
 LINE = {"pass": ("4", ""), FAIL: ("8", "16 6"), NOT_EVALUATED: ("5", "2 6")}
 

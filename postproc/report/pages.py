@@ -9,7 +9,7 @@ file that holds all of them.
 from __future__ import annotations
 
 import html
-from typing import Iterable
+from collections.abc import Iterable
 
 import numpy as np
 import pandas as pd
@@ -130,7 +130,8 @@ def histogram_svg(summary: pd.DataFrame) -> str:
                     f'<text x="{x + 19}" y="{165 - h:.1f}" text-anchor="middle">{n}</text>'
                     f'<text x="{x + 19}" y="186" text-anchor="middle" '
                     f'font-size="9">{lab}</text>')
-    return ('<svg class="histogram" viewBox="0 0 600 200" role="img" xmlns="http://www.w3.org/2000/svg" '
+    return ('<svg class="histogram" viewBox="0 0 600 200" role="img" '
+            'xmlns="http://www.w3.org/2000/svg" '
             'aria-label="members by largest utilisation">'
             '<line x1="36" y1="170" x2="594" y2="170" stroke="#000"/>' + "".join(bars) + "</svg>")
 
@@ -258,7 +259,8 @@ def report_html(outcome: CheckOutcome, summary: pd.DataFrame, failures: pd.DataF
 <p>framesweep {__version__}. Model: {esc(source)}. Checks to EN 1993-1-1:2005 (+A1:2014).</p>
 <nav class="contents"><h2>Contents</h2><ol>{toc}</ol></nav>
 <h2 id="summary">Summary</h2>
-<table class="counts"><tr><th></th><th>pass</th><th>fail</th><th>not evaluated</th><th>total</th></tr>
+<table class="counts"><tr><th></th><th>pass</th><th>fail</th><th>not evaluated</th>
+<th>total</th></tr>
 <tr><th>checks</th><td class="num">{counts[PASS]}</td><td class="num"><b>{counts[FAIL]}</b></td>
 <td class="num"><i>{counts[NOT_EVALUATED]}</i></td><td class="num">{sum(counts.values())}</td></tr>
 <tr><th>members</th><td class="num">{int(members_by_status.get(PASS, 0))}</td>

@@ -3,8 +3,8 @@ a terminal (a pipe, a file, a test)."""
 
 from __future__ import annotations
 
+from collections.abc import Callable, Iterator
 from contextlib import contextmanager
-from typing import Callable, Iterator
 
 __all__ = ["QUIET", "Stages", "Tick"]
 
@@ -24,10 +24,16 @@ class Stages:
     @contextmanager
     def stage(self, name: str, total: int | None = None) -> Iterator[Tick]:
         if not self.enabled:
-            yield lambda n=1: None
+            yield _no_tick
             return
-        from rich.progress import (BarColumn, MofNCompleteColumn, Progress, SpinnerColumn,
-                                   TextColumn, TimeElapsedColumn)
+        from rich.progress import (
+            BarColumn,
+            MofNCompleteColumn,
+            Progress,
+            SpinnerColumn,
+            TextColumn,
+            TimeElapsedColumn,
+        )
 
         columns = [SpinnerColumn(), TextColumn("{task.description}")]
         if total:
@@ -35,8 +41,16 @@ class Stages:
         columns.append(TimeElapsedColumn())
         with Progress(*columns, console=self.console, transient=False) as bar:
             task = bar.add_task(name, total=total)
-            yield lambda n=1: bar.advance(task, n)
+
+            def tick(n: int = 1) -> None:
+                bar.advance(task, n)
+
+            yield tick
             bar.update(task, completed=total if total else 1, total=total or 1)
+
+
+def _no_tick(n: int = 1) -> None:
+    """What a stage advances by when progress is not shown."""
 
 
 QUIET = Stages(enabled=False)

@@ -37,7 +37,8 @@ VALUE_SOURCES: dict[str, dict[str, str]] = {
     "tension": {"N_pl_Rd": "6.2.3(2), eq. (6.6)", "N_u_Rd": "6.2.3(2), eq. (6.7)",
                 "N_t_Rd": "6.2.3(2)"},
     "compression": {"N_c_Rd": "6.2.4(2), eq. (6.10)"},
-    "bending": {"M_c_y_Rd": "6.2.5(2), eq. (6.13)/(6.14)", "M_c_z_Rd": "6.2.5(2), eq. (6.13)/(6.14)"},
+    "bending": {"M_c_y_Rd": "6.2.5(2), eq. (6.13)/(6.14)",
+                "M_c_z_Rd": "6.2.5(2), eq. (6.13)/(6.14)"},
     "shear": {"A_v_z": "6.2.6(3)", "A_v_y": "6.2.6(3)", "V_pl_z_Rd": "6.2.6(2), eq. (6.18)",
               "V_pl_y_Rd": "6.2.6(2), eq. (6.18)", "web_slenderness_ratio": "6.2.6(6), eq. (6.22)"},
     "bending and axial force": {"n": "6.2.9.1(5)", "a": "6.2.9.1(5)",
@@ -61,7 +62,8 @@ VALUE_SOURCES: dict[str, dict[str, str]] = {
         "chi_LT_unmodified": "6.3.2.2 eq. (6.56) / 6.3.2.3 eq. (6.57)", "k_c": "Table 6.6",
         "psi": "Table 6.6", "f": "6.3.2.3(2), eq. (6.58)", "chi_LT": "6.3.2.3(2), eq. (6.58)",
         "ltb_negligible": "6.3.2.2(4)", "M_b_Rd": "6.3.2.1(3), eq. (6.55)"},
-    "interaction": {"term_N": "eq. (6.61)/(6.62), N term", "term_M_y": "eq. (6.61)/(6.62), M_y term",
+    "interaction": {"term_N": "eq. (6.61)/(6.62), N term",
+                    "term_M_y": "eq. (6.61)/(6.62), M_y term",
                     "term_M_z": "eq. (6.61)/(6.62), M_z term", "chi_y": "6.3.1.2, eq. (6.49)",
                     "chi_z": "6.3.1.2, eq. (6.49)", "chi_LT": "6.3.2, eq. (6.56)/(6.58)",
                     "N_Rk": "Table 6.7", "M_y_Rk": "Table 6.7", "M_z_Rk": "Table 6.7"},
@@ -287,7 +289,8 @@ def _line_plot(x: np.ndarray, v: np.ndarray, label: str) -> str:
     area = (f"{px[0]:.1f},{zero:.1f} " + " ".join(f"{a:.1f},{b:.1f}" for a, b in zip(px, py))
             + f" {px[-1]:.1f},{zero:.1f}")
     i_max, i_min = int(np.nanargmax(v)), int(np.nanargmin(v))
-    notes = f"max {v[i_max]:.4g} at x = {x[i_max]:.3g} m; min {v[i_min]:.4g} at x = {x[i_min]:.3g} m"
+    notes = (f"max {v[i_max]:.4g} at x = {x[i_max]:.3g} m; "
+             f"min {v[i_min]:.4g} at x = {x[i_min]:.3g} m")
     return (f'<svg class="diagram" viewBox="0 0 {w:.0f} {h + 16:.0f}" role="img" '
             f'aria-label="{html.escape(label)}: {notes}" xmlns="http://www.w3.org/2000/svg">'
             f'<text x="{left}" y="14" class="plot-title">{html.escape(label)}</text>'
@@ -323,7 +326,8 @@ def interaction_svg(points: pd.DataFrame, limit: float) -> str:
     for r, a, b in zip(usable.to_dict("records"), n, m):
         failing = r["status"] == FAIL
         fill = "#000" if failing else "none"
-        title = html.escape(f"{r['combination']}: {r['check']}, utilisation {fmt(r['utilisation'])}")
+        title = html.escape(f"{r['combination']}: {r['check']}, "
+                            f"utilisation {fmt(r['utilisation'])}")
         if str(r["check"]).endswith("6.61"):
             marks.append(f'<circle cx="{px(a):.1f}" cy="{py(b):.1f}" r="3.5" stroke="#000" '
                          f'fill="{fill}"><title>{title}</title></circle>')
@@ -363,7 +367,8 @@ def sheet_markdown(sheet: Sheet, *, utilisation_limit: float) -> str:
     out += ["", "## Checks, governing combination of each", ""]
     for c in sheet.checks:
         where = f" at x = {c['x_m']} m" if c["x_m"] else ""
-        result = (f"utilisation {c['utilisation']}: **{STATUS_WORDS.get(c['status'], c['status'])}**"
+        word = STATUS_WORDS.get(c["status"], c["status"])
+        result = (f"utilisation {c['utilisation']}: **{word}**"
                   if c["status"] != NOT_EVALUATED else f"**not evaluated**: {c['reason']}")
         out += [f"### {c['check']} (EN 1993-1-1 {c['clause']})", "",
                 f"{c['combination']}{where}; {result}", ""]

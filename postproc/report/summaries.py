@@ -42,7 +42,7 @@ def member_summary(table: pd.DataFrame, members: pd.DataFrame) -> pd.DataFrame:
 
 
 def failures_by_combination(table: pd.DataFrame) -> pd.DataFrame:
-    """Overstressed members per combination: the worst failing check of each (combination, member)."""
+    """Overstressed members per combination: the worst failing check of each member."""
     failing = table[table["status"] == FAIL]
     if failing.empty:
         return pd.DataFrame(columns=["combination", "member", "utilisation", "check", "clause",

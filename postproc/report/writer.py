@@ -23,8 +23,8 @@ from pathlib import Path
 
 import pandas as pd
 
-from ..model.outcome import CheckOutcome
 from ..errors import InputError
+from ..model.outcome import CheckOutcome
 from .bundle import REPORT_FILES, write_report_outputs
 from .cells import formula_safe_table
 from .display import to_display
@@ -157,7 +157,7 @@ def discard_outputs(out_dir: str | Path, staging: Path | None, reason: str) -> N
             shutil.rmtree(out_dir / name, ignore_errors=True)
         else:
             (out_dir / name).unlink(missing_ok=True)
-    stamp = datetime.datetime.now(datetime.timezone.utc).strftime("%Y-%m-%d %H:%M:%S UTC")
+    stamp = datetime.datetime.now(datetime.UTC).strftime("%Y-%m-%d %H:%M:%S UTC")
     (out_dir / FAILED_NOTE).write_text(
         f"The framesweep run of {stamp} failed, so this folder holds no results.\n"
         f"Earlier outputs were removed so that they cannot be taken for current ones.\n\n"

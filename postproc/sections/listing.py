@@ -6,10 +6,10 @@ from __future__ import annotations
 import numpy as np
 import pandas as pd
 
+from ..ec3.classification import epsilon, internal_part_limit_elastic, outstand_limit_elastic
 from ..materials import strengths
 from . import catalogue as cat
 from .builder import build_sections
-from ..ec3.classification import epsilon, internal_part_limit_elastic, outstand_limit_elastic
 from .effective import effective_properties
 
 __all__ = ["DISPLAY", "GRADES", "catalogue_listing", "compression_class_4"]

@@ -18,17 +18,27 @@ import dataclasses
 import numpy as np
 import pandas as pd
 
-from ..ec3.global_analysis import (alpha_cr_storey, equivalent_horizontal_force, sway_amplification,
-                                   sway_imperfection_factors)
+from ..ec3.global_analysis import (
+    alpha_cr_storey,
+    equivalent_horizontal_force,
+    sway_amplification,
+    sway_imperfection_factors,
+)
 from ..errors import InputError, TopologyError
 from ..model.frame import NODE_COLUMNS, Frame, local_axes
 from ..model.members import Members, member_axes, moment_released
 from ..model.results import Results
-from .eigen import (E_STEEL, SUB_PER_MEMBER, Mesh, buckling_modes, build_mesh,
-                              section_columns, translations)
-from .sway import SwayPart, amplified_forces, sway_part  # noqa: F401
-from .lengths import (buckling_lengths, effective_length_ratio,  # noqa: F401
-                                member_compression)
+from .eigen import (
+    E_STEEL,
+    SUB_PER_MEMBER,
+    Mesh,
+    buckling_modes,
+    build_mesh,
+    section_columns,
+    translations,
+)
+from .lengths import member_compression
+from .sway import SwayPart, amplified_forces
 
 __all__ = ["ALPHA_AMPLIFY_MIN", "ALPHA_FIRST_ORDER", "COLUMN_TILT_COS", "LEVEL_TOL_M",
            "MODES_FIRST", "MODES_MAX", "ModeGauge", "PATHS", "STOREY_RAFTER_N_CR_SHARE",
@@ -89,7 +99,9 @@ def axial_at(frame: Frame, results: Results, combos: list[str], parent: np.ndarr
     below = (Xs <= frac[None, :, None]).sum(axis=2) - 1
     lo = np.clip(below, 0, np.maximum(cnt - 2, 0))
     hi = np.minimum(lo + 1, np.maximum(cnt - 1, 0))
-    take = lambda a, i: np.take_along_axis(a, i[..., None], axis=2)[..., 0]  # noqa: E731
+    def take(a: np.ndarray, i: np.ndarray) -> np.ndarray:
+        return np.take_along_axis(a, i[..., None], axis=2)[..., 0]
+
     x0, x1, n0, n1 = take(Xs, lo), take(Xs, hi), take(Ns, lo), take(Ns, hi)
     with np.errstate(invalid="ignore", divide="ignore"):
         w = np.where(np.isfinite(x1) & (x1 > x0), (frac[None, :] - x0) / (x1 - x0), 0.0)
@@ -307,7 +319,8 @@ def storey_alpha(frame: Frame, results: Results, members: Members, combos: list[
 
     Returns (alpha_cr_storey (C,), note (C,)).
     """
-    from .sway import LEVEL_TOL_M as TOP_TOL_M, unit_sway_cases
+    from .sway import LEVEL_TOL_M as TOP_TOL_M
+    from .sway import unit_sway_cases
 
     n = len(combos)
     notes = np.full(n, "", dtype=object)

@@ -3,15 +3,18 @@
 Where each length comes from (the `origin_*` columns say it row by row):
 - Modelled bending axes (the in-plane axis of a plane frame; both axes of a space frame):
   - sway effects in the forces or negligible (paths 'first-order', 'amplified', 'second-order in
-    forces') and the frame's sway imperfection (5.3.2) in the forces: the non-sway length, 5.2.2(3)b and (7): with restraints inside the member the
+    forces') and the frame's sway imperfection (5.3.2) in the forces: the non-sway length,
+    5.2.2(3)b and (7): with restraints inside the member the
     longest span between them (k = 1); otherwise the non-sway effective length from the end
     restraint of the members framing in (`effective_length_ratio`, sway=False).
   - sway effects or the sway imperfection not in the forces (paths 'second-order needed',
-    'unstable', 'not evaluated', or `paths.imperfections` False) and a sway mode: for a member in compression the length that gives the member's critical
+    'unstable', 'not evaluated', or `paths.imperfections` False) and a sway mode: for a member in
+    compression the length that gives the member's critical
     force in the frame's sway mode, N_cr = alpha_cr |N_Ed|, L_cr = pi sqrt(E I / N_cr)
     (5.2.2(8)); this is a lower bound of the member's critical force about either axis, so it is
     used for both axes of a space frame. Where the member's own non-sway length is longer (its
-    member mode comes before the frame's sway mode), the member keeps its own length. A member not in compression gets the sway effective
+    member mode comes before the frame's sway mode), the member keeps its own length. A member not
+    in compression gets the sway effective
     length from its end restraint, or, pinned at both ends (a link that sways with the frame),
     the non-sway length.
   - a member end with no restraint across that axis: the sway effective length, with eta at
@@ -445,7 +448,7 @@ def _apply_overrides(out: pd.DataFrame, overrides: pd.DataFrame, known: set[str]
               "L_cr_T_m": "origin_T"}
     located = {"file", "entry"} <= set(overrides.columns)
     for k, r in enumerate(overrides.itertuples(index=False)):
-        m = str(getattr(r, "member"))
+        m = str(r.member)
         # where the override was written: the project file's [members.<name>], else row k + 1
         file, row, prefix = ((str(r.file), None, f"{r.entry}.") if located
                              else (None, k + 1, ""))

@@ -17,7 +17,7 @@ from postproc.errors import InputError
 from postproc.model.frame import local_axes
 
 pytest.importorskip("openseespy.opensees")  # needs libblas3 and liblapack3 on Linux
-from adapters import opensees  # noqa: E402
+from adapters import opensees
 
 pytestmark = pytest.mark.opensees
 

@@ -12,8 +12,8 @@ import pytest
 from scipy.optimize import brentq
 
 from postproc.checks import cross_section as fam
-from postproc.model.rows import FAIL, NOT_EVALUATED, PASS, MemberRows
 from postproc.errors import InputError
+from postproc.model.rows import FAIL, NOT_EVALUATED, PASS, MemberRows
 from postproc.settings import DesignSettings
 
 EXACT = 1e-12  # same arithmetic as the clause functions, only rounding differs

@@ -8,8 +8,8 @@ and tests/ec3/test_interaction_annex_a.py (Annex A): tolerance HAND (0.1 %, four
 import numpy as np
 import pytest
 
-from postproc.model.rows import FAIL, NOT_EVALUATED, PASS, MemberRows
 from postproc.checks.interaction import CLASS_4, interaction_checks
+from postproc.model.rows import FAIL, NOT_EVALUATED, PASS, MemberRows
 from postproc.settings import DesignSettings
 
 HAND = 1e-3
@@ -23,7 +23,9 @@ E, G, F_Y = 210e9, 81e9, 355e6
 
 def hand_buckling(n: int) -> dict[str, np.ndarray]:
     """Buckling values of the worked column (4.0 m, psi = 0), steps 1-4 of the hand calculation."""
-    one = lambda v: np.full(n, v)  # noqa: E731
+    def one(v: float) -> np.ndarray:
+        return np.full(n, v)
+
     return {"chi_y": one(0.9474), "chi_z": one(0.3203), "chi_T": one(np.nan),
             "chi_LT": one(0.7670), "lambda_bar_y": one(0.4201), "lambda_bar_z": one(1.5624),
             "lambda_bar_T": one(np.nan), "lambda_bar_LT": one(0.8880),

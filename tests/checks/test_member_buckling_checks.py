@@ -2,7 +2,8 @@
 
 Section data: IPE 300 handbook values from docs/references.md (from memory there), I_w
 126 x 10^3 cm6 from the same table. Expected values are worked in the tests from the equation named
-beside them; M_cr for uniform moment from the closed form in docs/references.md; the curve choices of
+beside them; M_cr for uniform moment from the closed form in docs/references.md; the curve choices
+of
 Tables 6.2, 6.4 and 6.5 and eq. (6.57) from memory of the standard (its 6.3.2.3 values for curve b
 are in docs/references.md and checked in tests/ec3/test_lateral_torsional.py).
 """

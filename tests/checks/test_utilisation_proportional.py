@@ -14,11 +14,10 @@ from __future__ import annotations
 import numpy as np
 from hypothesis import given, settings
 from hypothesis import strategies as st
+from test_cross_section_checks import CHS168, HEB200, IPE300, S355, SHS200, generic, make_rows
 
 from postproc.checks import cross_section as fam
 from postproc.settings import DesignSettings
-
-from test_cross_section_checks import CHS168, HEB200, IPE300, S355, SHS200, generic, make_rows
 
 SECTIONS = {"IPE 300": IPE300, "HEB 200": HEB200, "SHS 200x10": SHS200, "CHS 168.3x8": CHS168,
             "GENERIC": generic(IPE300)}

@@ -11,11 +11,17 @@ import numpy as np
 import pandas as pd
 import pytest
 
+from postproc.ec3.classification import (
+    chs_limits,
+    epsilon,
+    internal_part_limit_elastic,
+    internal_part_limits_plastic,
+    k_sigma_outstand,
+    outstand_limit_elastic,
+    outstand_limits_plastic,
+    section_class,
+)
 from postproc.sections import build_sections
-from postproc.ec3.classification import (chs_limits, epsilon, internal_part_limit_elastic,
-                                              internal_part_limits_plastic, k_sigma_outstand,
-                                              outstand_limit_elastic, outstand_limits_plastic,
-                                              section_class)
 
 F_Y = 235e6
 STEP = 0.1

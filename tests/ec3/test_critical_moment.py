@@ -224,7 +224,9 @@ def test_repeated_station_at_an_element_joint():
     # must give the same M_cr, with and without a load height, on both integration paths
     once = np.array([[0.0, 0.25, 0.5, 0.75, 1.0]])
     twice = np.array([[0.0, 0.25, 0.5, 0.5, 0.75, 1.0]])
-    fn = lambda x: -1e5 * 4 * x * (1 - x)  # noqa: E731
+    def fn(x):
+        return -1e5 * 4 * x * (1 - x)
+
     for z_g in (None, np.array([0.15])):
         a = cm.M_cr(once, fn(once), 6.0, E, G, I_z, I_t, I_w, z_g=z_g)[0]
         b = cm.M_cr(twice, fn(twice), 6.0, E, G, I_z, I_t, I_w, z_g=z_g)[0]

@@ -290,7 +290,7 @@ def test_biaxial_moment_utilisation():
 def test_utilisation_N_M_grows_with_load():
     s = IPE300
     a = cs.a_I(s["A"], s["b"], s["t_f"])
-    N_pl, M_pl_y, M_pl_z = s["A"] * S355, s["W_pl_y"] * S355, s["W_pl_z"] * S355
+    M_pl_y, M_pl_z = s["W_pl_y"] * S355, s["W_pl_z"] * S355
     # load factor k on N = 0.4 N_pl, M_y = 0.3 M_pl,y, M_z = 0.1 M_pl,z, up to n = 0.96
     k = np.linspace(0.1, 2.4, 24)
     n = k * 0.4

@@ -2,7 +2,8 @@
 
 Outside values: the evaluated table of eq. (6.49) and Table 6.1 in docs/references.md
 (EN 1993-1-1:2005 itself); Table 6.2 of the standard "from memory" (recalled, not read off a copy at
-hand); IPE 300 properties from the handbook table in docs/references.md ("from memory" there); Euler's
+hand); IPE 300 properties from the handbook table in docs/references.md ("from memory" there);
+Euler's
 load and the torsional buckling load as textbook closed forms.
 """
 

@@ -3,8 +3,12 @@
 import numpy as np
 import pytest
 
-from postproc.ec3.global_analysis import (alpha_cr_storey, equivalent_horizontal_force,
-                                          sway_amplification, sway_imperfection_factors)
+from postproc.ec3.global_analysis import (
+    alpha_cr_storey,
+    equivalent_horizontal_force,
+    sway_amplification,
+    sway_imperfection_factors,
+)
 
 EXACT = 1e-12  # the same few operations as the formula: only rounding differs
 

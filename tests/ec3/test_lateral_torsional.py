@@ -63,7 +63,8 @@ def test_curves_tables_6_4_and_6_5():
 
 
 def test_lambda_bar_LT_and_M_b_Rd():
-    # eq. (6.56) slenderness and eq. (6.55) resistance, IPE 300 W_pl,y = 628 cm3 (docs/references.md)
+    # eq. (6.56) slenderness and eq. (6.55) resistance, IPE 300 W_pl,y = 628 cm3
+    # (docs/references.md)
     lam = lt.lambda_bar_LT(628e-6, 355e6, np.array([200e3, np.inf]))
     assert lam[0] == pytest.approx(np.sqrt(628e-6 * 355e6 / 200e3), rel=1e-12)
     assert lam[1] == 0.0  # no moment: infinite M_cr

@@ -87,6 +87,48 @@ def test_internal_error_exits_4_with_a_log_and_no_traceback(demo, tmp_path, caps
     assert not list(tmp_path.glob("out.being-*"))
 
 
+@pytest.mark.parametrize("module, name, argv", [
+    ("postproc.report.writer", "write_outputs", ["--quiet"]),     # while writing the outputs
+    ("postproc.report.summaries", "member_summary", []),         # while printing the summary
+])
+def test_internal_error_at_any_stage_of_a_run_exits_4(demo, tmp_path, capsys, monkeypatch, module,
+                                                      name, argv) -> None:
+    def broken(*_, **__):
+        raise KeyError("a fault inside framesweep")
+    monkeypatch.setattr(f"{module}.{name}", broken)
+    out = tmp_path / "out"
+    code = main(["run", str(demo / "project.toml"), "--out", str(out), *argv])
+    err = capsys.readouterr().err
+    assert code == 4
+    assert "internal error" in err and "report" in err and "Traceback" not in err
+
+
+def test_internal_error_in_the_sections_command_exits_4(capsys, monkeypatch) -> None:
+    def broken(*_, **__):
+        raise IndexError("a fault inside framesweep")
+    monkeypatch.setattr("postproc.sections.listing.catalogue_listing", broken)
+    assert main(["sections", "IPE"]) == 4
+    err = capsys.readouterr().err
+    assert "internal error" in err and "report" in err and "IndexError" in err
+
+
+def test_internal_error_is_the_exit_status_of_the_process(demo, tmp_path) -> None:
+    """The status the shell sees, through the same `sys.exit(main())` as the console script."""
+    script = ("import sys, postproc.run\n"
+              "def broken(*_, **__):\n"
+              "    raise RuntimeError('a fault inside framesweep')\n"
+              "postproc.run.run_project = broken\n"
+              "from postproc.cli import main\n"
+              "sys.exit(main(sys.argv[1:]))\n")
+    out = tmp_path / "out"
+    done = subprocess.run([sys.executable, "-c", script, "run", str(demo / "project.toml"),
+                           "--out", str(out), "--quiet"], capture_output=True, text=True,
+                          cwd=ROOT, env={**os.environ, "PYTHONPATH": str(ROOT)}, timeout=120)
+    assert done.returncode == 4, done.stderr
+    assert "internal error" in done.stderr and "report" in done.stderr
+    assert "Traceback" not in done.stderr
+
+
 def test_ctrl_c_exits_130_and_leaves_no_staging(demo, tmp_path, capsys, monkeypatch) -> None:
     def interrupted(path, **_):
         raise KeyboardInterrupt

@@ -18,8 +18,8 @@ from hypothesis import strategies as st
 
 from adapters import tables
 from postproc.checker import check_frame
-from postproc.project import read_project
 from postproc.model.results import FORCE_COLUMNS
+from postproc.project import read_project
 
 DEMO = Path(__file__).resolve().parents[2] / "examples" / "hillside_depot"
 STATUSES = {"pass", "fail", "not evaluated"}

@@ -13,7 +13,7 @@ import pandas as pd
 import pytest
 
 pytest.importorskip("openseespy.opensees")  # needs libblas3 and liblapack3 on Linux
-from postproc.cli import main  # noqa: E402
+from postproc.cli import main
 
 pytestmark = pytest.mark.opensees
 

@@ -5,7 +5,6 @@ from __future__ import annotations
 from dataclasses import replace
 from pathlib import Path
 
-
 from adapters import tables
 from postproc.checker import check_frame
 from postproc.project import read_project

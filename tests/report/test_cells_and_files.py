@@ -63,7 +63,7 @@ def test_parquet_keeps_mixed_columns(tmp_path: Path) -> None:
     write_parquet(table, path)
     back = pd.read_parquet(path)
     assert back["class_part"].tolist()[0] == "web" and pd.isna(back["class_part"][1])
-    assert back["ltb_negligible"].tolist()[0] is True or back["ltb_negligible"][0] == True  # noqa: E712
+    assert back["ltb_negligible"].tolist()[0] is True or back["ltb_negligible"][0] is np.True_
     assert pd.isna(back["ltb_negligible"][1])
     assert back["u"].tolist()[:1] == [0.1] and np.isnan(back["u"][1])
     assert back["mixed"].tolist()[1] == "text"

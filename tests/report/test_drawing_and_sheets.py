@@ -13,8 +13,13 @@ import pytest
 
 from postproc.model.members import design_members
 from postproc.report.drawing import default_views, frame_svg, member_polylines, projected
-from postproc.report.sheets import (build_sheet, interaction_svg, sheet_html,
-                                    sheet_markdown, value_source)
+from postproc.report.sheets import (
+    build_sheet,
+    interaction_svg,
+    sheet_html,
+    sheet_markdown,
+    value_source,
+)
 from tests.test_members import FIXED, make_frame, pitched_portal
 
 

@@ -26,10 +26,10 @@ import numpy as np
 import pandas as pd
 import pytest
 
+from postproc.sections import build_sections
+
 sp_library = pytest.importorskip("sectionproperties.pre.library")
 sp_analysis = pytest.importorskip("sectionproperties.analysis")
-
-from postproc.sections import build_sections  # noqa: E402
 
 TOL_OUTLINE = 0.005
 TOL_J_I = 0.03

@@ -9,7 +9,8 @@ Catalogue dimensions are themselves recalled from EN 10365 / EN 10210-2 (from me
 Tolerances:
 - TOL_EXACT = 0.5 %: A, I, W are exact for the idealised outline; handbooks print 3 to 4 figures.
 - TOL_TORSION = 3 %: I_t and I_w of rolled I sections rest on fillet approximations that differ
-  between handbooks in the last digits (docs/references.md: "compare I_t and I_w within a few percent").
+  between handbooks in the last digits (docs/references.md: "compare I_t and I_w within a few
+  percent").
 """
 
 import numpy as np
