@@ -164,7 +164,8 @@ def horizontal_loads(nodes: pd.DataFrame, elements: pd.DataFrame, loads: dict[st
     z_i = nodes.loc[elements["node_i"], "z"].to_numpy()
     out = {}
     width = {"X": NY * BAY_Y, "Y": NX * BAY_X}
-    face = {"X": np.isclose(nodes["x"].to_numpy(), 0.0), "Y": np.isclose(nodes["y"].to_numpy(), 0.0)}
+    face = {"X": np.isclose(nodes["x"].to_numpy(), 0.0),
+            "Y": np.isclose(nodes["y"].to_numpy(), 0.0)}
     for axis, col in (("X", 0), ("Y", 1)):
         force = np.zeros((len(nodes), 2))
         for k, level in enumerate(levels):
@@ -219,7 +220,7 @@ def analyse(nodes: pd.DataFrame, elements: pd.DataFrame, line: np.ndarray, nodal
         ops.rigidDiaphragm(3, index[master], *[index[n] for n in tied])
     transforms = {}
     ops.uniaxialMaterial("Elastic", 1, E)
-    for tag, (name, row) in enumerate(elements.iterrows(), start=1):
+    for tag, (_, row) in enumerate(elements.iterrows(), start=1):
         a, b = index[row["node_i"]], index[row["node_j"]]
         area, i_y, i_z, i_t = stiffness_properties(row["section"])
         if row["kind"] == "brace":
@@ -302,7 +303,7 @@ def combinations() -> list[tuple[str, dict[str, float]]]:
     recipes.append(("W uplift", {"G": 1.0}, 1.5))  # favourable permanent
     recipes.append(("G only", {"G": 1.35}, 0.0))
     recipes.append(("W lead G fav Q", gravity(1.0, 1.05, "Q", 0.0), 1.5))
-    for (name, factors, wind), (axis, sign) in itertools.product(recipes, directions):
+    for (_, factors, wind), (axis, sign) in itertools.product(recipes, directions):
         cases = dict(factors)
         if wind:
             cases[f"W{axis}"] = sign * wind
