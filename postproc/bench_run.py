@@ -6,8 +6,9 @@ single-element members with 5 stations each), writes it as the CSV tables of doc
 joined end to end, since a run reads one connected frame, and every joint held, so that the
 frame's buckling analysis has no free freedom and costs nothing) and a project file, times pandas
 (pyarrow engine) reading the same forces.csv, then runs `framesweep run` on the project in a
-child process and times it from start to exit: reading and validating the tables, members, buckling lengths, member rows, every check,
-the results table, summaries and writing every output. Prints both times, their ratio (target
+child process and times it from start to exit: reading and validating the tables, members,
+buckling lengths, member rows, every check, the results table, summaries and writing every
+output. Prints both times, their ratio (target
 at most 3), the run's peak memory (max resident set of the child; target under 4 GiB) and what
 the run printed (its stage times).
 
