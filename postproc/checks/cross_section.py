@@ -52,7 +52,7 @@ from ..ec3 import cross_section as cs
 from ..ec3 import effective_resistance as er
 from ..ec3.classification import section_class
 from ..errors import InputError
-from ..model.rows import CheckBlock, MemberRows, at_station, no_reason, row_any
+from ..model.rows import CheckBlock, MemberRows, at_station, no_reason
 from ..sections.effective import STRESS_KEYS, parts_at_stress
 from . import effective_rows as eff_rows
 
@@ -97,8 +97,9 @@ class _Rows:
                                 dtype=object)[:, None]
         self.f_y = np.asarray(rows.f_y, dtype=float)[:, None]
         self.f_u = np.asarray(rows.f_u, dtype=float)[:, None]
-        cls = np.asarray(rows.info.get("section_class", np.zeros((R, S))), dtype=float)
-        part = np.asarray(rows.info.get("class_part", np.full((R, S), "", object)), dtype=object)
+        cls = np.asarray(rows.info.get("section_class", np.zeros((R, S), order="F")), dtype=float)
+        part = np.asarray(rows.info.get("class_part", np.full((R, S), "", object, order="F")),
+                          dtype=object)
         for name, arr in (("section_class", cls), ("class_part", part)):
             if arr.shape not in ((R,), (R, 1), (R, S)):
                 raise ValueError(f"rows.info['{name}'] has shape {arr.shape}; expected ({R}, {S})"
@@ -136,9 +137,9 @@ class _Rows:
         if not rows.settings.class_3_at_actual_stress:
             return None
         c4 = (self.cls == 4) & self.valid
-        out = np.zeros((self.R, self.S), bool)
-        self.sigma_com = np.full((self.R, self.S), np.nan)
-        at = np.flatnonzero(row_any(c4))
+        out = np.zeros((self.R, self.S), bool, order="F")
+        self.sigma_com = np.full((self.R, self.S), np.nan, order="F")
+        at = np.flatnonzero(np.any(c4, axis=1))
         if not at.size:
             return out
         sec = {k: np.asarray(v)[at][:, None] for k, v in rows.section.items()}
@@ -194,7 +195,7 @@ class _Rows:
         modify the result)."""
         key = tuple(id(F) for F in forces)
         if key not in self._nan_at:
-            out = np.zeros((self.R, self.S), bool)
+            out = np.zeros((self.R, self.S), bool, order="F")
             for F in forces:
                 out |= np.isnan(F)
             self._nan_at[key] = out & self.valid
@@ -205,8 +206,8 @@ class _Rows:
         if self.all_valid:
             if mask.shape == (self.R, 1):
                 return mask[:, 0].copy()
-            return row_any(np.broadcast_to(mask, (self.R, self.S)))
-        return row_any(np.broadcast_to(mask, (self.R, self.S)) & self.valid)
+            return np.any(np.broadcast_to(mask, (self.R, self.S)), axis=1)
+        return np.any(np.broadcast_to(mask, (self.R, self.S)) & self.valid, axis=1)
 
     def class_cases(self) -> list[tuple[np.ndarray, str]]:
         if self._class_cases is None:
@@ -266,15 +267,13 @@ class _Later:
         self.function, self.arrays = function, arrays
 
 
-def _pick(c: _Rows, value, rows: np.ndarray, idx: np.ndarray, flat: np.ndarray) -> np.ndarray:
+def _pick(c: _Rows, value, idx: np.ndarray) -> np.ndarray:
     """One station per row (idx) of a value that broadcasts to (R, S)."""
     if isinstance(value, _Coded):
-        return value.texts[_pick(c, value.codes, rows, idx, flat)]
+        return value.texts[_pick(c, value.codes, idx)]
     if isinstance(value, _Later):
-        return value.function(*(_pick(c, v, rows, idx, flat) for v in value.arrays))
+        return value.function(*(_pick(c, v, idx) for v in value.arrays))
     v = np.asarray(value)
-    if v.shape == (c.R, c.S) and v.flags.c_contiguous:
-        return v.reshape(-1)[flat]
     if v.shape == (c.R, 1):
         return v[:, 0].copy()
     return at_station(np.broadcast_to(v, (c.R, c.S)), idx)
@@ -292,7 +291,7 @@ def _block(c: _Rows, check: str, clause: str, util: np.ndarray, reason: _Reasons
     rows = np.arange(c.R)
     u = util[rows, idx]
     nan_real = nan & c.valid
-    has_nan = row_any(nan_real)
+    has_nan = np.any(nan_real, axis=1)
     reason_row = no_reason(c.R)
     if has_nan.any():
         first = (np.argmax(nan_real, axis=1) if nan_station is None
@@ -301,10 +300,9 @@ def _block(c: _Rows, check: str, clause: str, util: np.ndarray, reason: _Reasons
         u = np.where(has_nan, np.nan, u)
         hit = np.flatnonzero(has_nan)
         reason_row[hit] = reason.at(idx)[hit]
-    flat = rows * c.S + idx
-    vals = {k: _pick(c, v, rows, idx, flat) for k, v in values.items()}
+    vals = {k: _pick(c, v, idx) for k, v in values.items()}
     return CheckBlock(check=check, clause=clause, utilisation=u,
-                      x=_pick(c, c.rows.x, rows, idx, flat), applies=np.asarray(applies, bool),
+                      x=_pick(c, c.rows.x, idx), applies=np.asarray(applies, bool),
                       reason=reason_row, values=vals)
 
 
@@ -427,12 +425,13 @@ def _shear_buckling_unknown(c: _Rows) -> CheckBlock:
 def _shear_reduction(c: _Rows) -> dict[str, np.ndarray]:
     """rho for both directions and the shear-reduced resistances of the class at every station."""
     out: dict[str, np.ndarray] = {}
-    slender = np.zeros((c.R, c.S), bool)
+    slender = np.zeros((c.R, c.S), bool, order="F")
     for axis, V in (("z", c.Vz), ("y", c.Vy)):
         _, V_pl, ratio = _shear_parts(c, axis)
         out[f"V_pl_{axis}_Rd_N"] = V_pl
         idle = V == 0.0
-        out[f"rho_{axis}"] = (np.zeros((c.R, c.S)) if idle.all()  # e.g. no V_y in a plane frame
+        # no V_y at all, e.g. in a plane frame
+        out[f"rho_{axis}"] = (np.zeros((c.R, c.S), order="F") if idle.all()
                               else np.where(idle, 0.0, cs.rho_shear(V, V_pl)))
         slender |= (ratio > 1.0) & (V != 0.0)
     W_y = np.where(c.plastic, c.p("W_pl_y"), np.where(
@@ -484,24 +483,20 @@ def _plastic_N_M(c: _Rows, N_pl: np.ndarray, M_pl_y: np.ndarray, M_pl_z: np.ndar
     n = np.abs(N) / N_pl
     h_w = h - 2.0 * t_f
     other = np.where(N == 0.0, 1.0, np.nan)
-    M_N_y = np.array(np.broadcast_to(M_pl_y * other, (c.R, c.S)))
-    M_N_z = np.array(np.broadcast_to(M_pl_z * other, (c.R, c.S)))
-    alpha, beta = np.ones((c.R, c.S)), np.ones((c.R, c.S))
+    M_N_y = np.array(np.broadcast_to(M_pl_y * other, (c.R, c.S)), order="F")
+    M_N_z = np.array(np.broadcast_to(M_pl_z * other, (c.R, c.S)), order="F")
+    alpha, beta = np.ones((c.R, c.S), order="F"), np.ones((c.R, c.S), order="F")
     for kind, mask in (("I", is_I), ("RHS", is_RHS), ("CHS", is_CHS)):
         r = np.flatnonzero(mask[:, 0])
         if not len(r):
             continue
-        at = (r[:, None] * c.S + np.arange(c.S)).reshape(-1)  # flat positions of those rows
 
         def take(values, r: np.ndarray = r) -> np.ndarray:
             values = np.asarray(values)
-            if values.ndim < 2:
-                return values
-            return np.take(values, r, axis=0)  # much faster than values[r] for many rows
+            return values if values.ndim < 2 else values[r]
 
-        def put(target: np.ndarray, values: np.ndarray, r: np.ndarray = r,
-                at: np.ndarray = at) -> None:
-            target.reshape(-1)[at] = np.broadcast_to(values, (len(r), c.S)).reshape(-1)
+        def put(target: np.ndarray, values: np.ndarray, r: np.ndarray = r) -> None:
+            target[r] = values
 
         n_r, f_y = take(n), take(c.f_y)
         if kind == "I":

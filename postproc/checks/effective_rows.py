@@ -11,7 +11,6 @@ from __future__ import annotations
 import numpy as np
 
 from ..model.rows import MemberRows
-from ..numerics.row_reductions import row_any
 from ..sections.effective import effective_properties_where
 
 __all__ = ["CLASS_4_CHS", "CLASS_4_NO_GEOMETRY", "UNITS", "VALUE_KEYS", "class_4_reason",
@@ -38,7 +37,7 @@ def effective_values(rows: MemberRows) -> dict[str, np.ndarray]:
     needed = np.zeros(rows.n_rows, bool)
     if cls is not None and rows.n_rows:
         cls = np.asarray(cls)
-        needed = row_any(cls.reshape(rows.n_rows, -1) == 4)
+        needed = np.any(cls.reshape(rows.n_rows, -1) == 4, axis=1)
     return effective_properties_where(rows.section, rows.f_y, needed)
 
 

@@ -49,7 +49,6 @@ from ..ec3 import interaction_annex_a as annex_a
 from ..ec3 import interaction_annex_b as annex_b
 from ..ec3 import moment_factors as mf
 from ..model.rows import CheckBlock, MemberRows, no_reason
-from ..numerics.row_reductions import row_sum
 from . import effective_rows as eff_rows
 
 __all__ = ["BUCKLING_KEYS", "CLASS_4", "N_BASIS", "SharedInputs", "interaction_checks"]
@@ -77,13 +76,7 @@ def _add(reason: np.ndarray, mask: np.ndarray, text: str | np.ndarray) -> None:
 
 def _nan_max(values: np.ndarray) -> np.ndarray:
     """Row-wise max ignoring NaN; NaN for an all-NaN row."""
-    filled = np.where(np.isnan(values), -np.inf, values)
-    if values.shape[1] == 0:
-        out = np.full(values.shape[0], -np.inf)
-    else:  # column by column: a handful of stations (max is exact in any order)
-        out = filled[:, 0].copy()
-        for k in range(1, values.shape[1]):
-            np.maximum(out, filled[:, k], out=out)
+    out = np.max(np.where(np.isnan(values), -np.inf, values), axis=1, initial=-np.inf)
     return np.where(np.isinf(out), np.nan, out)
 
 
@@ -113,34 +106,31 @@ def _ltb_segment_moments(rows: MemberRows, b: dict[str, np.ndarray]
     R, S = rows.x.shape
     every = bool(part.all())  # the usual case when any is: equal parts of L_LT, or all spans
     p = slice(None) if every else np.flatnonzero(part)
-    x = np.ascontiguousarray(rows.x[p])
-    M = np.ascontiguousarray(rows.My[p])
+    x, M = rows.x[p], rows.My[p]
     a, c, t = start[p][:, None], end[p][:, None], tol[p][:, None]
     n = x.shape[0]
-    flat_x, flat_M, base = x.reshape(-1), M.reshape(-1), np.arange(n) * S
+    at = np.arange(n)
 
     def moment_at(point: np.ndarray) -> np.ndarray:
         """M linear between the stations either side of `point` (n, 1), flat beyond the ends."""
-        last = row_sum(~np.isnan(x)) - 1
-        k0 = base + np.clip(row_sum(x <= point) - 1, 0, np.maximum(last - 1, 0))
-        k1 = np.minimum(k0 + 1, base + last)
-        x0, x1 = flat_x[k0], flat_x[k1]
+        last = np.maximum(np.sum(~np.isnan(x), axis=1) - 1, 0)
+        k0 = np.clip(np.sum(x <= point, axis=1) - 1, 0, np.maximum(last - 1, 0))
+        k1 = np.minimum(k0 + 1, last)
+        x0, x1 = x[at, k0], x[at, k1]
         with np.errstate(invalid="ignore", divide="ignore"):
             w = np.clip((point[:, 0] - x0) / (x1 - x0), 0.0, 1.0)
         w = np.where(np.isfinite(w), w, 0.0)
-        return flat_M[k0] + w * (flat_M[k1] - flat_M[k0])
+        return M[at, k0] + w * (M[at, k1] - M[at, k0])
 
     # stations are in order, so those strictly inside form one run: from `lead` on, `n_inner`
-    lead = row_sum(x <= a + t)
-    n_inner = row_sum((x > a + t) & (x < c - t))
-    xs, Ms = np.full((n, S + 2), np.nan), np.full((n, S + 2), np.nan)
+    lead = np.sum(x <= a + t, axis=1)
+    n_inner = np.sum((x > a + t) & (x < c - t), axis=1)
+    xs, Ms = np.full((n, S + 2), np.nan, order="F"), np.full((n, S + 2), np.nan, order="F")
     xs[:, 0], Ms[:, 0] = start[p], moment_at(a)
-    for j in range(S):  # over the handful of station columns, not over rows
-        k = base + np.minimum(lead + j, S - 1)
-        take = j < n_inner
-        xs[:, j + 1] = np.where(take, flat_x[k], np.nan)
-        Ms[:, j + 1] = np.where(take, flat_M[k], np.nan)
-    at = np.arange(n)
+    k = np.minimum(lead[:, None] + np.arange(S), S - 1)
+    inner = np.arange(S) < n_inner[:, None]
+    xs[:, 1:S + 1] = np.where(inner, np.take_along_axis(x, k, axis=1), np.nan)
+    Ms[:, 1:S + 1] = np.where(inner, np.take_along_axis(M, k, axis=1), np.nan)
     xs[at, n_inner + 1], Ms[at, n_inner + 1] = end[p], moment_at(c)
     if every:
         return xs, Ms, note

@@ -50,7 +50,6 @@ from ..ec3 import critical_moment as cm
 from ..ec3 import flexural_buckling as fb
 from ..ec3 import lateral_torsional as lt
 from ..model.rows import CheckBlock, MemberRows, no_reason
-from ..numerics.row_reductions import row_any, row_max, row_sum
 from . import effective_rows as eff_rows
 
 __all__ = ["CLASS_4", "CLASS_UNKNOWN", "GENERIC", "GIVEN_LENGTH", "MAX_SEGMENTS", "NO_POSITIONS",
@@ -84,8 +83,8 @@ def _member_class(rows: MemberRows) -> np.ndarray:
         return np.full(rows.n_rows, np.nan)
     cls = np.where(rows.valid, np.asarray(cls, float), np.nan)
     unknown = ((cls == 0) | np.isnan(cls)) & rows.valid
-    worst = row_max(np.where(np.isnan(cls), 0.0, cls))
-    return np.where(row_any(unknown) | (worst == 0), np.nan, worst)
+    worst = np.max(np.where(np.isnan(cls), 0.0, cls), axis=1)
+    return np.where(np.any(unknown, axis=1) | (worst == 0), np.nan, worst)
 
 
 def _info(rows: MemberRows, key: str, default: float) -> np.ndarray:
@@ -259,10 +258,10 @@ def _segment_plan(rows: MemberRows, L_LT: np.ndarray
     points = np.full((R, 0), np.nan) if points is None else np.asarray(points, float)
     if points.shape[1] < 2:
         points = np.concatenate([points, np.full((R, 2 - points.shape[1]), np.nan)], axis=1)
-    count = row_sum(~np.isnan(points))  # points come first, padding after
+    count = np.sum(~np.isnan(points), axis=1)  # points come first, padding after
     last = points[np.arange(R), np.maximum(count - 1, 0)]
     with np.errstate(invalid="ignore"):
-        rising = ~row_any(np.diff(points, axis=1) <= POINT_TOL_M)
+        rising = ~np.any(np.diff(points, axis=1) <= POINT_TOL_M, axis=1)
         real = ((count >= 2) & (points[:, 0] <= POINT_TOL_M) & (last >= length - POINT_TOL_M)
                 & rising & ~given)
     with np.errstate(invalid="ignore", divide="ignore"):
@@ -462,8 +461,8 @@ def lateral_torsional_checks(rows: MemberRows) -> list[CheckBlock]:
     b = _buckling(rows)
     st = rows.settings
     My = np.where(rows.valid, rows.My, 0.0)
-    nan_force = row_any(np.isnan(rows.My) & rows.valid)
-    bent = row_any(np.abs(np.nan_to_num(My)) > 0) | nan_force
+    nan_force = np.any(np.isnan(rows.My) & rows.valid, axis=1)
+    bent = np.any(np.abs(np.nan_to_num(My)) > 0, axis=1) | nan_force
     applies = bent & np.asarray(b["ltb_susceptible"], bool)
     reason = np.asarray(b.get("reason_LT", b["reason"]), dtype=object).copy()
     _add(reason, nan_force, "bending moment M_y not known at some station")

@@ -11,7 +11,6 @@ import pandas as pd
 
 from ..ec3.classification import section_class
 from ..model.rows import MemberRows
-from ..numerics.row_reductions import row_any
 from ..sections.effective import effective_properties_where
 from .member_buckling import buckling_values
 
@@ -26,7 +25,8 @@ def with_member_info(rows: MemberRows, overrides: pd.DataFrame | None) -> Member
                               require_elastic=rows.settings.classification == "also-elastic")
     info["section_class"], info["class_part"] = cls, part
     # effective properties (EN 1993-1-5) of the rows with a class 4 station, shared by all checks
-    info["effective"] = effective_properties_where(rows.section, rows.f_y, row_any(cls == 4))
+    info["effective"] = effective_properties_where(rows.section, rows.f_y,
+                                                   np.any(cls == 4, axis=1))
     if overrides is not None and not overrides.empty:
         by_member = overrides.set_index("member")
         aligned = by_member.reindex(rows.member)

@@ -353,8 +353,9 @@ def section_class(section: dict[str, np.ndarray], f_y: np.ndarray, N_Ed: np.ndar
     s = {k: np.asarray(section.get(k, np.nan), dtype=float) for k in keys}
     out_shape = np.broadcast_shapes(shape_arr.shape, f_y.shape, N_c.shape, My.shape, Mz.shape,
                                     *(v.shape for v in s.values()))
-    cls = np.zeros(out_shape, dtype=np.int8)
-    part = np.zeros(out_shape, dtype=np.int8)  # codes into _PART_NAMES
+    # column-major like the member rows' (rows, stations) arrays (postproc.model.rows)
+    cls = np.zeros(out_shape, dtype=np.int8, order="F")
+    part = np.zeros(out_shape, dtype=np.int8, order="F")  # codes into _PART_NAMES
 
     # the shape usually varies by row only ((R, 1) against forces (R, S)): select whole rows
     by_row = len(out_shape) == 2 and shape_arr.shape == (out_shape[0], 1)
@@ -364,26 +365,17 @@ def section_class(section: dict[str, np.ndarray], f_y: np.ndarray, N_Ed: np.ndar
         holds row numbers) when the shape varies by row, otherwise a flat array."""
         if by_row:
             if arr.ndim == 2 and arr.shape[0] == out_shape[0]:
-                return np.take(arr, sel, axis=0)  # much faster than arr[sel] for many rows
+                return arr[sel]
             if arr.ndim < 2 or arr.shape[0] == 1:
                 return arr
         return np.broadcast_to(arr, out_shape)[sel]
-
-    def put(target: Array, at: Array, values: Array | int) -> None:
-        """target[sel] = values, through flat positions `at` when whole rows are set."""
-        if by_row:
-            target.reshape(-1)[at] = np.broadcast_to(values, (len(at) // out_shape[1],
-                                                              out_shape[1])).reshape(-1)
-        else:
-            target[at] = values
 
     # each shape is classified on its own elements only (every operation is elementwise)
     for kind in ("I", "RHS", "CHS"):
         if by_row:
             sel = np.flatnonzero(shape_arr[:, 0] == kind)
-            at = (sel[:, None] * out_shape[1] + np.arange(out_shape[1])).reshape(-1)
         else:
-            sel = at = np.broadcast_to(shape_arr == kind, out_shape)
+            sel = np.broadcast_to(shape_arr == kind, out_shape)
         if not (sel.size if by_row else sel.any()):
             continue
         sub = {k: only(sel, v) for k, v in s.items()}
@@ -394,14 +386,14 @@ def section_class(section: dict[str, np.ndarray], f_y: np.ndarray, N_Ed: np.ndar
             if kind == "I":
                 web, flange = _i_classes(*args)
                 worst, _, flange_governs = _worse(web, flange)
-                put(cls, at, worst)
-                put(part, at, np.where(flange_governs, _FLANGE, _WEB))
+                cls[sel] = worst
+                part[sel] = np.where(flange_governs, _FLANGE, _WEB)
             elif kind == "RHS":
-                put(cls, at, _rhs_classes(*args)[0])
-                put(part, at, _WALL)
+                cls[sel] = _rhs_classes(*args)[0]
+                part[sel] = _WALL
             else:
-                put(cls, at, _chs_class(*args))
-                put(part, at, _WALL)
+                cls[sel] = _chs_class(*args)
+                part[sel] = _WALL
 
     given = np.broadcast_to(s["given_class"], out_shape)
     has_given = ~np.isnan(given)

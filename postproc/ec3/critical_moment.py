@@ -29,7 +29,6 @@ import numpy as np
 
 from ..numerics.interpolation import interp_rows
 from ..numerics.rayleigh_ritz import critical_load_factor
-from ..numerics.row_reductions import row_max
 
 __all__ = ["N_TERMS", "M_cr", "M_cr_0", "end_moments", "peak_moment"]
 
@@ -66,9 +65,9 @@ def peak_moment(xi: np.ndarray, M: np.ndarray, *, ends: np.ndarray | None = None
     `ends` may pass the result of `end_moments` when it is at hand.
     """
     inside = (xi >= 0.0) & (xi <= 1.0)
-    peak = row_max(np.where(inside, np.abs(np.nan_to_num(M)), 0.0))
+    peak = np.max(np.where(inside, np.abs(np.nan_to_num(M)), 0.0), axis=1)
     ends = np.abs(end_moments(xi, M) if ends is None else ends)
-    return np.maximum(peak, row_max(ends))
+    return np.maximum(peak, np.max(ends, axis=1))
 
 
 

@@ -10,7 +10,6 @@ from __future__ import annotations
 
 import numpy as np
 
-from ..numerics.row_reductions import row_all, row_max, row_sum
 from .critical_moment import end_moments
 from .flexural_buckling import chi as _chi_6_49
 from .flexural_buckling import imperfection_factor
@@ -162,11 +161,12 @@ def k_c_from_diagram(xi: np.ndarray, M: np.ndarray, C_1: np.ndarray, *,
     M_a, M_b = ends[:, 0], ends[:, 1]
     inside = (xi > 0.0) & (xi < 1.0)
     x_in = np.where(inside, xi, 0.5)
-    peak = np.maximum(row_max(np.where(inside, np.abs(M), 0.0)), row_max(np.abs(ends)))
+    peak = np.maximum(np.max(np.where(inside, np.abs(M), 0.0), axis=1),
+                      np.max(np.abs(ends), axis=1))
     tol = _SHAPE_TOL * np.where(peak > 0, peak, 1.0)
 
     def matches(expected: np.ndarray) -> np.ndarray:
-        return row_all(~inside | (np.abs(M - expected) <= tol[:, None]))
+        return np.all(~inside | (np.abs(M - expected) <= tol[:, None]), axis=1)
 
     linear = matches(M_a[:, None] + x_in * (M_b - M_a)[:, None])
     big_a = np.abs(M_a) >= np.abs(M_b)
@@ -175,7 +175,7 @@ def k_c_from_diagram(xi: np.ndarray, M: np.ndarray, C_1: np.ndarray, *,
     psi = np.where(linear & (peak > 0), np.clip(psi, -1.0, 1.0), np.nan)
 
     zero_ends = (np.abs(M_a) <= tol) & (np.abs(M_b) <= tol)
-    enough = row_sum(inside) >= 2
+    enough = np.sum(inside, axis=1) >= 2
     # the curved cases only for the rows that can be one (not linear, zero ends): usually few
     udl, point = np.zeros(M.shape[0], bool), np.zeros(M.shape[0], bool)
     cand = np.flatnonzero(~linear & zero_ends & enough)

@@ -26,12 +26,6 @@ from __future__ import annotations
 import numpy as np
 import pandas as pd
 
-from ..numerics.row_reductions import row_any as _row_any
-from ..numerics.row_reductions import row_argmax as _row_argmax
-from ..numerics.row_reductions import row_cumsum as _row_cumsum
-from ..numerics.row_reductions import row_max as _row_max
-from ..numerics.row_reductions import row_sum as _row_sum
-
 __all__ = ["CONCENTRATED", "C_M_SWAY", "C_m_annex_b", "C_m_table_b3", "C_mi_0_annex_a",
            "C_mi_0_general", "C_mi_0_linear", "DISTRIBUTED", "Diagram", "INVALID", "LINEAR", "NONE",
            "NO_MOMENT", "SPAN_LARGER", "SPAN_SMALLER", "UNDETERMINED", "chord_deflection",
@@ -94,14 +88,14 @@ def _compact(x: np.ndarray, M: np.ndarray
     x = np.atleast_2d(np.asarray(x, dtype=float))
     M = np.atleast_2d(np.asarray(M, dtype=float))
     real = ~np.isnan(x)
-    bad = _row_any(real & np.isnan(M))  # a station without a moment: diagram incomplete
+    bad = np.any(real & np.isnan(M), axis=1)  # a station without a moment: diagram incomplete
     key = np.where(real, x, np.inf)
     xs, Ms = np.where(real, x, np.nan), np.where(real, M, np.nan)
     if not np.all(key[:, 1:] >= key[:, :-1]):  # rows usually arrive in order: then no sort
         order = np.argsort(key, axis=1, kind="stable")
         xs = np.take_along_axis(xs, order, axis=1)
         Ms = np.take_along_axis(Ms, order, axis=1)
-    n = _row_sum(real)
+    n = np.sum(real, axis=1)
     return xs, Ms, n, bad | (n < 2)
 
 
@@ -156,7 +150,7 @@ def _diagram_compact(xs: np.ndarray, Ms: np.ndarray, n: np.ndarray, bad: np.ndar
     rows = np.arange(R)
     M_a, M_b = Ms[:, 0], _last(Ms, n)
     x_a, x_b = xs[:, 0], _last(xs, n)
-    M_max = _row_max(np.where(np.isnan(Ms), -np.inf, np.abs(Ms)))
+    M_max = np.max(np.where(np.isnan(Ms), -np.inf, np.abs(Ms)), axis=1)
     M_max = np.where(bad, np.nan, M_max)
     scale = np.where(M_max > 0, M_max, 1.0)
 
@@ -170,7 +164,7 @@ def _diagram_compact(xs: np.ndarray, Ms: np.ndarray, n: np.ndarray, bad: np.ndar
         chord = M_a[:, None] + (M_b - M_a)[:, None] * (xs - x_a[:, None]) / span[:, None]
     dev = Ms - chord
     dev_abs = np.where(np.isnan(dev), -np.inf, np.abs(dev))
-    k_peak = _row_argmax(dev_abs)
+    k_peak = np.argmax(dev_abs, axis=1)
     dev_max = dev_abs[rows, k_peak]
     side = np.sign(dev[rows, k_peak])  # +1: span load pushes M up, -1: down
     linear = dev_max <= linear_tol * scale
@@ -178,7 +172,7 @@ def _diagram_compact(xs: np.ndarray, Ms: np.ndarray, n: np.ndarray, bad: np.ndar
 
     # Span moment: the moment furthest from the chord, or the interior peak on that side.
     signed = np.where(np.isnan(Ms), -np.inf, side[:, None] * Ms)
-    k_ext = _row_argmax(signed)
+    k_ext = np.argmax(signed, axis=1)
     interior_peak = (k_ext > 0) & (k_ext < n - 1) & (
         signed[rows, k_ext] > np.maximum(side * M_a, side * M_b) + linear_tol * scale)
     M_s = np.where(interior_peak, Ms[rows, k_ext], Ms[rows, k_peak])
@@ -218,24 +212,16 @@ def _span_load(xs: np.ndarray, Ms: np.ndarray, n: np.ndarray,
         real = dx > 1e-9 * np.where(length > 0, length, 1.0)[:, None]  # False where NaN
     with np.errstate(invalid="ignore", divide="ignore"):
         slope = np.where(real, np.diff(Ms, axis=1) / np.where(real, dx, 1.0), np.nan)
-    # Carry the last real slope over repeated stations, so a jump there counts once (column by
-    # column: a handful of columns)
-    filled = slope.copy()
-    for k in range(1, slope.shape[1]):
-        filled[:, k] = np.where(real[:, k], slope[:, k], filled[:, k - 1])
+    # Carry the last real slope over repeated stations, so a jump there counts once: each
+    # column takes the slope of the last real interval up to it (the first where none is)
+    last_real = np.maximum.accumulate(np.where(real, np.arange(slope.shape[1]), 0), axis=1)
+    filled = np.take_along_axis(slope, last_real, axis=1)
     jump = np.abs(np.nan_to_num(np.diff(filled, axis=1), nan=0.0))
-    total = _row_sum(jump)
-    if jump.shape[1] >= 2:
-        # largest of the neighbouring pairs and of the single jumps, column by column (a few
-        # columns: cheaper than reductions along rows this short)
-        pair = jump[:, 0] + jump[:, 1]
-        for k in range(1, jump.shape[1] - 1):
-            np.maximum(pair, jump[:, k] + jump[:, k + 1], out=pair)
-        for k in range(jump.shape[1]):
-            np.maximum(pair, jump[:, k], out=pair)
-    else:
-        pair = jump.max(axis=1, initial=0.0)
-    n_interior = _row_sum(real) - 1  # distinct interior stations
+    total = np.sum(jump, axis=1)
+    # largest of the single jumps and of the neighbouring pairs
+    pair = np.maximum(jump.max(axis=1, initial=0.0),
+                      (jump[:, :-1] + jump[:, 1:]).max(axis=1, initial=0.0))
+    n_interior = np.sum(real, axis=1) - 1  # distinct interior stations
     concentrated = pair >= concentrated_share * total
     out = np.where(concentrated, _L_CONCENTRATED, _L_DISTRIBUTED).astype(np.int8)
     out[n_interior < 3] = _L_UNDETERMINED
@@ -392,14 +378,14 @@ def _chord_deflection_compact(xs: np.ndarray, Ms: np.ndarray, n: np.ndarray, bad
         bulge = np.where(np.asarray(curved, dtype=bool)[:, None], mean, 0.0)
     # Rotation and deflection at each station: linear part plus the parabola's share.
     d_theta = dx * (k0 + k1) / 2 - bulge * dx ** 3 / 12
-    theta = np.concatenate([np.zeros((R, 1)), _row_cumsum(d_theta)], axis=1)
+    theta = np.concatenate([np.zeros((R, 1)), np.cumsum(d_theta, axis=1)], axis=1)
     d_w = theta[:, :-1] * dx + dx ** 2 * (2 * k0 + k1) / 6 - bulge * dx ** 4 / 24
-    w = np.concatenate([np.zeros((R, 1)), _row_cumsum(d_w)], axis=1)
+    w = np.concatenate([np.zeros((R, 1)), np.cumsum(d_w, axis=1)], axis=1)
     x_a, x_b = xs[:, :1], _last(xs, n)[:, None]
     w_b = _last(w, n)[:, None]
     with np.errstate(invalid="ignore", divide="ignore"):
         rel = w - w_b * (xs - x_a) / (x_b - x_a)
-    delta = _row_max(np.where(np.isnan(xs), -np.inf, np.abs(rel)))
+    delta = np.max(np.where(np.isnan(xs), -np.inf, np.abs(rel)), axis=1)
     return np.where(bad, np.nan, delta)
 
 

@@ -2,10 +2,10 @@
 
 A row is one (design member, combination). Element stations are moved onto the member's own x
 (element offset along the member, direction flipped where the element runs backwards, which
-changes the sign of Vz and Mz: see `postproc.model.results`), then scattered into (R, S) arrays
-padded
-with NaN, S being the largest number of stations of any row. No Python loop over rows, and no
-sorting or joining of strings: ids become integer codes first.
+changes the sign of Vz and Mz: see `postproc.model.results`), then scattered into (R, S)
+column-major arrays padded with NaN (the layout of `MemberRows`), S being the largest number of
+stations of any row. No Python loop over rows, and no sorting or joining of strings: ids
+become integer codes first.
 """
 
 from __future__ import annotations
@@ -119,20 +119,17 @@ def _member_grid(forces: pd.DataFrame, members: Members, element_length: pd.Seri
         if order is not None:
             values = values[order]
         if full:
-            # a view of the forces table where no sign or order changed: nothing writes into
-            # the rows' force arrays, and a read-only view makes sure nothing can
-            grid = np.asarray(values, dtype=float).reshape(n_rows, n_stations)
-            if not grid.flags.owndata and grid.flags.writeable:
-                grid = grid.view()
-                grid.flags.writeable = False
+            # one copy in column-major order (see MemberRows): reductions over stations are
+            # then plain numpy over contiguous columns
+            grid = np.asfortranarray(np.asarray(values, dtype=float).reshape(n_rows, n_stations))
         else:
-            grid = np.full((n_rows, n_stations), np.nan)
+            grid = np.full((n_rows, n_stations), np.nan, order="F")
             grid[row, station] = values
         arrays[column] = grid
     if full:
-        valid = np.ones((n_rows, n_stations), dtype=bool)
+        valid = np.ones((n_rows, n_stations), dtype=bool, order="F")
     else:
-        valid = np.zeros((n_rows, n_stations), dtype=bool)
+        valid = np.zeros((n_rows, n_stations), dtype=bool, order="F")
         valid[row, station] = True
     at_first = first if order is None else order[first]
     member_code = member[at_first]

@@ -11,7 +11,6 @@ from dataclasses import dataclass, field, fields
 
 import numpy as np
 
-from ..numerics.row_reductions import row_any
 from ..settings import DesignSettings
 
 __all__ = ["CheckBlock", "FAIL", "MemberRows", "NOT_EVALUATED", "PASS", "at_station",
@@ -23,6 +22,14 @@ PASS, FAIL, NOT_EVALUATED = "pass", "fail", "not evaluated"
 @dataclass(frozen=True)
 class MemberRows:
     """Everything a check needs, as arrays over R rows (member, combination).
+
+    Layout: every (R, S) array (x, the forces, and what the checks derive from them, e.g. the
+    section class per station) is stored column-major (numpy order="F"): the R values of one
+    station lie side by side. A check reduces over the few stations of each row (max, any, all,
+    sum, argmax, cumsum along axis=1) with plain numpy, which then runs over contiguous columns;
+    on row-major arrays the same reductions are several times slower. Slices of rows
+    (`rows_slice`) keep the layout; `rows_concat` returns column-major arrays again. Build new
+    (R, S) arrays with order="F" (ufuncs and np.where on them keep it by themselves).
 
     Forces (R, S), SI, member axes (x from the member's start, y-y major, z-z minor), sign
     convention of `postproc.model.results`; padded stations are NaN in every force array and in x.
@@ -119,7 +126,7 @@ def governing(utilisation: np.ndarray, x: np.ndarray) -> tuple[np.ndarray, np.nd
     nan = np.isnan(utilisation)
     idx = np.argmax(np.where(nan, -np.inf, utilisation) if nan.any() else utilisation, axis=1)
     util = at_station(utilisation, idx)
-    nan_at_real = row_any(nan & ~np.isnan(x))
+    nan_at_real = (nan & ~np.isnan(x)).any(axis=1)
     if nan_at_real.any():
         util = np.where(nan_at_real, np.nan, util)
     return util, at_station(x, idx), idx
@@ -128,8 +135,6 @@ def governing(utilisation: np.ndarray, x: np.ndarray) -> tuple[np.ndarray, np.nd
 def at_station(values: np.ndarray, idx: np.ndarray) -> np.ndarray:
     """Pick one station per row from an (R, S) array."""
     values = np.asarray(values)
-    if values.ndim == 2 and values.flags.c_contiguous:
-        return values.reshape(-1)[np.arange(values.shape[0]) * values.shape[1] + idx]
     return values[np.arange(values.shape[0]), idx]
 
 

@@ -26,7 +26,6 @@ from __future__ import annotations
 import numpy as np
 
 from .interpolation import rows_matmul
-from .row_reductions import row_all, row_any
 
 __all__ = ["ITERATION_BLOCK", "MAX_GROUPS", "ROWS_PER_BLOCK", "critical_load_factor",
            "largest_eigenvalue_psd", "smallest_root_quadratic", "station_patterns"]
@@ -115,7 +114,7 @@ def _block(xi, M, L, E, G, I_z, I_t, I_w, k, k_w, z_g, n, peak) -> np.ndarray:
             with np.errstate(divide="ignore"):
                 lam[redo] = np.where(nu > 0, 1.0 / nu, np.inf)
     out = np.where(peak > 0, lam, np.inf)
-    bad = (row_any(np.isnan(M) & ~np.isnan(xi))
+    bad = (np.any(np.isnan(M) & ~np.isnan(xi), axis=1)
            | np.isnan(L + E + G + I_z + I_t + I_w + k + k_w))
     if z_g is not None:
         bad |= np.isnan(z_g)
@@ -384,7 +383,7 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
     R, S = xi.shape
     j = np.arange(1, n + 1)
     key = np.where(np.isnan(xi), np.inf, np.round(xi, 9))
-    same = row_all(key == key[:1]) if R else np.zeros(0, bool)
+    same = np.all(key == key[:1], axis=1) if R else np.zeros(0, bool)
     if R and same.all():
         inverse, patterns = np.zeros(R, int), key[:1]
     elif R:
@@ -474,9 +473,7 @@ def station_patterns(key: np.ndarray) -> tuple[np.ndarray, np.ndarray]:
     against their pattern, and any collision falls back to sorting whole rows."""
     finite = np.where(np.isinf(key), 7.0, key)
     weights = np.cos(np.arange(1, key.shape[1] + 1) * 1.2345) + 2.0  # distinct, irrational-ish
-    projection = finite[:, 0] * weights[0]
-    for k in range(1, key.shape[1]):  # over stations (no BLAS call: it would spread over cores)
-        projection += finite[:, k] * weights[k]
+    projection = np.sum(finite * weights, axis=1)  # no BLAS call: it would spread over cores
     _, first, inverse = np.unique(projection, return_index=True, return_inverse=True)
     patterns = key[first]
     if np.all(key == patterns[inverse]):
