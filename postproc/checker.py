@@ -28,6 +28,7 @@ from .model.frame import Frame
 from .model.member_rows import build_member_rows
 from .model.members import Members, design_members
 from .model.results import Results
+from .model.rules import resolved_overrides
 from .settings import DesignSettings
 from . import stability
 
@@ -43,10 +44,14 @@ CHECK_FAMILIES: list[CheckFamily] = [
 
 def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
                 overrides: pd.DataFrame | None = None, groups: dict[str, list[str]] | None = None,
-                restraint_nodes: pd.DataFrame | None = None,
+                restraint_nodes: pd.DataFrame | None = None, rules: pd.DataFrame | None = None,
                 families: list[CheckFamily] | None = None) -> CheckOutcome:
-    """Check every design member of `frame` for every ULS combination of `results`."""
+    """Check every design member of `frame` for every ULS combination of `results`.
+
+    `overrides` are per member ([members.<name>]); `rules` per selection ([[rules]]), resolved
+    against the design members here (`postproc.model.rules`: the member's own table wins)."""
     members = design_members(frame, groups=groups or None, restraint_nodes=restraint_nodes)
+    overrides = resolved_overrides(members, frame, rules, overrides)
     combos = results.combinations
     uls = combos.index[(combos["kind"] == "ULS") & (combos["status"] == "ok")]
     forces = results.forces[results.forces["combination"].isin(uls)]
@@ -227,7 +232,10 @@ def _length_overrides(overrides: pd.DataFrame | None) -> pd.DataFrame | None:
         return None
     columns = {"L_cr_y": "L_cr_y_m", "L_cr_z": "L_cr_z_m", "L_cr_T": "L_cr_T_m", "L_LT": "L_LT_m"}
     where = [c for c in ("file", "entry") if c in overrides.columns]  # for located messages
-    return overrides[["member", *columns, *where]].rename(columns=columns)
+    # which entry of the project file set each length (rules), shown as its origin
+    set_by = {f"set_by_{k}": f"set_by_{v}" for k, v in columns.items()
+              if f"set_by_{k}" in overrides.columns}
+    return overrides[["member", *columns, *where, *set_by]].rename(columns={**columns, **set_by})
 
 
 def results_table(rows: MemberRows, blocks: list[CheckBlock], limit: float = 1.0) -> pd.DataFrame:

@@ -15,7 +15,8 @@ import pandas as pd
 
 from .errors import InputError
 from .project_schema import OVERRIDE_KEYS  # noqa: F401 (re-exported)
-from .project_schema import MemberOverride, Restraint, validate_project
+from .model.selection import parse_selection
+from .project_schema import MemberOverride, Restraint, Rule, validate_project
 from .settings import DesignSettings
 
 __all__ = ["OVERRIDE_FLAGS", "OVERRIDE_LENGTHS", "OVERRIDE_NUMBERS", "Project", "read_project"]
@@ -41,6 +42,9 @@ class Project:
         groups: explicit design members, member name -> ordered element ids ([groups]).
         restraint_nodes: declared bracing points, columns node, direction, file, entry
             ([[restraints]]).
+        rules: one row per [[rules]] entry in the order written: select, the override keys
+            (NaN or None = not given), file, entry ('rules[1]' ...); resolved per member by
+            `postproc.model.rules.resolved_overrides` once the design members are known.
         raw: the whole parsed file, for adapters that need their own tables
             ([load_cases], [combinations]).
     """
@@ -52,6 +56,7 @@ class Project:
     overrides: pd.DataFrame
     groups: dict[str, list[str]] = field(default_factory=dict)
     restraint_nodes: pd.DataFrame = field(default_factory=pd.DataFrame)
+    rules: pd.DataFrame = field(default_factory=pd.DataFrame)
     raw: dict = field(default_factory=dict)
 
     @property
@@ -79,7 +84,8 @@ def read_project(path: str | Path) -> Project:
     return Project(path=path.resolve(), title=parsed.title or path.stem,
                    model=model.model_dump(), settings=settings,
                    overrides=_overrides(parsed.members, name), groups=parsed.groups,
-                   restraint_nodes=_restraints(parsed.restraints, name), raw=raw)
+                   restraint_nodes=_restraints(parsed.restraints, name),
+                   rules=_rules(parsed.rules, name), raw=raw)
 
 
 def _overrides(table: dict[str, MemberOverride], file: str) -> pd.DataFrame:
@@ -100,3 +106,18 @@ def _restraints(items: list[Restraint], file: str) -> pd.DataFrame:
     records = [{"node": item.node, "direction": item.direction, "file": file,
                 "entry": f"restraints[{k}]"} for k, item in enumerate(items, start=1)]
     return pd.DataFrame.from_records(records, columns=["node", "direction", "file", "entry"])
+
+
+def _rules(items: list[Rule], file: str) -> pd.DataFrame:
+    """One row per [[rules]] entry (numbered from 1 as written); the selection is parsed here so
+    that a bad criterion is refused before the model is read."""
+    records = []
+    for k, item in enumerate(items, start=1):
+        entry = f"rules[{k}]"
+        parse_selection(item.select, field=f"{entry}.select", file=file)
+        record = {**item.model_dump(), "file": file, "entry": entry}
+        for key in OVERRIDE_LENGTHS + OVERRIDE_NUMBERS:
+            record[key] = math.nan if record[key] is None else float(record[key])
+        records.append(record)
+    columns = ["select", *OVERRIDE_LENGTHS, *OVERRIDE_NUMBERS, *OVERRIDE_FLAGS, "file", "entry"]
+    return pd.DataFrame.from_records(records, columns=columns)

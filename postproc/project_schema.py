@@ -23,7 +23,7 @@ from .settings import DesignSettings
 
 __all__ = ["CONFIG", "Combinations", "ExtraCombination", "Factor", "Imperfection", "Length",
            "LoadCase", "MemberOverride", "Name", "OVERRIDE_KEYS", "OpenSeesModel", "P_DELTA_ONLY",
-           "ProjectFile", "ROUTES", "ROUTE_ONLY_TABLES", "Restraint", "SCRIPT_TIME_LIMIT_S",
+           "ProjectFile", "ROUTES", "ROUTE_ONLY_TABLES", "Restraint", "Rule", "SCRIPT_TIME_LIMIT_S",
            "Strict", "TABLE_FILES", "TablesModel", "UNREAD_BY_METHOD", "Units", "design_model",
            "known_keys", "validate_design", "validate_project"]
 
@@ -138,6 +138,13 @@ class MemberOverride(Strict):
     A_net_cm2: Annotated[float, Field(gt=0.0, le=1e5)] | None = None
 
 
+class Rule(MemberOverride):
+    """[[rules]]: the override keys for every member a selection picks
+    (postproc/model/selection.py, precedence in postproc/model/rules.py)."""
+
+    select: Annotated[str, Field(min_length=1)]
+
+
 class Restraint(Strict):
     node: Name
     direction: Literal[RESTRAINT_DIRECTIONS]  # type: ignore[valid-type]
@@ -152,6 +159,7 @@ class ProjectFile(Strict):
     members: dict[Name, MemberOverride] = {}
     groups: dict[Name, Annotated[list[Name], Field(min_length=1)]] = {}
     restraints: list[Restraint] = []
+    rules: list[Rule] = []
     load_cases: dict[Name, Annotated[LoadCase, BeforeValidator(_short_load_case)]] = {}
     combinations: Combinations = Combinations()
 
@@ -330,6 +338,7 @@ def known_keys() -> dict[str, list[str]]:
         "design": list(design_model().model_fields),
         "members.<name>": list(MemberOverride.model_fields),
         "restraints": list(Restraint.model_fields),
+        "rules": list(Rule.model_fields),
         "load_cases.<name>": list(LoadCase.model_fields),
         "combinations": list(Combinations.model_fields),
         "combinations.extra.<name>": list(ExtraCombination.model_fields),
