@@ -28,6 +28,7 @@ from .model.frame import Frame
 from .model.member_rows import build_member_rows
 from .model.members import Members, design_members
 from .model.results import Results
+from .model.positions import restraints_along as restraints_along_members
 from .model.rules import resolved_overrides
 from .settings import DesignSettings
 from . import stability
@@ -45,12 +46,15 @@ CHECK_FAMILIES: list[CheckFamily] = [
 def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
                 overrides: pd.DataFrame | None = None, groups: dict[str, list[str]] | None = None,
                 restraint_nodes: pd.DataFrame | None = None, rules: pd.DataFrame | None = None,
+                restraints_along: pd.DataFrame | None = None,
                 families: list[CheckFamily] | None = None) -> CheckOutcome:
     """Check every design member of `frame` for every ULS combination of `results`.
 
     `overrides` are per member ([members.<name>]); `rules` per selection ([[rules]]), resolved
-    against the design members here (`postproc.model.rules`: the member's own table wins)."""
+    against the design members here (`postproc.model.rules`: the member's own table wins);
+    `restraints_along` are points along the members of a selection (`postproc.model.positions`)."""
     members = design_members(frame, groups=groups or None, restraint_nodes=restraint_nodes)
+    members = restraints_along_members(members, frame, restraints_along)
     overrides = resolved_overrides(members, frame, rules, overrides)
     combos = results.combinations
     uls = combos.index[(combos["kind"] == "ULS") & (combos["status"] == "ok")]

@@ -145,6 +145,7 @@ def _sections(filter_text: str | None) -> int:
 def _members(path: Path, select: str | None) -> int:
     """Print the design members (those `select` picks) and which rules pick each."""
     from .model.members import design_members
+    from .model.positions import restraints_along
     from .model.selection import selected, selection_listing
     from .project import read_project
     from .run import load_model
@@ -153,6 +154,7 @@ def _members(path: Path, select: str | None) -> int:
     frame, _ = load_model(project)
     members = design_members(frame, groups=project.groups or None,
                              restraint_nodes=project.restraint_nodes)
+    members = restraints_along(members, frame, project.restraints_along)
     table = selection_listing(members, frame, select)
     if len(project.rules):
         picked = {m: [] for m in members.members.index.astype(str)}

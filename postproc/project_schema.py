@@ -15,10 +15,12 @@ from functools import lru_cache
 from typing import Annotated, Any, Literal, get_type_hints
 
 import pydantic
-from pydantic import BaseModel, BeforeValidator, ConfigDict, Field, ValidationError
+from pydantic import (BaseModel, BeforeValidator, ConfigDict, Field, ValidationError,
+                      model_validator)
 
 from .errors import InputError
 from .model.members import RESTRAINT_DIRECTIONS
+from .model.positions import ALONG_DIRECTIONS, POSITION_KEYS
 from .settings import DesignSettings
 
 __all__ = ["CONFIG", "Combinations", "ExtraCombination", "Factor", "Imperfection", "Length",
@@ -146,8 +148,39 @@ class Rule(MemberOverride):
 
 
 class Restraint(Strict):
-    node: Name
-    direction: Literal[RESTRAINT_DIRECTIONS]  # type: ignore[valid-type]
+    """[[restraints]]: a node, or points along the members a selection picks
+    (postproc/model/positions.py): exactly one of node and select; with select, exactly one of
+    at, at_fraction, every, at_level."""
+
+    node: Name | None = None
+    select: Annotated[str, Field(min_length=1)] | None = None
+    direction: Literal[RESTRAINT_DIRECTIONS + ALONG_DIRECTIONS]  # type: ignore[valid-type]
+    at: Annotated[list[Annotated[float, Field(ge=0.0, le=1000.0)]], Field(min_length=1)] | None = None
+    at_fraction: Annotated[list[Annotated[float, Field(ge=0.0, le=1.0)]],
+                           Field(min_length=1)] | None = None
+    every: Length | None = None
+    at_level: Annotated[list[Annotated[float, Field(ge=-1000.0, le=1000.0)]],
+                        Field(min_length=1)] | None = None
+
+    @model_validator(mode="after")
+    def _one_way(self) -> "Restraint":
+        given = [k for k in POSITION_KEYS if getattr(self, k) is not None]
+        if (self.node is None) == (self.select is None):
+            raise ValueError("give either node (a node of the frame) or select (points along "
+                             "the members it picks), not both or neither")
+        if self.node is not None:
+            if given:
+                raise ValueError(f"{given[0]} needs select, not node")
+            if self.direction not in RESTRAINT_DIRECTIONS:
+                raise ValueError(f"direction '{self.direction}' at a node must be one of "
+                                 f"{', '.join(RESTRAINT_DIRECTIONS)}")
+        else:
+            if len(given) != 1:
+                raise ValueError(f"with select give exactly one of {', '.join(POSITION_KEYS)}")
+            if self.direction not in ALONG_DIRECTIONS:
+                raise ValueError(f"direction '{self.direction}' along a member must be one of "
+                                 f"{', '.join(ALONG_DIRECTIONS)}")
+        return self
 
 
 class ProjectFile(Strict):

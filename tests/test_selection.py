@@ -172,3 +172,29 @@ def test_rules_are_read_and_a_bad_selection_is_refused_at_reading(tmp_path) -> N
     with pytest.raises(InputError) as info:
         read_project(path)
     assert "unknown key 'L_cz'" in str(info.value)
+
+
+@pytest.mark.parametrize("body, words", [
+    ('node = "N1"\nselect = "all"\ndirection = "y"\n', "either node"),
+    ('select = "all"\ndirection = "y"\n', "exactly one of"),
+    ('select = "all"\ndirection = "y"\nat = [1.0]\nevery = 1.5\n', "exactly one of"),
+    ('node = "N1"\ndirection = "flange"\n', "at a node"),
+    ('node = "N1"\ndirection = "y"\nevery = 1.5\n', "needs select"),
+    ('select = "kind=pillar"\ndirection = "y"\nevery = 1.5\n', "kind 'pillar'"),
+])
+def test_restraint_entries_are_one_way_or_the_other(tmp_path, body, words) -> None:
+    path = tmp_path / "project.toml"
+    path.write_text('[model]\nsource = "tables"\n\n[[restraints]]\n' + body)
+    with pytest.raises(InputError) as info:
+        read_project(path)
+    assert words in str(info.value) and str(info.value.field).startswith("restraints[1]")
+
+
+def test_restraints_along_are_read_beside_those_at_nodes(tmp_path) -> None:
+    path = tmp_path / "project.toml"
+    path.write_text('[model]\nsource = "tables"\n\n[[restraints]]\nnode = "N1"\ndirection = "y"\n'
+                    '\n[[restraints]]\nselect = "kind=rafter"\ndirection = "flange"\nevery = 1.5\n')
+    project = read_project(path)
+    assert list(project.restraint_nodes["entry"]) == ["restraints[1]"]
+    along = project.restraints_along
+    assert list(along["entry"]) == ["restraints[2]"] and along.loc[0, "every"] == 1.5
