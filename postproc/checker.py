@@ -24,12 +24,14 @@ from .model.rows import FAIL, NOT_EVALUATED, PASS, CheckBlock, MemberRows
 from .checks.cross_section import cross_section_checks
 from .checks.interaction import interaction_checks
 from .checks.member_buckling import flexural_buckling_checks, lateral_torsional_checks
+from .checks.tension_only import left_out_for_tension_only, tension_only_checks
 from .model.frame import Frame
 from .model.member_rows import build_member_rows
 from .model.members import Members, design_members
 from .model.results import Results
 from .model.positions import restraints_along as restraints_along_members
 from .model.rules import resolved_overrides
+from .stability.tension_only import without_compression_of
 from .settings import DesignSettings
 from . import stability
 
@@ -40,6 +42,7 @@ CHECK_FAMILIES: list[CheckFamily] = [
     flexural_buckling_checks,
     lateral_torsional_checks,
     interaction_checks,
+    tension_only_checks,
 ]
 
 
@@ -69,7 +72,11 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
                             lengths=pd.DataFrame(columns=["member", "combination"]),
                             settings=settings, combinations=combos, frame=frame)
 
-    alpha = stability.critical_load_factors(frame, uls_results, members)
+    tension_only = _tension_only_members(overrides, members)
+    # a tension-only member's compression adds no geometric stiffness (postproc/stability/
+    # tension_only.py); every other stage reads the forces as analysed
+    alpha = stability.critical_load_factors(
+        frame, without_compression_of(uls_results, members, tension_only), members)
     paths = stability.analysis_path(alpha, uls_results.combinations)
     amplified = paths.index[paths["path"] == "amplified"].astype(str).tolist()
     sway = stability.sway_part(frame, members, uls_results, amplified) if amplified else None
@@ -84,6 +91,7 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
 
     rows = build_member_rows(frame, checked.forces, members, settings, lengths)
     rows, blocks = run_checks(rows, families or CHECK_FAMILIES, overrides=overrides)
+    blocks = _leave_out_for_tension_only(blocks, rows.member, tension_only)
     table = results_table(rows, blocks, settings.utilisation_limit)
     # members without forces first, so that a combination's frame path applies to them too
     covered = np.zeros(len(rows.member), dtype=bool)
@@ -229,6 +237,25 @@ def _explain_missing_lengths(table: pd.DataFrame, lengths: pd.DataFrame) -> pd.D
         table.loc[hit, "reason"] = (reason[hit].to_numpy() + extra).astype(object)
         reason = table["reason"].astype(str)
     return table
+
+
+def _tension_only_members(overrides: pd.DataFrame | None, members: Members) -> list[str]:
+    """The design members declared tension-only (project file), in members order."""
+    if overrides is None or overrides.empty or "tension_only" not in overrides:
+        return []
+    flagged = overrides.loc[overrides["tension_only"].fillna(False).astype(bool), "member"]
+    return [m for m in members.members.index.astype(str) if m in set(flagged.astype(str))]
+
+
+def _leave_out_for_tension_only(blocks: list[CheckBlock], member: np.ndarray,
+                                tension_only: list[str]) -> list[CheckBlock]:
+    """Compression (6.2.4) and member-buckling (6.3) checks do not apply to tension-only
+    members; their slenderness check (`checks.tension_only`) takes their place."""
+    if not tension_only:
+        return blocks
+    flagged = np.isin(member.astype(str), tension_only)
+    return [replace(b, applies=np.asarray(b.applies, bool) & ~flagged)
+            if left_out_for_tension_only(b.clause) else b for b in blocks]
 
 
 def _length_overrides(overrides: pd.DataFrame | None) -> pd.DataFrame | None:

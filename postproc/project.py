@@ -23,8 +23,8 @@ from .settings import DesignSettings
 __all__ = ["OVERRIDE_FLAGS", "OVERRIDE_LENGTHS", "OVERRIDE_NUMBERS", "Project", "read_project"]
 
 OVERRIDE_LENGTHS = ("L_cr_y", "L_cr_z", "L_cr_T", "L_LT")
-OVERRIDE_FLAGS = ("ltb_restrained", "torsion_susceptible")
-OVERRIDE_NUMBERS = ("z_g", "A_net_cm2", "k_LT", "k_w")
+OVERRIDE_FLAGS = ("ltb_restrained", "torsion_susceptible", "tension_only")
+OVERRIDE_NUMBERS = ("z_g", "A_net_cm2", "k_LT", "k_w", "slenderness_limit")
 # the schema's MemberOverride fields, split by how they are stored (a test keeps them in step)
 
 

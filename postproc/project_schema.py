@@ -138,6 +138,8 @@ class MemberOverride(Strict):
     k_LT: Annotated[float, Field(gt=0.0, le=2.0)] | None = None
     k_w: Annotated[float, Field(gt=0.0, le=2.0)] | None = None
     A_net_cm2: Annotated[float, Field(gt=0.0, le=1e5)] | None = None
+    tension_only: bool | None = None
+    slenderness_limit: Annotated[float, Field(gt=0.0, le=1000.0)] | None = None  # L / i
 
 
 class Rule(MemberOverride):

@@ -20,7 +20,8 @@ from .selection import selected
 __all__ = ["OVERRIDE_VALUE_KEYS", "resolved_overrides"]
 
 OVERRIDE_VALUE_KEYS = ("L_cr_y", "L_cr_z", "L_cr_T", "L_LT", "z_g", "A_net_cm2", "k_LT", "k_w",
-                       "ltb_restrained", "torsion_susceptible")
+                       "slenderness_limit", "ltb_restrained", "torsion_susceptible",
+                       "tension_only")
 
 
 def _given(value) -> bool:
@@ -77,11 +78,12 @@ def resolved_overrides(members: Members, frame: Frame, rules: pd.DataFrame | Non
                         table.at[m, f"set_by_{k}"] = f"{row['entry']}"
             table.at[m, "file"], table.at[m, "entry"] = row["file"], row["entry"]
         table = table.reset_index()
-    numbers = ("L_cr_y", "L_cr_z", "L_cr_T", "L_LT", "z_g", "A_net_cm2", "k_LT", "k_w")
+    numbers = ("L_cr_y", "L_cr_z", "L_cr_T", "L_LT", "z_g", "A_net_cm2", "k_LT", "k_w",
+               "slenderness_limit")
     for k in numbers:
         table[k] = pd.to_numeric(table[k], errors="coerce").astype(float) if k in table \
             else np.nan
-    for k in ("ltb_restrained", "torsion_susceptible"):
+    for k in ("ltb_restrained", "torsion_susceptible", "tension_only"):
         if k not in table:
             table[k] = None
     return table.reset_index(drop=True)
