@@ -40,6 +40,11 @@ POSITION_KEYS = ("at", "at_fraction", "every", "at_level")
 POSITION_TOL_M = 1e-6   # a point this close to an end is the end itself
 
 
+def _given(value) -> bool:
+    """A position key that was written (a table keeps the others as None or NaN)."""
+    return value is not None and not (isinstance(value, float) and np.isnan(value))
+
+
 def _points(key: str, value, length: float, z0: float, z1: float) -> np.ndarray:
     """Positions x_m along one member of length `length` whose ends are at heights z0, z1."""
     if key == "at":
@@ -81,7 +86,7 @@ def restraints_along(members: Members, frame: Frame, items: pd.DataFrame | None)
         if not len(hit):
             raise InputError(f"selection '{item['select']}' picks no design member", file=file,
                              field=f"{where}.select")
-        key = next(k for k in POSITION_KEYS if item.get(k) is not None)
+        key = next(k for k in POSITION_KEYS if _given(item.get(k)))
         direction = item["direction"]
         directions = (("y", "z", "torsion") if direction == "all" else
                       ("y",) if direction == "flange" else (direction,))
