@@ -143,7 +143,10 @@ def _sections(filter_text: str | None) -> int:
 
 
 def _members(path: Path, select: str | None) -> int:
-    """Print the design members (those `select` picks) and which rules pick each."""
+    """Print the design members (those `select` picks) and which [[rules]] and
+    [[restraints]] entries pick each."""
+    import pandas as pd
+
     from .model.members import design_members
     from .model.positions import restraints_along
     from .model.selection import selected, selection_listing
@@ -156,14 +159,15 @@ def _members(path: Path, select: str | None) -> int:
                              restraint_nodes=project.restraint_nodes)
     members = restraints_along(members, frame, project.restraints_along)
     table = selection_listing(members, frame, select)
-    if len(project.rules):
-        picked = {m: [] for m in members.members.index.astype(str)}
-        for rule in project.rules.to_dict("records"):
+    entries = [t for t in (project.rules, project.restraints_along) if len(t)]
+    if entries:
+        picked: dict[str, list[str]] = {m: [] for m in members.members.index.astype(str)}
+        for rule in pd.concat(entries, ignore_index=True).to_dict("records"):
             hit = selected(members, frame, rule["select"], field=f"{rule['entry']}.select",
                            file=rule["file"])
             for m in members.members.index.astype(str)[hit]:
                 picked[m].append(rule["entry"])
-        table["rules"] = table["member"].map(lambda m: " ".join(picked[m]))
+        table["picked_by"] = table["member"].map(lambda m: " ".join(picked[m]))
     if table.empty:
         print(f"the selection {select!r} picks no design member", file=sys.stderr)
         return EXIT_INPUT
