@@ -15,6 +15,7 @@ docs/opensees.md.
 
 from __future__ import annotations
 
+import re
 from dataclasses import dataclass, replace
 from pathlib import Path
 
@@ -35,7 +36,7 @@ from .opensees_run import Job, clear_patterns, forces_along, run_jobs, station_g
 MODEL_KEYS = set(OpenSeesModel.model_fields)  # the project schema's [model] keys
 ANALYSES = ("linear", "p-delta")
 REACTION_COLUMNS = ["FX_N", "FY_N", "FZ_N", "MX_Nm", "MY_Nm", "MZ_Nm"]
-__all__ = ["load", "load_table", "export_tables", "load_cases", "build_frame"]
+__all__ = ["load", "load_table", "export_tables", "load_cases", "build_frame", "element_assignment"]
 STIFFNESS_WARNING = 0.10  # relative difference between model and catalogue I worth a warning
 
 
@@ -173,6 +174,9 @@ def load_cases(table: dict, patterns: list[str], *, file: str) -> pd.DataFrame:
     return loads.load_case_table(table, file=file, patterns=patterns)
 
 
+_TAG_RANGE = re.compile(r"^(\d+)\s*-\s*(\d+)$")
+
+
 def build_frame(captured: Captured, model: dict, project: dict, watched, *, major_axis: str,
                 file: str, script: Path) -> Frame:
     """The Frame: designations from [model.sections] / [model.element_sections], grades, axes."""
@@ -180,14 +184,11 @@ def build_frame(captured: Captured, model: dict, project: dict, watched, *, majo
     from postproc.sections import build_sections
 
     by_tag = {str(k): str(v) for k, v in model.get("sections", {}).items()}
-    by_element = {str(k): str(v) for k, v in model.get("element_sections", {}).items()}
     grades = {str(k): str(v) for k, v in model.get("grades", {}).items()}
     default_grade = project.get("design", {}).get("default_grade", "S355")
     els = captured.elements
-    for key in by_element:
-        if key not in els.index:
-            raise InputError(f"element {key} is not in the model", file=file,
-                             field="model.element_sections")
+    by_element = element_assignment(model.get("element_sections", {}),
+                                    els.index.astype(str), file=file)
     designation, grade = [], []
     for element, tag in zip(els.index, els["section_tag"]):
         tag_key = "" if np.isnan(tag) else str(int(tag))
@@ -225,6 +226,53 @@ def build_frame(captured: Captured, model: dict, project: dict, watched, *, majo
                   ties=captured.ties.copy())
     check_stiffness(captured, frame, major_axis, file=file)
     return frame
+
+
+def _element_keys(key: str, elements: pd.Index, *, file: str) -> list[str]:
+    """The element tags a key of [model.element_sections] names: a tag ("101"), a range of
+    tags ("101-140": every element of the model with a whole-number tag in it, ends included),
+    or several of these separated by commas ("101-110, 115")."""
+    numbers = pd.to_numeric(pd.Series(elements, dtype=object), errors="coerce").to_numpy(float)
+    out: list[str] = []
+    for part in (p.strip() for p in key.split(",")):
+        match = _TAG_RANGE.match(part)
+        if match:
+            lo, hi = int(match.group(1)), int(match.group(2))
+            if lo > hi:
+                raise InputError(f"element range '{part}' runs backwards", file=file,
+                                 field=f"model.element_sections.{key}")
+            picked = list(elements[(numbers >= lo) & (numbers <= hi)])
+            if not picked:
+                raise InputError(f"no element of the model has a tag in {part}", file=file,
+                                 field=f"model.element_sections.{key}")
+            out += picked
+        elif part in elements:
+            out.append(part)
+        else:
+            raise InputError(f"element {part} is not in the model", file=file,
+                             field=f"model.element_sections.{key}")
+    return out
+
+
+def element_assignment(table: dict, elements: pd.Index, *, file: str) -> dict[str, str]:
+    """[model.element_sections] as element -> designation, its keys expanded (`_element_keys`).
+    A single tag wins over a range or list that also names the element; two ranges or lists
+    naming one element with different designations are refused."""
+    single: dict[str, str] = {}
+    grouped: dict[str, tuple[str, str]] = {}
+    for key, value in table.items():
+        key, value = str(key), str(value)
+        names = _element_keys(key, elements, file=file)
+        if key.strip() in elements:
+            single[key.strip()] = value
+            continue
+        for e in names:
+            if e in grouped and grouped[e][1] != value:
+                raise InputError(f"element {e} is in '{grouped[e][0]}' ({grouped[e][1]}) and "
+                                 f"'{key}' ({value})", file=file,
+                                 field=f"model.element_sections.{key}")
+            grouped[e] = (key, value)
+    return {**{e: v for e, (_, v) in grouped.items()}, **single}
 
 
 def _releases(watched, elements: pd.Index, major_axis: str) -> tuple[list[str], list[str]]:

@@ -22,14 +22,18 @@ from . import stability
 from .checks.cross_section import cross_section_checks
 from .checks.interaction import interaction_checks
 from .checks.member_buckling import flexural_buckling_checks, lateral_torsional_checks
+from .checks.tension_only import left_out_for_tension_only, tension_only_checks
 from .engine import CheckFamily, run_checks
 from .model.frame import Frame
 from .model.member_rows import build_member_rows
 from .model.members import Members, design_members
 from .model.outcome import KEY_COLUMNS, CheckOutcome
+from .model.positions import restraints_along as restraints_along_members
 from .model.results import Results
 from .model.rows import FAIL, NOT_EVALUATED, PASS, CheckBlock, MemberRows
+from .model.rules import resolved_overrides
 from .settings import DesignSettings
+from .stability.tension_only import without_compression_of
 
 __all__ = ["CHECK_FAMILIES", "check_frame", "results_table", "station_forces"]
 
@@ -38,15 +42,23 @@ CHECK_FAMILIES: list[CheckFamily] = [
     flexural_buckling_checks,
     lateral_torsional_checks,
     interaction_checks,
+    tension_only_checks,
 ]
 
 
 def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
                 overrides: pd.DataFrame | None = None, groups: dict[str, list[str]] | None = None,
-                restraint_nodes: pd.DataFrame | None = None,
+                restraint_nodes: pd.DataFrame | None = None, rules: pd.DataFrame | None = None,
+                restraints_along: pd.DataFrame | None = None,
                 families: list[CheckFamily] | None = None) -> CheckOutcome:
-    """Check every design member of `frame` for every ULS combination of `results`."""
+    """Check every design member of `frame` for every ULS combination of `results`.
+
+    `overrides` are per member ([members.<name>]); `rules` per selection ([[rules]]), resolved
+    against the design members here (`postproc.model.rules`: the member's own table wins);
+    `restraints_along` are points along the members of a selection (`postproc.model.positions`)."""
     members = design_members(frame, groups=groups or None, restraint_nodes=restraint_nodes)
+    members = restraints_along_members(members, frame, restraints_along)
+    overrides = resolved_overrides(members, frame, rules, overrides)
     combos = results.combinations
     uls = combos.index[(combos["kind"] == "ULS") & (combos["status"] == "ok")]
     forces = results.forces[results.forces["combination"].isin(uls)]
@@ -60,7 +72,11 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
                             lengths=pd.DataFrame(columns=["member", "combination"]),
                             settings=settings, combinations=combos, frame=frame)
 
-    alpha = stability.critical_load_factors(frame, uls_results, members)
+    tension_only = _tension_only_members(overrides, members)
+    # a tension-only member's compression adds no geometric stiffness (postproc/stability/
+    # tension_only.py); every other stage reads the forces as analysed
+    alpha = stability.critical_load_factors(
+        frame, without_compression_of(uls_results, members, tension_only), members)
     paths = stability.analysis_path(alpha, uls_results.combinations)
     amplified = paths.index[paths["path"] == "amplified"].astype(str).tolist()
     sway = stability.sway_part(frame, members, uls_results, amplified) if amplified else None
@@ -75,6 +91,7 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
 
     rows = build_member_rows(frame, checked.forces, members, settings, lengths)
     rows, blocks = run_checks(rows, families or CHECK_FAMILIES, overrides=overrides)
+    blocks = _leave_out_for_tension_only(blocks, rows.member, tension_only)
     table = results_table(rows, blocks, settings.utilisation_limit)
     # members without forces first, so that a combination's frame path applies to them too
     covered = np.zeros(len(rows.member), dtype=bool)
@@ -222,12 +239,34 @@ def _explain_missing_lengths(table: pd.DataFrame, lengths: pd.DataFrame) -> pd.D
     return table
 
 
+def _tension_only_members(overrides: pd.DataFrame | None, members: Members) -> list[str]:
+    """The design members declared tension-only (project file), in members order."""
+    if overrides is None or overrides.empty or "tension_only" not in overrides:
+        return []
+    flagged = overrides.loc[overrides["tension_only"].fillna(False).astype(bool), "member"]
+    return [m for m in members.members.index.astype(str) if m in set(flagged.astype(str))]
+
+
+def _leave_out_for_tension_only(blocks: list[CheckBlock], member: np.ndarray,
+                                tension_only: list[str]) -> list[CheckBlock]:
+    """Compression (6.2.4) and member-buckling (6.3) checks do not apply to tension-only
+    members; their slenderness check (`checks.tension_only`) takes their place."""
+    if not tension_only:
+        return blocks
+    flagged = np.isin(member.astype(str), tension_only)
+    return [replace(b, applies=np.asarray(b.applies, bool) & ~flagged)
+            if left_out_for_tension_only(b.clause) else b for b in blocks]
+
+
 def _length_overrides(overrides: pd.DataFrame | None) -> pd.DataFrame | None:
     if overrides is None or overrides.empty:
         return None
     columns = {"L_cr_y": "L_cr_y_m", "L_cr_z": "L_cr_z_m", "L_cr_T": "L_cr_T_m", "L_LT": "L_LT_m"}
     where = [c for c in ("file", "entry") if c in overrides.columns]  # for located messages
-    return overrides[["member", *columns, *where]].rename(columns=columns)
+    # which entry of the project file set each length (rules), shown as its origin
+    set_by = {f"set_by_{k}": f"set_by_{v}" for k, v in columns.items()
+              if f"set_by_{k}" in overrides.columns}
+    return overrides[["member", *columns, *where, *set_by]].rename(columns={**columns, **set_by})
 
 
 def results_table(rows: MemberRows, blocks: list[CheckBlock], limit: float = 1.0) -> pd.DataFrame:

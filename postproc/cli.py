@@ -69,6 +69,13 @@ def _parser() -> argparse.ArgumentParser:
     sections = commands.add_parser("sections", help="list catalogue sections and their properties")
     sections.add_argument("filter", nargs="?", default=None,
                           help="part of a designation or family, e.g. IPE or 'HEB 2'")
+    listing = commands.add_parser(
+        "members", help="list the design members the graph layer finds (names, kinds, "
+                        "sections, lengths), before any check")
+    listing.add_argument("project", type=Path, help="project file (TOML)")
+    listing.add_argument("--select", default=None,
+                         help="list only the members this selection picks, e.g. "
+                              "'kind=column,section=HEB*' (docs/project-file.md)")
     return parser
 
 
@@ -79,6 +86,8 @@ def main(argv: list[str] | None = None) -> int:
     try:
         if args.command == "sections":
             return _sections(args.filter)
+        if args.command == "members":
+            return _members(args.project, args.select)
         options = ReportOptions(
             csv_row_limit=args.csv_row_limit, full_csv=args.full_csv,
             summary_only=args.summary_only, per_combination=args.per_combination,
@@ -130,6 +139,40 @@ def _sections(filter_text: str | None) -> int:
         print(f"no catalogue section matches {filter_text!r}", file=sys.stderr)
         return EXIT_INPUT
     print(table.to_string(index=False, float_format=lambda v: f"{v:.4g}"))
+    return EXIT_PASS
+
+
+def _members(path: Path, select: str | None) -> int:
+    """Print the design members (those `select` picks) and which [[rules]] and
+    [[restraints]] entries pick each."""
+    import pandas as pd
+
+    from .model.members import design_members
+    from .model.positions import restraints_along
+    from .model.selection import selected, selection_listing
+    from .project import read_project
+    from .run import load_model
+
+    project = read_project(path)
+    frame, _ = load_model(project)
+    members = design_members(frame, groups=project.groups or None,
+                             restraint_nodes=project.restraint_nodes)
+    members = restraints_along(members, frame, project.restraints_along)
+    table = selection_listing(members, frame, select)
+    entries = [t for t in (project.rules, project.restraints_along) if len(t)]
+    if entries:
+        picked: dict[str, list[str]] = {m: [] for m in members.members.index.astype(str)}
+        for rule in pd.concat(entries, ignore_index=True).to_dict("records"):
+            hit = selected(members, frame, rule["select"], field=f"{rule['entry']}.select",
+                           file=rule["file"])
+            for m in members.members.index.astype(str)[hit]:
+                picked[m].append(rule["entry"])
+        table["picked_by"] = table["member"].map(lambda m: " ".join(picked[m]))
+    if table.empty:
+        print(f"the selection {select!r} picks no design member", file=sys.stderr)
+        return EXIT_INPUT
+    print(table.to_string(index=False, float_format=lambda v: f"{v:.3f}"))
+    print(f"{len(table)} of {len(members.members)} design members")
     return EXIT_PASS
 
 

@@ -15,15 +15,16 @@ from functools import lru_cache
 from typing import Annotated, Any, Literal, get_type_hints
 
 import pydantic
-from pydantic import BaseModel, BeforeValidator, ConfigDict, Field, ValidationError
+from pydantic import BaseModel, BeforeValidator, ConfigDict, Field, ValidationError, model_validator
 
 from .errors import InputError
 from .model.members import RESTRAINT_DIRECTIONS
+from .model.positions import ALONG_DIRECTIONS, POSITION_KEYS
 from .settings import DesignSettings
 
 __all__ = ["CONFIG", "Combinations", "ExtraCombination", "Factor", "Imperfection", "Length",
            "LoadCase", "MemberOverride", "Name", "OVERRIDE_KEYS", "OpenSeesModel", "P_DELTA_ONLY",
-           "ProjectFile", "ROUTES", "ROUTE_ONLY_TABLES", "Restraint", "SCRIPT_TIME_LIMIT_S",
+           "ProjectFile", "ROUTES", "ROUTE_ONLY_TABLES", "Restraint", "Rule", "SCRIPT_TIME_LIMIT_S",
            "Strict", "TABLE_FILES", "TablesModel", "UNREAD_BY_METHOD", "Units", "design_model",
            "known_keys", "validate_design", "validate_project"]
 
@@ -136,11 +137,52 @@ class MemberOverride(Strict):
     k_LT: Annotated[float, Field(gt=0.0, le=2.0)] | None = None
     k_w: Annotated[float, Field(gt=0.0, le=2.0)] | None = None
     A_net_cm2: Annotated[float, Field(gt=0.0, le=1e5)] | None = None
+    tension_only: bool | None = None
+    slenderness_limit: Annotated[float, Field(gt=0.0, le=1000.0)] | None = None  # L / i
+
+
+class Rule(MemberOverride):
+    """[[rules]]: the override keys for every member a selection picks
+    (postproc/model/selection.py, precedence in postproc/model/rules.py)."""
+
+    select: Annotated[str, Field(min_length=1)]
 
 
 class Restraint(Strict):
-    node: Name
-    direction: Literal[RESTRAINT_DIRECTIONS]  # type: ignore[valid-type]
+    """[[restraints]]: a node, or points along the members a selection picks
+    (postproc/model/positions.py): exactly one of node and select; with select, exactly one of
+    at, at_fraction, every, at_level."""
+
+    node: Name | None = None
+    select: Annotated[str, Field(min_length=1)] | None = None
+    direction: Literal[RESTRAINT_DIRECTIONS + ALONG_DIRECTIONS]  # type: ignore[valid-type]
+    at: Annotated[list[Annotated[float, Field(ge=0.0, le=1000.0)]],
+                  Field(min_length=1)] | None = None
+    at_fraction: Annotated[list[Annotated[float, Field(ge=0.0, le=1.0)]],
+                           Field(min_length=1)] | None = None
+    every: Length | None = None
+    at_level: Annotated[list[Annotated[float, Field(ge=-1000.0, le=1000.0)]],
+                        Field(min_length=1)] | None = None
+
+    @model_validator(mode="after")
+    def _one_way(self) -> Restraint:
+        given = [k for k in POSITION_KEYS if getattr(self, k) is not None]
+        if (self.node is None) == (self.select is None):
+            raise ValueError("give either node (a node of the frame) or select (points along "
+                             "the members it picks), not both or neither")
+        if self.node is not None:
+            if given:
+                raise ValueError(f"{given[0]} needs select, not node")
+            if self.direction not in RESTRAINT_DIRECTIONS:
+                raise ValueError(f"direction '{self.direction}' at a node must be one of "
+                                 f"{', '.join(RESTRAINT_DIRECTIONS)}")
+        else:
+            if len(given) != 1:
+                raise ValueError(f"with select give exactly one of {', '.join(POSITION_KEYS)}")
+            if self.direction not in ALONG_DIRECTIONS:
+                raise ValueError(f"direction '{self.direction}' along a member must be one of "
+                                 f"{', '.join(ALONG_DIRECTIONS)}")
+        return self
 
 
 class ProjectFile(Strict):
@@ -152,6 +194,7 @@ class ProjectFile(Strict):
     members: dict[Name, MemberOverride] = {}
     groups: dict[Name, Annotated[list[Name], Field(min_length=1)]] = {}
     restraints: list[Restraint] = []
+    rules: list[Rule] = []
     load_cases: dict[Name, Annotated[LoadCase, BeforeValidator(_short_load_case)]] = {}
     combinations: Combinations = Combinations()
 
@@ -330,6 +373,7 @@ def known_keys() -> dict[str, list[str]]:
         "design": list(design_model().model_fields),
         "members.<name>": list(MemberOverride.model_fields),
         "restraints": list(Restraint.model_fields),
+        "rules": list(Rule.model_fields),
         "load_cases.<name>": list(LoadCase.model_fields),
         "combinations": list(Combinations.model_fields),
         "combinations.extra.<name>": list(ExtraCombination.model_fields),

@@ -59,7 +59,9 @@ def run_project(path: str | Path, *, stages: Stages = QUIET) -> RunOutput:
         warnings.simplefilter("always", RuntimeWarning)
         with stages.stage("stability, buckling lengths and checks"):
             outcome = check_frame(frame, results, project.settings, overrides=project.overrides,
-                                  groups=project.groups, restraint_nodes=project.restraint_nodes)
+                                  groups=project.groups, restraint_nodes=project.restraint_nodes,
+                                  rules=project.rules,
+                                  restraints_along=project.restraints_along)
     numeric = [w for w in caught if issubclass(w.category, RuntimeWarning)]
     for w in caught:  # anything else is shown as usual
         if not issubclass(w.category, RuntimeWarning):

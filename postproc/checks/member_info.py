@@ -37,6 +37,10 @@ def with_member_info(rows: MemberRows, overrides: pd.DataFrame | None) -> Member
             if not np.isnan(values).all():
                 default = 0.0 if key == "z_g" else 1.0
                 info[key] = np.where(np.isnan(values), default, values)
+        if "tension_only" in aligned:  # postproc/checks/tension_only.py
+            info["tension_only"] = aligned["tension_only"].fillna(False).to_numpy(bool)
+            if "slenderness_limit" in aligned:
+                info["slenderness_limit"] = aligned["slenderness_limit"].to_numpy(float)
         a_net = aligned["A_net_cm2"].to_numpy(float) * 1e-4
         if not np.isnan(a_net).all():
             info["A_net"] = a_net

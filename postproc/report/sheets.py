@@ -48,6 +48,10 @@ VALUE_SOURCES: dict[str, dict[str, str]] = {
                                 "alpha": "6.2.9.1(6), eq. (6.41)", "beta": "6.2.9.1(6), eq. (6.41)",
                                 "rho": "6.2.8(3), eq. (6.29)"},
     "linear sum": {"sigma_x_Ed": "6.2.1(5), eq. (6.1)"},
+    "slenderness of a tension-only member": {
+        "L": "member length between its end nodes", "i_min": "smaller radius of gyration",
+        "slenderness": "L / i_min", "slenderness_limit": "project file (common practice)",
+        "N_c_Ed": "analysis: largest compression (none for a tension-only member)"},
     "flexural buckling": {"L_cr": "6.3.1.3, buckling length", "N_cr": "6.3.1.2(1), elastic",
                           "lambda_bar": "6.3.1.2(1), eq. (6.50)", "buckling_curve": "Table 6.2",
                           "alpha": "Table 6.1", "Phi": "6.3.1.2(1)",

@@ -469,7 +469,9 @@ def _apply_overrides(out: pd.DataFrame, overrides: pd.DataFrame, known: set[str]
                                  "keep the found value)", file=file, row=row,
                                  field=f"{prefix}{col}")
             out.loc[sel, col] = float(v)
-            out.loc[sel, origin[col]] = "override from the project"
+            by = str(getattr(r, f"set_by_{col}", "") or "")
+            out.loc[sel, origin[col]] = (f"override from the project: {by}" if by else
+                                         "override from the project")
             if col in ("L_cr_y_m", "L_cr_z_m"):
                 out.loc[sel, "sway_" + col[5]] = False
             if col == "L_LT_m":  # the LTB check then keeps equal parts of L_LT, and says so
