@@ -1,0 +1,99 @@
+"""End-to-end benchmark: the whole `framesweep run` on the synthetic result set, beside a CSV read.
+
+Builds the synthetic model of `postproc.benchmark` (R member-combinations, default 1,000,000, of
+single-element members with 5 stations each), writes it as the CSV tables of docs/tables.md
+(nodes, elements, sections, forces per combination in SI units, combinations.csv; no supports, so
+no frame stability analysis) and a project file, times pandas (pyarrow engine) reading the same
+forces.csv, then runs `framesweep run` on the project in a child process and times it from start
+to exit: reading and validating the tables, members, buckling lengths, member rows, every check,
+the results table, summaries and writing every output. Prints both times, their ratio (target
+at most 3), the run's peak memory (max resident set of the child; target under 4 GiB) and what
+the run printed (its stage times).
+
+Run: `python -m postproc.bench_run` (or `--rows 200000` for a quicker look; `--keep DIR` keeps the
+tables and the outputs in DIR).
+"""
+
+from __future__ import annotations
+
+import argparse
+import os
+import resource
+import subprocess
+import sys
+import tempfile
+import time
+from pathlib import Path
+
+import pandas as pd
+
+from .benchmark import STATIONS, synthetic_model
+
+FORCE_HEADER = {"x_m": "x [m]", "N_N": "N [N]", "Vy_N": "Vy [N]", "Vz_N": "Vz [N]",
+                "T_Nm": "T [Nm]", "My_Nm": "My [Nm]", "Mz_Nm": "Mz [Nm]"}
+
+
+def write_job(folder: Path, n_members: int, n_combinations: int) -> Path:
+    """The synthetic model as CSV tables and a project file in `folder`; returns the project."""
+    frame, forces, _ = synthetic_model(n_members, n_combinations)
+    tables = folder / "tables"
+    tables.mkdir(parents=True, exist_ok=True)
+    frame.nodes.rename(columns={"x_m": "x [m]", "y_m": "y [m]", "z_m": "z [m]"}).to_csv(
+        tables / "nodes.csv", index_label="node")
+    frame.elements[["node_i", "node_j", "section", "grade"]].to_csv(
+        tables / "elements.csv", index_label="element")
+    designations = sorted(set(frame.elements["section"]))
+    pd.DataFrame({"section": designations, "designation": designations}).to_csv(
+        tables / "sections.csv", index=False)
+    forces.rename(columns=FORCE_HEADER).to_csv(tables / "forces.csv", index=False)
+    pd.DataFrame({"combination": forces["combination"].cat.categories, "kind": "ULS",
+                  "analysis": "first-order", "imperfections": 1}).to_csv(
+        tables / "combinations.csv", index=False)
+    project = folder / "project.toml"
+    project.write_text('title = "Synthetic members (benchmark)"\n\n[model]\nsource = "tables"\n'
+                       'directory = "tables"\nndm = 3\n\n[design]\ndefault_grade = "S355"\n')
+    return project
+
+
+def csv_read_seconds(path: Path) -> float:
+    t0 = time.perf_counter()
+    table = pd.read_csv(path, engine="pyarrow")
+    seconds = time.perf_counter() - t0
+    del table
+    return seconds
+
+
+def main(argv: list[str] | None = None) -> None:
+    parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
+    parser.add_argument("--rows", type=int, default=1_000_000, help="member-combinations")
+    parser.add_argument("--combinations", type=int, default=100)
+    parser.add_argument("--keep", type=Path, default=None,
+                        help="folder for the tables and outputs (default: a temporary folder)")
+    args = parser.parse_args(argv)
+    n_members = max(args.rows // args.combinations, 1)
+    with tempfile.TemporaryDirectory() as tmp:
+        folder = args.keep or Path(tmp)
+        t0 = time.perf_counter()
+        project = write_job(folder, n_members, args.combinations)
+        print(f"{n_members * args.combinations:,} member-combinations x {STATIONS} stations, "
+              f"tables written in {time.perf_counter() - t0:.1f} s")
+        t_read = csv_read_seconds(folder / "tables" / "forces.csv")
+        print(f"read forces CSV (pandas, pyarrow engine): {t_read:.2f} s")
+        env = dict(os.environ, PYTHONPATH=os.pathsep.join(
+            [str(Path(__file__).resolve().parent.parent), os.environ.get("PYTHONPATH", "")]))
+        t0 = time.perf_counter()
+        done = subprocess.run([sys.executable, "-m", "postproc.cli", "run", str(project),
+                               "--out", str(folder / "out")], env=env, capture_output=True,
+                              text=True)
+        t_run = time.perf_counter() - t0
+        peak = resource.getrusage(resource.RUSAGE_CHILDREN).ru_maxrss / 1024 ** 2
+        print(done.stdout.rstrip())
+        if done.stderr.strip():
+            print(done.stderr.rstrip()[-4000:])
+        print(f"framesweep run, end to end: {t_run:.2f} s, exit code {done.returncode}, "
+              f"ratio to the CSV read {t_run / t_read:.2f} (target <= 3)")
+        print(f"peak memory of the run (max resident set): {peak:.2f} GiB (target < 4)")
+
+
+if __name__ == "__main__":
+    main()
