@@ -2,8 +2,8 @@
 
 Builds the synthetic model of `postproc.benchmark` (R member-combinations, default 1,000,000, of
 single-element members with 5 stations each), writes it as the CSV tables of docs/tables.md
-(nodes, elements, sections, forces per combination in SI units, combinations.csv; no supports, so
-no frame stability analysis) and a project file, times pandas (pyarrow engine) reading the same
+(nodes, elements, sections, forces per combination in SI units, combinations.csv; the members joined end to end, since a run reads one connected frame, and
+every joint held, so that the frame's buckling analysis has no free freedom and costs nothing) and a project file, times pandas (pyarrow engine) reading the same
 forces.csv, then runs `framesweep run` on the project in a child process and times it from start
 to exit: reading and validating the tables, members, buckling lengths, member rows, every check,
 the results table, summaries and writing every output. Prints both times, their ratio (target
@@ -25,6 +25,7 @@ import tempfile
 import time
 from pathlib import Path
 
+import numpy as np
 import pandas as pd
 
 from .benchmark import STATIONS, synthetic_model
@@ -38,10 +39,27 @@ def write_job(folder: Path, n_members: int, n_combinations: int) -> Path:
     frame, forces, _ = synthetic_model(n_members, n_combinations)
     tables = folder / "tables"
     tables.mkdir(parents=True, exist_ok=True)
-    frame.nodes.rename(columns={"x_m": "x [m]", "y_m": "y [m]", "z_m": "z [m]"}).to_csv(
-        tables / "nodes.csv", index_label="node")
-    frame.elements[["node_i", "node_j", "section", "grade"]].to_csv(
-        tables / "elements.csv", index_label="element")
+    # the tool reads one connected frame: the members are joined end to end in a zig-zag (each
+    # at +-60 degrees to X, so that no two meet in line and each stays its own design member),
+    # with their lengths and forces unchanged
+    elements = frame.elements
+    length = np.linalg.norm(frame.nodes.loc[elements["node_j"], ["x_m", "y_m", "z_m"]].to_numpy()
+                            - frame.nodes.loc[elements["node_i"], ["x_m", "y_m", "z_m"]].to_numpy(),
+                            axis=1)
+    angle = np.where(np.arange(len(elements)) % 2 == 0, np.pi / 3, -np.pi / 3)
+    steps = np.stack([length * np.cos(angle), length * np.sin(angle)], axis=1)
+    xy = np.vstack([np.zeros((1, 2)), np.cumsum(steps, axis=0)])
+    names = [f"n{k}" for k in range(len(xy))]
+    pd.DataFrame({"node": names, "x [m]": xy[:, 0], "y [m]": xy[:, 1], "z [m]": 0.0}).to_csv(
+        tables / "nodes.csv", index=False)
+    # every joint held in all six freedoms: no frame buckling analysis of a 10,000-member chain,
+    # every combination on the first-order path (the checks are what is timed)
+    pd.DataFrame({"node": names, **{d: 1 for d in ("ux", "uy", "uz", "rx", "ry", "rz")}}).to_csv(
+        tables / "supports.csv", index=False)
+    pd.DataFrame({"element": elements.index, "node_i": names[:-1], "node_j": names[1:],
+                  "section": elements["section"].to_numpy(),
+                  "grade": elements["grade"].to_numpy()}).to_csv(tables / "elements.csv",
+                                                                  index=False)
     designations = sorted(set(frame.elements["section"]))
     pd.DataFrame({"section": designations, "designation": designations}).to_csv(
         tables / "sections.csv", index=False)
