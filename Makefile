@@ -30,6 +30,7 @@ test: setup
 	$(PY) -m pytest -q
 
 bench: setup
+	$(PY) -m postproc.bench_run
 	$(PY) -m postproc.benchmark
 
 clean:

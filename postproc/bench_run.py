@@ -3,14 +3,13 @@
 Builds the synthetic model of `postproc.benchmark` (R member-combinations, default 1,000,000, of
 single-element members with 5 stations each), writes it as the CSV tables of docs/tables.md
 (nodes, elements, sections, forces per combination in SI units, combinations.csv; the members
-joined end to end, since a run reads one connected frame, and every joint held, so that the
-frame's buckling analysis has no free freedom and costs nothing) and a project file, times pandas
-(pyarrow engine) reading the same forces.csv, then runs `framesweep run` on the project in a
-child process and times it from start to exit: reading and validating the tables, members,
-buckling lengths, member rows, every check, the results table, summaries and writing every
-output. Prints both times, their ratio (target
-at most 3), the run's peak memory (max resident set of the child; target under 4 GiB) and what
-the run printed (its stage times).
+joined end to end, since a run reads one connected frame, and every joint held; the points inside
+each member stay free, see docs/speed.md) and a project file, times pandas (pyarrow engine)
+reading the same forces.csv, then runs `framesweep run` on the project in a child process and
+times it from start to exit: reading and validating the tables, members, buckling lengths, member
+rows, every check, the results table, summaries and writing every output. Prints both times,
+their ratio (target at most 3), the run's peak memory (max resident set of the child; target under
+4 GiB) and what the run printed (its stage times).
 
 Run: `python -m postproc.bench_run` (or `--rows 200000` for a quicker look; `--keep DIR` keeps the
 tables and the outputs in DIR).

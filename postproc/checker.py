@@ -61,7 +61,9 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
     overrides = resolved_overrides(members, frame, rules, overrides)
     combos = results.combinations
     uls = combos.index[(combos["kind"] == "ULS") & (combos["status"] == "ok")]
-    forces = results.forces[results.forces["combination"].isin(uls)]
+    usable = results.forces["combination"].isin(uls).to_numpy()
+    # the force table is taken as it is when every combination is usable (no copy)
+    forces = results.forces if usable.all() else results.forces[usable]
     uls_results = replace(results, forces=forces, combinations=combos.loc[uls])
     if forces.empty:  # nothing to check: every member is reported, none passes
         table = _mark_unusable_combinations(pd.DataFrame(columns=KEY_COLUMNS), pd.DataFrame(),

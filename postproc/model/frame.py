@@ -17,6 +17,7 @@ Geometry, in SI (m):
 
 from __future__ import annotations
 
+import functools
 from dataclasses import dataclass, field
 
 import numpy as np
@@ -65,6 +66,18 @@ class Frame:
     source: str = ""
     ties: pd.DataFrame = field(default_factory=lambda: empty_ties())
 
+    # Element geometry is computed on first use and kept: the tables of a Frame are not changed
+    # once it is built (a changed frame is a new Frame, e.g. `dataclasses.replace`).
+    @functools.cached_property
+    def element_vectors(self) -> tuple[np.ndarray, np.ndarray]:
+        """Element chords (n, 3) and lengths (n,) in m (see `element_vectors`)."""
+        return _element_vectors(self)
+
+    @functools.cached_property
+    def local_axes(self) -> np.ndarray:
+        """Element local axes (n, 3, 3) (see `local_axes`)."""
+        return _local_axes(self)
+
     @property
     def vertical_axis(self) -> int:
         """Index of the vertical global axis: 1 (Y) for 2D frames, 2 (Z) for 3D frames."""
@@ -81,21 +94,37 @@ def empty_ties() -> pd.DataFrame:
 
 
 def element_vectors(frame: Frame) -> tuple[np.ndarray, np.ndarray]:
-    """Element chord vectors (n, 3) in m and lengths (n,) in m, in the order of frame.elements."""
-    xyz = frame.nodes[NODE_COLUMNS]
-    ends_i = xyz.loc[frame.elements["node_i"]].to_numpy(float)
-    ends_j = xyz.loc[frame.elements["node_j"]].to_numpy(float)
-    chord = ends_j - ends_i
-    return chord, np.linalg.norm(chord, axis=1)
+    """Element chord vectors (n, 3) in m and lengths (n,) in m, in the order of frame.elements.
+
+    Computed once per frame (`Frame.element_vectors`); the arrays are read-only.
+    """
+    return frame.element_vectors
 
 
 def local_axes(frame: Frame) -> np.ndarray:
     """Unit vectors of each element's local x, y, z axes in global axes: shape (n, 3, 3).
 
     Row 0 is local x (node_i to node_j), row 1 local y (major axis), row 2 local z (minor axis,
-    along the web). Right-handed: y = z cross x.
+    along the web). Right-handed: y = z cross x. Computed once per frame; read-only.
     """
-    chord, length = element_vectors(frame)
+    return frame.local_axes
+
+
+def _element_vectors(frame: Frame) -> tuple[np.ndarray, np.ndarray]:
+    """Chords (n, 3) and lengths (n,) of the elements, read-only."""
+    xyz = frame.nodes[NODE_COLUMNS]
+    ends_i = xyz.loc[frame.elements["node_i"]].to_numpy(float)
+    ends_j = xyz.loc[frame.elements["node_j"]].to_numpy(float)
+    chord = ends_j - ends_i
+    length = np.linalg.norm(chord, axis=1)
+    for a in (chord, length):
+        a.setflags(write=False)        # shared by every caller: nobody may change them
+    return chord, length
+
+
+def _local_axes(frame: Frame) -> np.ndarray:
+    """Local axes (n, 3, 3) of the elements, read-only."""
+    chord, length = frame.element_vectors
     ex = chord / length[:, None]
     vz = frame.elements[["vz_x", "vz_y", "vz_z"]].to_numpy(float)
     default = np.isnan(vz).any(axis=1)
@@ -118,7 +147,9 @@ def local_axes(frame: Frame) -> np.ndarray:
                          field=f"element {bad}")
     ez /= norm[:, None]
     ey = np.cross(ez, ex)
-    return np.stack([ex, ey, ez], axis=1)
+    axes = np.stack([ex, ey, ez], axis=1)
+    axes.setflags(write=False)         # shared by every caller: nobody may change it
+    return axes
 
 
 def released(frame: Frame, end: str, action: str) -> np.ndarray:

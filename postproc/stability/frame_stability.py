@@ -25,7 +25,7 @@ from ..ec3.global_analysis import (
     sway_imperfection_factors,
 )
 from ..errors import InputError, TopologyError
-from ..model.frame import NODE_COLUMNS, Frame, local_axes
+from ..model.frame import NODE_COLUMNS, Frame, element_vectors, local_axes
 from ..model.members import Members, member_axes, moment_released
 from ..model.results import Results
 from .eigen import (
@@ -82,9 +82,7 @@ def axial_at(frame: Frame, results: Results, combos: list[str], parent: np.ndarr
     c_code = pd.Categorical(f["combination"].astype(str), categories=combos).codes
     keep = e_code >= 0
     f, e_code, c_code = f[keep], e_code[keep], c_code[keep]
-    length = np.linalg.norm(frame.nodes.loc[frame.elements["node_j"], NODE_COLUMNS].to_numpy(float)
-                            - frame.nodes.loc[frame.elements["node_i"], NODE_COLUMNS]
-                            .to_numpy(float), axis=1)
+    _, length = element_vectors(frame)
     order = np.lexsort((f["x_m"].to_numpy(float), e_code, c_code))
     f, e_code, c_code = f.iloc[order], e_code[order], c_code[order]
     rank = pd.Series(np.zeros(len(f))).groupby([c_code, e_code]).cumcount().to_numpy()
@@ -433,10 +431,11 @@ def _column_bottom_forces(frame: Frame, results: Results, members: Members, cols
         low_elem.append(e)
         low_x.append(0.0 if at_i else np.inf)
         sign.append(1.0 if axes[epos[e], 0, up] > 0 else -1.0)
-    f = results.forces.copy()
-    f["element"] = f["element"].astype(str)
-    f["combination"] = f["combination"].astype(str)
-    f = f[f["element"].isin(low_elem) & f["combination"].isin(combos)].sort_values("x_m")
+    f = results.forces
+    # pick the rows first, then give them string keys: no copy of the whole force table
+    f = f[f["element"].astype(str).isin(low_elem) & f["combination"].astype(str).isin(combos)]
+    f = f.assign(element=f["element"].astype(str), combination=f["combination"].astype(str))
+    f = f.sort_values("x_m")
     ends = {0.0: f.groupby(["combination", "element"]).head(1),
             np.inf: f.groupby(["combination", "element"]).tail(1)}
     ends = {key: t.set_index(["combination", "element"]) for key, t in ends.items()}
@@ -610,14 +609,17 @@ def amplify_sway_effects(results: Results, paths: pd.DataFrame, sway: SwayPart |
     amp = amplified["amplification"].rename(index=str)
     f = results.forces
     on_sway = amp[(part == "sway part").to_numpy()]
+    on_whole = amp[(part == "whole forces").to_numpy()]
+    if not len(on_sway) and not len(on_whole):
+        return results                  # nothing amplified: no copy of the force table
     if len(on_sway):
         f = amplified_forces(f, on_sway, sway)
     else:
         f = f.copy()
-    on_whole = amp[(part == "whole forces").to_numpy()]
-    factor = f["combination"].astype(str).map(on_whole).fillna(1.0).to_numpy(float)
-    for col in ("Vy_N", "Vz_N", "My_Nm", "Mz_Nm"):
-        f[col] = f[col].to_numpy(float) * factor
+    if len(on_whole):
+        factor = f["combination"].astype(str).map(on_whole).fillna(1.0).to_numpy(float)
+        for col in ("Vy_N", "Vz_N", "My_Nm", "Mz_Nm"):
+            f[col] = f[col].to_numpy(float) * factor
     return dataclasses.replace(results, forces=f)
 
 
