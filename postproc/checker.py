@@ -31,7 +31,7 @@ from .model.outcome import KEY_COLUMNS, CheckOutcome
 from .model.positions import restraints_along as restraints_along_members
 from .model.results import Results
 from .model.rows import FAIL, NOT_EVALUATED, PASS, CheckBlock, MemberRows
-from .model.rules import resolved_overrides
+from .model.rules import member_settings, resolved_overrides
 from .settings import DesignSettings
 from .stability.tension_only import without_compression_of
 
@@ -72,7 +72,8 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
                             stability=_with_analysis_status(
                                 pd.DataFrame(index=pd.Index([], name="combination")), combos),
                             lengths=pd.DataFrame(columns=["member", "combination"]),
-                            settings=settings, combinations=combos, frame=frame)
+                            settings=settings, combinations=combos, frame=frame,
+                            member_settings=member_settings(overrides))
 
     tension_only = _tension_only_members(overrides, members)
     # a tension-only member's compression adds no geometric stiffness (postproc/stability/
@@ -118,7 +119,8 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
     return CheckOutcome(table=table, members=members,
                         stability=_with_analysis_status(per_combination, combos),
                         lengths=lengths, settings=settings, combinations=combos,
-                        stations=station_forces(rows), value_columns=value_columns, frame=frame)
+                        stations=station_forces(rows), value_columns=value_columns, frame=frame,
+                        member_settings=member_settings(overrides))
 
 
 def station_forces(rows: MemberRows) -> pd.DataFrame:

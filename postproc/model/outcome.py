@@ -34,6 +34,8 @@ class CheckOutcome:
         value_columns: per check, its value columns in the order the check family fills them
             (the order of a hand calculation).
         frame: the analysed frame (node coordinates for the drawing).
+        member_settings: what the project file set per member (member, setting, value, set_by:
+            the [members.<name>] table or the [[rules]] entry), `postproc.model.rules`.
     """
 
     table: pd.DataFrame
@@ -45,6 +47,7 @@ class CheckOutcome:
     stations: pd.DataFrame = field(default_factory=pd.DataFrame)
     value_columns: dict[str, tuple[str, ...]] = field(default_factory=dict)
     frame: Frame | None = None
+    member_settings: pd.DataFrame = field(default_factory=pd.DataFrame)
 
     @property
     def counts(self) -> dict[str, int]:

@@ -17,7 +17,7 @@ from .frame import Frame
 from .members import Members
 from .selection import selected
 
-__all__ = ["OVERRIDE_VALUE_KEYS", "resolved_overrides"]
+__all__ = ["OVERRIDE_VALUE_KEYS", "member_settings", "resolved_overrides"]
 
 OVERRIDE_VALUE_KEYS = ("L_cr_y", "L_cr_z", "L_cr_T", "L_LT", "z_g", "A_net_cm2", "k_LT", "k_w",
                        "slenderness_limit", "ltb_restrained", "torsion_susceptible",
@@ -86,3 +86,21 @@ def resolved_overrides(members: Members, frame: Frame, rules: pd.DataFrame | Non
         if k not in table:
             table[k] = None
     return table.reset_index(drop=True)
+
+
+def member_settings(overrides: pd.DataFrame | None) -> pd.DataFrame:
+    """What the project file set for each member, one row per (member, setting): the value and
+    the entry that set it ('members.B01', or 'rules[2] (kind=column)' for a selection rule).
+
+    A view of the resolved overrides (`resolved_overrides`), written as member_settings.csv so
+    that every value a rule or a member table set can be traced to its entry."""
+    columns = ["member", "setting", "value", "set_by"]
+    if overrides is None or not len(overrides):
+        return pd.DataFrame(columns=columns)
+    rows = []
+    for row in overrides.to_dict("records"):
+        for k in OVERRIDE_VALUE_KEYS:
+            if k in row and _given(row[k]):
+                by = row.get(f"set_by_{k}") or row.get("entry", "")
+                rows.append((str(row["member"]), k, row[k], str(by)))
+    return pd.DataFrame(rows, columns=columns)

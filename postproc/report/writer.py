@@ -43,6 +43,8 @@ OUTPUT_FILES = {
     "stability.csv": "per combination: alpha_cr (sway mode), lowest member mode, analysis path",
     "buckling_lengths.csv": "per member and combination: buckling lengths and their origin",
     "settings.csv": "the design settings and national parameters used",
+    "member_settings.csv": "per member: each value the project file set and the entry or rule "
+                           "that set it",
     "warnings.csv": "plausibility warnings: what looks wrong in the input, and where",
 }
 FAILED_NOTE = "run-failed.txt"
@@ -122,6 +124,7 @@ def write_outputs(outcome: CheckOutcome, out_dir: str | Path, *, title: str, sou
         _csv(outcome.stability.reset_index(), staging / "stability.csv")
         _csv(outcome.lengths, staging / "buckling_lengths.csv")
         _csv(settings, staging / "settings.csv", convert=False)
+        _csv(outcome.member_settings, staging / "member_settings.csv", convert=False)
         warnings = warnings if warnings is not None else pd.DataFrame(columns=["where",
                                                                              "warning"])
         _csv(warnings, staging / "warnings.csv", convert=False)
