@@ -129,5 +129,5 @@ def check_member(section: str | dict, grade: str = "S355", *, length: float,
     rows = with_member_info(rows, None)
     blocks = [b for family in CHECK_FAMILIES for b in family(rows)]
     table = results_table(rows, blocks, settings.utilisation_limit)
-    buckling = {k: np.asarray(v)[0] for k, v in rows.info["buckling"].items()}
+    buckling = {k: np.asarray(v)[0] for k, v in rows.info["buckling"].as_dict().items()}
     return {"checks": table, "buckling": buckling, "section": props.to_dict()}

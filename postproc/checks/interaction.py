@@ -24,7 +24,8 @@ eqs. (6.46) and (6.54) and are used here only with `settings.negligible_rules_in
 'negligible_rules_applied' says which rule set a factor to 1 in a row. The k_zy = 0 of the note to
 Table B.1 is taken only as `settings.k_zy_zero` allows ('k_zy_zero' says where).
 
-Buckling quantities come from `rows.info['buckling']` when present, else from
+Buckling quantities (`postproc.model.buckling_values.BucklingValues`) come from
+`rows.info['buckling']` when present, else from
 `postproc.checks.member_buckling.buckling_values(rows)`. Optional row data read from `rows.info`:
 'sway_y', 'sway_z' ((R,) flags, True where the member buckles about that axis in a sway mode;
 absent or NaN: the larger of the sway and non-sway factors of Annex B), 'torsion_susceptible'
@@ -48,19 +49,16 @@ from ..ec3 import flexural_buckling as fb
 from ..ec3 import interaction_annex_a as annex_a
 from ..ec3 import interaction_annex_b as annex_b
 from ..ec3 import moment_factors as mf
+from ..model.buckling_values import BucklingValues, given
 from ..model.rows import CheckBlock, MemberRows, no_reason
 from . import effective_rows as eff_rows
 
-__all__ = ["BUCKLING_KEYS", "CLASS_4", "N_BASIS", "SharedInputs", "interaction_checks"]
+__all__ = ["CLASS_4", "N_BASIS", "SharedInputs", "interaction_checks"]
 
 CLASS_4 = eff_rows.CLASS_4_NO_GEOMETRY
-BUCKLING_KEYS = ("chi_y", "chi_z", "chi_LT", "lambda_bar_y", "lambda_bar_z", "N_cr_y_N",
-                 "N_cr_z_N", "N_cr_T_N", "M_cr_0_Nm", "C_1", "ltb_susceptible",
-                 "torsion_susceptible", "ltb_segment_start_m", "ltb_segment_end_m",
-                 "section_class_member", "reason")
 
 
-def _buckling(rows: MemberRows) -> dict[str, np.ndarray]:
+def _buckling(rows: MemberRows) -> BucklingValues:
     buckling = rows.info.get("buckling")
     if buckling is None:
         from .member_buckling import buckling_values  # written alongside; imported when needed
@@ -80,7 +78,7 @@ def _nan_max(values: np.ndarray) -> np.ndarray:
     return np.where(np.isinf(out), np.nan, out)
 
 
-def _ltb_segment_moments(rows: MemberRows, b: dict[str, np.ndarray]
+def _ltb_segment_moments(rows: MemberRows, b: BucklingValues
                          ) -> tuple[np.ndarray, np.ndarray, np.ndarray]:
     """The M_y diagram of the LTB segment 6.3.3 uses: stations (m) and moments, NaN padding,
     and which diagram it is.
@@ -89,9 +87,9 @@ def _ltb_segment_moments(rows: MemberRows, b: dict[str, np.ndarray]
     there interpolated linearly between stations, and the stations strictly inside it; (R, S + 2)
     arrays. A segment over the whole member: the member's stations as they are.
     """
-    start = np.asarray(b.get("interaction_segment_start_m", b["ltb_segment_start_m"]),
+    start = np.asarray(given(b.interaction_segment_start_m, b.ltb_segment_start_m),
                        dtype=float)
-    end = np.asarray(b.get("interaction_segment_end_m", b["ltb_segment_end_m"]), dtype=float)
+    end = np.asarray(given(b.interaction_segment_end_m, b.ltb_segment_end_m), dtype=float)
     length = np.asarray(rows.length, float)
     tol = 1e-6 * np.maximum(length, 1.0)  # stations at a restraint node count as its end
     known = ~np.isnan(start) & ~np.isnan(end)
@@ -159,7 +157,7 @@ def _design_values(rows: MemberRows) -> dict[str, np.ndarray]:
             "basis": N_BASIS[np.where(compressed, 0, np.where(tension, 2, 1))]}
 
 
-def _reduction_factors(rows: MemberRows, b: dict[str, np.ndarray], N_Ed: np.ndarray,
+def _reduction_factors(rows: MemberRows, b: BucklingValues, N_Ed: np.ndarray,
                        ltb: np.ndarray) -> tuple[np.ndarray, ...]:
     """chi_y, chi_z, chi_LT for 6.3.3 and which 'may be ignored' rule set one of them to 1.
 
@@ -170,18 +168,19 @@ def _reduction_factors(rows: MemberRows, b: dict[str, np.ndarray], N_Ed: np.ndar
     rule = rows.settings.negligible_rules_in_interaction
     R = rows.n_rows
     out, hits = [], []
-    for axis in ("y", "z"):
-        chi = np.asarray(b[f"chi_{axis}"], dtype=float)
+    for chi_axis, lam, N_cr in ((b.chi_y, b.lambda_bar_y, b.N_cr_y_N),
+                                (b.chi_z, b.lambda_bar_z, b.N_cr_z_N)):
+        chi = np.asarray(chi_axis, dtype=float)
         hit = np.zeros(R, bool)
         if rule:
-            hit = fb.buckling_negligible(np.asarray(b[f"lambda_bar_{axis}"], float), N_Ed,
-                                         np.asarray(b[f"N_cr_{axis}_N"], float)) & ~np.isnan(chi)
+            hit = fb.buckling_negligible(np.asarray(lam, float), N_Ed,
+                                         np.asarray(N_cr, float)) & ~np.isnan(chi)
             chi = np.where(hit, 1.0, chi)
         out.append(chi)
         hits.append(hit)
-    chi_LT = np.asarray(b.get("chi_LT_interaction", b["chi_LT"]), dtype=float)
+    chi_LT = np.asarray(given(b.chi_LT_interaction, b.chi_LT), dtype=float)
     chi_LT = np.where(ltb, chi_LT, 1.0)
-    hits.append(ltb & np.asarray(b.get("ltb_negligible_interaction", np.zeros(R, bool)), bool))
+    hits.append(ltb & np.asarray(given(b.ltb_negligible_interaction, np.zeros(R, bool)), bool))
     # which rules set a factor to 1, as text: one code per combination of the three flags
     code = hits[0] * 1 + hits[1] * 2 + hits[2] * 4
     labels = ("chi_y = 1 (6.3.1.2(4))", "chi_z = 1 (6.3.1.2(4))", "chi_LT = 1 (6.3.2.2(4))")
@@ -219,7 +218,7 @@ class SharedInputs:
         diagrams: the read moment diagrams about y and z (`moment_factors.read_diagram`).
     """
 
-    b: dict
+    b: BucklingValues
     d: dict
     sec: dict
     cls: np.ndarray
@@ -245,16 +244,13 @@ class SharedInputs:
 def _common(rows: MemberRows) -> SharedInputs:
     """Everything both annexes share: design values, buckling values, Table 6.7, diagrams."""
     b = _buckling(rows)
-    missing = [k for k in BUCKLING_KEYS if k not in b]
-    if missing:
-        raise KeyError(f"buckling values lack {', '.join(missing)}")
     d = _design_values(rows)
     R = rows.n_rows
     sec = {k: np.asarray(rows.section[k], dtype=float) for k in
            ("A", "W_pl_y", "W_pl_z", "W_el_y", "W_el_z", "I_y", "I_z", "I_t")}
-    cls = np.asarray(b["section_class_member"], dtype=float)
-    twist = np.asarray(rows.info.get("torsion_susceptible", b["torsion_susceptible"]), dtype=bool)
-    ltb = np.asarray(b["ltb_susceptible"], dtype=bool)
+    cls = np.asarray(b.section_class_member, dtype=float)
+    twist = np.asarray(rows.info.get("torsion_susceptible", b.torsion_susceptible), dtype=bool)
+    ltb = np.asarray(b.ltb_susceptible, dtype=bool)
     # bent and able to buckle: compression, or M_y on a member that can buckle laterally
     d["applies"] = ((d["M_y_Ed"] > 0) | (d["M_z_Ed"] > 0)) & (
         d["compressed"] | (ltb & (d["M_y_Ed"] > 0)))
@@ -274,24 +270,24 @@ def _common(rows: MemberRows) -> SharedInputs:
     reason = no_reason(R)
     # The reasons of the values used here: flexural buckling about both axes and LTB where the
     # buckling values give them separately, else their joined reason.
-    keys = [k for k in ("reason_y", "reason_z", "reason_LT") if k in b] or ["reason"]
-    for key in keys:
-        given = np.asarray(b[key], dtype=object)
-        _add(reason, (given != "") & ~pd.isna(given), given)  # NaN reasons: none
+    per_check = [r for r in (b.reason_y, b.reason_z, b.reason_LT) if r is not None]
+    for values in per_check or [b.reason]:
+        text = np.asarray(values, dtype=object)
+        _add(reason, (text != "") & ~pd.isna(text), text)  # NaN reasons: none
     no_eff = class_4 & np.isnan(eff["A_eff"])
     _add(reason, no_eff & (np.asarray(rows.section["shape"], object) == "CHS"),
          eff_rows.CLASS_4_CHS)
     _add(reason, no_eff, CLASS_4)
     _add(reason, np.isnan(cls), "section class not known")
     for name, value in (("chi_y", chi_y), ("chi_z", chi_z),
-                        ("lambda_bar_y", np.asarray(b["lambda_bar_y"], dtype=float)),
-                        ("lambda_bar_z", np.asarray(b["lambda_bar_z"], dtype=float))):
+                        ("lambda_bar_y", np.asarray(b.lambda_bar_y, dtype=float)),
+                        ("lambda_bar_z", np.asarray(b.lambda_bar_z, dtype=float))):
         _add(reason, np.isnan(value),
              f"{name} not available (buckling length or section data missing)")
     _add(reason, np.isnan(chi_LT), "chi_LT not available (LTB length or M_cr missing)")
     # Lowest elastic critical force: flexural, and torsional where the member may twist.
-    N_cr_min = np.fmin(np.asarray(b["N_cr_y_N"], float), np.asarray(b["N_cr_z_N"], float))
-    N_cr_min = np.where(twist, np.fmin(N_cr_min, np.asarray(b["N_cr_T_N"], float)), N_cr_min)
+    N_cr_min = np.fmin(np.asarray(b.N_cr_y_N, float), np.asarray(b.N_cr_z_N, float))
+    N_cr_min = np.where(twist, np.fmin(N_cr_min, np.asarray(b.N_cr_T_N, float)), N_cr_min)
     beyond = d["N_Ed"] >= N_cr_min
     return SharedInputs(b=b, d=d, sec=sec, cls=cls, k_class=k_class, eff=eff, twist=twist,
                         ltb=ltb, chi_LT=chi_LT, chi_y=chi_y, chi_z=chi_z, rules=rules, res=res,
@@ -342,8 +338,8 @@ def _shared_values(c: SharedInputs, k: dict[str, np.ndarray]) -> dict[str, np.nd
             "chi_y": c.chi_y, "chi_z": c.chi_z, "chi_LT": c.chi_LT,
             "negligible_rules_applied": c.rules,
             "negligible_rules_in_interaction": np.full(R, c.rule_setting),
-            "lambda_bar_y": np.asarray(b["lambda_bar_y"], float),
-            "lambda_bar_z": np.asarray(b["lambda_bar_z"], float),
+            "lambda_bar_y": np.asarray(b.lambda_bar_y, float),
+            "lambda_bar_z": np.asarray(b.lambda_bar_z, float),
             "k_yy": k["k_yy"], "k_yz": k["k_yz"], "k_zy": k["k_zy"], "k_zz": k["k_zz"],
             "N_Rk_N": res["N_Rk_N"], "M_y_Rk_Nm": res["M_y_Rk_Nm"], "M_z_Rk_Nm": res["M_z_Rk_Nm"],
             "Delta_M_y_Ed_Nm": res["Delta_M_y_Ed_Nm"], "Delta_M_z_Ed_Nm": res["Delta_M_z_Ed_Nm"],
@@ -351,11 +347,11 @@ def _shared_values(c: SharedInputs, k: dict[str, np.ndarray]) -> dict[str, np.nd
                for k in ("A_eff", "W_eff_y", "W_eff_z", "e_N_y", "e_N_z")},
             "section_class": c.cls, "torsion_susceptible": c.twist,
             "ltb_susceptible": c.ltb, "C_mLT_diagram": c.seg_note,
-            "LT_segment_start_m": b.get("interaction_segment_start_m",
-                                        b.get("ltb_segment_start_m", np.full(R, np.nan))),
-            "LT_segment_end_m": b.get("interaction_segment_end_m",
-                                      b.get("ltb_segment_end_m", np.full(R, np.nan))),
-            "LT_segments_from": b.get("ltb_segment_basis", np.full(R, "", dtype=object))}
+            "LT_segment_start_m": given(b.interaction_segment_start_m,
+                                        given(b.ltb_segment_start_m, np.full(R, np.nan))),
+            "LT_segment_end_m": given(b.interaction_segment_end_m,
+                                      given(b.ltb_segment_end_m, np.full(R, np.nan))),
+            "LT_segments_from": given(b.ltb_segment_basis, np.full(R, "", dtype=object))}
 
 
 def _diagram_values(tag: str, shape: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
@@ -390,8 +386,8 @@ def _annex_b_blocks(rows: MemberRows, c: SharedInputs, suffix: str) -> list[Chec
     n_z = annex_b.n_ratio(d["N_Ed"], chi_z, c.res["N_Rk_N"], gamma_M1=g)
     k = annex_b.k_factors_annex_b(
         C_my=f_y["C_m"], C_mz=f_z["C_m"], C_mLT=f_LT["C_m"],
-        lambda_bar_y=np.asarray(b["lambda_bar_y"], float),
-        lambda_bar_z=np.asarray(b["lambda_bar_z"], float), n_y=n_y, n_z=n_z,
+        lambda_bar_y=np.asarray(b.lambda_bar_y, float),
+        lambda_bar_z=np.asarray(b.lambda_bar_z, float), n_y=n_y, n_z=n_z,
         section_class=c.k_class, section_kind=_section_kind(rows.section["shape"]),
         torsion_susceptible=c.twist, k_zy_zero=_k_zy_zero(rows, c))
     reason = c.reason.copy()
@@ -415,9 +411,9 @@ def _annex_a_blocks(rows: MemberRows, c: SharedInputs, suffix: str) -> list[Chec
     d, b, sec, cls = c.d, c.b, c.sec, c.cls
     R = rows.n_rows
     N_Ed, M_y, M_z = d["N_Ed"], d["M_y_Ed"], d["M_z_Ed"]
-    N_cr_y = np.asarray(b["N_cr_y_N"], float)
-    N_cr_z = np.asarray(b["N_cr_z_N"], float)
-    N_cr_T = np.asarray(b["N_cr_T_N"], float)
+    N_cr_y = np.asarray(b.N_cr_y_N, float)
+    N_cr_z = np.asarray(b.N_cr_z_N, float)
+    N_cr_T = np.asarray(b.N_cr_T_N, float)
     f_y0 = mf.C_mi_0_annex_a(rows.x, rows.My, E=rows.E, I_i=sec["I_y"], L=rows.length,
                              N_Ed=N_Ed, N_cr_i=N_cr_y, diagram=c.diagrams["y"])
     f_z0 = mf.C_mi_0_annex_a(rows.x, rows.Mz, E=rows.E, I_i=sec["I_z"], L=rows.length,
@@ -428,9 +424,9 @@ def _annex_a_blocks(rows: MemberRows, c: SharedInputs, suffix: str) -> list[Chec
     twist = c.twist
     # Not susceptible to torsional deformation: no LTB, so lambda_bar_0 = 0 (M_cr,0 unbounded).
     lam_0 = np.where(twist, annex_a.lambda_bar_0(W_y, rows.f_y,
-                                                 np.asarray(b["M_cr_0_Nm"], float)), 0.0)
+                                                 np.asarray(b.M_cr_0_Nm, float)), 0.0)
     # N_cr,TF = N_cr,T: doubly symmetric sections (see postproc.ec3.interaction_annex_a).
-    C_1 = np.asarray(b.get("C_1_interaction", b["C_1"]), float)
+    C_1 = np.asarray(given(b.C_1_interaction, b.C_1), float)
     limit = annex_a.lambda_bar_0_limit(C_1, N_Ed, N_cr_z, N_cr_T)
     limit = np.where(twist, limit, 0.0)
     with np.errstate(invalid="ignore", divide="ignore"):
@@ -445,8 +441,8 @@ def _annex_a_blocks(rows: MemberRows, c: SharedInputs, suffix: str) -> list[Chec
     aux = annex_a.auxiliary_terms(
         N_Ed=N_Ed, M_y_Ed=M_y, M_z_Ed=M_z, chi_y=c.chi_y, chi_z=c.chi_z,
         chi_LT=c.chi_LT,
-        lambda_bar_y=np.asarray(b["lambda_bar_y"], float),
-        lambda_bar_z=np.asarray(b["lambda_bar_z"], float), lambda_bar_0=lam_0, N_cr_y=N_cr_y,
+        lambda_bar_y=np.asarray(b.lambda_bar_y, float),
+        lambda_bar_z=np.asarray(b.lambda_bar_z, float), lambda_bar_0=lam_0, N_cr_y=N_cr_y,
         N_cr_z=N_cr_z, C_my=cm["C_my"], C_mz=cm["C_mz"], A=sec["A"], f_y=rows.f_y,
         W_pl_y=sec["W_pl_y"], W_pl_z=sec["W_pl_z"], W_el_y=sec["W_el_y"], W_el_z=sec["W_el_z"],
         I_y=sec["I_y"], I_T=sec["I_t"], gamma_M0=rows.settings.gamma_M0,

@@ -50,7 +50,7 @@ def with_member_info(rows: MemberRows, overrides: pd.DataFrame | None) -> Member
         given = overrides.set_index("member")["torsion_susceptible"].reindex(rows.member)
         mask = given.notna().to_numpy()
         if mask.any():
-            buckling["torsion_susceptible"] = np.where(
-                mask, given.fillna(False).to_numpy(bool), buckling["torsion_susceptible"])
+            buckling = replace(buckling, torsion_susceptible=np.where(
+                mask, given.fillna(False).to_numpy(bool), buckling.torsion_susceptible))
     info["buckling"] = buckling
     return replace(rows, info=info)

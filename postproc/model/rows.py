@@ -7,7 +7,7 @@ loop over members or combinations.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field, fields
+from dataclasses import dataclass, field, fields, is_dataclass, replace
 
 import numpy as np
 
@@ -146,12 +146,22 @@ def no_reason(n: int) -> np.ndarray:
 
 
 def _slice_value(value, a: int, b: int, n: int):
-    """Slice per-row arrays (first axis n), recurse into dicts, keep anything else."""
+    """Slice per-row arrays (first axis n), recurse into dicts and frozen dataclasses of row
+    data (e.g. `BucklingValues`), keep anything else (settings, None)."""
     if isinstance(value, dict):
         return {k: _slice_value(v, a, b, n) for k, v in value.items()}
+    if _is_row_data(value):
+        return replace(value, **{f.name: _slice_value(getattr(value, f.name), a, b, n)
+                                 for f in fields(value) if f.init})
     if isinstance(value, np.ndarray) and value.ndim >= 1 and value.shape[0] == n:
         return value[a:b]
     return value
+
+
+def _is_row_data(value) -> bool:
+    """A dataclass instance holding row arrays (not the settings, which no row owns)."""
+    return (is_dataclass(value) and not isinstance(value, type)
+            and not isinstance(value, DesignSettings))
 
 
 def rows_slice(rows: MemberRows, a: int, b: int) -> MemberRows:
@@ -165,6 +175,9 @@ def _concat_value(values: list):
     first = values[0]
     if isinstance(first, dict):
         return {k: _concat_value([v[k] for v in values]) for k in first}
+    if _is_row_data(first):
+        return replace(first, **{f.name: _concat_value([getattr(v, f.name) for v in values])
+                                 for f in fields(first) if f.init})
     if isinstance(first, np.ndarray) and first.ndim >= 1:
         return np.concatenate(values, axis=0)
     return first
