@@ -24,12 +24,11 @@ eqs. (6.46) and (6.54) and are used here only with `settings.negligible_rules_in
 'negligible_rules_applied' says which rule set a factor to 1 in a row. The k_zy = 0 of the note to
 Table B.1 is taken only as `settings.k_zy_zero` allows ('k_zy_zero' says where).
 
-Buckling quantities (`postproc.model.buckling_values.BucklingValues`) come from
-`rows.info['buckling']` when present, else from
-`postproc.checks.member_buckling.buckling_values(rows)`. Optional row data read from `rows.info`:
-'sway_y', 'sway_z' ((R,) flags, True where the member buckles about that axis in a sway mode;
-absent or NaN: the larger of the sway and non-sway factors of Annex B), 'torsion_susceptible'
-((R,) bool, overrides the buckling values' flag).
+Buckling quantities (`BucklingValues`) come from `rows.info.buckling` when present, else from
+`postproc.checks.member_buckling.buckling_values(rows)`. Optional row data read from `rows.info`
+(`MemberInfo`): sway_y, sway_z ((R,) flags, True where the member buckles about that axis in a
+sway mode; None or NaN: the larger of the sway and non-sway factors of Annex B),
+torsion_susceptible ((R,) bool, overrides the buckling values' flag).
 
 Class 4 members (Table 6.7, class 4 column): N_Rk = A_eff f_y, M_i,Rk = W_eff,i f_y,
 Delta M_i,Ed = e_N,i N_Ed, with the effective properties of `postproc.checks.effective_rows`;
@@ -49,7 +48,8 @@ from ..ec3 import flexural_buckling as fb
 from ..ec3 import interaction_annex_a as annex_a
 from ..ec3 import interaction_annex_b as annex_b
 from ..ec3 import moment_factors as mf
-from ..model.buckling_values import BucklingValues, given
+from ..model.buckling_values import BucklingValues
+from ..model.member_info import given
 from ..model.rows import CheckBlock, MemberRows, no_reason
 from . import effective_rows as eff_rows
 
@@ -59,7 +59,7 @@ CLASS_4 = eff_rows.CLASS_4_NO_GEOMETRY
 
 
 def _buckling(rows: MemberRows) -> BucklingValues:
-    buckling = rows.info.get("buckling")
+    buckling = rows.info.buckling
     if buckling is None:
         from .member_buckling import buckling_values  # written alongside; imported when needed
         buckling = buckling_values(rows)
@@ -249,7 +249,7 @@ def _common(rows: MemberRows) -> SharedInputs:
     sec = {k: np.asarray(rows.section[k], dtype=float) for k in
            ("A", "W_pl_y", "W_pl_z", "W_el_y", "W_el_z", "I_y", "I_z", "I_t")}
     cls = np.asarray(b.section_class_member, dtype=float)
-    twist = np.asarray(rows.info.get("torsion_susceptible", b.torsion_susceptible), dtype=bool)
+    twist = np.asarray(given(rows.info.torsion_susceptible, b.torsion_susceptible), dtype=bool)
     ltb = np.asarray(b.ltb_susceptible, dtype=bool)
     # bent and able to buckle: compression, or M_y on a member that can buckle laterally
     d["applies"] = ((d["M_y_Ed"] > 0) | (d["M_z_Ed"] > 0)) & (
@@ -375,9 +375,9 @@ def _k_zy_zero(rows: MemberRows, c: SharedInputs) -> np.ndarray:
 def _annex_b_blocks(rows: MemberRows, c: SharedInputs, suffix: str) -> list[CheckBlock]:
     d, b = c.d, c.b
     R = rows.n_rows
-    f_y = mf.C_m_annex_b(rows.x, rows.My, sway=rows.info.get("sway_y"),
+    f_y = mf.C_m_annex_b(rows.x, rows.My, sway=rows.info.sway_y,
                          diagram=c.diagrams["y"])
-    f_z = mf.C_m_annex_b(rows.x, rows.Mz, sway=rows.info.get("sway_z"),
+    f_z = mf.C_m_annex_b(rows.x, rows.Mz, sway=rows.info.sway_z,
                          diagram=c.diagrams["z"])
     f_LT = mf.C_m_annex_b(c.x_seg, c.M_seg, sway=np.zeros(R, dtype=bool))
     g = rows.settings.gamma_M1

@@ -4,16 +4,16 @@
 Row data read here (see `postproc.model.rows.MemberRows`):
 - lengths 'L_cr_y', 'L_cr_z', 'L_cr_T', 'L_LT' (m, NaN unknown: that check is not evaluated).
 - section columns shape, fabrication, h, b, t_f, A, I_y, I_z, I_t, I_w, W_pl_y, W_el_y.
-- info 'section_class' (R, S) int per station (0 unknown), 'ltb_restrained' (R,) bool,
-  'k_LT', 'k_w' (R,) effective-length factors of the LTB segment ends (default 1.0),
-  'z_g' (R,) m, height of the load above the shear centre (default 0; + destabilising for
-  gravity loads), 'z_up' (R,) bool (optional: True where the member's local +z points up;
-  without it the lower M_cr of both orientations is used), 'grade' (R,) str
-  (optional: S460 selects the right-hand column of Table 6.2; without it the safe column is used),
-  'buckling' (the `BucklingValues` of `buckling_values`, when the checker has computed it already),
-  'ltb_points_m' (R, P) m (optional: positions of the lateral restraint points along the
-  member, ascending, NaN padding; `postproc.model.member_rows`), 'L_LT_override' (R,) (optional:
-  True where the project file gives L_LT).
+- info (`MemberInfo`, a None field takes the default said here): section_class (R, S) int per
+  station (0 unknown), ltb_restrained (R,) bool, k_LT, k_w (R,) effective-length factors of the
+  LTB segment ends (default 1.0), z_g (R,) m, height of the load above the shear centre
+  (default 0; + destabilising for gravity loads), z_up (R,) bool (True where the member's local
+  +z points up; None: the lower M_cr of both orientations is used), grade (R,) str (S460
+  selects the right-hand column of Table 6.2; None: the safe column is used), buckling (the
+  `BucklingValues` of `buckling_values`, when the checker has computed it already),
+  ltb_points_m (R, P) m (positions of the lateral restraint points along the member,
+  ascending, NaN padding; `postproc.model.member_rows`), L_LT_override (R,) (True where the
+  project file gives L_LT).
 
 Lateral-torsional buckling segments (`_segment_plan`), the segment with the highest
 M_Ed / M_b,Rd governing and reported by its start and end:
@@ -49,7 +49,8 @@ import numpy as np
 from ..ec3 import critical_moment as cm
 from ..ec3 import flexural_buckling as fb
 from ..ec3 import lateral_torsional as lt
-from ..model.buckling_values import BucklingValues, given
+from ..model.buckling_values import BucklingValues
+from ..model.member_info import given
 from ..model.rows import CheckBlock, MemberRows, no_reason
 from . import effective_rows as eff_rows
 
@@ -79,7 +80,7 @@ def _add(reason: np.ndarray, mask: np.ndarray, text: str) -> None:
 
 def _member_class(rows: MemberRows) -> np.ndarray:
     """Worst class along the member as float: 1 .. 4, NaN where any station's class is unknown."""
-    cls = rows.info.get("section_class")
+    cls = rows.info.section_class
     if cls is None:
         return np.full(rows.n_rows, np.nan)
     cls = np.where(rows.valid, np.asarray(cls, float), np.nan)
@@ -88,10 +89,10 @@ def _member_class(rows: MemberRows) -> np.ndarray:
     return np.where(np.any(unknown, axis=1) | (worst == 0), np.nan, worst)
 
 
-def _info(rows: MemberRows, key: str, default: float) -> np.ndarray:
-    value = rows.info.get(key)
+def _or_default(value: np.ndarray | None, n: int, default: float) -> np.ndarray:
+    """(n,) floats of an optional member value, `default` where it is None or NaN."""
     if value is None:
-        return np.full(rows.n_rows, default)
+        return np.full(n, default)
     return np.where(np.isnan(np.asarray(value, float)), default, np.asarray(value, float))
 
 
@@ -113,7 +114,7 @@ def buckling_values(rows: MemberRows) -> BucklingValues:
     E, G, f_y = np.asarray(rows.E, float), np.asarray(rows.G, float), np.asarray(rows.f_y, float)
     hollow = (shape == "RHS") | (shape == "CHS")
     generic = ~hollow & (shape != "I")
-    restrained = np.asarray(rows.info.get("ltb_restrained", np.zeros(R, bool)), bool)
+    restrained = np.asarray(given(rows.info.ltb_restrained, np.zeros(R, bool)), bool)
 
     cls = _member_class(rows)
     eff = eff_rows.effective_values(rows)
@@ -127,7 +128,7 @@ def buckling_values(rows: MemberRows) -> BucklingValues:
     A_b = np.where(class_4, eff["A_eff"], num["A"])  # A_eff for class 4 (6.48, 6.51, 6.52)
     _add(common, np.isnan(cls) & ~generic, CLASS_UNKNOWN)
 
-    grade = rows.info.get("grade")
+    grade = rows.info.grade
     s460 = (np.char.startswith(np.asarray(grade, dtype=str), "S460") if grade is not None
             else np.zeros(R, bool))
     curve_y, curve_z = fb.buckling_curves(shape, fab, num["h"], num["b"], num["t_f"], s460=s460)
@@ -241,10 +242,10 @@ def _segment_plan(rows: MemberRows, L_LT: np.ndarray
     """
     R = rows.n_rows
     length = np.asarray(rows.length, float)
-    given = rows.info.get("L_LT_override")
-    given = (np.zeros(R, bool) if given is None
-             else np.equal(np.asarray(given, dtype=object), True))  # True, not merely truthy
-    points = rows.info.get("ltb_points_m")
+    override = rows.info.L_LT_override
+    override = (np.zeros(R, bool) if override is None
+                else np.equal(np.asarray(override, dtype=object), True))  # True, not truthy
+    points = rows.info.ltb_points_m
     points = np.full((R, 0), np.nan) if points is None else np.asarray(points, float)
     if points.shape[1] < 2:
         points = np.concatenate([points, np.full((R, 2 - points.shape[1]), np.nan)], axis=1)
@@ -253,12 +254,12 @@ def _segment_plan(rows: MemberRows, L_LT: np.ndarray
     with np.errstate(invalid="ignore"):
         rising = ~np.any(np.diff(points, axis=1) <= POINT_TOL_M, axis=1)
         real = ((count >= 2) & (points[:, 0] <= POINT_TOL_M) & (last >= length - POINT_TOL_M)
-                & rising & ~given)
+                & rising & ~override)
     with np.errstate(invalid="ignore", divide="ignore"):
         n_equal = np.where(L_LT < length, np.clip(np.round(length / L_LT), 1, MAX_SEGMENTS), 1)
     n_equal = np.where(np.isfinite(n_equal), n_equal, 1).astype(int)
     n_seg = np.where(real, count - 1, n_equal)
-    basis = np.where(real, REAL_SPANS, np.where(given, GIVEN_LENGTH, NO_POSITIONS))
+    basis = np.where(real, REAL_SPANS, np.where(override, GIVEN_LENGTH, NO_POSITIONS))
     return n_seg, basis, points
 
 
@@ -292,9 +293,11 @@ def _segments(rows: MemberRows, todo: np.ndarray, n_seg: np.ndarray, real: np.nd
     M = rows.My[seg_row]
     E, G = np.asarray(rows.E, float)[seg_row], np.asarray(rows.G, float)[seg_row]
     I_z, I_t, I_w = (num[k][seg_row] for k in ("I_z", "I_t", "I_w"))
-    k, k_w = _info(rows, "k_LT", 1.0)[seg_row], _info(rows, "k_w", 1.0)[seg_row]
-    z_g = _info(rows, "z_g", 0.0)[seg_row]
-    z_up = rows.info.get("z_up")
+    R = rows.n_rows
+    k = _or_default(rows.info.k_LT, R, 1.0)[seg_row]
+    k_w = _or_default(rows.info.k_w, R, 1.0)[seg_row]
+    z_g = _or_default(rows.info.z_g, R, 0.0)[seg_row]
+    z_up = rows.info.z_up
     if z_up is not None:  # heights along local +z, where the load-height term is exact
         z_g = np.where(np.asarray(z_up, bool)[seg_row], z_g, -z_g)
     ends = cm.end_moments(xi, M)
@@ -390,7 +393,7 @@ def _compression(rows: MemberRows) -> tuple[np.ndarray, np.ndarray]:
 
 
 def _buckling(rows: MemberRows) -> BucklingValues:
-    values = rows.info.get("buckling")
+    values = rows.info.buckling
     return values if values is not None else buckling_values(rows)
 
 

@@ -8,7 +8,7 @@ from dataclasses import dataclass, fields
 
 import numpy as np
 
-__all__ = ["BucklingValues", "given"]
+__all__ = ["BucklingValues"]
 
 
 @dataclass(frozen=True)
@@ -99,7 +99,3 @@ class BucklingValues:
         return {f.name: getattr(self, f.name) for f in fields(self)
                 if getattr(self, f.name) is not None}
 
-
-def given(value: np.ndarray | None, default: np.ndarray) -> np.ndarray:
-    """`value` where it was filled in, else `default` (the fallbacks of a None field)."""
-    return default if value is None else value

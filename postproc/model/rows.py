@@ -12,6 +12,7 @@ from dataclasses import dataclass, field, fields, is_dataclass, replace
 import numpy as np
 
 from ..settings import DesignSettings
+from .member_info import MemberInfo
 
 __all__ = ["CheckBlock", "FAIL", "MemberRows", "NOT_EVALUATED", "PASS", "at_station",
            "block_concat", "governing", "no_reason", "rows_concat", "rows_slice"]
@@ -47,8 +48,9 @@ class MemberRows:
         lengths: dict of (R,) buckling and restraint lengths, m: 'L_cr_y', 'L_cr_z', 'L_cr_T',
             'L_LT' (NaN where unknown: the check that needs it is then not evaluated), plus
             anything else the graph layer provides (documented there).
-        info: dict of (R,) arrays of other per-row data (analysis path, sway flags, restraint
-            flags, member kind, net area ...); each key documented where it is produced.
+        info: the other per-row data (grade, sway flags, restraints, overrides, section class
+            per station, effective properties, buckling values): `MemberInfo`, every field
+            documented there.
         settings: the design settings in force.
     """
 
@@ -68,7 +70,7 @@ class MemberRows:
     E: np.ndarray
     G: np.ndarray
     lengths: dict[str, np.ndarray] = field(default_factory=dict)
-    info: dict[str, np.ndarray] = field(default_factory=dict)
+    info: MemberInfo = field(default_factory=MemberInfo)
     settings: DesignSettings = field(default_factory=DesignSettings)
 
     @property

@@ -1,6 +1,6 @@
 """The 6.3.3 check family: rows in, 'interaction 6.61' / 'interaction 6.62' blocks out.
 
-The buckling values are passed in `rows.info['buckling']`, so these tests stand on their own. The
+The buckling values are passed in `rows.info.buckling`, so these tests stand on their own. The
 worked IPE 300 column is the hand calculation in tests/ec3/test_interaction_annex_b.py (Annex B)
 and tests/ec3/test_interaction_annex_a.py (Annex A): tolerance HAND (0.1 %, four figures).
 """
@@ -12,6 +12,7 @@ import pytest
 
 from postproc.checks.interaction import CLASS_4, interaction_checks
 from postproc.model.buckling_values import BucklingValues
+from postproc.model.member_info import MemberInfo
 from postproc.model.rows import FAIL, NOT_EVALUATED, PASS, MemberRows
 from postproc.settings import DesignSettings
 
@@ -55,7 +56,8 @@ def make_rows(N: np.ndarray, My: np.ndarray, Mz: np.ndarray | None = None, *,
                       combination=np.full(R, "ULS1", dtype=object), x=x, N=N, Vy=z, Vz=z, T=z,
                       My=My, Mz=Mz, length=np.full(R, length), section=section,
                       f_y=np.full(R, F_Y), f_u=np.full(R, 490e6), E=np.full(R, E),
-                      G=np.full(R, G), info={"buckling": buckling or hand_buckling(R), **info},
+                      G=np.full(R, G),
+                      info=MemberInfo(buckling=buckling or hand_buckling(R), **info),
                       settings=DesignSettings(annex=annex))
 
 

@@ -16,6 +16,7 @@ import numpy as np
 import pytest
 
 from postproc.checks import member_buckling as fam
+from postproc.model.member_info import MemberInfo
 from postproc.model.rows import FAIL, NOT_EVALUATED, PASS, MemberRows
 from postproc.settings import DesignSettings
 
@@ -50,8 +51,7 @@ def make_rows(sections, *, N=0.0, My=0.0, x=(0.0, 1.5, 3.0, 4.5, 6.0), section_c
     section["fabrication"] = np.array([s["fabrication"] for s in sections], dtype=object)
     lengths = {"L_cr_y": per_row(L_cr, length), "L_cr_z": per_row(L_cr, length),
                "L_cr_T": per_row(L_cr_T, length), "L_LT": per_row(L_LT, length)}
-    row_info = {"section_class": grid(section_class).astype(np.int8)}
-    row_info.update(info or {})
+    row_info = MemberInfo(section_class=grid(section_class).astype(np.int8), **(info or {}))
     zeros = grid(0.0)
     return MemberRows(
         member=np.array([f"B{i + 1}" for i in range(R)], dtype=object),
@@ -251,8 +251,7 @@ def test_fail_status_and_precomputed_values_are_used():
     assert block.status()[0] == FAIL
     values = fam.buckling_values(rows)
     values = replace(values, M_Ed_LT_Nm=values.M_Ed_LT_Nm * 0.5)
-    info = dict(rows.info, buckling=values)
-    half = fam.lateral_torsional_checks(replace(rows, info=info))[0]
+    half = fam.lateral_torsional_checks(replace(rows, info=replace(rows.info, buckling=values)))[0]
     assert half.utilisation[0] == pytest.approx(block.utilisation[0] / 2, rel=EXACT)
 
 
