@@ -38,7 +38,7 @@ and 4), and Annex A takes W_eff,y in lambda_bar_0 and A_eff / W_eff,y in epsilon
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, fields
 
 import numpy as np
 import pandas as pd
@@ -53,7 +53,8 @@ from ..model.member_info import given
 from ..model.rows import CheckBlock, MemberRows, no_reason
 from . import effective_rows as eff_rows
 
-__all__ = ["CLASS_4", "N_BASIS", "SharedInputs", "interaction_checks"]
+__all__ = ["CLASS_4", "DesignValues", "GrossSection", "N_BASIS", "SharedInputs", "Table67",
+           "interaction_checks"]
 
 CLASS_4 = eff_rows.CLASS_4_NO_GEOMETRY
 
@@ -143,7 +144,49 @@ N_BASIS = np.array(["largest compression", "no axial force",
                     "tension ignored: N_Ed = 0 (common practice)"], dtype=object)
 
 
-def _design_values(rows: MemberRows) -> dict[str, np.ndarray]:
+@dataclass(frozen=True)
+class DesignValues:
+    """The design forces of 6.3.3 per row, (R,) arrays: N_Ed (N, the largest compression along
+    the member as a positive number, 0 without compression), M_y_Ed, M_z_Ed (N*m, the largest
+    magnitudes), compressed (bool), N_t_Ed (N, the largest tension where there is no
+    compression, else 0) and basis (object, `N_BASIS`: which case N_Ed is)."""
+
+    N_Ed: np.ndarray
+    M_y_Ed: np.ndarray
+    M_z_Ed: np.ndarray
+    compressed: np.ndarray
+    N_t_Ed: np.ndarray
+    basis: np.ndarray
+
+
+@dataclass(frozen=True)
+class GrossSection:
+    """The gross section properties 6.3.3 reads, (R,) float arrays, SI (m2, m3, m4)."""
+
+    A: np.ndarray
+    W_pl_y: np.ndarray
+    W_pl_z: np.ndarray
+    W_el_y: np.ndarray
+    W_el_z: np.ndarray
+    I_y: np.ndarray
+    I_z: np.ndarray
+    I_t: np.ndarray
+
+
+@dataclass(frozen=True)
+class Table67:
+    """The resistances and moment shifts of Table 6.7 per row, (R,) arrays: N_Rk_N (N),
+    M_y_Rk_Nm, M_z_Rk_Nm, Delta_M_y_Ed_Nm, Delta_M_z_Ed_Nm (N*m); class 4 rows from the
+    effective properties."""
+
+    N_Rk_N: np.ndarray
+    M_y_Rk_Nm: np.ndarray
+    M_z_Rk_Nm: np.ndarray
+    Delta_M_y_Ed_Nm: np.ndarray
+    Delta_M_z_Ed_Nm: np.ndarray
+
+
+def _design_values(rows: MemberRows) -> DesignValues:
     N = np.where(rows.valid, rows.N, np.nan)
     N_min = -_nan_max(-N)
     N_max = _nan_max(N)
@@ -151,10 +194,10 @@ def _design_values(rows: MemberRows) -> dict[str, np.ndarray]:
     M_z = _nan_max(np.abs(np.where(rows.valid, rows.Mz, np.nan)))
     compressed = N_min < 0
     tension = ~compressed & (N_max > 0)
-    return {"N_Ed": np.where(compressed, -N_min, 0.0), "M_y_Ed": np.nan_to_num(M_y),
-            "M_z_Ed": np.nan_to_num(M_z), "compressed": compressed,
-            "N_t_Ed": np.where(tension, N_max, 0.0),
-            "basis": N_BASIS[np.where(compressed, 0, np.where(tension, 2, 1))]}
+    return DesignValues(N_Ed=np.where(compressed, -N_min, 0.0), M_y_Ed=np.nan_to_num(M_y),
+                        M_z_Ed=np.nan_to_num(M_z), compressed=compressed,
+                        N_t_Ed=np.where(tension, N_max, 0.0),
+                        basis=N_BASIS[np.where(compressed, 0, np.where(tension, 2, 1))])
 
 
 def _reduction_factors(rows: MemberRows, b: BucklingValues, N_Ed: np.ndarray,
@@ -201,16 +244,16 @@ class SharedInputs:
 
     Attributes:
         b: the member buckling values (`postproc.checks.member_buckling.buckling_values`).
-        d: design values: N_Ed (compression positive), M_y_Ed, M_z_Ed (largest |M|), compressed,
-            applies (bent and able to buckle).
-        sec: gross section properties A, W_pl_y, W_pl_z, W_el_y, W_el_z, I_y, I_z, I_t.
+        d: the design values (`DesignValues`).
+        applies: bent and able to buckle (the rows the checks apply to).
+        sec: gross section properties (`GrossSection`).
         cls: the member's section class (the worst station; NaN unknown).
         k_class: the class the annexes' factors use (class 4 takes class 3).
         eff: effective properties of class 4 rows (`effective_rows.effective_values`).
         twist, ltb: the member is susceptible to torsional deformations / to LTB.
         chi_y, chi_z, chi_LT: reduction factors; rules: which 6.3.1.2(4) / 6.3.2.2(4) rules set a
             factor to 1 (text per row).
-        res: Table 6.7 resistances N_Rk_N, M_y_Rk_Nm, M_z_Rk_Nm, Delta_M_y_Ed_Nm, Delta_M_z_Ed_Nm.
+        res: Table 6.7 resistances (`Table67`).
         rule_setting: `DesignSettings.negligible_rules_in_interaction`.
         x_seg, M_seg, seg_note: the governing LTB segment's stations, moments and how found.
         reason: why a row cannot be evaluated ('' where it can).
@@ -219,8 +262,9 @@ class SharedInputs:
     """
 
     b: BucklingValues
-    d: dict
-    sec: dict
+    d: DesignValues
+    applies: np.ndarray
+    sec: GrossSection
     cls: np.ndarray
     k_class: np.ndarray
     eff: dict
@@ -230,7 +274,7 @@ class SharedInputs:
     chi_y: np.ndarray
     chi_z: np.ndarray
     rules: np.ndarray
-    res: dict
+    res: Table67
     rule_setting: str
     x_seg: np.ndarray
     M_seg: np.ndarray
@@ -246,22 +290,21 @@ def _common(rows: MemberRows) -> SharedInputs:
     b = _buckling(rows)
     d = _design_values(rows)
     R = rows.n_rows
-    sec = {k: np.asarray(rows.section[k], dtype=float) for k in
-           ("A", "W_pl_y", "W_pl_z", "W_el_y", "W_el_z", "I_y", "I_z", "I_t")}
+    sec = GrossSection(**{f.name: np.asarray(rows.section[f.name], dtype=float)
+                          for f in fields(GrossSection)})
     cls = np.asarray(b.section_class_member, dtype=float)
     twist = np.asarray(given(rows.info.torsion_susceptible, b.torsion_susceptible), dtype=bool)
     ltb = np.asarray(b.ltb_susceptible, dtype=bool)
     # bent and able to buckle: compression, or M_y on a member that can buckle laterally
-    d["applies"] = ((d["M_y_Ed"] > 0) | (d["M_z_Ed"] > 0)) & (
-        d["compressed"] | (ltb & (d["M_y_Ed"] > 0)))
-    chi_y, chi_z, chi_LT, rules = _reduction_factors(rows, b, d["N_Ed"], ltb)
-    res = annex_b.resistances_table_6_7(cls, rows.f_y, sec["A"], sec["W_pl_y"], sec["W_pl_z"],
-                                        sec["W_el_y"], sec["W_el_z"])
+    applies = ((d.M_y_Ed > 0) | (d.M_z_Ed > 0)) & (d.compressed | (ltb & (d.M_y_Ed > 0)))
+    chi_y, chi_z, chi_LT, rules = _reduction_factors(rows, b, d.N_Ed, ltb)
+    gross = annex_b.resistances_table_6_7(cls, rows.f_y, sec.A, sec.W_pl_y, sec.W_pl_z,
+                                        sec.W_el_y, sec.W_el_z)
     eff = eff_rows.effective_values(rows)
     class_4 = cls == 4
     res_4 = er.resistances_table_6_7_class_4(rows.f_y, eff["A_eff"], eff["W_eff_y"],
-                                             eff["W_eff_z"], eff["e_N_y"], eff["e_N_z"], d["N_Ed"])
-    res = {k: np.where(class_4, res_4[k], v) for k, v in res.items()}
+                                             eff["W_eff_z"], eff["e_N_y"], eff["e_N_z"], d.N_Ed)
+    res = Table67(**{k: np.where(class_4, res_4[k], v) for k, v in gross.items()})
     k_class = np.where(class_4, 3.0, cls)  # Annex A and B: class 4 takes the class 3 factors
     x_seg, M_seg, seg_note = _ltb_segment_moments(rows, b)
     # each member diagram read once, for both annexes
@@ -288,9 +331,10 @@ def _common(rows: MemberRows) -> SharedInputs:
     # Lowest elastic critical force: flexural, and torsional where the member may twist.
     N_cr_min = np.fmin(np.asarray(b.N_cr_y_N, float), np.asarray(b.N_cr_z_N, float))
     N_cr_min = np.where(twist, np.fmin(N_cr_min, np.asarray(b.N_cr_T_N, float)), N_cr_min)
-    beyond = d["N_Ed"] >= N_cr_min
-    return SharedInputs(b=b, d=d, sec=sec, cls=cls, k_class=k_class, eff=eff, twist=twist,
-                        ltb=ltb, chi_LT=chi_LT, chi_y=chi_y, chi_z=chi_z, rules=rules, res=res,
+    beyond = d.N_Ed >= N_cr_min
+    return SharedInputs(b=b, d=d, applies=applies, sec=sec, cls=cls, k_class=k_class, eff=eff,
+                        twist=twist, ltb=ltb, chi_LT=chi_LT, chi_y=chi_y, chi_z=chi_z,
+                        rules=rules, res=res,
                         rule_setting=rows.settings.negligible_rules_in_interaction, x_seg=x_seg,
                         M_seg=M_seg, seg_note=seg_note, reason=reason, beyond=beyond,
                         N_cr_min=N_cr_min, diagrams=diagrams)
@@ -303,15 +347,15 @@ def _finish(rows: MemberRows, c: SharedInputs, eq: dict[str, np.ndarray], label:
     with np.errstate(invalid="ignore", divide="ignore"):
         # At or above an elastic critical force the member cannot carry N_Ed at all: report
         # the failure (at least N_Ed / N_cr >= 1) rather than amplification factors of no meaning.
-        util = np.where(beyond, np.fmax(eq["total"], d["N_Ed"] / N_cr_min), eq["total"])
+        util = np.where(beyond, np.fmax(eq["total"], d.N_Ed / N_cr_min), eq["total"])
     reason = reason.copy()
     _add(reason, np.isnan(util), "interaction sum could not be evaluated")
     util = np.where(reason == "", util, np.nan)
-    values = {"N_Ed_N": d["N_Ed"], "M_y_Ed_Nm": d["M_y_Ed"], "M_z_Ed_Nm": d["M_z_Ed"],
+    values = {"N_Ed_N": d.N_Ed, "M_y_Ed_Nm": d.M_y_Ed, "M_z_Ed_Nm": d.M_z_Ed,
               "term_N": eq["term_N"], "term_M_y": eq["term_M_y"], "term_M_z": eq["term_M_z"],
               **values, "N_Ed_reaches_N_cr": beyond}
     return CheckBlock(check=label, clause=clause, utilisation=util,
-                      x=np.full(rows.n_rows, np.nan), applies=d["applies"].copy(), reason=reason,
+                      x=np.full(rows.n_rows, np.nan), applies=c.applies.copy(), reason=reason,
                       values=values)
 
 
@@ -319,13 +363,13 @@ def _equations(rows: MemberRows, c: SharedInputs, k: dict[str, np.ndarray]
                ) -> tuple[dict[str, np.ndarray], dict[str, np.ndarray]]:
     d, res = c.d, c.res
     g = rows.settings.gamma_M1
-    common = dict(chi_LT=c.chi_LT, N_Rk=res["N_Rk_N"], M_y_Rk=res["M_y_Rk_Nm"],
-                  M_z_Rk=res["M_z_Rk_Nm"], Delta_M_y_Ed=res["Delta_M_y_Ed_Nm"],
-                  Delta_M_z_Ed=res["Delta_M_z_Ed_Nm"], gamma_M1=g)
-    e61 = annex_b.interaction_6_61(d["N_Ed"], d["M_y_Ed"], d["M_z_Ed"],
+    common = dict(chi_LT=c.chi_LT, N_Rk=res.N_Rk_N, M_y_Rk=res.M_y_Rk_Nm,
+                  M_z_Rk=res.M_z_Rk_Nm, Delta_M_y_Ed=res.Delta_M_y_Ed_Nm,
+                  Delta_M_z_Ed=res.Delta_M_z_Ed_Nm, gamma_M1=g)
+    e61 = annex_b.interaction_6_61(d.N_Ed, d.M_y_Ed, d.M_z_Ed,
                                    chi_y=c.chi_y, k_yy=k["k_yy"],
                                    k_yz=k["k_yz"], **common)
-    e62 = annex_b.interaction_6_62(d["N_Ed"], d["M_y_Ed"], d["M_z_Ed"],
+    e62 = annex_b.interaction_6_62(d.N_Ed, d.M_y_Ed, d.M_z_Ed,
                                    chi_z=c.chi_z, k_zy=k["k_zy"],
                                    k_zz=k["k_zz"], **common)
     return e61, e62
@@ -333,16 +377,16 @@ def _equations(rows: MemberRows, c: SharedInputs, k: dict[str, np.ndarray]
 
 def _shared_values(c: SharedInputs, k: dict[str, np.ndarray]) -> dict[str, np.ndarray]:
     b, res, d = c.b, c.res, c.d
-    R = res["N_Rk_N"].shape[0]
-    return {"N_Ed_basis": d["basis"], "N_t_Ed_N": d["N_t_Ed"],
+    R = res.N_Rk_N.shape[0]
+    return {"N_Ed_basis": d.basis, "N_t_Ed_N": d.N_t_Ed,
             "chi_y": c.chi_y, "chi_z": c.chi_z, "chi_LT": c.chi_LT,
             "negligible_rules_applied": c.rules,
             "negligible_rules_in_interaction": np.full(R, c.rule_setting),
             "lambda_bar_y": np.asarray(b.lambda_bar_y, float),
             "lambda_bar_z": np.asarray(b.lambda_bar_z, float),
             "k_yy": k["k_yy"], "k_yz": k["k_yz"], "k_zy": k["k_zy"], "k_zz": k["k_zz"],
-            "N_Rk_N": res["N_Rk_N"], "M_y_Rk_Nm": res["M_y_Rk_Nm"], "M_z_Rk_Nm": res["M_z_Rk_Nm"],
-            "Delta_M_y_Ed_Nm": res["Delta_M_y_Ed_Nm"], "Delta_M_z_Ed_Nm": res["Delta_M_z_Ed_Nm"],
+            "N_Rk_N": res.N_Rk_N, "M_y_Rk_Nm": res.M_y_Rk_Nm, "M_z_Rk_Nm": res.M_z_Rk_Nm,
+            "Delta_M_y_Ed_Nm": res.Delta_M_y_Ed_Nm, "Delta_M_z_Ed_Nm": res.Delta_M_z_Ed_Nm,
             **{eff_rows.column_name(k): c.eff[k]
                for k in ("A_eff", "W_eff_y", "W_eff_z", "e_N_y", "e_N_z")},
             "section_class": c.cls, "torsion_susceptible": c.twist,
@@ -369,7 +413,7 @@ def _k_zy_zero(rows: MemberRows, c: SharedInputs) -> np.ndarray:
     named = {"off": np.zeros(shape.shape, bool), "I": shape == "I",
              "I and RHS": (shape == "I") | (shape == "RHS")}[setting]
     d = c.d
-    return named & ~c.twist & d["compressed"] & (d["M_z_Ed"] == 0) & (d["M_y_Ed"] > 0)
+    return named & ~c.twist & d.compressed & (d.M_z_Ed == 0) & (d.M_y_Ed > 0)
 
 
 def _annex_b_blocks(rows: MemberRows, c: SharedInputs, suffix: str) -> list[CheckBlock]:
@@ -382,8 +426,8 @@ def _annex_b_blocks(rows: MemberRows, c: SharedInputs, suffix: str) -> list[Chec
     f_LT = mf.C_m_annex_b(c.x_seg, c.M_seg, sway=np.zeros(R, dtype=bool))
     g = rows.settings.gamma_M1
     chi_y, chi_z = c.chi_y, c.chi_z
-    n_y = annex_b.n_ratio(d["N_Ed"], chi_y, c.res["N_Rk_N"], gamma_M1=g)
-    n_z = annex_b.n_ratio(d["N_Ed"], chi_z, c.res["N_Rk_N"], gamma_M1=g)
+    n_y = annex_b.n_ratio(d.N_Ed, chi_y, c.res.N_Rk_N, gamma_M1=g)
+    n_z = annex_b.n_ratio(d.N_Ed, chi_z, c.res.N_Rk_N, gamma_M1=g)
     k = annex_b.k_factors_annex_b(
         C_my=f_y["C_m"], C_mz=f_z["C_m"], C_mLT=f_LT["C_m"],
         lambda_bar_y=np.asarray(b.lambda_bar_y, float),
@@ -410,17 +454,17 @@ def _annex_b_blocks(rows: MemberRows, c: SharedInputs, suffix: str) -> list[Chec
 def _annex_a_blocks(rows: MemberRows, c: SharedInputs, suffix: str) -> list[CheckBlock]:
     d, b, sec, cls = c.d, c.b, c.sec, c.cls
     R = rows.n_rows
-    N_Ed, M_y, M_z = d["N_Ed"], d["M_y_Ed"], d["M_z_Ed"]
+    N_Ed, M_y, M_z = d.N_Ed, d.M_y_Ed, d.M_z_Ed
     N_cr_y = np.asarray(b.N_cr_y_N, float)
     N_cr_z = np.asarray(b.N_cr_z_N, float)
     N_cr_T = np.asarray(b.N_cr_T_N, float)
-    f_y0 = mf.C_mi_0_annex_a(rows.x, rows.My, E=rows.E, I_i=sec["I_y"], L=rows.length,
+    f_y0 = mf.C_mi_0_annex_a(rows.x, rows.My, E=rows.E, I_i=sec.I_y, L=rows.length,
                              N_Ed=N_Ed, N_cr_i=N_cr_y, diagram=c.diagrams["y"])
-    f_z0 = mf.C_mi_0_annex_a(rows.x, rows.Mz, E=rows.E, I_i=sec["I_z"], L=rows.length,
+    f_z0 = mf.C_mi_0_annex_a(rows.x, rows.Mz, E=rows.E, I_i=sec.I_z, L=rows.length,
                              N_Ed=N_Ed, N_cr_i=N_cr_z, diagram=c.diagrams["z"])
     plastic = (cls == 1) | (cls == 2)
     class_4 = cls == 4
-    W_y = np.where(plastic, sec["W_pl_y"], np.where(class_4, c.eff["W_eff_y"], sec["W_el_y"]))
+    W_y = np.where(plastic, sec.W_pl_y, np.where(class_4, c.eff["W_eff_y"], sec.W_el_y))
     twist = c.twist
     # Not susceptible to torsional deformation: no LTB, so lambda_bar_0 = 0 (M_cr,0 unbounded).
     lam_0 = np.where(twist, annex_a.lambda_bar_0(W_y, rows.f_y,
@@ -433,8 +477,8 @@ def _annex_a_blocks(rows: MemberRows, c: SharedInputs, suffix: str) -> list[Chec
         # N_Ed = 0 (a beam): eps_y unbounded, so C_my tends to 1 (Table A.1)
         eps_y = np.where(M_y == 0, 0.0,
                          M_y / N_Ed * np.where(class_4, c.eff["A_eff"] / c.eff["W_eff_y"],
-                                               sec["A"] / sec["W_el_y"]))
-        a_LT = np.maximum(1 - sec["I_t"] / sec["I_y"], 0.0)
+                                               sec.A / sec.W_el_y))
+        a_LT = np.maximum(1 - sec.I_t / sec.I_y, 0.0)
     cm = annex_a.C_m_annex_a(C_my_0=f_y0["C_m0"], C_mz_0=f_z0["C_m0"], lambda_bar_0=lam_0,
                              lambda_bar_0_limit=limit, epsilon_y=eps_y, a_LT=a_LT, N_Ed=N_Ed,
                              N_cr_z=N_cr_z, N_cr_T=N_cr_T)
@@ -443,9 +487,9 @@ def _annex_a_blocks(rows: MemberRows, c: SharedInputs, suffix: str) -> list[Chec
         chi_LT=c.chi_LT,
         lambda_bar_y=np.asarray(b.lambda_bar_y, float),
         lambda_bar_z=np.asarray(b.lambda_bar_z, float), lambda_bar_0=lam_0, N_cr_y=N_cr_y,
-        N_cr_z=N_cr_z, C_my=cm["C_my"], C_mz=cm["C_mz"], A=sec["A"], f_y=rows.f_y,
-        W_pl_y=sec["W_pl_y"], W_pl_z=sec["W_pl_z"], W_el_y=sec["W_el_y"], W_el_z=sec["W_el_z"],
-        I_y=sec["I_y"], I_T=sec["I_t"], gamma_M0=rows.settings.gamma_M0,
+        N_cr_z=N_cr_z, C_my=cm["C_my"], C_mz=cm["C_mz"], A=sec.A, f_y=rows.f_y,
+        W_pl_y=sec.W_pl_y, W_pl_z=sec.W_pl_z, W_el_y=sec.W_el_y, W_el_z=sec.W_el_z,
+        I_y=sec.I_y, I_T=sec.I_t, gamma_M0=rows.settings.gamma_M0,
         gamma_M1=rows.settings.gamma_M1)
     aux["epsilon_y"] = eps_y  # the one C_m used (class 4: A_eff / W_eff,y)
     k = annex_a.k_factors_annex_a(N_Ed=N_Ed, N_cr_y=N_cr_y, N_cr_z=N_cr_z, C_my=cm["C_my"],
