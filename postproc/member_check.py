@@ -92,7 +92,8 @@ def check_member(section: str | dict, grade: str = "S355", *, length: float,
     if not np.isfinite(values).all():
         raise InputError("forces must be finite numbers", field="N_Ed/My/Mz")
     # the frame run's member information (grade, strengths), built by the same function
-    section_arrays, f_y, f_u, grade_name = member_properties(sections.iloc[:1], [grade])
+    section_arrays, f_y, f_u, grade_name = member_properties(sections.iloc[:1],
+                                                             np.array([grade], dtype=object))
     points, L_LT_given = None, L_LT is not None
     if lateral_restraints is not None:
         inner = np.asarray(lateral_restraints, float).ravel()
@@ -127,7 +128,7 @@ def check_member(section: str | dict, grade: str = "S355", *, length: float,
     rows = with_member_info(rows, None)
     blocks = [b for family in CHECK_FAMILIES for b in family(rows)]
     table = results_table(rows, blocks, settings.utilisation_limit)
-    values = rows.info.buckling
-    assert values is not None  # with_member_info fills it
-    buckling = {k: np.asarray(v)[0] for k, v in values.as_dict().items()}
+    computed = rows.info.buckling
+    assert computed is not None  # with_member_info fills it
+    buckling = {k: np.asarray(v)[0] for k, v in computed.as_dict().items()}
     return {"checks": table, "buckling": buckling, "section": props.to_dict()}

@@ -39,6 +39,7 @@ and 4), and Annex A takes W_eff,y in lambda_bar_0 and A_eff / W_eff,y in epsilon
 from __future__ import annotations
 
 from dataclasses import dataclass, fields
+from typing import Any
 
 import numpy as np
 import pandas as pd
@@ -275,7 +276,7 @@ class SharedInputs:
     chi_z: np.ndarray
     rules: np.ndarray
     res: Table67
-    rule_setting: str
+    rule_setting: bool
     x_seg: np.ndarray
     M_seg: np.ndarray
     seg_note: np.ndarray
@@ -363,7 +364,7 @@ def _equations(rows: MemberRows, c: SharedInputs, k: dict[str, np.ndarray]
                ) -> tuple[dict[str, np.ndarray], dict[str, np.ndarray]]:
     d, res = c.d, c.res
     g = rows.settings.gamma_M1
-    common = dict(chi_LT=c.chi_LT, N_Rk=res.N_Rk_N, M_y_Rk=res.M_y_Rk_Nm,
+    common: dict[str, Any] = dict(chi_LT=c.chi_LT, N_Rk=res.N_Rk_N, M_y_Rk=res.M_y_Rk_Nm,
                   M_z_Rk=res.M_z_Rk_Nm, Delta_M_y_Ed=res.Delta_M_y_Ed_Nm,
                   Delta_M_z_Ed=res.Delta_M_z_Ed_Nm, gamma_M1=g)
     e61 = annex_b.interaction_6_61(d.N_Ed, d.M_y_Ed, d.M_z_Ed,

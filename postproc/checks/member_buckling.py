@@ -392,6 +392,13 @@ def _compression(rows: MemberRows) -> tuple[np.ndarray, np.ndarray]:
     return N_Ed, rows.x[r, idx]
 
 
+def _need(value: np.ndarray | None, name: str) -> np.ndarray:
+    """A buckling value the check cannot do without (`buckling_values` fills every field)."""
+    if value is None:
+        raise ValueError(f"buckling values lack {name}")
+    return value
+
+
 def _buckling(rows: MemberRows) -> BucklingValues:
     values = rows.info.buckling
     return values if values is not None else buckling_values(rows)
@@ -416,11 +423,11 @@ def flexural_buckling_checks(rows: MemberRows) -> list[CheckBlock]:
     blocks = []
     for check, clause, lam, N_cr, chi_649, curve, reason_given, applies, L_key in (
             ("flexural buckling y-y", "6.3.1.1 (6.46)", b.lambda_bar_y, b.N_cr_y_N, b.chi_y,
-             b.curve_y, b.reason_y, compressed, "L_cr_y"),
+             _need(b.curve_y, "curve_y"), b.reason_y, compressed, "L_cr_y"),
             ("flexural buckling z-z", "6.3.1.1 (6.46)", b.lambda_bar_z, b.N_cr_z_N, b.chi_z,
-             b.curve_z, b.reason_z, compressed, "L_cr_z"),
+             _need(b.curve_z, "curve_z"), b.reason_z, compressed, "L_cr_z"),
             ("torsional buckling", "6.3.1.4", b.lambda_bar_T, b.N_cr_T_N, b.chi_T,
-             b.curve_z, b.reason_T, compressed & open_section, "L_cr_T")):
+             _need(b.curve_z, "curve_z"), b.reason_T, compressed & open_section, "L_cr_T")):
         lam, N_cr = np.asarray(lam, float), np.asarray(N_cr, float)
         chi_649 = np.asarray(chi_649, float)
         alpha = fb.imperfection_factor(curve)
@@ -459,33 +466,35 @@ def lateral_torsional_checks(rows: MemberRows) -> list[CheckBlock]:
     applies = bent & np.asarray(b.ltb_susceptible, bool)
     reason = np.asarray(given(b.reason_LT, b.reason), dtype=object).copy()
     _add(reason, nan_force, "bending moment M_y not known at some station")
-    W_y, f_y = np.asarray(b.W_y_m3, float), np.asarray(rows.f_y, float)
+    W_y, f_y = np.asarray(_need(b.W_y_m3, "W_y_m3"), float), np.asarray(rows.f_y, float)
     chi_computed = np.asarray(b.chi_LT, float)
     # 6.3.2.2(4): where lateral-torsional buckling may be ignored, chi_LT = 1 in this check
-    negligible = np.asarray(b.ltb_negligible, bool)
+    negligible = np.asarray(_need(b.ltb_negligible, "ltb_negligible"), bool)
     chi_LT = np.where(negligible & ~np.isnan(chi_computed), 1.0, chi_computed)
     M_b = lt.M_b_Rd(chi_LT, W_y, f_y, gamma_M1=st.gamma_M1)
-    M_Ed = np.asarray(b.M_Ed_LT_Nm, float)
+    M_Ed = np.asarray(_need(b.M_Ed_LT_Nm, "M_Ed_LT_Nm"), float)
     with np.errstate(invalid="ignore", divide="ignore"):
         util = np.where(reason == "", M_Ed / M_b, np.nan)
     R = rows.n_rows
     values = {"M_y_Ed_Nm": M_Ed, "segment_start_m": b.ltb_segment_start_m,
-              "segment_end_m": b.ltb_segment_end_m, "n_segments": b.n_segments,
+              "segment_end_m": b.ltb_segment_end_m, "n_segments": _need(b.n_segments, "n_segments"),
               "segments_from": given(b.ltb_segment_basis, np.full(R, "", dtype=object)),
               "M_cr_Nm": b.M_cr_Nm, "M_cr_0_Nm": b.M_cr_0_Nm, "C_1": b.C_1,
               "W_y_m3": W_y, "W_eff_y_m3": given(b.W_eff_y_m3, np.full(R, np.nan)),
               "section_class_member": b.section_class_member,
-              "lambda_bar_LT": b.lambda_bar_LT, "buckling_curve": b.curve_LT,
-              "alpha_LT": b.alpha_LT, "lambda_LT_0": b.lambda_LT_0,
+              "lambda_bar_LT": b.lambda_bar_LT, "buckling_curve": _need(b.curve_LT, "curve_LT"),
+              "alpha_LT": _need(b.alpha_LT, "alpha_LT"),
+              "lambda_LT_0": _need(b.lambda_LT_0, "lambda_LT_0"),
               "beta": np.full(R, np.nan if st.ltb_method == "general" else st.beta_LT),
-              "chi_LT_unmodified": b.chi_LT_unmodified, "k_c": b.k_c,
-              "k_c_case": b.k_c_case, "psi": b.psi,
+              "chi_LT_unmodified": _need(b.chi_LT_unmodified, "chi_LT_unmodified"),
+              "k_c": _need(b.k_c, "k_c"),
+              "k_c_case": _need(b.k_c_case, "k_c_case"), "psi": _need(b.psi, "psi"),
               "f_modification": np.full(R, st.f_modification and st.ltb_method != "general"),
-              "f": b.f, "chi_LT_mod": chi_computed, "ltb_negligible": negligible,
+              "f": _need(b.f, "f"), "chi_LT_mod": chi_computed, "ltb_negligible": negligible,
               "chi_LT": chi_LT,
               "method": np.full(R, "6.3.2.2 general" if st.ltb_method == "general"
                                 else "6.3.2.3 rolled", dtype=object),
               "f_y_Pa": f_y, "gamma_M1": np.full(R, st.gamma_M1), "M_b_Rd_Nm": M_b}
     return [CheckBlock(check="lateral-torsional buckling", clause="6.3.2.1 (6.54)",
-                       utilisation=util, x=np.asarray(b.x_LT_m, float), applies=applies,
-                       reason=reason, values=values)]
+                       utilisation=util, x=np.asarray(_need(b.x_LT_m, "x_LT_m"), float),
+                       applies=applies, reason=reason, values=values)]

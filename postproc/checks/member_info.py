@@ -45,12 +45,9 @@ def _with_overrides(info: MemberInfo, aligned: pd.DataFrame) -> MemberInfo:
     given for no member leaves its field as it was (None: the check's default)."""
     if "ltb_restrained" in aligned:
         info = replace(info, ltb_restrained=aligned["ltb_restrained"].fillna(False).to_numpy(bool))
-    factors = {}
-    for key, default in (("z_g", 0.0), ("k_LT", 1.0), ("k_w", 1.0)):
-        values = aligned[key].to_numpy(float)
-        if not np.isnan(values).all():
-            factors[key] = np.where(np.isnan(values), default, values)
-    info = replace(info, **factors)
+    z_g, k_LT, k_w = (_factor(aligned[key].to_numpy(float), default, old) for key, default, old
+                      in (("z_g", 0.0, info.z_g), ("k_LT", 1.0, info.k_LT), ("k_w", 1.0, info.k_w)))
+    info = replace(info, z_g=z_g, k_LT=k_LT, k_w=k_w)
     if "tension_only" in aligned:  # postproc/checks/tension_only.py
         info = replace(info, tension_only=aligned["tension_only"].fillna(False).to_numpy(bool))
         if "slenderness_limit" in aligned:
@@ -59,3 +56,10 @@ def _with_overrides(info: MemberInfo, aligned: pd.DataFrame) -> MemberInfo:
     if not np.isnan(a_net).all():
         info = replace(info, A_net=a_net)
     return info
+
+
+def _factor(values: np.ndarray, default: float, old: np.ndarray | None) -> np.ndarray | None:
+    """A factor given for some members (`default` for the others); `old` where none is given."""
+    if np.isnan(values).all():
+        return old
+    return np.where(np.isnan(values), default, values)

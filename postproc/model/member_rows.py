@@ -187,10 +187,10 @@ def member_properties(section_rows: pd.DataFrame, grades: np.ndarray
         (M,) the canonical grade names (`MemberInfo.grade`)).
     """
     section = {column: section_rows[column].to_numpy() for column in section_rows.columns}
-    grades = pd.Series(np.asarray(grades), dtype=object).astype(str)
-    f_y, f_u = materials.strengths(grades.to_numpy(), section["t_max"].astype(float))
-    canonical = {g: materials.grade_name(g) for g in grades.unique()}
-    return section, f_y, f_u, grades.map(canonical).to_numpy()
+    names = pd.Series(np.asarray(grades), dtype=object).astype(str)
+    f_y, f_u = materials.strengths(names.to_numpy(), section["t_max"].astype(float))
+    canonical = {g: materials.grade_name(g) for g in names.unique()}
+    return section, f_y, f_u, names.map(canonical).to_numpy()
 
 
 def build_member_rows(frame: Frame, forces: pd.DataFrame, members: Members,
@@ -260,10 +260,10 @@ def build_member_rows(frame: Frame, forces: pd.DataFrame, members: Members,
     z_up_m = axes[:, 2, frame.vertical_axis] > 0.0
     # where the member is held laterally: the lateral-torsional buckling segments (P per member,
     # NaN padding; taken per row by integer code, no loop over rows)
-    typed = {key: from_lengths.pop(key) for key in LENGTHS_TABLE_INFO if key in from_lengths}
+    sway_y, sway_z, L_LT_override = (from_lengths.pop(key, None) for key in LENGTHS_TABLE_INFO)
     row_info = MemberInfo(grade=grade_m[code], z_up=z_up_m[code],
-                          ltb_points_m=restraint_positions(members, "y")[code], **typed,
-                          extra=from_lengths)
+                          ltb_points_m=restraint_positions(members, "y")[code], sway_y=sway_y,
+                          sway_z=sway_z, L_LT_override=L_LT_override, extra=from_lengths)
     return MemberRows(
         member=keys["member"].to_numpy(), combination=keys["combination"].to_numpy(),
         x=arrays["x_m"], N=arrays["N_N"], Vy=arrays["Vy_N"], Vz=arrays["Vz_N"], T=arrays["T_Nm"],
