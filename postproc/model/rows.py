@@ -148,8 +148,8 @@ def no_reason(n: int) -> np.ndarray:
 
 
 def _slice_value(value, a: int, b: int, n: int):
-    """Slice per-row arrays (first axis n), recurse into dicts and frozen dataclasses of row
-    data (e.g. `BucklingValues`), keep anything else (settings, None)."""
+    """Slice per-row arrays (first axis n), recurse into dicts and dataclasses of row data
+    (`MemberRows` itself, `MemberInfo`, `BucklingValues`), keep anything else (settings, None)."""
     if isinstance(value, dict):
         return {k: _slice_value(v, a, b, n) for k, v in value.items()}
     if _is_row_data(value):
@@ -168,12 +168,12 @@ def _is_row_data(value) -> bool:
 
 def rows_slice(rows: MemberRows, a: int, b: int) -> MemberRows:
     """Rows a..b (a view: no copy of the force arrays)."""
-    n = rows.n_rows
-    return MemberRows(**{f.name: _slice_value(getattr(rows, f.name), a, b, n)
-                         for f in fields(MemberRows)})
+    return _slice_value(rows, a, b, rows.n_rows)
 
 
 def _concat_value(values: list):
+    """Join what `_slice_value` cut, part by part in order (a value that is not row data, such
+    as the settings or a None field, is taken from the first part)."""
     first = values[0]
     if isinstance(first, dict):
         return {k: _concat_value([v[k] for v in values]) for k in first}
@@ -187,8 +187,7 @@ def _concat_value(values: list):
 
 def rows_concat(parts: list[MemberRows]) -> MemberRows:
     """Rows of several slices joined in order (the inverse of rows_slice)."""
-    return MemberRows(**{f.name: _concat_value([getattr(p, f.name) for p in parts])
-                         for f in fields(MemberRows)})
+    return _concat_value(parts)
 
 
 def block_concat(parts: list[CheckBlock]) -> CheckBlock:
