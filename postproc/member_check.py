@@ -16,6 +16,7 @@ from . import materials
 from .checker import CHECK_FAMILIES, results_table
 from .checks.member_info import with_member_info
 from .errors import InputError
+from .model.member_info import MemberInfo
 from .model.member_rows import member_properties
 from .model.rows import MemberRows
 from .sections import build_sections
@@ -91,7 +92,8 @@ def check_member(section: str | dict, grade: str = "S355", *, length: float,
     if not np.isfinite(values).all():
         raise InputError("forces must be finite numbers", field="N_Ed/My/Mz")
     # the frame run's member information (grade, strengths), built by the same function
-    section_arrays, f_y, f_u, member_info = member_properties(sections.iloc[:1], [grade])
+    section_arrays, f_y, f_u, grade_name = member_properties(sections.iloc[:1],
+                                                             np.array([grade], dtype=object))
     points, L_LT_given = None, L_LT is not None
     if lateral_restraints is not None:
         inner = np.asarray(lateral_restraints, float).ravel()
@@ -107,15 +109,12 @@ def check_member(section: str | dict, grade: str = "S355", *, length: float,
         if not value > 0:
             raise InputError(f"{key} must be positive, got {value}", field=key)
         lengths[key] = np.array([float(value)])
-    info = {**member_info, "ltb_restrained": np.array([ltb_restrained]),
-            "z_g": np.array([float(z_g)])}
-    if points is not None:
-        info["ltb_points_m"] = points[None, :]
-        info["L_LT_override"] = np.array([L_LT_given])
-    if sway_y is not None:
-        info["sway_y"] = np.array([sway_y])
-    if sway_z is not None:
-        info["sway_z"] = np.array([sway_z])
+    info = MemberInfo(
+        grade=grade_name, ltb_restrained=np.array([ltb_restrained]), z_g=np.array([float(z_g)]),
+        ltb_points_m=None if points is None else points[None, :],
+        L_LT_override=None if points is None else np.array([L_LT_given]),
+        sway_y=None if sway_y is None else np.array([sway_y]),
+        sway_z=None if sway_z is None else np.array([sway_z]))
     def row(values) -> np.ndarray:
         return np.asarray(values, float)[None, :]
 
@@ -129,5 +128,7 @@ def check_member(section: str | dict, grade: str = "S355", *, length: float,
     rows = with_member_info(rows, None)
     blocks = [b for family in CHECK_FAMILIES for b in family(rows)]
     table = results_table(rows, blocks, settings.utilisation_limit)
-    buckling = {k: np.asarray(v)[0] for k, v in rows.info["buckling"].items()}
+    computed = rows.info.buckling
+    assert computed is not None  # with_member_info fills it
+    buckling = {k: np.asarray(v)[0] for k, v in computed.as_dict().items()}
     return {"checks": table, "buckling": buckling, "section": props.to_dict()}

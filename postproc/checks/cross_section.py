@@ -36,9 +36,9 @@ W_eff in place of A and W_el; class 4 CHS are not evaluated (shell buckling). Wi
 settings.class_3_at_actual_stress, 5.5.2(9): a class 4 station whose parts meet the class 3
 limits with epsilon raised by sqrt(f_y / gamma_M0 / sigma_com,Ed) is checked as class 3 here.
 
-Inputs beyond MemberRows' own: rows.info['section_class'] ((R, S) or (R,) integers, 1 to 4, 0
-unknown), rows.info['class_part'] (same shape, text naming the governing plate part),
-rows.info['A_net'] ((R,) m2, NaN where there are no holes; optional). Forces smaller than
+Inputs beyond MemberRows' own: rows.info.section_class ((R, S) or (R,) integers, 1 to 4, 0
+unknown), rows.info.class_part (same shape, text naming the governing plate part),
+rows.info.A_net ((R,) m2, NaN where there are no holes; optional). Forces smaller than
 NOISE times the section's own capacity are taken as exactly 0 (numerical noise of the analysis).
 """
 
@@ -52,6 +52,7 @@ from ..ec3 import cross_section as cs
 from ..ec3 import effective_resistance as er
 from ..ec3.classification import section_class
 from ..errors import InputError
+from ..model.member_info import given
 from ..model.rows import CheckBlock, MemberRows, at_station, no_reason
 from ..sections.effective import STRESS_KEYS, parts_at_stress
 from . import effective_rows as eff_rows
@@ -97,12 +98,12 @@ class _Rows:
                                 dtype=object)[:, None]
         self.f_y = np.asarray(rows.f_y, dtype=float)[:, None]
         self.f_u = np.asarray(rows.f_u, dtype=float)[:, None]
-        cls = np.asarray(rows.info.get("section_class", np.zeros((R, S), order="F")), dtype=float)
-        part = np.asarray(rows.info.get("class_part", np.full((R, S), "", object, order="F")),
+        cls = np.asarray(given(rows.info.section_class, np.zeros((R, S), order="F")), dtype=float)
+        part = np.asarray(given(rows.info.class_part, np.full((R, S), "", object, order="F")),
                           dtype=object)
         for name, arr in (("section_class", cls), ("class_part", part)):
             if arr.shape not in ((R,), (R, 1), (R, S)):
-                raise ValueError(f"rows.info['{name}'] has shape {arr.shape}; expected ({R}, {S})"
+                raise ValueError(f"rows.info.{name} has shape {arr.shape}; expected ({R}, {S})"
                                  f" (rows, stations) or ({R},)")
         cls, part = (a[:, None] if a.ndim == 1 else a for a in (cls, part))
         self.cls = np.nan_to_num(np.broadcast_to(cls, (R, S)), nan=0.0)
@@ -114,7 +115,7 @@ class _Rows:
         self.plastic, self.elastic = cs.is_plastic(self.cls), cs.is_elastic(self.cls)
         # class 4 with effective properties (I sections, RHS)
         self.effective = (self.cls == 4) & ~np.isnan(self.e("A_eff"))
-        A_net = np.asarray(rows.info.get("A_net", np.full(R, np.nan)), dtype=float)
+        A_net = np.asarray(given(rows.info.A_net, np.full(R, np.nan)), dtype=float)
         self._check_A_net(A_net)
         self.A_net = A_net[:, None]
 

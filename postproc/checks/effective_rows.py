@@ -1,7 +1,7 @@
 """Effective properties of class 4 rows, shared by the check families.
 
 `effective_values(rows)` gives the (R,) effective properties of `postproc.sections.effective`
-for every row with a class 4 station (NaN for the other rows): from rows.info['effective'] when
+for every row with a class 4 station (NaN for the other rows): from rows.info.effective when
 the checker has put them there, else worked out here. `class_4_reason` says why a class 4 row
 has none.
 """
@@ -30,10 +30,10 @@ UNITS = {"A_eff": "_m2", "e_N_y": "_m", "e_N_z": "_m", "W_eff_y": "_m3", "W_eff_
 
 def effective_values(rows: MemberRows) -> dict[str, np.ndarray]:
     """(R,) effective properties of the rows with a class 4 station (module docstring)."""
-    given = rows.info.get("effective")
+    given = rows.info.effective
     if given is not None:
         return given
-    cls = rows.info.get("section_class")
+    cls = rows.info.section_class
     needed = np.zeros(rows.n_rows, bool)
     if cls is not None and rows.n_rows:
         cls = np.asarray(cls)

@@ -4,16 +4,16 @@
 Row data read here (see `postproc.model.rows.MemberRows`):
 - lengths 'L_cr_y', 'L_cr_z', 'L_cr_T', 'L_LT' (m, NaN unknown: that check is not evaluated).
 - section columns shape, fabrication, h, b, t_f, A, I_y, I_z, I_t, I_w, W_pl_y, W_el_y.
-- info 'section_class' (R, S) int per station (0 unknown), 'ltb_restrained' (R,) bool,
-  'k_LT', 'k_w' (R,) effective-length factors of the LTB segment ends (default 1.0),
-  'z_g' (R,) m, height of the load above the shear centre (default 0; + destabilising for
-  gravity loads), 'z_up' (R,) bool (optional: True where the member's local +z points up;
-  without it the lower M_cr of both orientations is used), 'grade' (R,) str
-  (optional: S460 selects the right-hand column of Table 6.2; without it the safe column is used),
-  'buckling' (the dict of `buckling_values`, when the checker has computed it already),
-  'ltb_points_m' (R, P) m (optional: positions of the lateral restraint points along the
-  member, ascending, NaN padding; `postproc.model.member_rows`), 'L_LT_override' (R,) (optional:
-  True where the project file gives L_LT).
+- info (`MemberInfo`, a None field takes the default said here): section_class (R, S) int per
+  station (0 unknown), ltb_restrained (R,) bool, k_LT, k_w (R,) effective-length factors of the
+  LTB segment ends (default 1.0), z_g (R,) m, height of the load above the shear centre
+  (default 0; + destabilising for gravity loads), z_up (R,) bool (True where the member's local
+  +z points up; None: the lower M_cr of both orientations is used), grade (R,) str (S460
+  selects the right-hand column of Table 6.2; None: the safe column is used), buckling (the
+  `BucklingValues` of `buckling_values`, when the checker has computed it already),
+  ltb_points_m (R, P) m (positions of the lateral restraint points along the member,
+  ascending, NaN padding; `postproc.model.member_rows`), L_LT_override (R,) (True where the
+  project file gives L_LT).
 
 Lateral-torsional buckling segments (`_segment_plan`), the segment with the highest
 M_Ed / M_b,Rd governing and reported by its start and end:
@@ -49,6 +49,8 @@ import numpy as np
 from ..ec3 import critical_moment as cm
 from ..ec3 import flexural_buckling as fb
 from ..ec3 import lateral_torsional as lt
+from ..model.buckling_values import BucklingValues
+from ..model.member_info import given
 from ..model.rows import CheckBlock, MemberRows, no_reason
 from . import effective_rows as eff_rows
 
@@ -78,7 +80,7 @@ def _add(reason: np.ndarray, mask: np.ndarray, text: str) -> None:
 
 def _member_class(rows: MemberRows) -> np.ndarray:
     """Worst class along the member as float: 1 .. 4, NaN where any station's class is unknown."""
-    cls = rows.info.get("section_class")
+    cls = rows.info.section_class
     if cls is None:
         return np.full(rows.n_rows, np.nan)
     cls = np.where(rows.valid, np.asarray(cls, float), np.nan)
@@ -87,31 +89,20 @@ def _member_class(rows: MemberRows) -> np.ndarray:
     return np.where(np.any(unknown, axis=1) | (worst == 0), np.nan, worst)
 
 
-def _info(rows: MemberRows, key: str, default: float) -> np.ndarray:
-    value = rows.info.get(key)
+def _or_default(value: np.ndarray | None, n: int, default: float) -> np.ndarray:
+    """(n,) floats of an optional member value, `default` where it is None or NaN."""
     if value is None:
-        return np.full(rows.n_rows, default)
+        return np.full(n, default)
     return np.where(np.isnan(np.asarray(value, float)), default, np.asarray(value, float))
 
 
-def buckling_values(rows: MemberRows) -> dict[str, np.ndarray]:
+def buckling_values(rows: MemberRows) -> BucklingValues:
     """Member buckling quantities per row (see the module docstring for the inputs).
 
-    Returns (R,) arrays: chi_y, chi_z, chi_T, chi_LT (computed, before 6.3.2.2(4); 1.0 where not
-    susceptible), lambda_bar_y,
-    lambda_bar_z, lambda_bar_T, lambda_bar_LT, N_cr_y_N, N_cr_z_N, N_cr_T_N, M_cr_Nm, M_cr_0_Nm,
-    C_1 (M_cr / M_cr,0; 1.0 where the segment carries no moment or the member is not susceptible),
-    curve_y, curve_z, curve_LT (object), ltb_susceptible, torsion_susceptible (bool),
-    ltb_segment_start_m, ltb_segment_end_m, ltb_segment_basis (object: how the member was cut
-    into segments, `SEGMENT_BASIS`), section_class_member (float 1 .. 4, NaN unknown),
-    reason (object: '' or why some values are NaN), the per-check reasons reason_y, reason_z,
-    reason_T, reason_LT, and the intermediate LTB values (alpha_LT, k_c, k_c_case, psi, f,
-    chi_LT_unmodified, M_Ed_LT_Nm, x_LT_m, W_y_m3, n_segments, ltb_negligible, lambda_LT_0), all
-    of the segment that governs eq. (6.54); what 6.3.3 uses: chi_LT_interaction,
-    ltb_negligible_interaction (6.3.2.2(4) applied there), C_1_interaction and
-    interaction_segment_start_m / _end_m (the segment that governs with that chi_LT);
-    A_buckling_m2 (A, or A_eff for class 4) and the effective A_eff_m2, W_eff_y_m3 (NaN for rows
-    without class 4).
+    Returns a `BucklingValues` with every field filled (its docstring says what each holds):
+    the flexural and torsional values of 6.3.1, those of the lateral-torsional buckling segment
+    that governs eq. (6.54), what 6.3.3 uses (chi_LT_interaction and its segment) and the
+    reasons, joined and per check.
     chi_y, chi_z and chi_T are eq. (6.49) values; the 6.3.1.2(4) rule is applied by the checks.
     """
     R = rows.n_rows
@@ -123,7 +114,7 @@ def buckling_values(rows: MemberRows) -> dict[str, np.ndarray]:
     E, G, f_y = np.asarray(rows.E, float), np.asarray(rows.G, float), np.asarray(rows.f_y, float)
     hollow = (shape == "RHS") | (shape == "CHS")
     generic = ~hollow & (shape != "I")
-    restrained = np.asarray(rows.info.get("ltb_restrained", np.zeros(R, bool)), bool)
+    restrained = np.asarray(given(rows.info.ltb_restrained, np.zeros(R, bool)), bool)
 
     cls = _member_class(rows)
     eff = eff_rows.effective_values(rows)
@@ -137,7 +128,7 @@ def buckling_values(rows: MemberRows) -> dict[str, np.ndarray]:
     A_b = np.where(class_4, eff["A_eff"], num["A"])  # A_eff for class 4 (6.48, 6.51, 6.52)
     _add(common, np.isnan(cls) & ~generic, CLASS_UNKNOWN)
 
-    grade = rows.info.get("grade")
+    grade = rows.info.grade
     s460 = (np.char.startswith(np.asarray(grade, dtype=str), "S460") if grade is not None
             else np.zeros(R, bool))
     curve_y, curve_z = fb.buckling_curves(shape, fab, num["h"], num["b"], num["t_f"], s460=s460)
@@ -182,7 +173,7 @@ def buckling_values(rows: MemberRows) -> dict[str, np.ndarray]:
     out["A_buckling_m2"] = A_b
     out["A_eff_m2"], out["W_eff_y_m3"] = eff["A_eff"], eff["W_eff_y"]
     out["reason"] = joined
-    return out
+    return BucklingValues(**out)
 
 
 def _ltb_values(rows: MemberRows, shape, fab, num, cls, hollow, restrained, common, joined
@@ -251,10 +242,10 @@ def _segment_plan(rows: MemberRows, L_LT: np.ndarray
     """
     R = rows.n_rows
     length = np.asarray(rows.length, float)
-    given = rows.info.get("L_LT_override")
-    given = (np.zeros(R, bool) if given is None
-             else np.equal(np.asarray(given, dtype=object), True))  # True, not merely truthy
-    points = rows.info.get("ltb_points_m")
+    override = rows.info.L_LT_override
+    override = (np.zeros(R, bool) if override is None
+                else np.equal(np.asarray(override, dtype=object), True))  # True, not truthy
+    points = rows.info.ltb_points_m
     points = np.full((R, 0), np.nan) if points is None else np.asarray(points, float)
     if points.shape[1] < 2:
         points = np.concatenate([points, np.full((R, 2 - points.shape[1]), np.nan)], axis=1)
@@ -263,12 +254,12 @@ def _segment_plan(rows: MemberRows, L_LT: np.ndarray
     with np.errstate(invalid="ignore"):
         rising = ~np.any(np.diff(points, axis=1) <= POINT_TOL_M, axis=1)
         real = ((count >= 2) & (points[:, 0] <= POINT_TOL_M) & (last >= length - POINT_TOL_M)
-                & rising & ~given)
+                & rising & ~override)
     with np.errstate(invalid="ignore", divide="ignore"):
         n_equal = np.where(L_LT < length, np.clip(np.round(length / L_LT), 1, MAX_SEGMENTS), 1)
     n_equal = np.where(np.isfinite(n_equal), n_equal, 1).astype(int)
     n_seg = np.where(real, count - 1, n_equal)
-    basis = np.where(real, REAL_SPANS, np.where(given, GIVEN_LENGTH, NO_POSITIONS))
+    basis = np.where(real, REAL_SPANS, np.where(override, GIVEN_LENGTH, NO_POSITIONS))
     return n_seg, basis, points
 
 
@@ -302,9 +293,11 @@ def _segments(rows: MemberRows, todo: np.ndarray, n_seg: np.ndarray, real: np.nd
     M = rows.My[seg_row]
     E, G = np.asarray(rows.E, float)[seg_row], np.asarray(rows.G, float)[seg_row]
     I_z, I_t, I_w = (num[k][seg_row] for k in ("I_z", "I_t", "I_w"))
-    k, k_w = _info(rows, "k_LT", 1.0)[seg_row], _info(rows, "k_w", 1.0)[seg_row]
-    z_g = _info(rows, "z_g", 0.0)[seg_row]
-    z_up = rows.info.get("z_up")
+    R = rows.n_rows
+    k = _or_default(rows.info.k_LT, R, 1.0)[seg_row]
+    k_w = _or_default(rows.info.k_w, R, 1.0)[seg_row]
+    z_g = _or_default(rows.info.z_g, R, 0.0)[seg_row]
+    z_up = rows.info.z_up
     if z_up is not None:  # heights along local +z, where the load-height term is exact
         z_g = np.where(np.asarray(z_up, bool)[seg_row], z_g, -z_g)
     ends = cm.end_moments(xi, M)
@@ -399,8 +392,15 @@ def _compression(rows: MemberRows) -> tuple[np.ndarray, np.ndarray]:
     return N_Ed, rows.x[r, idx]
 
 
-def _buckling(rows: MemberRows) -> dict[str, np.ndarray]:
-    values = rows.info.get("buckling")
+def _need(value: np.ndarray | None, name: str) -> np.ndarray:
+    """A buckling value the check cannot do without (`buckling_values` fills every field)."""
+    if value is None:
+        raise ValueError(f"buckling values lack {name}")
+    return value
+
+
+def _buckling(rows: MemberRows) -> BucklingValues:
+    values = rows.info.buckling
     return values if values is not None else buckling_values(rows)
 
 
@@ -415,26 +415,26 @@ def flexural_buckling_checks(rows: MemberRows) -> list[CheckBlock]:
     st = rows.settings
     R = rows.n_rows
     f_y = np.asarray(rows.f_y, float)
-    A = np.asarray(b.get("A_buckling_m2", rows.section["A"]), float)  # A_eff for class 4
+    A = np.asarray(given(b.A_buckling_m2, rows.section["A"]), float)  # A_eff for class 4
     N_Ed, x_N = _compression(rows)
     compressed = np.nan_to_num(N_Ed, nan=1.0) > 0  # a NaN force is reported, not skipped
     shape = np.asarray(rows.section["shape"], dtype=object)
     open_section = (shape != "RHS") & (shape != "CHS")
     blocks = []
-    for check, clause, key, lam_key, ncr_key, curve, applies, L_key in (
-            ("flexural buckling y-y", "6.3.1.1 (6.46)", "y", "lambda_bar_y", "N_cr_y_N",
-             b["curve_y"], compressed, "L_cr_y"),
-            ("flexural buckling z-z", "6.3.1.1 (6.46)", "z", "lambda_bar_z", "N_cr_z_N",
-             b["curve_z"], compressed, "L_cr_z"),
-            ("torsional buckling", "6.3.1.4", "T", "lambda_bar_T", "N_cr_T_N",
-             b["curve_z"], compressed & open_section, "L_cr_T")):
-        lam, N_cr = np.asarray(b[lam_key], float), np.asarray(b[ncr_key], float)
-        chi_649 = np.asarray(b[f"chi_{key}"], float)
+    for check, clause, lam, N_cr, chi_649, curve, reason_given, applies, L_key in (
+            ("flexural buckling y-y", "6.3.1.1 (6.46)", b.lambda_bar_y, b.N_cr_y_N, b.chi_y,
+             _need(b.curve_y, "curve_y"), b.reason_y, compressed, "L_cr_y"),
+            ("flexural buckling z-z", "6.3.1.1 (6.46)", b.lambda_bar_z, b.N_cr_z_N, b.chi_z,
+             _need(b.curve_z, "curve_z"), b.reason_z, compressed, "L_cr_z"),
+            ("torsional buckling", "6.3.1.4", b.lambda_bar_T, b.N_cr_T_N, b.chi_T,
+             _need(b.curve_z, "curve_z"), b.reason_T, compressed & open_section, "L_cr_T")):
+        lam, N_cr = np.asarray(lam, float), np.asarray(N_cr, float)
+        chi_649 = np.asarray(chi_649, float)
         alpha = fb.imperfection_factor(curve)
         negligible = fb.buckling_negligible(lam, N_Ed, N_cr)
         chi_used = np.where(negligible & ~np.isnan(chi_649), 1.0, chi_649)
         N_b = fb.N_b_Rd(chi_used, A, f_y, gamma_M1=st.gamma_M1)
-        reason = np.asarray(b.get(f"reason_{key}", b["reason"]), dtype=object).copy()
+        reason = np.asarray(given(reason_given, b.reason), dtype=object).copy()
         _add(reason, np.isnan(N_Ed), "axial force not known at some station")
         with np.errstate(invalid="ignore", divide="ignore"):
             util = np.where(reason == "", N_Ed / N_b, np.nan)
@@ -445,8 +445,8 @@ def flexural_buckling_checks(rows: MemberRows) -> list[CheckBlock]:
                     "N_cr_N": N_cr, "lambda_bar": lam, "buckling_curve": curve, "alpha": alpha,
                     "Phi": fb.Phi(lam, alpha), "chi_6_49": chi_649,
                     "buckling_negligible": negligible, "chi": chi_used, "A_m2": A,
-                    "A_eff_m2": np.asarray(b.get("A_eff_m2", np.full(R, np.nan)), float),
-                    "section_class_member": b["section_class_member"], "f_y_Pa": f_y,
+                    "A_eff_m2": np.asarray(given(b.A_eff_m2, np.full(R, np.nan)), float),
+                    "section_class_member": b.section_class_member, "f_y_Pa": f_y,
                     "gamma_M1": np.full(R, st.gamma_M1),
                     "N_b_Rd_N": N_b}))
     return blocks
@@ -463,36 +463,38 @@ def lateral_torsional_checks(rows: MemberRows) -> list[CheckBlock]:
     My = np.where(rows.valid, rows.My, 0.0)
     nan_force = np.any(np.isnan(rows.My) & rows.valid, axis=1)
     bent = np.any(np.abs(np.nan_to_num(My)) > 0, axis=1) | nan_force
-    applies = bent & np.asarray(b["ltb_susceptible"], bool)
-    reason = np.asarray(b.get("reason_LT", b["reason"]), dtype=object).copy()
+    applies = bent & np.asarray(b.ltb_susceptible, bool)
+    reason = np.asarray(given(b.reason_LT, b.reason), dtype=object).copy()
     _add(reason, nan_force, "bending moment M_y not known at some station")
-    W_y, f_y = np.asarray(b["W_y_m3"], float), np.asarray(rows.f_y, float)
-    chi_computed = np.asarray(b["chi_LT"], float)
+    W_y, f_y = np.asarray(_need(b.W_y_m3, "W_y_m3"), float), np.asarray(rows.f_y, float)
+    chi_computed = np.asarray(b.chi_LT, float)
     # 6.3.2.2(4): where lateral-torsional buckling may be ignored, chi_LT = 1 in this check
-    negligible = np.asarray(b["ltb_negligible"], bool)
+    negligible = np.asarray(_need(b.ltb_negligible, "ltb_negligible"), bool)
     chi_LT = np.where(negligible & ~np.isnan(chi_computed), 1.0, chi_computed)
     M_b = lt.M_b_Rd(chi_LT, W_y, f_y, gamma_M1=st.gamma_M1)
-    M_Ed = np.asarray(b["M_Ed_LT_Nm"], float)
+    M_Ed = np.asarray(_need(b.M_Ed_LT_Nm, "M_Ed_LT_Nm"), float)
     with np.errstate(invalid="ignore", divide="ignore"):
         util = np.where(reason == "", M_Ed / M_b, np.nan)
     R = rows.n_rows
-    values = {"M_y_Ed_Nm": M_Ed, "segment_start_m": b["ltb_segment_start_m"],
-              "segment_end_m": b["ltb_segment_end_m"], "n_segments": b["n_segments"],
-              "segments_from": b.get("ltb_segment_basis", np.full(R, "", dtype=object)),
-              "M_cr_Nm": b["M_cr_Nm"], "M_cr_0_Nm": b["M_cr_0_Nm"], "C_1": b["C_1"],
-              "W_y_m3": W_y, "W_eff_y_m3": b.get("W_eff_y_m3", np.full(R, np.nan)),
-              "section_class_member": b["section_class_member"],
-              "lambda_bar_LT": b["lambda_bar_LT"], "buckling_curve": b["curve_LT"],
-              "alpha_LT": b["alpha_LT"], "lambda_LT_0": b["lambda_LT_0"],
+    values = {"M_y_Ed_Nm": M_Ed, "segment_start_m": b.ltb_segment_start_m,
+              "segment_end_m": b.ltb_segment_end_m, "n_segments": _need(b.n_segments, "n_segments"),
+              "segments_from": given(b.ltb_segment_basis, np.full(R, "", dtype=object)),
+              "M_cr_Nm": b.M_cr_Nm, "M_cr_0_Nm": b.M_cr_0_Nm, "C_1": b.C_1,
+              "W_y_m3": W_y, "W_eff_y_m3": given(b.W_eff_y_m3, np.full(R, np.nan)),
+              "section_class_member": b.section_class_member,
+              "lambda_bar_LT": b.lambda_bar_LT, "buckling_curve": _need(b.curve_LT, "curve_LT"),
+              "alpha_LT": _need(b.alpha_LT, "alpha_LT"),
+              "lambda_LT_0": _need(b.lambda_LT_0, "lambda_LT_0"),
               "beta": np.full(R, np.nan if st.ltb_method == "general" else st.beta_LT),
-              "chi_LT_unmodified": b["chi_LT_unmodified"], "k_c": b["k_c"],
-              "k_c_case": b["k_c_case"], "psi": b["psi"],
+              "chi_LT_unmodified": _need(b.chi_LT_unmodified, "chi_LT_unmodified"),
+              "k_c": _need(b.k_c, "k_c"),
+              "k_c_case": _need(b.k_c_case, "k_c_case"), "psi": _need(b.psi, "psi"),
               "f_modification": np.full(R, st.f_modification and st.ltb_method != "general"),
-              "f": b["f"], "chi_LT_mod": chi_computed, "ltb_negligible": negligible,
+              "f": _need(b.f, "f"), "chi_LT_mod": chi_computed, "ltb_negligible": negligible,
               "chi_LT": chi_LT,
               "method": np.full(R, "6.3.2.2 general" if st.ltb_method == "general"
                                 else "6.3.2.3 rolled", dtype=object),
               "f_y_Pa": f_y, "gamma_M1": np.full(R, st.gamma_M1), "M_b_Rd_Nm": M_b}
     return [CheckBlock(check="lateral-torsional buckling", clause="6.3.2.1 (6.54)",
-                       utilisation=util, x=np.asarray(b["x_LT_m"], float), applies=applies,
-                       reason=reason, values=values)]
+                       utilisation=util, x=np.asarray(_need(b.x_LT_m, "x_LT_m"), float),
+                       applies=applies, reason=reason, values=values)]

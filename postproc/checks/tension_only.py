@@ -19,6 +19,7 @@ from __future__ import annotations
 
 import numpy as np
 
+from ..model.member_info import given
 from ..model.rows import CheckBlock, MemberRows
 
 __all__ = ["COMPRESSION_TOL_N", "left_out_for_tension_only", "slenderness_ratio",
@@ -42,8 +43,8 @@ def slenderness_ratio(length: np.ndarray, i_y: np.ndarray, i_z: np.ndarray) -> n
 def tension_only_checks(rows: MemberRows) -> list[CheckBlock]:
     """The slenderness of tension-only members, and their rows in compression not evaluated."""
     n = len(rows.member)
-    applies = np.asarray(rows.info.get("tension_only", np.zeros(n, dtype=bool)), bool)
-    limit = np.asarray(rows.info.get("slenderness_limit", np.full(n, np.nan)), float)
+    applies = np.asarray(given(rows.info.tension_only, np.zeros(n, dtype=bool)), bool)
+    limit = np.asarray(given(rows.info.slenderness_limit, np.full(n, np.nan)), float)
     ratio = slenderness_ratio(rows.length, rows.section["i_y"], rows.section["i_z"])
     most_compression = np.minimum(-np.max(np.where(rows.valid, -rows.N, -np.inf), axis=1), 0.0)
     with np.errstate(divide="ignore", invalid="ignore"):

@@ -17,15 +17,19 @@ from .. import materials
 from ..settings import DesignSettings
 from ..stability.lengths import restraint_positions
 from .frame import Frame, element_vectors
+from .member_info import MemberInfo
 from .members import Members, member_axes
 from .results import FORCE_COLUMNS
 from .rows import MemberRows
 
-__all__ = ["FLIP_SIGN", "LENGTH_KEYS", "build_member_rows", "member_properties"]
+__all__ = ["FLIP_SIGN", "LENGTHS_TABLE_INFO", "LENGTH_KEYS", "build_member_rows",
+           "member_properties"]
 
 # Force columns that change sign when the member runs against the element (local y and x reverse)
 FLIP_SIGN = {"Vz_N", "Mz_Nm"}
 LENGTH_KEYS = ("L_cr_y", "L_cr_z", "L_cr_T", "L_LT")
+LENGTHS_TABLE_INFO = ("sway_y", "sway_z", "L_LT_override")
+"""Columns of the lengths table that a check reads: fields of `MemberInfo` of the same name."""
 
 
 
@@ -168,8 +172,7 @@ def _is_sorted(key: np.ndarray, x: np.ndarray) -> bool:
 
 
 def member_properties(section_rows: pd.DataFrame, grades: np.ndarray
-                      ) -> tuple[dict[str, np.ndarray], np.ndarray, np.ndarray,
-                                 dict[str, np.ndarray]]:
+                      ) -> tuple[dict[str, np.ndarray], np.ndarray, np.ndarray, np.ndarray]:
     """What every check needs to know about a member besides its forces and lengths.
 
     The one place that turns a member's section and steel grade into row data, used by the frame
@@ -181,18 +184,18 @@ def member_properties(section_rows: pd.DataFrame, grades: np.ndarray
 
     Returns:
         (section columns as (M,) arrays, f_y (M,), f_u (M,) from Table 3.1 by the thickest part,
-        info: 'grade' (M,) the canonical grade name, which selects the S460 column of Table 6.2).
+        (M,) the canonical grade names (`MemberInfo.grade`)).
     """
     section = {column: section_rows[column].to_numpy() for column in section_rows.columns}
-    grades = pd.Series(np.asarray(grades), dtype=object).astype(str)
-    f_y, f_u = materials.strengths(grades.to_numpy(), section["t_max"].astype(float))
-    canonical = {g: materials.grade_name(g) for g in grades.unique()}
-    return section, f_y, f_u, {"grade": grades.map(canonical).to_numpy()}
+    names = pd.Series(np.asarray(grades), dtype=object).astype(str)
+    f_y, f_u = materials.strengths(names.to_numpy(), section["t_max"].astype(float))
+    canonical = {g: materials.grade_name(g) for g in names.unique()}
+    return section, f_y, f_u, names.map(canonical).to_numpy()
 
 
 def build_member_rows(frame: Frame, forces: pd.DataFrame, members: Members,
-                      settings: DesignSettings, lengths: pd.DataFrame | None = None,
-                      info: dict[str, np.ndarray] | None = None) -> MemberRows:
+                      settings: DesignSettings, lengths: pd.DataFrame | None = None
+                      ) -> MemberRows:
     """Assemble MemberRows for every (member, combination) that has forces.
 
     Args:
@@ -201,14 +204,13 @@ def build_member_rows(frame: Frame, forces: pd.DataFrame, members: Members,
         members: the design members.
         settings: design settings in force.
         lengths: one row per (member, combination) with L_cr_y_m, L_cr_z_m, L_cr_T_m, L_LT_m and
-            any other per-row columns (sway_y, sway_z, origin_*, L_LT_override), which go into
-            info; rows missing here get NaN lengths, so the checks that need them are not
-            evaluated.
+            any other per-row columns: sway_y, sway_z and L_LT_override go into the fields
+            of `MemberInfo` of that name, the rest (origin_*) into `MemberInfo.extra`; rows
+            missing here get NaN lengths (None in info), so the checks that need them are
+            not evaluated.
 
-    Besides those columns, info holds 'z_up' (R,) bool, the member information of
-    `member_properties`, and 'ltb_points_m' (R, P): the positions of the member's lateral
-    ('y') restraint points along it, ascending, NaN padding (`restraint_positions`).
-        info: extra per-row arrays, aligned with the returned rows (rarely needed).
+    Besides those columns, info holds z_up, the grade of `member_properties` and ltb_points_m:
+    the positions of the member's lateral ('y') restraint points (`restraint_positions`).
     """
     _, element_length = element_vectors(frame)
     lengths_by_element = pd.Series(element_length, index=frame.elements.index)
@@ -218,13 +220,13 @@ def build_member_rows(frame: Frame, forces: pd.DataFrame, members: Members,
     code = keys["member_code"].to_numpy()
     member_table = members.members
     section_rows = sections.loc[member_table["section"].to_numpy()]
-    per_member, f_y_m, f_u_m, info_m = member_properties(section_rows,
+    per_member, f_y_m, f_u_m, grade_m = member_properties(section_rows,
                                                          member_table["grade"].to_numpy())
     section = {column: values[code] for column, values in per_member.items()}
     f_y, f_u = f_y_m[code], f_u_m[code]
     n = len(keys)
     length_arrays = {key: np.full(n, np.nan) for key in LENGTH_KEYS}
-    row_info: dict[str, np.ndarray] = {}
+    from_lengths: dict[str, np.ndarray] = {}
     if lengths is not None and len(lengths):
         member_index = pd.Index(member_table.index.astype(str))
         combination_index = pd.Index(keys.attrs["combinations"])
@@ -251,17 +253,17 @@ def build_member_rows(frame: Frame, forces: pd.DataFrame, members: Members,
                 if (~found).any():
                     out = out.astype(object)
                     out[~found] = None
-                row_info[column] = out
+                from_lengths[column] = out
     # the member's local +z points up (load height above the shear centre is then +z_g), and
     # the member information of member_properties
     axes = member_axes(frame, members.members, members.member_elements)
     z_up_m = axes[:, 2, frame.vertical_axis] > 0.0
-    row_info["z_up"] = z_up_m[code]
     # where the member is held laterally: the lateral-torsional buckling segments (P per member,
     # NaN padding; taken per row by integer code, no loop over rows)
-    row_info["ltb_points_m"] = restraint_positions(members, "y")[code]
-    row_info.update({key: values[code] for key, values in info_m.items()})
-    row_info.update(info or {})
+    sway_y, sway_z, L_LT_override = (from_lengths.pop(key, None) for key in LENGTHS_TABLE_INFO)
+    row_info = MemberInfo(grade=grade_m[code], z_up=z_up_m[code],
+                          ltb_points_m=restraint_positions(members, "y")[code], sway_y=sway_y,
+                          sway_z=sway_z, L_LT_override=L_LT_override, extra=from_lengths)
     return MemberRows(
         member=keys["member"].to_numpy(), combination=keys["combination"].to_numpy(),
         x=arrays["x_m"], N=arrays["N_N"], Vy=arrays["Vy_N"], Vz=arrays["Vz_N"], T=arrays["T_Nm"],

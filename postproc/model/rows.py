@@ -7,11 +7,12 @@ loop over members or combinations.
 
 from __future__ import annotations
 
-from dataclasses import dataclass, field, fields
+from dataclasses import dataclass, field, fields, is_dataclass, replace
 
 import numpy as np
 
 from ..settings import DesignSettings
+from .member_info import MemberInfo
 
 __all__ = ["CheckBlock", "FAIL", "MemberRows", "NOT_EVALUATED", "PASS", "at_station",
            "block_concat", "governing", "no_reason", "rows_concat", "rows_slice"]
@@ -47,8 +48,9 @@ class MemberRows:
         lengths: dict of (R,) buckling and restraint lengths, m: 'L_cr_y', 'L_cr_z', 'L_cr_T',
             'L_LT' (NaN where unknown: the check that needs it is then not evaluated), plus
             anything else the graph layer provides (documented there).
-        info: dict of (R,) arrays of other per-row data (analysis path, sway flags, restraint
-            flags, member kind, net area ...); each key documented where it is produced.
+        info: the other per-row data (grade, sway flags, restraints, overrides, section class
+            per station, effective properties, buckling values): `MemberInfo`, every field
+            documented there.
         settings: the design settings in force.
     """
 
@@ -68,7 +70,7 @@ class MemberRows:
     E: np.ndarray
     G: np.ndarray
     lengths: dict[str, np.ndarray] = field(default_factory=dict)
-    info: dict[str, np.ndarray] = field(default_factory=dict)
+    info: MemberInfo = field(default_factory=MemberInfo)
     settings: DesignSettings = field(default_factory=DesignSettings)
 
     @property
@@ -146,25 +148,38 @@ def no_reason(n: int) -> np.ndarray:
 
 
 def _slice_value(value, a: int, b: int, n: int):
-    """Slice per-row arrays (first axis n), recurse into dicts, keep anything else."""
+    """Slice per-row arrays (first axis n), recurse into dicts and dataclasses of row data
+    (`MemberRows` itself, `MemberInfo`, `BucklingValues`), keep anything else (settings, None)."""
     if isinstance(value, dict):
         return {k: _slice_value(v, a, b, n) for k, v in value.items()}
+    if _is_row_data(value):
+        return replace(value, **{f.name: _slice_value(getattr(value, f.name), a, b, n)
+                                 for f in fields(value) if f.init})
     if isinstance(value, np.ndarray) and value.ndim >= 1 and value.shape[0] == n:
         return value[a:b]
     return value
 
 
+def _is_row_data(value) -> bool:
+    """A dataclass instance holding row arrays (not the settings, which no row owns)."""
+    return (is_dataclass(value) and not isinstance(value, type)
+            and not isinstance(value, DesignSettings))
+
+
 def rows_slice(rows: MemberRows, a: int, b: int) -> MemberRows:
     """Rows a..b (a view: no copy of the force arrays)."""
-    n = rows.n_rows
-    return MemberRows(**{f.name: _slice_value(getattr(rows, f.name), a, b, n)
-                         for f in fields(MemberRows)})
+    return _slice_value(rows, a, b, rows.n_rows)
 
 
 def _concat_value(values: list):
+    """Join what `_slice_value` cut, part by part in order (a value that is not row data, such
+    as the settings or a None field, is taken from the first part)."""
     first = values[0]
     if isinstance(first, dict):
         return {k: _concat_value([v[k] for v in values]) for k in first}
+    if _is_row_data(first):
+        return replace(first, **{f.name: _concat_value([getattr(v, f.name) for v in values])
+                                 for f in fields(first) if f.init})
     if isinstance(first, np.ndarray) and first.ndim >= 1:
         return np.concatenate(values, axis=0)
     return first
@@ -172,8 +187,7 @@ def _concat_value(values: list):
 
 def rows_concat(parts: list[MemberRows]) -> MemberRows:
     """Rows of several slices joined in order (the inverse of rows_slice)."""
-    return MemberRows(**{f.name: _concat_value([getattr(p, f.name) for p in parts])
-                         for f in fields(MemberRows)})
+    return _concat_value(parts)
 
 
 def block_concat(parts: list[CheckBlock]) -> CheckBlock:

@@ -7,12 +7,15 @@ Expected resistances are worked in the tests from the equation named beside them
 
 from __future__ import annotations
 
+from dataclasses import replace
+
 import numpy as np
 import pytest
 from scipy.optimize import brentq
 
 from postproc.checks import cross_section as fam
 from postproc.errors import InputError
+from postproc.model.member_info import MemberInfo
 from postproc.model.rows import FAIL, NOT_EVALUATED, PASS, MemberRows
 from postproc.settings import DesignSettings
 
@@ -59,10 +62,10 @@ def make_rows(sections, *, N=0.0, Vy=0.0, Vz=0.0, T=0.0, My=0.0, Mz=0.0, section
     section = {k: np.array([s[k] for s in sections], dtype=float) for k in COLUMNS}
     section["shape"] = np.array([s["shape"] for s in sections], dtype=object)
     section["fabrication"] = np.array([s["fabrication"] for s in sections], dtype=object)
-    info = {"section_class": grid(section_class).astype(np.int8),
-            "class_part": grid(class_part, dtype=object)}
-    if A_net is not None:
-        info["A_net"] = np.broadcast_to(np.asarray(A_net, float), (R,)).copy()
+    info = MemberInfo(section_class=grid(section_class).astype(np.int8),
+                      class_part=grid(class_part, dtype=object),
+                      A_net=(None if A_net is None
+                             else np.broadcast_to(np.asarray(A_net, float), (R,)).copy()))
     return MemberRows(
         member=np.array([f"M{i + 1}" for i in range(R)], dtype=object),
         combination=np.full(R, "ULS1", dtype=object), x=grid(x), N=grid(N), Vy=grid(Vy),
@@ -421,14 +424,14 @@ def test_rhs_shear_both_directions():
 
 def test_class_array_of_wrong_shape_is_refused():
     rows = make_rows([IPE300], My=1e3)
-    rows.info["section_class"] = np.ones((1, 5), dtype=np.int8)
+    rows = replace(rows, info=replace(rows.info, section_class=np.ones((1, 5), dtype=np.int8)))
     with pytest.raises(ValueError, match=r"section_class.*expected \(1, 3\)"):
         fam.cross_section_checks(rows)
 
 
 def test_missing_class_is_unknown_not_a_pass():
     rows = make_rows([IPE300], N=-10e3, My=1e3)
-    del rows.info["section_class"]
+    rows = replace(rows, info=replace(rows.info, section_class=None))
     b = blocks(rows)
     assert b["compression"].reason[0] == fam.CLASS_UNKNOWN
     assert b["bending y-y"].status()[0] == NOT_EVALUATED
@@ -441,8 +444,8 @@ def test_no_rows_gives_empty_blocks():
 
 def test_class_per_row_broadcasts_over_stations():
     rows = make_rows([IPE300, IPE300], My=100e3)
-    rows.info["section_class"] = np.array([2, 3], dtype=np.int8)
-    rows.info["class_part"] = np.array(["flange", "web"], dtype=object)
+    rows = replace(rows, info=replace(rows.info, section_class=np.array([2, 3], dtype=np.int8),
+                                      class_part=np.array(["flange", "web"], dtype=object)))
     m = blocks(rows)["bending y-y"]
     close(m.values["M_c_y_Rd_Nm"], [IPE300["W_pl_y"] * S355, IPE300["W_el_y"] * S355])
     assert list(m.values["class_part"]) == ["flange", "web"]

@@ -1,14 +1,18 @@
 """The 6.3.3 check family: rows in, 'interaction 6.61' / 'interaction 6.62' blocks out.
 
-The buckling values are passed in `rows.info['buckling']`, so these tests stand on their own. The
+The buckling values are passed in `rows.info.buckling`, so these tests stand on their own. The
 worked IPE 300 column is the hand calculation in tests/ec3/test_interaction_annex_b.py (Annex B)
 and tests/ec3/test_interaction_annex_a.py (Annex A): tolerance HAND (0.1 %, four figures).
 """
+
+from dataclasses import replace
 
 import numpy as np
 import pytest
 
 from postproc.checks.interaction import CLASS_4, interaction_checks
+from postproc.model.buckling_values import BucklingValues
+from postproc.model.member_info import MemberInfo
 from postproc.model.rows import FAIL, NOT_EVALUATED, PASS, MemberRows
 from postproc.settings import DesignSettings
 
@@ -21,23 +25,23 @@ IPE300 = dict(A=53.8e-4, I_y=8356e-8, I_z=604e-8, W_pl_y=628e-6, W_pl_z=125e-6, 
 E, G, F_Y = 210e9, 81e9, 355e6
 
 
-def hand_buckling(n: int) -> dict[str, np.ndarray]:
+def hand_buckling(n: int) -> BucklingValues:
     """Buckling values of the worked column (4.0 m, psi = 0), steps 1-4 of the hand calculation."""
     def one(v: float) -> np.ndarray:
         return np.full(n, v)
 
-    return {"chi_y": one(0.9474), "chi_z": one(0.3203), "chi_T": one(np.nan),
-            "chi_LT": one(0.7670), "lambda_bar_y": one(0.4201), "lambda_bar_z": one(1.5624),
-            "lambda_bar_T": one(np.nan), "lambda_bar_LT": one(0.8880),
-            "N_cr_y_N": one(10824.2e3), "N_cr_z_N": one(782.41e3), "N_cr_T_N": one(1957.6e3),
-            "M_cr_Nm": one(282.7e3), "M_cr_0_Nm": one(159.715e3), "C_1": one(1.77),
-            "ltb_susceptible": np.ones(n, bool), "torsion_susceptible": np.ones(n, bool),
-            "ltb_segment_start_m": one(0.0), "ltb_segment_end_m": one(L),
-            "section_class_member": one(2.0), "reason": np.full(n, "", dtype=object)}
+    return BucklingValues(
+        chi_y=one(0.9474), chi_z=one(0.3203), chi_T=one(np.nan), chi_LT=one(0.7670),
+        lambda_bar_y=one(0.4201), lambda_bar_z=one(1.5624), lambda_bar_T=one(np.nan),
+        lambda_bar_LT=one(0.8880), N_cr_y_N=one(10824.2e3), N_cr_z_N=one(782.41e3),
+        N_cr_T_N=one(1957.6e3), M_cr_Nm=one(282.7e3), M_cr_0_Nm=one(159.715e3), C_1=one(1.77),
+        ltb_susceptible=np.ones(n, bool), torsion_susceptible=np.ones(n, bool),
+        ltb_segment_start_m=one(0.0), ltb_segment_end_m=one(L), section_class_member=one(2.0),
+        reason=np.full(n, "", dtype=object))
 
 
 def make_rows(N: np.ndarray, My: np.ndarray, Mz: np.ndarray | None = None, *,
-              buckling: dict | None = None, annex: str = "B", length: float = L,
+              buckling: BucklingValues | None = None, annex: str = "B", length: float = L,
               **info: np.ndarray) -> MemberRows:
     """Rows of IPE 300 S355 members with the given (R, S) forces at S equally spaced stations."""
     N, My = np.atleast_2d(N), np.atleast_2d(My)
@@ -52,7 +56,8 @@ def make_rows(N: np.ndarray, My: np.ndarray, Mz: np.ndarray | None = None, *,
                       combination=np.full(R, "ULS1", dtype=object), x=x, N=N, Vy=z, Vz=z, T=z,
                       My=My, Mz=Mz, length=np.full(R, length), section=section,
                       f_y=np.full(R, F_Y), f_u=np.full(R, 490e6), E=np.full(R, E),
-                      G=np.full(R, G), info={"buckling": buckling or hand_buckling(R), **info},
+                      G=np.full(R, G),
+                      info=MemberInfo(buckling=buckling or hand_buckling(R), **info),
                       settings=DesignSettings(annex=annex))
 
 
@@ -123,7 +128,7 @@ def test_which_rows_it_applies_to_and_design_values() -> None:
     Mz = np.zeros_like(My)
     Mz[5] = 5e3
     b = hand_buckling(7)
-    b["ltb_susceptible"][6] = False
+    b.ltb_susceptible[6] = False
     blk = interaction_checks(make_rows(N, My, Mz, buckling=b, sway_y=np.zeros(7, bool)))[0]
     assert list(blk.applies) == [True, True, False, True, True, False, False]
     # N_Ed is the largest compression; M_y,Ed the largest magnitude, sign dropped; without
@@ -139,9 +144,9 @@ def test_which_rows_it_applies_to_and_design_values() -> None:
 
 def test_not_evaluated_rows_never_pass() -> None:
     b = hand_buckling(4)
-    b["section_class_member"][1] = 4.0
-    b["reason"][2] = "buckling length L_cr_z not known"
-    b["chi_z"][3] = np.nan
+    b.section_class_member[1] = 4.0
+    b.reason[2] = "buckling length L_cr_z not known"
+    b.chi_z[3] = np.nan
     blocks = interaction_checks(worked_column(4, buckling=b))
     for blk in blocks:
         status = blk.status()
@@ -157,10 +162,10 @@ def test_only_the_reasons_of_the_values_used_count() -> None:
     # With per-check reasons given, a reason of torsional buckling alone (not used by Annex B)
     # does not stop the check; one of flexural buckling about z-z does.
     b = hand_buckling(2)
-    b["reason"][:] = "chi_T: warping constant missing"
-    b["reason_y"] = np.array(["", ""], dtype=object)
-    b["reason_z"] = np.array(["", "buckling length L_cr,z not known"], dtype=object)
-    b["reason_LT"] = np.array(["", ""], dtype=object)
+    b.reason[:] = "chi_T: warping constant missing"
+    b = replace(b, reason_y=np.array(["", ""], dtype=object),
+                reason_z=np.array(["", "buckling length L_cr,z not known"], dtype=object),
+                reason_LT=np.array(["", ""], dtype=object))
     blk = interaction_checks(worked_column(2, buckling=b))[0]
     assert blk.reason[0] == "" and blk.utilisation[0] == pytest.approx(0.5154, rel=HAND)
     assert blk.reason[1] == "buckling length L_cr,z not known" and np.isnan(blk.utilisation[1])
@@ -188,7 +193,7 @@ def test_C_mLT_from_the_ltb_segment() -> None:
     # M_y 0 -> 80 kNm over 4 m; LTB segment from 2 m to 4 m carries 40 -> 80 kNm: psi = 0.5,
     # C_mLT = 0.6 + 0.4 * 0.5 = 0.8 (Table B.3), while C_my over the member stays 0.6.
     b = hand_buckling(2)
-    b["ltb_segment_start_m"][:] = [2.0, np.nan]
+    b.ltb_segment_start_m[:] = [2.0, np.nan]
     v = interaction_checks(worked_column(2, buckling=b))[0].values
     assert v["C_mLT"][0] == pytest.approx(0.8) and v["C_my"][0] == pytest.approx(0.6)
     assert v["psi_LT"][0] == pytest.approx(0.5)
@@ -199,8 +204,8 @@ def test_C_mLT_from_the_ltb_segment() -> None:
 
 def test_no_ltb_uses_chi_LT_one() -> None:
     b = hand_buckling(1)
-    b["ltb_susceptible"][:] = False
-    b["chi_LT"][:] = np.nan  # not computed where LTB cannot occur
+    b.ltb_susceptible[:] = False
+    b.chi_LT[:] = np.nan  # not computed where LTB cannot occur
     blk = interaction_checks(worked_column(1, buckling=b))[0]
     assert blk.values["chi_LT"][0] == 1.0 and blk.reason[0] == ""
     # eq. (6.61) with chi_LT = 1: 0.2211 + 0.6292 * 80 / 222.94 = 0.2211 + 0.2258 = 0.4469.
@@ -209,7 +214,7 @@ def test_no_ltb_uses_chi_LT_one() -> None:
 
 def test_force_at_or_above_N_cr_fails() -> None:
     b = hand_buckling(1)
-    b["N_cr_z_N"][:] = 350e3  # below N_Ed = 400 kN
+    b.N_cr_z_N[:] = 350e3  # below N_Ed = 400 kN
     for annex in ("A", "B"):
         for blk in interaction_checks(worked_column(1, buckling=b, annex=annex)):
             assert blk.status()[0] == FAIL and blk.utilisation[0] >= 400 / 350
@@ -229,7 +234,7 @@ def _chi_LT(lam: np.ndarray, alpha: float = 0.34) -> np.ndarray:
     return np.minimum(np.minimum(1.0, 1 / lam ** 2), chi)
 
 
-def ipe300_cases(length: np.ndarray, C_1: np.ndarray) -> dict[str, np.ndarray]:
+def ipe300_cases(length: np.ndarray, C_1: np.ndarray) -> BucklingValues:
     """Buckling values of pinned IPE 300 S355 columns free to twist (closed forms, eq. 6.49,
     Table 6.2 curves a (y-y) and b (z-z), 6.3.2.3 curve b)."""
     p = IPE300
@@ -243,14 +248,14 @@ def ipe300_cases(length: np.ndarray, C_1: np.ndarray) -> dict[str, np.ndarray]:
     lam_LT = np.sqrt(p["W_pl_y"] * F_Y / (C_1 * M_cr_0))
     N_cr_T = (G * p["I_t"] + np.pi ** 2 * E * p["I_w"] / length ** 2) / ((p["I_y"] + p["I_z"])
                                                                         / p["A"])
-    return {"chi_y": _chi(lam_y, 0.21), "chi_z": _chi(lam_z, 0.34), "chi_T": np.full(n, np.nan),
-            "chi_LT": _chi_LT(lam_LT), "lambda_bar_y": lam_y, "lambda_bar_z": lam_z,
-            "lambda_bar_T": np.full(n, np.nan), "lambda_bar_LT": lam_LT, "N_cr_y_N": N_cr_y,
-            "N_cr_z_N": N_cr_z, "N_cr_T_N": N_cr_T, "M_cr_Nm": C_1 * M_cr_0,
-            "M_cr_0_Nm": M_cr_0, "C_1": C_1, "ltb_susceptible": np.ones(n, bool),
-            "torsion_susceptible": np.ones(n, bool), "ltb_segment_start_m": np.zeros(n),
-            "ltb_segment_end_m": length, "section_class_member": np.full(n, 2.0),
-            "reason": np.full(n, "", dtype=object)}
+    return BucklingValues(
+        chi_y=_chi(lam_y, 0.21), chi_z=_chi(lam_z, 0.34), chi_T=np.full(n, np.nan),
+        chi_LT=_chi_LT(lam_LT), lambda_bar_y=lam_y, lambda_bar_z=lam_z,
+        lambda_bar_T=np.full(n, np.nan), lambda_bar_LT=lam_LT, N_cr_y_N=N_cr_y, N_cr_z_N=N_cr_z,
+        N_cr_T_N=N_cr_T, M_cr_Nm=C_1 * M_cr_0, M_cr_0_Nm=M_cr_0, C_1=C_1,
+        ltb_susceptible=np.ones(n, bool), torsion_susceptible=np.ones(n, bool),
+        ltb_segment_start_m=np.zeros(n), ltb_segment_end_m=length,
+        section_class_member=np.full(n, 2.0), reason=np.full(n, "", dtype=object))
 
 
 def test_utilisation_grows_with_N_and_M() -> None:
@@ -290,8 +295,8 @@ def test_annex_a_and_annex_b_agree_within_a_band() -> None:
     R = length.size
     C_1 = np.where(psi == 1.0, 1.0, 1.77)
     buckling = ipe300_cases(length, C_1)
-    N_Ed = n_share * buckling["chi_z"] * IPE300["A"] * F_Y  # shares of the z-z buckling load
-    M_Ed = m_share * buckling["chi_LT"] * IPE300["W_pl_y"] * F_Y  # shares of M_b,Rd
+    N_Ed = n_share * buckling.chi_z * IPE300["A"] * F_Y  # shares of the z-z buckling load
+    M_Ed = m_share * buckling.chi_LT * IPE300["W_pl_y"] * F_Y  # shares of M_b,Rd
     xi = np.linspace(0, 1, S)[None, :]
     My = M_Ed[:, None] * (1 - (1 - psi[:, None]) * (1 - xi))  # psi M at the foot, M at the top
     out = {}
@@ -309,14 +314,12 @@ def test_annex_a_and_annex_b_agree_within_a_band() -> None:
 
 def _with_lengths(rows: MemberRows, length: np.ndarray) -> MemberRows:
     """The same rows with member length and stations set per row."""
-    from dataclasses import replace
     x = length[:, None] * np.linspace(0, 1, rows.x.shape[1])[None, :]
     return replace(rows, x=x, length=length)
 
 
 # --- settings for the open points of 6.3.3 ----------------------------------------------------
 def _with_settings(rows: MemberRows, **settings) -> MemberRows:
-    from dataclasses import replace
     return replace(rows, settings=replace(rows.settings, **settings))
 
 
@@ -333,7 +336,6 @@ def test_k_zy_zero_of_the_table_b1_note_only_where_the_setting_allows() -> None:
     rows.section["shape"] = shape
     Mz = np.zeros_like(rows.My)
     Mz[4] = 1e3  # biaxial bending: the note does not cover it
-    from dataclasses import replace
     rows = replace(rows, Mz=Mz)
     expected = {"off": [False] * 5, "I": [True, False, False, False, False],
                 "I and RHS": [True, True, False, False, False]}
@@ -369,9 +371,10 @@ def test_C_mLT_segment_ends_interpolated_at_the_restraint_points() -> None:
     psi = 25 / 52 and C_mLT = 0.6 + 0.4 psi (Table B.3, linear diagram); a segment from 1.1 to
     1.4 m holds no station at all: M(1.1) = 22, M(1.4) = 28 kNm, psi = 22 / 28."""
     b = hand_buckling(2)
-    b["interaction_segment_start_m"] = np.array([1.25, 1.1])
-    b["interaction_segment_end_m"] = np.array([2.6, 1.4])
-    b["ltb_segment_basis"] = np.full(2, "spans between lateral restraint points", dtype=object)
+    b = replace(b, interaction_segment_start_m=np.array([1.25, 1.1]),
+                interaction_segment_end_m=np.array([2.6, 1.4]),
+                ltb_segment_basis=np.full(2, "spans between lateral restraint points",
+                                          dtype=object))
     v = interaction_checks(worked_column(2, buckling=b))[0].values
     for row, psi in ((0, 25 / 52), (1, 22 / 28)):
         assert v["psi_LT"][row] == pytest.approx(psi, rel=1e-9)

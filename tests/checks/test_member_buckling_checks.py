@@ -10,10 +10,13 @@ are in docs/references.md and checked in tests/ec3/test_lateral_torsional.py).
 
 from __future__ import annotations
 
+from dataclasses import replace
+
 import numpy as np
 import pytest
 
 from postproc.checks import member_buckling as fam
+from postproc.model.member_info import MemberInfo
 from postproc.model.rows import FAIL, NOT_EVALUATED, PASS, MemberRows
 from postproc.settings import DesignSettings
 
@@ -48,8 +51,7 @@ def make_rows(sections, *, N=0.0, My=0.0, x=(0.0, 1.5, 3.0, 4.5, 6.0), section_c
     section["fabrication"] = np.array([s["fabrication"] for s in sections], dtype=object)
     lengths = {"L_cr_y": per_row(L_cr, length), "L_cr_z": per_row(L_cr, length),
                "L_cr_T": per_row(L_cr_T, length), "L_LT": per_row(L_LT, length)}
-    row_info = {"section_class": grid(section_class).astype(np.int8)}
-    row_info.update(info or {})
+    row_info = MemberInfo(section_class=grid(section_class).astype(np.int8), **(info or {}))
     zeros = grid(0.0)
     return MemberRows(
         member=np.array([f"B{i + 1}" for i in range(R)], dtype=object),
@@ -140,8 +142,8 @@ def test_not_evaluated_paths():
             assert np.isnan(block.utilisation[row]) and word in block.reason[row]
             assert block.status()[row] == NOT_EVALUATED
     values = fam.buckling_values(rows)
-    assert "L_cr,y" in values["reason"][0] and "L_LT" in values["reason"][1]
-    assert np.isnan(values["section_class_member"][4]) and values["section_class_member"][2] == 4
+    assert "L_cr,y" in values.reason[0] and "L_LT" in values.reason[1]
+    assert np.isnan(values.section_class_member[4]) and values.section_class_member[2] == 4
 
 
 def test_nan_force_is_not_a_pass():
@@ -181,14 +183,14 @@ def test_ltb_segments_and_governing_segment():
     x = np.linspace(0.0, 6.0, 7)
     rows = make_rows([IPE300], My=120e3 * (1 - x / 6.0), x=tuple(x), L_LT=3.0)
     values = fam.buckling_values(rows)
-    assert values["ltb_segment_start_m"][0] == 0.0 and values["ltb_segment_end_m"][0] == 3.0
-    assert values["n_segments"][0] == 2
-    assert values["k_c_case"][0] == fam.lt.KC_LINEAR and values["psi"][0] == pytest.approx(0.5)
+    assert values.ltb_segment_start_m[0] == 0.0 and values.ltb_segment_end_m[0] == 3.0
+    assert values.n_segments[0] == 2
+    assert values.k_c_case[0] == fam.lt.KC_LINEAR and values.psi[0] == pytest.approx(0.5)
     block = fam.lateral_torsional_checks(rows)[0]
     assert block.values["M_y_Ed_Nm"][0] == pytest.approx(120e3) and block.x[0] == 0.0
     # uniform moment on 3 m segments: M_cr of a 3 m segment (closed form)
     uniform = make_rows([IPE300], My=80e3, x=tuple(x), L_LT=3.0)
-    assert fam.buckling_values(uniform)["M_cr_Nm"][0] == pytest.approx(closed_form_M_cr(3.0),
+    assert fam.buckling_values(uniform).M_cr_Nm[0] == pytest.approx(closed_form_M_cr(3.0),
                                                                       rel=NUMERICAL)
 
 
@@ -196,7 +198,7 @@ def test_ltb_utilisation_grows_with_restraint_spacing():
     rows = make_rows([IPE300] * 3, My=80e3, L_LT=np.array([2.0, 3.0, 6.0]))
     util = fam.lateral_torsional_checks(rows)[0].utilisation
     assert np.all(np.diff(util) > 0)
-    M_cr = fam.buckling_values(rows)["M_cr_Nm"]
+    M_cr = fam.buckling_values(rows).M_cr_Nm
     assert np.all(np.diff(M_cr) < 0)  # M_cr falls with length
 
 
@@ -205,9 +207,9 @@ def test_not_susceptible_members():
     rows = make_rows([RHS, IPE300], N=-100e3, My=50e3,
                      info={"ltb_restrained": np.array([False, True])})
     values = fam.buckling_values(rows)
-    assert values["chi_LT"].tolist() == [1.0, 1.0]
-    assert values["ltb_susceptible"].tolist() == [False, False]
-    assert values["torsion_susceptible"].tolist() == [False, False]
+    assert values.chi_LT.tolist() == [1.0, 1.0]
+    assert values.ltb_susceptible.tolist() == [False, False]
+    assert values.torsion_susceptible.tolist() == [False, False]
     blocks = by_name(fam.flexural_buckling_checks(rows) + fam.lateral_torsional_checks(rows))
     assert not blocks["lateral-torsional buckling"].applies.any()
     assert blocks["torsional buckling"].applies.tolist() == [False, True]
@@ -227,20 +229,20 @@ def test_load_height_from_rows_info():
     sag = -100e3 * 4 * (x / 6) * (1 - x / 6)  # gravity load, z up
     top = make_rows([IPE300], My=sag, x=tuple(x), info={"z_g": np.array([0.15])})
     centre = make_rows([IPE300], My=sag, x=tuple(x))
-    M_top = fam.buckling_values(top)["M_cr_Nm"][0]
-    M_centre = fam.buckling_values(centre)["M_cr_Nm"][0]
+    M_top = fam.buckling_values(top).M_cr_Nm[0]
+    M_centre = fam.buckling_values(centre).M_cr_Nm[0]
     assert M_top < M_centre
     # bottom flange: stabilising for gravity only when the tool knows which way local z points;
     # without that it takes the lower of both orientations (the top-flange value)
     bottom = {"z_g": np.array([-0.15])}
     known = make_rows([IPE300], My=sag, x=tuple(x), info=dict(bottom, z_up=np.array([True])))
     unknown = make_rows([IPE300], My=sag, x=tuple(x), info=bottom)
-    assert fam.buckling_values(known)["M_cr_Nm"][0] > M_centre
-    assert fam.buckling_values(unknown)["M_cr_Nm"][0] == pytest.approx(M_top, rel=1e-9)
+    assert fam.buckling_values(known).M_cr_Nm[0] > M_centre
+    assert fam.buckling_values(unknown).M_cr_Nm[0] == pytest.approx(M_top, rel=1e-9)
     # local z pointing down: the same physical top-flange load gives the same M_cr
     down = make_rows([IPE300], My=-sag, x=tuple(x),
                      info={"z_g": np.array([0.15]), "z_up": np.array([False])})
-    assert fam.buckling_values(down)["M_cr_Nm"][0] == pytest.approx(M_top, rel=1e-9)
+    assert fam.buckling_values(down).M_cr_Nm[0] == pytest.approx(M_top, rel=1e-9)
 
 
 def test_fail_status_and_precomputed_values_are_used():
@@ -248,10 +250,8 @@ def test_fail_status_and_precomputed_values_are_used():
     block = fam.lateral_torsional_checks(rows)[0]
     assert block.status()[0] == FAIL
     values = fam.buckling_values(rows)
-    values["M_Ed_LT_Nm"] = values["M_Ed_LT_Nm"] * 0.5
-    info = dict(rows.info, buckling=values)
-    from dataclasses import replace
-    half = fam.lateral_torsional_checks(replace(rows, info=info))[0]
+    values = replace(values, M_Ed_LT_Nm=values.M_Ed_LT_Nm * 0.5)
+    half = fam.lateral_torsional_checks(replace(rows, info=replace(rows.info, buckling=values)))[0]
     assert half.utilisation[0] == pytest.approx(block.utilisation[0] / 2, rel=EXACT)
 
 
@@ -262,8 +262,9 @@ def test_buckling_values_keys_for_the_interaction_checks():
                 "M_cr_0_Nm", "C_1", "curve_y", "curve_z", "curve_LT", "ltb_susceptible",
                 "torsion_susceptible", "ltb_segment_start_m", "ltb_segment_end_m",
                 "section_class_member", "reason"):
-        assert key in values and len(values[key]) == 2
-    assert values["reason"].tolist() == ["", ""]
+        assert len(getattr(values, key)) == 2
+    assert values.reason.tolist() == ["", ""]
+    assert all(v is not None for v in vars(values).values())  # every field filled
 
 
 # Lateral restraints at 0, 2.5, 4.5 and 10 m of a 10 m IPE 300 beam; L_LT = 5.5 m, the longest
@@ -306,11 +307,11 @@ def test_ltb_segments_at_the_restraint_points_under_a_moment_gradient():
         hand[(a, b)] = (M_cr, M_Ed / (chi_LT_mod_by_hand(M_cr, psi) * IPE300["W_pl_y"] * S355))
     governing = max(hand, key=lambda k: hand[k][1])
     assert governing == (0.0, 2.5)
-    assert v["n_segments"][0] == 3
-    assert (v["ltb_segment_start_m"][0], v["ltb_segment_end_m"][0]) == governing
-    assert v["psi"][0] == pytest.approx(0.75, rel=1e-9)  # end moment interpolated at 2.5 m
-    assert v["C_1"][0] == pytest.approx(C1_FROM_PSI[0.75], rel=C1_TABLE)
-    assert v["M_cr_Nm"][0] == pytest.approx(hand[governing][0], rel=C1_TABLE)
+    assert v.n_segments[0] == 3
+    assert (v.ltb_segment_start_m[0], v.ltb_segment_end_m[0]) == governing
+    assert v.psi[0] == pytest.approx(0.75, rel=1e-9)  # end moment interpolated at 2.5 m
+    assert v.C_1[0] == pytest.approx(C1_FROM_PSI[0.75], rel=C1_TABLE)
+    assert v.M_cr_Nm[0] == pytest.approx(hand[governing][0], rel=C1_TABLE)
     assert block.utilisation[0] == pytest.approx(hand[governing][1], rel=C1_TABLE)
     assert block.values["M_y_Ed_Nm"][0] == pytest.approx(100e3)
     assert block.values["segments_from"][0] == fam.SEGMENT_BASIS[fam.REAL_SPANS]
@@ -318,11 +319,11 @@ def test_ltb_segments_at_the_restraint_points_under_a_moment_gradient():
     # the same row without restraint positions: equal parts of L_LT, and the row says so
     equal = make_rows([IPE300], My=My, x=SPAN_X, L_LT=5.5)
     e = fam.buckling_values(equal)
-    assert (e["ltb_segment_start_m"][0], e["ltb_segment_end_m"][0]) == (0.0, 5.0)
-    assert e["n_segments"][0] == 2 and e["psi"][0] == pytest.approx(0.5)
-    assert e["C_1"][0] == pytest.approx(C1_FROM_PSI[0.5], rel=C1_TABLE)
-    assert e["M_cr_Nm"][0] == pytest.approx(1.31 * closed_form_M_cr(5.5), rel=C1_TABLE)
-    assert e["ltb_segment_basis"][0] == fam.SEGMENT_BASIS[fam.NO_POSITIONS]
+    assert (e.ltb_segment_start_m[0], e.ltb_segment_end_m[0]) == (0.0, 5.0)
+    assert e.n_segments[0] == 2 and e.psi[0] == pytest.approx(0.5)
+    assert e.C_1[0] == pytest.approx(C1_FROM_PSI[0.5], rel=C1_TABLE)
+    assert e.M_cr_Nm[0] == pytest.approx(1.31 * closed_form_M_cr(5.5), rel=C1_TABLE)
+    assert e.ltb_segment_basis[0] == fam.SEGMENT_BASIS[fam.NO_POSITIONS]
 
 
 def test_ltb_last_span_governs_under_uniform_moment():
@@ -330,10 +331,10 @@ def test_ltb_last_span_governs_under_uniform_moment():
     governs with M_cr of a 5.5 m span (closed form, psi = 1, C_1 = 1)."""
     rows = make_rows([IPE300], My=80e3, x=SPAN_X, L_LT=5.5, info={"ltb_points_m": SPAN_POINTS})
     v = fam.buckling_values(rows)
-    assert (v["ltb_segment_start_m"][0], v["ltb_segment_end_m"][0]) == (4.5, 10.0)
-    assert v["M_cr_Nm"][0] == pytest.approx(closed_form_M_cr(5.5), rel=NUMERICAL)
-    assert v["C_1"][0] == pytest.approx(1.0, rel=NUMERICAL)
-    assert v["interaction_segment_start_m"][0] == 4.5
+    assert (v.ltb_segment_start_m[0], v.ltb_segment_end_m[0]) == (4.5, 10.0)
+    assert v.M_cr_Nm[0] == pytest.approx(closed_form_M_cr(5.5), rel=NUMERICAL)
+    assert v.C_1[0] == pytest.approx(1.0, rel=NUMERICAL)
+    assert v.interaction_segment_start_m[0] == 4.5
 
 
 def test_ltb_length_given_in_the_project_keeps_equal_parts():
@@ -347,7 +348,7 @@ def test_ltb_length_given_in_the_project_keeps_equal_parts():
                      info={"ltb_points_m": points,
                            "L_LT_override": np.array([True, None, False, False], dtype=object)})
     v = fam.buckling_values(rows)
-    assert list(v["n_segments"]) == [2, 3, 2, 2]
-    assert list(v["ltb_segment_basis"]) == [fam.SEGMENT_BASIS[k] for k in (
+    assert list(v.n_segments) == [2, 3, 2, 2]
+    assert list(v.ltb_segment_basis) == [fam.SEGMENT_BASIS[k] for k in (
         fam.GIVEN_LENGTH, fam.REAL_SPANS, fam.NO_POSITIONS, fam.NO_POSITIONS)]
-    assert list(v["ltb_segment_end_m"]) == [5.0, 2.5, 5.0, 5.0]
+    assert list(v.ltb_segment_end_m) == [5.0, 2.5, 5.0, 5.0]
