@@ -279,3 +279,45 @@ def test_leaning_column_portal_against_opensees():
     assert alpha.at["U1", "alpha_cr_local"] == pytest.approx(lam[0], rel=0.02)
     # the sway mode is the next one in OpenSees' spectrum
     assert alpha.at["U1", "alpha_cr"] == pytest.approx(lam[1], rel=0.02)
+
+
+def test_later_combinations_solve_once_for_the_modes_the_previous_one_needed(monkeypatch):
+    """The sparse solver: after a combination whose sway mode lay beyond the first six modes, the
+    next ones are solved once for as many modes as that one needed (one solve instead of one per
+    step), and each is still judged step by step on its lowest modes. The results are those of
+    each combination run on its own: same alpha_cr (to the solver's tolerance), same member mode,
+    same count of modes looked at and the same note. Expected values: the two-freedom model of
+    the module docstring (sway) and Euler (the diagonal), as in the tests above."""
+    import postproc.stability.eigen as eig
+    import postproc.stability.frame_stability as st
+    monkeypatch.setattr(eig, "DENSE_MAX", 0)
+    calls = []
+    solve = st.buckling_modes
+
+    def counted(mesh, tension, count):
+        calls.append(count)
+        return solve(mesh, tension, count)
+
+    monkeypatch.setattr(st, "buckling_modes", counted)
+    cases = {"U1": 0.07, "U2": 0.08, "U3": 1.2}    # diagonal's own load factor per combination
+    axial, alone, expected = {}, {}, {}
+    for comb, local in cases.items():
+        f, C, P, a_sway = bay_case(local, 5.0)
+        axial[comb] = {"C1": -P, "C2": -P, "D1": -C}
+        alone[comb] = run(f, {comb: axial[comb]})[2].loc[comb]
+        expected[comb] = a_sway
+    calls.clear()
+    _, _, alpha, _ = run(braced_bay(), axial)
+    # U1: 6 then 18 modes; U2 and U3: 18 at once (the old search: 6 + 18, 6 + 18, 6)
+    assert calls == [6, 18, 18, 18]
+    for comb, local in cases.items():
+        row = alpha.loc[comb]
+        assert row["alpha_cr"] == pytest.approx(expected[comb], rel=CLOSED_FORM_REL)
+        assert row["alpha_cr_local"] == pytest.approx(local, rel=CLOSED_FORM_REL)
+        assert bool(row["sway_mode"])
+        # against the same combination run on its own (same solver, so to its tolerance)
+        assert row["alpha_cr"] == pytest.approx(alone[comb]["alpha_cr"], rel=1e-6)
+        assert row["alpha_cr_local"] == pytest.approx(alone[comb]["alpha_cr_local"], rel=1e-6)
+        for col in ("local_member", "modes", "mode_note"):
+            assert row[col] == alone[comb][col]
+    assert alpha.at["U1", "modes"] == 18 and alpha.at["U3", "modes"] == 6

@@ -37,9 +37,10 @@ import scipy.sparse.linalg as spla
 from ..errors import InputError, TopologyError
 from ..model.frame import NODE_COLUMNS, RELEASABLE, Frame, element_vectors, local_axes, released
 
-__all__ = ["ACTION_DOF", "ARPACK_SPARE", "DENSE_MAX", "DOF_NAMES", "E_STEEL", "G_STEEL", "Mesh",
-           "PIVOT_RATIO_MIN", "SUB_PER_MEMBER", "TIE_CHAIN_MAX", "buckling_modes", "build_mesh",
-           "check_connected", "section_columns", "tie_transformation", "translations"]
+__all__ = ["ACTION_DOF", "ARPACK_NCV_MIN", "ARPACK_NCV_PER_MODE", "ARPACK_SPARE", "ARPACK_TOL",
+           "DENSE_MAX", "DOF_NAMES", "E_STEEL", "G_STEEL", "Mesh", "PIVOT_RATIO_MIN",
+           "SUB_PER_MEMBER", "TIE_CHAIN_MAX", "buckling_modes", "build_mesh", "check_connected",
+           "section_columns", "tie_transformation", "translations"]
 
 E_STEEL = 210e9     # Pa, EN 1993-1-1 3.2.6(1)
 G_STEEL = 81e9      # Pa, EN 1993-1-1 3.2.6(1), G = E / (2 (1 + 0.3)) rounded as the standard does
@@ -48,6 +49,14 @@ PIVOT_RATIO_MIN = 1e-10   # scaled Cholesky pivot below this: the stiffness is s
 DENSE_MAX = 600     # free freedoms up to which the problem is solved with dense matrices
 
 ARPACK_SPARE = 4    # modes asked of the sparse solver beyond those wanted
+# Lanczos vectors per mode asked (at least ARPACK_NCV_MIN): a wider Krylov space needs fewer
+# implicit restarts, and the restarts' orthogonalisation is most of the time on clustered member
+# modes (docs/speed.md: about 3 per mode against 2 gave the same 48 load factors to 1e-14)
+ARPACK_NCV_PER_MODE = 3
+ARPACK_NCV_MIN = 20
+# relative residual ARPACK stops at; 1e-8 gave the same 48 load factors as 1e-10 to 1e-14 on the
+# large job (docs/speed.md), alpha_cr is reported to far fewer digits than that
+ARPACK_TOL = 1e-8
 TIE_CHAIN_MAX = 10  # masters tied to masters: substitution rounds before a loop is assumed
 
 # local freedom index of each releasable end action: u, v, w, theta_x, theta_y, theta_z
@@ -424,8 +433,9 @@ def buckling_modes(mesh: Mesh, tension: np.ndarray, count: int
         minv = spla.LinearOperator((n, n), matvec=mesh.lu.solve, dtype=float)
         ask = min(k + ARPACK_SPARE, n - 1)
         start = np.random.default_rng(0).standard_normal(n)
-        mu, phi_s = spla.eigsh(Gs.tocsc(), k=ask, M=mesh.K, Minv=minv, which="LA", tol=1e-10,
-                               ncv=min(n, max(2 * ask + 1, 20)), v0=start)
+        mu, phi_s = spla.eigsh(Gs.tocsc(), k=ask, M=mesh.K, Minv=minv, which="LA",
+                               tol=ARPACK_TOL, v0=start,
+                               ncv=min(n, max(ARPACK_NCV_PER_MODE * ask + 1, ARPACK_NCV_MIN)))
     order = np.argsort(-mu)[:k]
     mu, phi_s = mu[order], phi_s[:, order]
     positive = mu > 1e-12

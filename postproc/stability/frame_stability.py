@@ -44,7 +44,8 @@ __all__ = ["ALPHA_AMPLIFY_MIN", "ALPHA_FIRST_ORDER", "COLUMN_TILT_COS", "LEVEL_T
            "MODES_FIRST", "MODES_MAX", "ModeGauge", "PATHS", "STOREY_RAFTER_N_CR_SHARE",
            "STOREY_ROOF_SLOPE", "SWAY_DRIFT_SHARE_MIN", "amplified_part", "amplify_sway_effects",
            "analysis_path", "axial_at", "bow_imperfections_needed", "critical_load_factors",
-           "equivalent_horizontal_forces", "is_sway", "storey_alpha", "sub_elements",
+           "equivalent_horizontal_forces", "is_sway", "search_steps", "storey_alpha",
+           "sub_elements",
            "sway_imperfection"]
 
 ALPHA_FIRST_ORDER = 10.0    # 5.2.1(3), eq. (5.1), elastic analysis
@@ -167,22 +168,42 @@ def is_sway(drift: float, bow: float) -> bool:
     return drift >= SWAY_DRIFT_SHARE_MIN * bow
 
 
-def _mode_search(mesh: Mesh, gauge: ModeGauge, tension: np.ndarray) -> dict:
+def search_steps(mesh: Mesh) -> list[int]:
+    """The mode counts `_mode_search` looks at in turn: MODES_FIRST, then all modes for a model
+    small enough for the dense solver (cheap there), else three times as many up to MODES_MAX."""
+    limit = len(mesh.free) if mesh.chol is not None else MODES_MAX
+    steps = [min(MODES_FIRST, limit)]
+    while steps[-1] < limit:
+        steps.append(limit if mesh.chol is not None else min(3 * steps[-1], limit))
+    return steps
+
+
+def _mode_search(mesh: Mesh, gauge: ModeGauge, tension: np.ndarray, solve_first: int = 0
+                 ) -> dict:
     """The lowest sway mode and the lowest member mode of one combination.
 
-    MODES_FIRST modes are computed first; while no sway mode is found and the highest one
-    computed is below ALPHA_FIRST_ORDER, more: all of them for a model small enough for the dense
-    solver (cheap there), else three times as many up to MODES_MAX. Each mode found is a tuple
-    (alpha, drift, bow, member bowing most).
+    The modes are looked at in steps (`search_steps`): the lowest MODES_FIRST first; while no
+    sway mode is found and the highest one looked at is below ALPHA_FIRST_ORDER, the next step.
+    Each mode found is a tuple (alpha, drift, bow, member bowing most); "n" is the number of
+    modes of the step the search ended at, "solved" the number the eigen solver was asked for.
+
+    `solve_first`: ask the solver for at least this many modes at once (the step the previous
+    combination ended at), so that a search that needs many modes costs one solve instead of
+    one per step. The lowest `count` modes of a larger solve are those of a solve for `count`,
+    so the steps are judged on them exactly as if each had been solved for on its own.
     """
-    # the dense solver (small models) finds all modes about as fast as a few
-    limit = len(mesh.free) if mesh.chol is not None else MODES_MAX
-    count = min(MODES_FIRST, limit)
-    while True:
-        alphas, phis = buckling_modes(mesh, tension, count)
-        found = {"n": len(alphas), "top": float(alphas[-1]) if len(alphas) else np.inf,
-                 "sway": None, "local": None, "lowest": None, "exhausted": len(alphas) < count}
-        for a, phi in zip(alphas, phis.T):
+    steps = search_steps(mesh)
+    solved = 0
+    alphas, phis = np.zeros(0), np.zeros((mesh.n_dof, 0))
+    for count in steps:
+        if count > solved:
+            solved = next((s for s in steps if s >= max(count, solve_first)), steps[-1])
+            alphas, phis = buckling_modes(mesh, tension, solved)
+        top_k = alphas[:count]
+        found = {"n": len(top_k), "top": float(top_k[-1]) if len(top_k) else np.inf,
+                 "sway": None, "local": None, "lowest": None, "exhausted": len(top_k) < count,
+                 "solved": solved, "step": count}
+        for a, phi in zip(top_k, phis.T[:count]):
             drift, bow, member = gauge.measure(phi)
             mode = (float(a), drift, bow, member)
             if found["lowest"] is None:
@@ -193,9 +214,9 @@ def _mode_search(mesh: Mesh, gauge: ModeGauge, tension: np.ndarray) -> dict:
             if found["local"] is None:
                 found["local"] = mode
         if (found["sway"] is not None or found["exhausted"] or found["top"] >= ALPHA_FIRST_ORDER
-                or count >= limit or not gauge.has_columns):
+                or count >= steps[-1] or not gauge.has_columns):
             return found
-        count = limit if mesh.chol is not None else min(3 * count, limit)
+    raise AssertionError("unreachable: the last step always ends the search")
 
 
 def critical_load_factors(frame: Frame, results: Results, members: Members) -> pd.DataFrame:
@@ -243,6 +264,9 @@ def critical_load_factors(frame: Frame, results: Results, members: Members) -> p
     eid = frame.elements.index.astype(str)
     out = []
     none = (np.nan, "", 0)
+    # the sparse solver starts each combination at the step the previous one needed (the dense
+    # one solves for all modes about as fast as for a few)
+    solve_first = 0
     for c, comb in enumerate(combos):
         status = str(uls["status"].iloc[c]) if "status" in uls.columns else "ok"
         if status != "ok":
@@ -255,7 +279,9 @@ def critical_load_factors(frame: Frame, results: Results, members: Members) -> p
             out.append((comb, np.nan, False, *none,
                         f"no forces for element {e}: alpha_cr not found"))
             continue
-        found = _mode_search(mesh, gauge, tension[c])
+        found = _mode_search(mesh, gauge, tension[c], solve_first)
+        if mesh.chol is None:
+            solve_first = found["step"]
         if found["lowest"] is None:
             out.append((comb, np.inf, False, *none, "no member in compression: no buckling mode"))
             continue
