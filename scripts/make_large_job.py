@@ -18,8 +18,8 @@ combination with combinations.csv, displacements, and project.toml, in the folde
 Everything is deterministic (the only random numbers, small variations of the floor loads per
 bay, come from a seeded generator).
 
-Run: python scripts/make_large_job.py /tmp/large-job
-     framesweep run /tmp/large-job/project.toml --out /tmp/large-out
+Run: python scripts/make_large_job.py out/large-job
+     framesweep run out/large-job/project.toml --out out/large-run
 """
 
 from __future__ import annotations

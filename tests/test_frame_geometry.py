@@ -1,4 +1,6 @@
-"""Element geometry of a Frame: computed once, shared read-only, recomputed for a changed frame."""
+"""Element geometry of a Frame: computed once, shared read-only, recomputed for a changed frame.
+
+Source of the expected lengths and axes: hand calculation from the node coordinates."""
 
 from __future__ import annotations
 

@@ -1,4 +1,7 @@
-"""Displacements per load case in the tables route are superposed like the forces."""
+"""Displacements per load case in the tables route are superposed like the forces.
+
+Source of the expected values: linear superposition of the file's own numbers (common practice
+for first-order results); no outside value."""
 
 from __future__ import annotations
 

@@ -1,7 +1,8 @@
 """Properties of whole runs (hypothesis): every (member, combination) is reported with a status,
 and the results do not depend on the order of the input rows.
 
-No outside value is compared: the reference is the same run on the bundled example's tables.
+No outside value is compared: the source of every expected value is the same run on the bundled
+example's tables.
 """
 
 from __future__ import annotations

@@ -3,6 +3,7 @@
 The demo's forces and displacements (tables per load case, the forces carrying the equivalent
 horizontal forces) are scaled so that one combination's alpha_cr falls into 3..10 (alpha_cr
 scales with 1/load): the amplified path of 5.2.2(5B), where 5.3.2(6) can ask for member bows.
+The amplification expected is 1 / (1 - 1/alpha_cr), EN 1993-1-1 5.2.2(5B), eq. (5.4).
 """
 
 from __future__ import annotations

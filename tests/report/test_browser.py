@@ -3,8 +3,9 @@
 One test opens the bundled example's report, takes a screenshot, and runs a probe script in the
 page: the drawing has one shape per member, sorting the members table works, filtering works, and
 clicking a member in the drawing opens its sheet. Another prints the report to PDF and checks that
-nothing is cut: no page has anything painted in its right-hand margin (a table wider than the page
-would run into it), every page is landscape, and every member's row is in the text.
+nothing is cut: every page is landscape, every column heading of the members and stability tables
+and every member's governing combination (the last columns) is in the printed text; a control
+test shows that check failing on a copy whose members table is forced wider than the page.
 
 No outside value is compared: the expected members and utilisations come from the run's own
 summary.csv.

@@ -1,6 +1,7 @@
 """The report's files from the command line on the bundled CSV example: which files each option
 writes, that the sheets and the workbook are views of the long table, and that nothing shows as
-'nan'. The expected numbers come from the run's own long table (utilisation.parquet)."""
+'nan'. The expected numbers come from the run's own long table (utilisation.parquet): that is
+their source, no outside value."""
 
 from __future__ import annotations
 
