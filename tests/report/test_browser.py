@@ -7,8 +7,8 @@ nothing is cut: every page is landscape, every column heading of the members and
 and every member's governing combination (the last columns) is in the printed text; a control
 test shows that check failing on a copy whose members table is forced wider than the page.
 
-No outside value is compared: the expected members and utilisations come from the run's own
-summary.csv.
+No outside value is compared: the source of the expected members and utilisations is the run's
+own summary.csv.
 """
 
 from __future__ import annotations
