@@ -2,10 +2,10 @@
 element sections by tag ranges, through a whole run with openseespy.
 
 Expected values (source: hand calculations) come from the example's geometry (docs in the
-example README): rods 7.071 m long (5 m by 5 m wall bays), CHS 76.1x4 i = sqrt(I / A) = 2.553 cm from the
-catalogue's properties (postproc.sections), so L/i = 277.0 and 0.923 of the limit 300; purlins
-every 1.5 m give the rafters spans of 1.5 m; side rails at 2.0 and 4.0 m give the 5.0 m columns
-spans of 2.0, 2.0 and 1.0 m.
+example README): rods 7.071 m long (5 m by 5 m wall bays), CHS 76.1x4 i = sqrt(I / A) = 2.553 cm
+from the catalogue's properties (postproc.sections), so L/i = 277.0 and 0.923 of the limit 300;
+purlins every 1.5 m give the rafters spans of 1.5 m; side rails at 2.0 and 4.0 m give the 5.0 m
+columns spans of 2.0, 2.0 and 1.0 m.
 """
 
 from __future__ import annotations
