@@ -39,32 +39,30 @@ SHEET_ROW_COLUMNS = ["member", "combination", "check", "utilisation", "status", 
                      "class_part", "term_N", "term_M_y", "term_M_z"]
 
 
+def _by_member(table: pd.DataFrame) -> tuple[pd.DataFrame, dict[str, tuple[int, int]]]:
+    """The table stably sorted by member, and each member's (start, stop) rows in it."""
+    ordered = table.sort_values("member", kind="stable", key=lambda m: m.astype(str))
+    names = ordered["member"].astype(str).to_numpy()
+    bounds = np.flatnonzero(np.r_[True, names[1:] != names[:-1], True])
+    return ordered, {names[a]: (a, b) for a, b in zip(bounds[:-1], bounds[1:])}
+
+
 def member_slices(table: pd.DataFrame):
     """A function member -> that member's rows, from one stable sort by member (slices, not
     lookups, so a large table is not copied once per member)."""
     if table is None or not len(table) or "member" not in table:
         empty = table if table is not None else pd.DataFrame()
         return lambda member: empty.iloc[0:0] if len(empty) else empty
-    ordered = table.sort_values("member", kind="stable", key=lambda m: m.astype(str))
-    names = ordered["member"].astype(str).to_numpy()
-    starts = {}
-    bounds = np.flatnonzero(np.r_[True, names[1:] != names[:-1], True])
-    for a, b in zip(bounds[:-1], bounds[1:]):
-        starts[names[a]] = (a, b)
-    return lambda member: ordered.iloc[slice(*starts.get(member, (0, 0)))]
+    ordered, spans = _by_member(table)
+    return lambda member: ordered.iloc[slice(*spans.get(member, (0, 0)))]
 
 
 def member_records(table: pd.DataFrame):
     """A function member -> that member's rows as a list of dicts (made once for the table)."""
     if not len(table):
         return lambda member: []
-    ordered = table.sort_values("member", kind="stable", key=lambda m: m.astype(str))
+    ordered, spans = _by_member(table)
     records = ordered.to_dict("records")
-    names = [str(r["member"]) for r in records]
-    spans: dict[str, tuple[int, int]] = {}
-    for k, name in enumerate(names):
-        a, _ = spans.get(name, (k, k))
-        spans[name] = (a, k + 1)
     return lambda member: records[slice(*spans.get(member, (0, 0)))]
 
 

@@ -144,21 +144,25 @@ def _rhs(s: dict[str, Array], eps: Array) -> dict[str, Array]:
     out.update(A_eff=A_eff, e_N_y=e_z, e_N_z=e_y, lambda_p_web_comp=lam_w, rho_web_comp=rho_w,
                lambda_p_flange_comp=lam_f, rho_flange_comp=rho_f)
 
+    def bent(lost: Array, at: Array, c_side: Array, I_gross: Array, half: Array
+             ) -> tuple[dict[str, Array], Array, Array]:
+        """Bending of the box: the compressed wall (losing `lost`, at `at`) in uniform
+        compression, then the two side walls of flat width c_side with the neutral axis of the
+        section without that strip; returns the side walls' values, I_eff and W_eff."""
+        wall = _strip(lost * t, at, lost * t**3 / 12.0)
+        sides, side_strip = _web_in_bending(c_side, t, 2.0, -wall[1] / (A - wall[0]), eps)
+        _, shift, I_eff = _remove(A, I_gross, [wall, side_strip])
+        return sides, I_eff, I_eff / (half + np.abs(shift))
+
     # bending about y: the top wall (along y) in uniform compression, then the two walls along z
-    top = _strip(lost_f * t, z_f, lost_f * t**3 / 12.0)
-    z_c = -top[1] / (A - top[0])
-    web, web_strip = _web_in_bending(c_w, t, 2.0, z_c, eps)
-    _, shift, I_eff = _remove(A, s["I_y"], [top, web_strip])
-    out.update(W_eff_y=I_eff / (h / 2.0 + np.abs(shift)), I_eff_y=I_eff,
+    web, I_eff, W_eff = bent(lost_f, z_f, c_w, s["I_y"], h / 2.0)
+    out.update(W_eff_y=W_eff, I_eff_y=I_eff,
                psi_web_My=web["psi"], lambda_p_web_My=web["lambda_p"], rho_web_My=web["rho"],
                lambda_p_flange_My=lam_f, rho_flange_My=rho_f)
 
     # bending about z: a wall along z in uniform compression, then the two walls along y
-    side = _strip(lost_w * t, y_w, lost_w * t**3 / 12.0)
-    y_c = -side[1] / (A - side[0])
-    flange, flange_strip = _web_in_bending(c_f, t, 2.0, y_c, eps)
-    _, shift, I_eff = _remove(A, s["I_z"], [side, flange_strip])
-    out.update(W_eff_z=I_eff / (b / 2.0 + np.abs(shift)), I_eff_z=I_eff,
+    flange, I_eff, W_eff = bent(lost_w, y_w, c_f, s["I_z"], b / 2.0)
+    out.update(W_eff_z=W_eff, I_eff_z=I_eff,
                psi_flange_Mz=flange["psi"], lambda_p_flange_Mz=flange["lambda_p"],
                rho_flange_Mz=flange["rho"], lambda_p_web_Mz=lam_w, rho_web_Mz=rho_w)
     return out
