@@ -79,7 +79,8 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
     # a tension-only member's compression adds no geometric stiffness (postproc/stability/
     # tension_only.py); every other stage reads the forces as analysed
     alpha = stability.critical_load_factors(
-        frame, without_compression_of(uls_results, members, tension_only), members)
+        frame, without_compression_of(uls_results, members, tension_only), members,
+        sway_search=settings.sway_search)
     paths = stability.analysis_path(alpha, uls_results.combinations)
     amplified = paths.index[paths["path"] == "amplified"].astype(str).tolist()
     sway = stability.sway_part(frame, members, uls_results, amplified) if amplified else None

@@ -13,7 +13,7 @@ from typing import Literal, TypedDict, Unpack, get_args
 
 __all__ = ["ANNEXES", "Annex", "BOW_COVERS", "BowCover", "CLASSIFICATIONS", "Classification",
            "Bounds", "DesignSettings", "KZyZero", "K_ZY_ZERO", "LTB_METHODS", "LtbMethod",
-           "PLAUSIBLE_FACTOR", "limits"]
+           "PLAUSIBLE_FACTOR", "SWAY_SEARCHES", "SwaySearch", "limits"]
 
 Annex = Literal["A", "B", "both"]
 LtbMethod = Literal["general", "rolled"]
@@ -35,8 +35,10 @@ PLAUSIBLE_FACTOR: Bounds = {"ge": 0.5, "le": 2.0}
 KZyZero = Literal["off", "I", "I and RHS"]
 BowCover = Literal["member checks", "analysis", "not covered"]
 Classification = Literal["in-order", "also-elastic"]
+SwaySearch = Literal["joints", "more modes"]
 K_ZY_ZERO, BOW_COVERS, CLASSIFICATIONS = get_args(KZyZero), get_args(BowCover), \
     get_args(Classification)
+SWAY_SEARCHES = get_args(SwaySearch)
 
 
 def limits(default, *, unless: str | None = None, **bounds: Unpack[Bounds]):
@@ -94,6 +96,13 @@ class DesignSettings:
         linear_sum_check: also report the conservative linear sum of 6.2.1(7), eq. (6.2), as a
             check of its own ('linear sum (conservative)'); off by default, since it is an
             alternative to 6.2.3 to 6.2.10, not a requirement.
+        sway_search: how alpha_cr of the frame's sway mode (5.2.1(3)) is found where the whole
+            model's lowest modes are all member modes (models too large for the dense solver):
+            'joints' (default) takes the sway mode of the frame condensed onto its joints'
+            horizontal freedoms, the members following their ends so that none can buckle on its
+            own; 'more modes' searches more of the whole model's modes (up to 48), and where none
+            of them is a sway mode and they end below 10 the combination is not evaluated.
+            docs/stability.md.
     """
 
     gamma_M0: float = limits(1.00, **PLAUSIBLE_FACTOR)
@@ -115,6 +124,7 @@ class DesignSettings:
     bow_imperfections: BowCover = "member checks"
     classification: Classification = "in-order"
     linear_sum_check: bool = False
+    sway_search: SwaySearch = "joints"
 
     def __post_init__(self) -> None:
         from .project_schema import validate_design

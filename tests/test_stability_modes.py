@@ -45,10 +45,10 @@ A_STIFF = 1.0               # the modelling device of tests/test_stability.secti
 CLOSED_FORM_REL = 0.01      # four cubic elements per member err by ~0.1 %
 
 
-def run(frame: Frame, axial: dict):
+def run(frame: Frame, axial: dict, sway_search: str = "joints"):
     res = Results(constant_forces(axial, frame), combos(axial))
     members = design_members(frame)
-    alpha = critical_load_factors(frame, res, members)
+    alpha = critical_load_factors(frame, res, members, sway_search=sway_search)
     paths = analysis_path(alpha, res.combinations)
     return res, members, alpha, paths
 
@@ -157,12 +157,13 @@ def test_braced_bay_with_a_slender_diagonal():
 def test_sway_mode_behind_more_member_modes_than_the_first_search(monkeypatch, dense):
     """A diagonal so slender (alpha 0.07) that its first six modes all come before the sway mode
     (5, the two-freedom model): the search goes on, in the dense solver to all modes, in the
-    sparse one to eighteen, and both find the sway mode."""
+    sparse one (design setting sway_search = 'more modes') to eighteen, and both find the sway
+    mode."""
     import postproc.stability.eigen as eig
     if not dense:
         monkeypatch.setattr(eig, "DENSE_MAX", 0)
     f, C, P, a_sway = bay_case(0.07, 5.0)
-    _, _, alpha, _ = run(f, {"U1": {"C1": -P, "C2": -P, "D1": -C}})
+    _, _, alpha, _ = run(f, {"U1": {"C1": -P, "C2": -P, "D1": -C}}, "more modes")
     assert alpha.at["U1", "modes"] > 6
     assert alpha.at["U1", "alpha_cr"] == pytest.approx(a_sway, rel=CLOSED_FORM_REL)
     assert bool(alpha.at["U1", "sway_mode"])
@@ -171,14 +172,15 @@ def test_sway_mode_behind_more_member_modes_than_the_first_search(monkeypatch, d
 
 def test_no_sway_mode_below_10_is_said_and_not_passed(monkeypatch):
     """With the search cut short before the sway mode (the sparse solver, a single mode
-    searched), alpha_cr is not found: NaN, path 'not evaluated', and the note says why."""
+    searched, design setting sway_search = 'more modes'), alpha_cr is not found: NaN, path
+    'not evaluated', and the note says why."""
     import postproc.stability.eigen as eig
     import postproc.stability.frame_stability as st
     monkeypatch.setattr(eig, "DENSE_MAX", 0)
     monkeypatch.setattr(st, "MODES_FIRST", 1)
     monkeypatch.setattr(st, "MODES_MAX", 1)
     f, C, P, _ = bay_case(1.2, 5.0)
-    _, _, alpha, paths = run(f, {"U1": {"C1": -P, "C2": -P, "D1": -C}})
+    _, _, alpha, paths = run(f, {"U1": {"C1": -P, "C2": -P, "D1": -C}}, "more modes")
     assert np.isnan(alpha.at["U1", "alpha_cr"])
     assert "no sway mode found" in alpha.at["U1", "mode_note"]
     assert paths.at["U1", "path"] == "not evaluated"
@@ -282,7 +284,8 @@ def test_leaning_column_portal_against_opensees():
 
 
 def test_later_combinations_solve_once_for_the_modes_the_previous_one_needed(monkeypatch):
-    """The sparse solver: after a combination whose sway mode lay beyond the first six modes, the
+    """The sparse solver searching the whole model's modes (design setting sway_search =
+    'more modes'): after a combination whose sway mode lay beyond the first six modes, the
     next ones are solved once for as many modes as that one needed (one solve instead of one per
     step), and each is still judged step by step on its lowest modes. The results are those of
     each combination run on its own: same alpha_cr (to the solver's tolerance), same member mode,
@@ -294,9 +297,9 @@ def test_later_combinations_solve_once_for_the_modes_the_previous_one_needed(mon
     calls = []
     solve = st.buckling_modes
 
-    def counted(mesh, tension, count):
+    def counted(mesh, tension, count, **kwargs):
         calls.append(count)
-        return solve(mesh, tension, count)
+        return solve(mesh, tension, count, **kwargs)
 
     monkeypatch.setattr(st, "buckling_modes", counted)
     cases = {"U1": 0.07, "U2": 0.08, "U3": 1.2}    # diagonal's own load factor per combination
@@ -304,10 +307,10 @@ def test_later_combinations_solve_once_for_the_modes_the_previous_one_needed(mon
     for comb, local in cases.items():
         f, C, P, a_sway = bay_case(local, 5.0)
         axial[comb] = {"C1": -P, "C2": -P, "D1": -C}
-        alone[comb] = run(f, {comb: axial[comb]})[2].loc[comb]
+        alone[comb] = run(f, {comb: axial[comb]}, "more modes")[2].loc[comb]
         expected[comb] = a_sway
     calls.clear()
-    _, _, alpha, _ = run(braced_bay(), axial)
+    _, _, alpha, _ = run(braced_bay(), axial, "more modes")
     # U1: 6 then 18 modes; U2 and U3: 18 at once (the old search: 6 + 18, 6 + 18, 6)
     assert calls == [6, 18, 18, 18]
     for comb, local in cases.items():
@@ -321,3 +324,101 @@ def test_later_combinations_solve_once_for_the_modes_the_previous_one_needed(mon
         for col in ("local_member", "modes", "mode_note"):
             assert row[col] == alone[comb][col]
     assert alpha.at["U1", "modes"] == 18 and alpha.at["U3", "modes"] == 6
+
+
+def leaning_portal() -> tuple[Frame, float, float, float]:
+    """The portal with a leaning column of the first test: (frame, P_c, P_p, EI)."""
+    L = 5.0
+    EI = E * I_HEB200_Y
+    euler = np.pi ** 2 * EI / L ** 2
+    nodes = [("1", 0, 0, 0), ("2", 0, L, 0), ("3", 6, L, 0), ("4", 6, 0, 0), ("5", 12, 0, 0),
+             ("6", 12, L, 0)]
+    els = [("C1", "1", "2", "HEB 200", "", ""), ("R1", "2", "3", "STIFF", "", ""),
+           ("C2", "4", "3", "HEB 200", "", ""), ("K1", "3", "6", "STIFF", "My", "My"),
+           ("P1", "5", "6", "HEB 200", "My", "My")]
+    f = make_frame(nodes, els, [("1", *FIXED), ("4", *FIXED), ("5", *PINNED)])
+    return f, 0.05 * euler, 0.5 * euler, EI
+
+
+def test_joints_search_finds_the_sway_mode_of_a_braced_bay_exactly(monkeypatch):
+    """Sparse solver, only the lowest mode of the whole model looked at (a member mode of the
+    diagonal, alpha 0.07): the frame condensed onto its joints has no member modes, and its sway
+    mode is that of the two-freedom model of the module docstring (straight members: the static
+    shapes of pinned bars are their chords), so alpha_cr = 5, and that of the whole model's
+    sway mode when the search goes on to it (design setting sway_search = 'more modes')."""
+    import postproc.stability.eigen as eig
+    import postproc.stability.frame_stability as st
+    monkeypatch.setattr(eig, "DENSE_MAX", 0)
+    monkeypatch.setattr(st, "MODES_FIRST", 1)
+    f, C, P, a_sway = bay_case(0.07, 5.0)
+    _, _, alpha, paths = run(f, {"U1": {"C1": -P, "C2": -P, "D1": -C}})
+    assert alpha.at["U1", "modes"] == 1
+    assert alpha.at["U1", "alpha_cr"] == pytest.approx(a_sway, rel=CLOSED_FORM_REL)
+    assert bool(alpha.at["U1", "sway_mode"])
+    assert "condensed onto its joints" in alpha.at["U1", "mode_note"]
+    assert alpha.at["U1", "alpha_cr_local"] == pytest.approx(0.07, rel=CLOSED_FORM_REL)
+    assert paths.at["U1", "path"] == "sway lengths"
+    # the whole model's sway mode, searched on to it: the same (the solver's tolerance)
+    _, _, whole, _ = run(f, {"U1": {"C1": -P, "C2": -P, "D1": -C}}, "more modes")
+    assert whole.at["U1", "modes"] > 1 and bool(whole.at["U1", "sway_mode"])
+    assert alpha.at["U1", "alpha_cr"] == pytest.approx(whole.at["U1", "alpha_cr"], rel=1e-4)
+    # the other reading, its search cut at one mode: the sway mode is not found
+    monkeypatch.setattr(st, "MODES_MAX", 1)
+    _, _, other, other_paths = run(f, {"U1": {"C1": -P, "C2": -P, "D1": -C}}, "more modes")
+    assert np.isnan(other.at["U1", "alpha_cr"])
+    assert other_paths.at["U1", "path"] == "not evaluated"
+
+
+def test_joints_search_on_a_portal_with_a_leaning_column(monkeypatch):
+    """The portal with a leaning column, sparse solver, only the lowest mode (the leaning
+    column's own, alpha 2) looked at: the condensed frame's sway mode. Its columns take the
+    static shape of a column fixed at its foot and held against rotation at its top,
+    w = d (3 t^2 - 2 t^3), so the Rayleigh quotient (written out here) gives the storey balance
+    with the linearised sway stiffness 12 EI/L^3 - 1.2 Q/L per column (int (w')^2 dx =
+    1.2 d^2 / L) and -Q/L for the leaning column: 2 (12 EI/L^3 - 1.2 a P_c/L) = a P_p/L,
+    a = 24 EI / (L^2 (2.4 P_c + P_p)) = 3.922 with a rigid beam (the beam here, 1000 times
+    stiffer than a column, is not quite rigid: 1 % allowed). Against the whole model's sway
+    mode (the dense solver, all modes; 3.909, the first test): condensing holds the columns to
+    their static shape, which is a little stiff, so the condensed value lies just above it."""
+    import postproc.stability.eigen as eig
+    import postproc.stability.frame_stability as st
+    monkeypatch.setattr(eig, "DENSE_MAX", 0)
+    monkeypatch.setattr(st, "MODES_FIRST", 1)
+    f, P_c, P_p, EI = leaning_portal()
+    L = 5.0
+    _, _, alpha, _ = run(f, {"U1": {"C1": -P_c, "C2": -P_c, "P1": -P_p}})
+    linearised = 24 * EI / (L ** 2 * (2.4 * P_c + P_p))
+    assert linearised == pytest.approx(3.922, abs=5e-4)
+    assert alpha.at["U1", "alpha_cr"] == pytest.approx(linearised, rel=CLOSED_FORM_REL)
+    monkeypatch.setattr(eig, "DENSE_MAX", 600)
+    _, _, whole, _ = run(f, {"U1": {"C1": -P_c, "C2": -P_c, "P1": -P_p}})
+    assert "condensed" not in whole.at["U1", "mode_note"]
+    a, a_whole = alpha.at["U1", "alpha_cr"], whole.at["U1", "alpha_cr"]
+    assert a_whole <= a <= 1.005 * a_whole
+    assert bool(alpha.at["U1", "sway_mode"])
+    assert alpha.at["U1", "local_member"] == "P1"
+
+
+def test_too_many_joint_freedoms_fall_back_to_the_modes(monkeypatch):
+    """Beyond JOINT_FREEDOMS_MAX the frame is not condensed: the whole model's search goes on
+    as with 'more modes', and the note says why."""
+    import postproc.stability.eigen as eig
+    import postproc.stability.frame_stability as st
+    monkeypatch.setattr(eig, "DENSE_MAX", 0)
+    monkeypatch.setattr(st, "JOINT_FREEDOMS_MAX", 1)
+    f, C, P, a_sway = bay_case(0.07, 5.0)
+    _, _, alpha, _ = run(f, {"U1": {"C1": -P, "C2": -P, "D1": -C}})
+    assert alpha.at["U1", "modes"] > 6
+    assert alpha.at["U1", "alpha_cr"] == pytest.approx(a_sway, rel=CLOSED_FORM_REL)
+    assert "condensed onto its joints" not in alpha.at["U1", "mode_note"]
+
+
+def test_sway_search_setting_is_read_and_checked():
+    """The project file's [design] sway_search takes 'joints' (default) or 'more modes';
+    anything else is refused naming the key."""
+    from postproc.errors import InputError
+    from postproc.settings import DesignSettings
+    assert DesignSettings().sway_search == "joints"
+    assert DesignSettings.from_mapping({"sway_search": "more modes"}).sway_search == "more modes"
+    with pytest.raises(InputError, match="sway_search"):
+        DesignSettings.from_mapping({"sway_search": "lowest"})

@@ -38,8 +38,10 @@ from ..errors import InputError, TopologyError
 from ..model.frame import NODE_COLUMNS, RELEASABLE, Frame, element_vectors, local_axes, released
 
 __all__ = ["ACTION_DOF", "ARPACK_NCV_MIN", "ARPACK_NCV_PER_MODE", "ARPACK_SPARE", "ARPACK_TOL",
-           "DENSE_MAX", "DOF_NAMES", "E_STEEL", "G_STEEL", "Mesh", "PIVOT_RATIO_MIN",
-           "SUB_PER_MEMBER", "TIE_CHAIN_MAX", "buckling_modes", "build_mesh", "check_connected",
+           "DENSE_MAX", "DOF_NAMES", "E_STEEL", "G_STEEL", "JOINT_FREEDOMS_MAX", "JointSway",
+           "Mesh", "PIVOT_RATIO_MIN", "SUB_PER_MEMBER", "TIE_CHAIN_MAX", "buckling_modes",
+           "build_mesh", "check_connected", "geometric_stiffness", "joint_sway_basis",
+           "joint_sway_modes",
            "section_columns", "tie_transformation", "translations"]
 
 E_STEEL = 210e9     # Pa, EN 1993-1-1 3.2.6(1)
@@ -58,6 +60,9 @@ ARPACK_NCV_MIN = 20
 # large job (docs/speed.md), alpha_cr is reported to far fewer digits than that
 ARPACK_TOL = 1e-8
 TIE_CHAIN_MAX = 10  # masters tied to masters: substitution rounds before a loop is assumed
+# joint freedoms up to which the frame is condensed onto them to find its sway mode: the static
+# shapes are kept as a (free freedoms x joint freedoms) array, 300 x 40,000 freedoms is 96 MB
+JOINT_FREEDOMS_MAX = 300
 
 # local freedom index of each releasable end action: u, v, w, theta_x, theta_y, theta_z
 ACTION_DOF = {"N": 0, "Vy": 1, "Vz": 2, "T": 3, "My": 4, "Mz": 5}
@@ -245,8 +250,12 @@ def build_mesh(frame: Frame, elements_per_member: np.ndarray) -> Mesh:
             T[rows, r, 12 + r] = 1.0
             g_index[rows, 12 + r] = n_dof + np.arange(len(rows))
             n_dof += len(rows)
-    k_glob = np.einsum("sai,sab,sbj->sij", T, k_loc, T)
-    g_unit = np.einsum("sai,sab,sbj->sij", T, g_loc, T)
+    # T^T k T per sub-element as batched matrix products (einsum over three operands is far
+    # slower here)
+    Tt = T.transpose(0, 2, 1)
+    k_force = k_loc @ T
+    k_glob = Tt @ k_force
+    g_unit = Tt @ (g_loc @ T)
     fixed = np.zeros(n_dof, dtype=bool)
     sup = frame.supports.reindex(columns=list(DOF_NAMES), fill_value=False)
     sup.index = sup.index.astype(str)
@@ -277,8 +286,7 @@ def build_mesh(frame: Frame, elements_per_member: np.ndarray) -> Mesh:
     else:
         chol, lu = None, _factorise_sparse(Ks, *where_dof)
     return Mesh(xyz, node_ids, parent, n_sub, end_i, end_j, (local + 0.5) / n_sub[parent],
-                free, n_dof, Ks, scale, chol, lu, g_index, g_unit,
-                np.einsum("sab,sbj->saj", k_loc, T), tie)
+                free, n_dof, Ks, scale, chol, lu, g_index, g_unit, k_force, tie)
 
 
 def _lever(d: int, r: int, arm: np.ndarray) -> float:
@@ -401,22 +409,18 @@ def _factorise_sparse(Ks: sp.csc_matrix, free: np.ndarray, node_ids: list[str], 
     raise _mechanism(int(free[np.argsort(lu.perm_c)[k]]), node_ids, n_nodes)
 
 
-def buckling_modes(mesh: Mesh, tension: np.ndarray, count: int
-                   ) -> tuple[np.ndarray, np.ndarray]:
+def buckling_modes(mesh: Mesh, tension: np.ndarray, count: int, *,
+                   geometric: sp.csr_matrix | None = None) -> tuple[np.ndarray, np.ndarray]:
     """The `count` lowest positive load factors for sub-element axial forces `tension` (N,
     tension > 0), ascending, and their modes over all freedoms (n_dof, k) with k <= count.
 
     Fewer than `count` come back when the problem has fewer positive ones; none when nothing is
-    in compression.
+    in compression. `geometric`: `geometric_stiffness(mesh, tension)` where already built.
     """
     n = len(mesh.free)
     if not np.any(tension < 0.0) or n == 0:
         return np.zeros(0), np.zeros((mesh.n_dof, 0))
-    Kg = _assemble(tension[:, None, None] * mesh.g_unit, mesh.g_index, mesh.n_dof)
-    if mesh.tie is not None:
-        Kg = mesh.tie.T @ Kg @ mesh.tie
-    S = sp.diags(mesh.scale)
-    Gs = -(S @ Kg.tocsr()[mesh.free][:, mesh.free] @ S)
+    Gs = geometric_stiffness(mesh, tension) if geometric is None else geometric
     k = max(1, min(count, n))
     if mesh.chol is not None:
         # standard symmetric form: L^-1 (-K_G) L^-T y = mu y, mu = 1 / alpha
@@ -437,7 +441,23 @@ def buckling_modes(mesh: Mesh, tension: np.ndarray, count: int
                                tol=ARPACK_TOL, v0=start,
                                ncv=min(n, max(ARPACK_NCV_PER_MODE * ask + 1, ARPACK_NCV_MIN)))
     order = np.argsort(-mu)[:k]
-    mu, phi_s = mu[order], phi_s[:, order]
+    return _positive_modes(mesh, mu[order], phi_s[:, order])
+
+
+def geometric_stiffness(mesh: Mesh, tension: np.ndarray) -> sp.csr_matrix:
+    """-K_G on the kept freedoms, scaled as mesh.K, for sub-element axial forces `tension` (N,
+    tension > 0)."""
+    Kg = _assemble(tension[:, None, None] * mesh.g_unit, mesh.g_index, mesh.n_dof)
+    if mesh.tie is not None:
+        Kg = mesh.tie.T @ Kg @ mesh.tie
+    S = sp.diags(mesh.scale)
+    return -(S @ Kg.tocsr()[mesh.free][:, mesh.free] @ S).tocsr()
+
+
+def _positive_modes(mesh: Mesh, mu: np.ndarray, phi_s: np.ndarray
+                    ) -> tuple[np.ndarray, np.ndarray]:
+    """Load factors 1 / mu of the positive mu (in the order given) and their modes expanded to
+    all freedoms (scaled freedoms back to physical ones, tied freedoms after their masters)."""
     positive = mu > 1e-12
     mu, phi_s = mu[positive], phi_s[:, positive]
     phi = np.zeros((mesh.n_dof, len(mu)))
@@ -445,6 +465,55 @@ def buckling_modes(mesh: Mesh, tension: np.ndarray, count: int
     if mesh.tie is not None:
         phi = mesh.tie @ phi                       # tied freedoms follow their masters
     return 1.0 / mu, phi
+
+
+@dataclass(frozen=True)
+class JointSway:
+    """The frame condensed onto a few freedoms of its joints (static condensation).
+
+    Each kept freedom's shape is the frame's displacement under a unit force at that freedom
+    alone (K^-1 e): every other freedom, the members' inner points and the joints' rotations
+    among them, follows statically. Between its ends a member then takes the shape its end
+    movements give it and cannot bow on its own, so the condensed frame has no member modes.
+    """
+
+    rows: np.ndarray           # (m,) positions in mesh.free of the kept freedoms
+    shapes: np.ndarray         # (F, m) K^-1 E on the scaled freedoms
+    flexibility: np.ndarray    # (m, m) E^T K^-1 E, the condensed stiffness's inverse
+
+
+def joint_sway_basis(mesh: Mesh, rows: np.ndarray) -> JointSway:
+    """Static shapes for the kept freedoms `rows` (positions in mesh.free), with the shared
+    factor of K: one solve per kept freedom, once per run (K does not change with the
+    combination)."""
+    n, m = len(mesh.free), len(rows)
+    unit = np.zeros((n, m))
+    unit[rows, np.arange(m)] = 1.0
+    if mesh.chol is not None:
+        shapes = sla.cho_solve((mesh.chol, True), unit)
+    else:
+        shapes = mesh.lu.solve(unit)
+    flexibility = shapes[rows]
+    return JointSway(np.asarray(rows), shapes, 0.5 * (flexibility + flexibility.T))
+
+
+def joint_sway_modes(mesh: Mesh, basis: JointSway, tension: np.ndarray, *,
+                     geometric: sp.csr_matrix | None = None) -> tuple[np.ndarray, np.ndarray]:
+    """Every positive load factor of the condensed frame (`JointSway`), ascending, and its mode
+    over all freedoms.
+
+    Rayleigh-Ritz on the static shapes W: (W^T (-K_G) W) y = mu (W^T K W) y with
+    W^T K W = E^T K^-1 E (the flexibility), alpha = 1 / mu; the mode is W y. A load factor of
+    the condensed frame is never below the lowest of the whole model (the shapes are a subspace
+    of its freedoms). `geometric`: `geometric_stiffness(mesh, tension)` where already built."""
+    if not np.any(tension < 0.0) or not len(basis.rows):
+        return np.zeros(0), np.zeros((mesh.n_dof, 0))
+    W = basis.shapes
+    Gs = geometric_stiffness(mesh, tension) if geometric is None else geometric
+    reduced = W.T @ (Gs @ W)
+    mu, y = sla.eigh(0.5 * (reduced + reduced.T), basis.flexibility)
+    order = np.argsort(-mu)
+    return _positive_modes(mesh, mu[order], W @ y[:, order])
 
 
 def translations(mesh: Mesh, phi: np.ndarray) -> np.ndarray:

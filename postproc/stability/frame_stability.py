@@ -17,6 +17,7 @@ import dataclasses
 
 import numpy as np
 import pandas as pd
+import scipy.sparse as sp
 
 from ..ec3.global_analysis import (
     alpha_cr_storey,
@@ -28,12 +29,18 @@ from ..errors import InputError, TopologyError
 from ..model.frame import NODE_COLUMNS, Frame, element_vectors, local_axes
 from ..model.members import Members, member_axes, moment_released
 from ..model.results import Results
+from ..settings import SwaySearch
 from .eigen import (
     E_STEEL,
+    JOINT_FREEDOMS_MAX,
     SUB_PER_MEMBER,
+    JointSway,
     Mesh,
     buckling_modes,
     build_mesh,
+    geometric_stiffness,
+    joint_sway_basis,
+    joint_sway_modes,
     section_columns,
     translations,
 )
@@ -42,11 +49,11 @@ from .sway import SwayPart, amplified_forces
 
 __all__ = ["ALPHA_AMPLIFY_MIN", "ALPHA_FIRST_ORDER", "COLUMN_TILT_COS", "LEVEL_TOL_M",
            "MODES_FIRST", "MODES_MAX", "ModeGauge", "PATHS", "STOREY_RAFTER_N_CR_SHARE",
-           "STOREY_ROOF_SLOPE", "SWAY_DRIFT_SHARE_MIN", "amplified_part", "amplify_sway_effects",
+           "STOREY_ROOF_SLOPE", "SWAY_DRIFT_SHARE_MIN", "amplified_part",
+           "amplify_sway_effects",
            "analysis_path", "axial_at", "bow_imperfections_needed", "critical_load_factors",
-           "equivalent_horizontal_forces", "is_sway", "search_steps", "storey_alpha",
-           "sub_elements",
-           "sway_imperfection"]
+           "equivalent_horizontal_forces", "is_sway", "joint_freedoms", "search_steps",
+           "storey_alpha", "sub_elements", "sway_imperfection"]
 
 ALPHA_FIRST_ORDER = 10.0    # 5.2.1(3), eq. (5.1), elastic analysis
 ALPHA_AMPLIFY_MIN = 3.0     # 5.2.2(5B)
@@ -178,8 +185,43 @@ def search_steps(mesh: Mesh) -> list[int]:
     return steps
 
 
-def _mode_search(mesh: Mesh, gauge: ModeGauge, tension: np.ndarray, solve_first: int = 0
-                 ) -> dict:
+def joint_freedoms(mesh: Mesh, frame: Frame, members: Members) -> np.ndarray:
+    """Positions in mesh.free of the freedoms a frame sways in: the horizontal translations of
+    the design members' end nodes and of the nodes other nodes are tied to, and the rotation
+    about the vertical of the latter (a floor tied rigid in its plane twists about it). The
+    nodes inside a member (between its ends) are left out, so that it cannot bow on its own."""
+    where = {n: k for k, n in enumerate(mesh.node_ids)}
+    mm = members.members
+    ends = set(mm["start_node"].astype(str)) | set(mm["end_node"].astype(str))
+    masters = set(frame.ties["master"].astype(str)) if frame.ties is not None and len(
+        frame.ties) else set()
+    up = frame.vertical_axis
+    horizontal = [a for a in range(3) if a != up]
+    wanted = np.zeros(mesh.n_dof, dtype=bool)
+    for node in ends | masters:
+        if node in where:
+            wanted[6 * where[node] + np.array(horizontal)] = True
+    for node in masters:
+        if node in where:
+            wanted[6 * where[node] + 3 + up] = True
+    return np.nonzero(wanted[mesh.free])[0]
+
+
+def _joint_sway(mesh: Mesh, basis: JointSway, gauge: ModeGauge, tension: np.ndarray,
+                geometric: sp.csr_matrix | None = None
+                ) -> tuple[float, float, float, str] | None:
+    """The lowest sway mode of the frame condensed onto its joints (`joint_sway_modes`), as
+    (alpha, drift, bow, member bowing most); None when it has no positive sway mode."""
+    alphas, phis = joint_sway_modes(mesh, basis, tension, geometric=geometric)
+    for a, phi in zip(alphas, phis.T):
+        drift, bow, member = gauge.measure(phi)
+        if is_sway(drift, bow):
+            return float(a), drift, bow, member
+    return None
+
+
+def _mode_search(mesh: Mesh, gauge: ModeGauge, tension: np.ndarray, solve_first: int = 0,
+                 joints: JointSway | None = None) -> dict:
     """The lowest sway mode and the lowest member mode of one combination.
 
     The modes are looked at in steps (`search_steps`): the lowest MODES_FIRST first; while no
@@ -191,18 +233,26 @@ def _mode_search(mesh: Mesh, gauge: ModeGauge, tension: np.ndarray, solve_first:
     combination ended at), so that a search that needs many modes costs one solve instead of
     one per step. The lowest `count` modes of a larger solve are those of a solve for `count`,
     so the steps are judged on them exactly as if each had been solved for on its own.
+
+    `joints`: the frame condensed onto its joints (sparse solver only). Given, the whole model's
+    search stops after its first step, and where that step holds no sway mode and ends below
+    ALPHA_FIRST_ORDER the sway mode is the condensed frame's ("sway" with "by" = "joints").
     """
     steps = search_steps(mesh)
+    if joints is not None and mesh.chol is None:
+        steps = steps[:1]
+    # one geometric stiffness per combination, for every solve of the whole and condensed frame
+    geometric = geometric_stiffness(mesh, tension) if np.any(tension < 0.0) else None
     solved = 0
     alphas, phis = np.zeros(0), np.zeros((mesh.n_dof, 0))
     for count in steps:
         if count > solved:
             solved = next((s for s in steps if s >= max(count, solve_first)), steps[-1])
-            alphas, phis = buckling_modes(mesh, tension, solved)
+            alphas, phis = buckling_modes(mesh, tension, solved, geometric=geometric)
         top_k = alphas[:count]
         found = {"n": len(top_k), "top": float(top_k[-1]) if len(top_k) else np.inf,
                  "sway": None, "local": None, "lowest": None, "exhausted": len(top_k) < count,
-                 "solved": solved, "step": count}
+                 "solved": solved, "step": count, "by": "modes"}
         for a, phi in zip(top_k, phis.T[:count]):
             drift, bow, member = gauge.measure(phi)
             mode = (float(a), drift, bow, member)
@@ -213,13 +263,19 @@ def _mode_search(mesh: Mesh, gauge: ModeGauge, tension: np.ndarray, solve_first:
                 break
             if found["local"] is None:
                 found["local"] = mode
-        if (found["sway"] is not None or found["exhausted"] or found["top"] >= ALPHA_FIRST_ORDER
-                or count >= steps[-1] or not gauge.has_columns):
+        done = (found["sway"] is not None or found["exhausted"]
+                or found["top"] >= ALPHA_FIRST_ORDER or not gauge.has_columns)
+        if not done and count >= steps[-1] and joints is not None and mesh.chol is None:
+            found["sway"] = _joint_sway(mesh, joints, gauge, tension, geometric)
+            found["by"] = "joints"
+            return found
+        if done or count >= steps[-1]:
             return found
     raise AssertionError("unreachable: the last step always ends the search")
 
 
-def critical_load_factors(frame: Frame, results: Results, members: Members) -> pd.DataFrame:
+def critical_load_factors(frame: Frame, results: Results, members: Members, *,
+                          sway_search: SwaySearch = "joints") -> pd.DataFrame:
     """EN 1993-1-1:2005, 5.2.1(3) and 5.2.1(4)B, eq. (5.2): alpha_cr of every ULS combination.
 
     Eigenvalues of (K + alpha K_G) phi = 0: K the elastic stiffness assembled from the frame
@@ -232,6 +288,14 @@ def critical_load_factors(frame: Frame, results: Results, members: Members) -> p
     times the largest bow of a member off its chord (`ModeGauge`, `is_sway`); the modes below it
     are member modes, which 6.3 covers member by member with the member's own length. The lowest
     member mode is reported beside it (alpha_cr_local, local_member).
+    - The whole model's lowest modes (the first step of `search_steps`) all member modes, the
+      highest of them below ALPHA_FIRST_ORDER, on a model large enough for the sparse solver:
+      with `sway_search` 'joints' (default) the sway mode is that of the frame condensed onto
+      its joints' horizontal freedoms (`joint_freedoms`, `JointSway`: the members follow their
+      ends' movement statically and cannot bow on their own), the note says so; with 'more
+      modes' the whole model's search goes on to MODES_MAX modes. 'joints' needs at most
+      JOINT_FREEDOMS_MAX such freedoms (the floors tied rigid in their plane count three each);
+      beyond, the search goes on as with 'more modes', and the note says why.
     - No sway mode among the modes searched (`_mode_search`), the highest of them at or above
       ALPHA_FIRST_ORDER: alpha_cr is that highest value, a lower bound of the sway mode's, and
       sway_mode is False (sway effects negligible, 5.2.1(3)); the note says so.
@@ -261,6 +325,15 @@ def critical_load_factors(frame: Frame, results: Results, members: Members) -> p
     mesh = build_mesh(frame, sub_elements(frame, members))
     gauge = ModeGauge(mesh, frame, members)
     tension = axial_at(frame, results, combos, mesh.parent, mesh.frac_mid)
+    joints, joints_note = None, ""
+    if mesh.chol is None and sway_search == "joints" and gauge.has_columns:
+        rows = joint_freedoms(mesh, frame, members)
+        if 0 < len(rows) <= JOINT_FREEDOMS_MAX:
+            joints = joint_sway_basis(mesh, rows)
+        else:
+            joints_note = (f"; the frame has {len(rows)} joint freedoms to sway in, more than "
+                           f"the {JOINT_FREEDOMS_MAX} it is condensed onto at most, so its sway "
+                           "mode was looked for among the whole model's modes")
     eid = frame.elements.index.astype(str)
     out = []
     none = (np.nan, "", 0)
@@ -279,7 +352,7 @@ def critical_load_factors(frame: Frame, results: Results, members: Members) -> p
             out.append((comb, np.nan, False, *none,
                         f"no forces for element {e}: alpha_cr not found"))
             continue
-        found = _mode_search(mesh, gauge, tension[c], solve_first)
+        found = _mode_search(mesh, gauge, tension[c], solve_first, joints)
         if mesh.chol is None:
             solve_first = found["step"]
         if found["lowest"] is None:
@@ -294,13 +367,24 @@ def critical_load_factors(frame: Frame, results: Results, members: Members) -> p
             out.append((comb, found["lowest"][0], False, np.nan, "", found["n"],
                         "no columns to judge sway from; lowest mode taken, as non-sway"))
             continue
+        searched = f"the {found['n']} lowest modes are member modes"
         if found["sway"] is not None:
             a, drift, bow, _ = found["sway"]
             note = (f"sway mode: column drift {drift:.2f}, largest member bow {bow:.2f} "
                     "(relative to the largest displacement)")
+            if found["by"] == "joints":
+                note = (f"sway mode of the frame condensed onto its joints (members following "
+                        f"their ends, design setting sway_search = joints; {searched}, up to "
+                        f"alpha = {found['top']:.2f}): column drift {drift:.2f}, largest member "
+                        f"bow {bow:.2f}")
             out.append((comb, a, True, *local_cols, found["n"], note + local_text))
             continue
-        searched = f"the {found['n']} lowest modes are member modes"
+        if found["by"] == "joints":
+            out.append((comb, np.inf, False, *local_cols, found["n"],
+                        f"no sway mode at any load factor in the frame condensed onto its joints "
+                        f"(members following their ends, design setting sway_search = joints; "
+                        f"{searched}, up to alpha = {found['top']:.2f})" + local_text))
+            continue
         if found["exhausted"]:
             a = np.inf
             note = f"no sway mode at any load factor ({searched}: all the positive ones)"
@@ -312,7 +396,7 @@ def critical_load_factors(frame: Frame, results: Results, members: Members) -> p
             a = np.nan
             note = (f"no sway mode found ({searched}, up to alpha = {found['top']:.2f} < 10): "
                     "alpha_cr of the sway mode not found")
-        out.append((comb, a, False, *local_cols, found["n"], note + local_text))
+        out.append((comb, a, False, *local_cols, found["n"], note + local_text + joints_note))
     table = pd.DataFrame(out, columns=["combination", "alpha_cr", "sway_mode", "alpha_cr_local",
                                        "local_member", "modes", "mode_note"])
     table = table.set_index("combination")
