@@ -20,6 +20,7 @@ import pandas as pd
 
 from postproc.errors import InputError
 from postproc.model.frame import Frame
+from postproc.model.imperfection import equivalent_horizontal_forces, sway_imperfection
 
 from .opensees_model import Captured
 from .opensees_run import Job
@@ -79,9 +80,7 @@ def jobs(frame: Frame, captured: Captured, matrix: np.ndarray, names: list[str],
             out_names.append(name)
             continue
         if phi is None:  # only ULS combinations need the imperfection
-            from postproc import stability
-
-            phi = float(stability.sway_imperfection(frame, **imperfection)["phi"])
+            phi = float(sway_imperfection(frame, **imperfection)["phi"])
         down = -applied[c, :, vertical]
         net = applied[c].sum(axis=0)
         scale = max(np.abs(down).sum(), 1.0)
@@ -94,7 +93,7 @@ def jobs(frame: Frame, captured: Captured, matrix: np.ndarray, names: list[str],
         V = pd.DataFrame({"node": captured.nodes.index.to_numpy(), "V_N": down})
         V = V[V["V_N"] != 0.0].reset_index(drop=True)
         for direction in directions:
-            H = stability.equivalent_horizontal_forces(frame, V, phi, direction)
+            H = equivalent_horizontal_forces(frame, V, phi, direction)
             extra = tuple((str(n), float(fx), float(fy), float(fz)) for n, fx, fy, fz in
                           H[["node", "FX_N", "FY_N", "FZ_N"]].itertuples(index=False))
             label = f"{name} [sway {direction}]"

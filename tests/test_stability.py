@@ -20,6 +20,7 @@ import pytest
 
 from postproc.errors import InputError, TopologyError
 from postproc.model.frame import Frame
+from postproc.model.imperfection import equivalent_horizontal_forces, sway_imperfection
 from postproc.model.members import design_members
 from postproc.model.results import Results
 from postproc.stability.frame_stability import (
@@ -27,8 +28,6 @@ from postproc.stability.frame_stability import (
     analysis_path,
     bow_imperfections_needed,
     critical_load_factors,
-    equivalent_horizontal_forces,
-    sway_imperfection,
 )
 from postproc.stability.lengths import buckling_lengths, effective_length_ratio
 

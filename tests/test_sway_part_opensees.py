@@ -20,6 +20,7 @@ import pandas as pd
 import pytest
 
 from postproc.model.frame import Frame
+from postproc.model.imperfection import sway_imperfection
 from postproc.model.members import design_members
 from postproc.model.results import Results
 from postproc.stability.frame_stability import (
@@ -27,7 +28,6 @@ from postproc.stability.frame_stability import (
     amplify_sway_effects,
     analysis_path,
     critical_load_factors,
-    sway_imperfection,
 )
 from postproc.stability.sway import sway_part
 

@@ -7,7 +7,8 @@
   forces, second-order needed, unstable.
 - `amplified_part`, `amplify_sway_effects`: 5.2.2(5B), the sway part (from
   `postproc.stability.sway`) amplified.
-- `sway_imperfection`, `equivalent_horizontal_forces`, `bow_imperfections_needed`: 5.3.2.
+- `bow_imperfections_needed`: 5.3.2(6). The frame's sway imperfection (5.3.2(3), (7)) is a
+  property of the frame: `postproc.model.imperfection`.
 - `buckling_lengths` lives in `postproc.stability.lengths` and is re-exported here.
 """
 
@@ -21,11 +22,9 @@ import scipy.sparse as sp
 
 from ..ec3.global_analysis import (
     alpha_cr_storey,
-    equivalent_horizontal_force,
     sway_amplification,
-    sway_imperfection_factors,
 )
-from ..errors import InputError, TopologyError
+from ..errors import InputError
 from ..model.frame import NODE_COLUMNS, Frame, element_vectors, local_axes
 from ..model.members import Members, member_axes, moment_released
 from ..model.results import Results
@@ -47,18 +46,16 @@ from .eigen import (
 from .lengths import member_compression
 from .sway import SwayPart, amplified_forces
 
-__all__ = ["ALPHA_AMPLIFY_MIN", "ALPHA_FIRST_ORDER", "COLUMN_TILT_COS", "LEVEL_TOL_M",
+__all__ = ["ALPHA_AMPLIFY_MIN", "ALPHA_FIRST_ORDER", "LEVEL_TOL_M",
            "MODES_FIRST", "MODES_MAX", "ModeGauge", "PATHS", "STOREY_RAFTER_N_CR_SHARE",
            "STOREY_ROOF_SLOPE", "SWAY_DRIFT_SHARE_MIN", "amplified_part",
            "amplify_sway_effects",
            "analysis_path", "axial_at", "bow_imperfections_needed", "critical_load_factors",
-           "equivalent_horizontal_forces", "is_sway", "joint_freedoms", "search_steps",
-           "storey_alpha", "sub_elements", "sway_imperfection"]
+           "is_sway", "joint_freedoms", "search_steps", "storey_alpha", "sub_elements"]
 
 ALPHA_FIRST_ORDER = 10.0    # 5.2.1(3), eq. (5.1), elastic analysis
 ALPHA_AMPLIFY_MIN = 3.0     # 5.2.2(5B)
 LEVEL_TOL_M = 0.01          # column ends within 10 mm count as one level
-COLUMN_TILT_COS = np.cos(np.radians(10.0))
 PATHS = ("first-order", "amplified", "sway lengths", "second-order in forces",
          "second-order needed", "unstable", "not evaluated")
 STOREY_RAFTER_N_CR_SHARE = 0.09   # 5.2.1(4)B note 2: lambda_bar >= 0.3 sqrt(A f_y / N_Ed)
@@ -731,100 +728,6 @@ def amplify_sway_effects(results: Results, paths: pd.DataFrame, sway: SwayPart |
         for col in ("Vy_N", "Vz_N", "My_Nm", "Mz_Nm"):
             f[col] = f[col].to_numpy(float) * factor
     return dataclasses.replace(results, forces=f)
-
-
-def _column_elements(frame: Frame) -> np.ndarray:
-    axes = local_axes(frame)
-    return np.abs(axes[:, 0, frame.vertical_axis]) >= COLUMN_TILT_COS
-
-
-def sway_imperfection(frame: Frame, *, m: int | None = None, h: float | None = None) -> dict:
-    """EN 1993-1-1:2005, 5.3.2(3), eq. (5.5): global initial sway imperfection phi.
-
-    phi = phi_0 alpha_h alpha_m, phi_0 = 1/200, alpha_h = 2 / sqrt(h) with 2/3 <= alpha_h <= 1,
-    alpha_m = sqrt(0.5 (1 + 1/m)).
-
-    Args:
-        frame: the frame.
-        m: number of columns in a row carrying at least 50 % of the average column load. When
-            not given it is counted from the geometry: the column lines (distinct plan positions
-            of near-vertical elements) of a plane frame; for a space frame the fewest column
-            lines found in any row along X or along Y (the larger phi). Counting from geometry
-            includes lightly loaded columns, which lowers phi: give m where some columns carry
-            little load.
-        h: height of the structure, m; default the height range of the frame's nodes.
-
-    Returns:
-        dict with phi, phi_0, alpha_h, alpha_m, h_m, m, and note (how m and h were found).
-    """
-    notes = []
-    if h is None:
-        used = pd.unique(frame.elements[["node_i", "node_j"]].to_numpy().ravel())
-        zv = frame.nodes.loc[used, NODE_COLUMNS[frame.vertical_axis]].to_numpy(float)
-        h = float(zv.max() - zv.min())
-        notes.append(f"h = {h:.3f} m from the node levels")
-    if not h > 0:
-        raise InputError(f"frame height h = {h} m must be positive", field="h")
-    if m is None:
-        col = _column_elements(frame)
-        if not col.any():
-            raise InputError("no columns found to count m; give m", field="m")
-        ends = frame.nodes.loc[frame.elements["node_i"][col], NODE_COLUMNS].to_numpy(float)
-        plan = [0] if frame.ndm == 2 else [0, 1]
-        pos = np.round(ends[:, plan] / LEVEL_TOL_M).astype(int)
-        lines = np.unique(pos, axis=0)
-        if frame.ndm == 2:
-            m = len(lines)
-        else:
-            rows_x = np.unique(lines[:, 1], return_counts=True)[1]   # rows along X
-            rows_y = np.unique(lines[:, 0], return_counts=True)[1]
-            m = int(min(rows_x.min(), rows_y.min()))
-        notes.append(f"m = {m} counted from the column lines")
-    if m < 1:
-        raise InputError(f"m = {m} must be at least 1", field="m")
-    phi_0 = 1.0 / 200.0
-    phi, alpha_h, alpha_m = (float(v) for v in sway_imperfection_factors(h, m, phi_0=phi_0))
-    return {"phi": phi, "phi_0": phi_0, "alpha_h": alpha_h,
-            "alpha_m": alpha_m, "h_m": float(h), "m": int(m), "note": "; ".join(notes)}
-
-
-def equivalent_horizontal_forces(frame: Frame, vertical_node_loads: pd.DataFrame, phi: float,
-                                 direction: str) -> pd.DataFrame:
-    """EN 1993-1-1:2005, 5.3.2(7), Figure 5.4: sway imperfection as horizontal forces phi V.
-
-    Args:
-        frame: the frame.
-        vertical_node_loads: columns node, V_N (vertical load at the node, N, downward positive).
-        phi: the sway imperfection (see `sway_imperfection`).
-        direction: '+X' or '-X'; for space frames also '+Y' or '-Y'.
-
-    Returns:
-        columns node, FX_N, FY_N, FZ_N (global axes), one row per loaded node.
-    """
-    allowed = ("+X", "-X") if frame.ndm == 2 else ("+X", "-X", "+Y", "-Y")
-    if direction not in allowed:
-        raise InputError(f"direction '{direction}' is not allowed for a {frame.ndm}D frame; use "
-                         f"one of {', '.join(allowed)}", field="direction")
-    for col in ("node", "V_N"):
-        if col not in vertical_node_loads.columns:
-            raise InputError(f"column '{col}' is missing (columns node, V_N)", field=col)
-    nodes = vertical_node_loads["node"].astype(str)
-    V = pd.to_numeric(vertical_node_loads["V_N"], errors="coerce").to_numpy(float)
-    known = set(frame.nodes.index.astype(str))
-    for k, (n, v) in enumerate(zip(nodes, V)):
-        if n not in known:
-            raise TopologyError(f"node '{n}' is not a node of the frame", row=k, field="node")
-        if not np.isfinite(v):
-            raise InputError(f"V_N = {vertical_node_loads['V_N'].iloc[k]!r} is not a number",
-                             row=k, field="V_N")
-    if not (np.isfinite(phi) and phi >= 0):
-        raise InputError(f"phi = {phi} must be a non-negative number", field="phi")
-    H = (1.0 if direction[0] == "+" else -1.0) * equivalent_horizontal_force(phi, V)
-    zero = np.zeros(len(V))
-    # in a plane frame the horizontal axis is X; in a space frame X or Y, Z being vertical
-    fx = H if direction[1] == "X" else zero
-    fy = H if direction[1] == "Y" else zero
-    return pd.DataFrame({"node": nodes.to_numpy(), "FX_N": fx, "FY_N": fy, "FZ_N": zero})
 
 
 def bow_imperfections_needed(frame: Frame, members: Members, results: Results,
