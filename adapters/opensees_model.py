@@ -136,7 +136,7 @@ def time_limit(seconds: float | None):
         raise ScriptTimeLimit()
 
     previous = signal.signal(signal.SIGALRM, expired)
-    signal.setitimer(signal.ITIMER_REAL, float(seconds))
+    signal.setitimer(signal.ITIMER_REAL, float(seconds or 0.0))
     try:
         yield
     finally:
@@ -394,7 +394,7 @@ def _loads(ops, watched: Watched, ndm: int, ndf: int, script: str
             part.insert(0, "node", [str(t) for t in tags])
             part.insert(0, "pattern", str(pattern))
             node_parts.append(part)
-        data = list(ops.getEleLoadData(pattern))
+        loads = list(ops.getEleLoadData(pattern))
         at = 0
         for tag, cls in zip(ops.getEleLoadTags(pattern), ops.getEleLoadClassTags(pattern)):
             if cls not in LOAD_CLASSES:
@@ -403,7 +403,7 @@ def _loads(ops, watched: Watched, ndm: int, ndf: int, script: str
                                  "constant) and -beamPoint loads only", file=script,
                                  field="model.script")
             kind, n = LOAD_CLASSES[cls]
-            v = np.array(data[at:at + n], float)
+            v = np.array(loads[at:at + n], float)
             at += n
             if cls == 3:
                 rec = (0.0, v[1], v[0], 0.0)   # wy, wx

@@ -356,7 +356,7 @@ class _Holding:
                 if d in ("X", "Y", "Z"):
                     g = np.eye(3)["XYZ".index(d)]
                     comp = {k: abs(g @ e) for k, e in across.items()}
-                    best = max(comp, key=comp.get) if comp else None
+                    best = max(comp, key=lambda k: comp[k]) if comp else None
                     if best is None or comp[best] < FRAMING_MIN_COMPONENT:
                         continue        # along the member: restrains neither axis
                     d = best
@@ -478,32 +478,32 @@ def design_members(frame: Frame, *, groups: dict[str, list[str]] | None = None,
 
     chains: list[tuple[str | None, list[str]]] = [(name, list(map(str, elist)))
                                                   for name, elist in (groups or {}).items()]
-    chains += [(None, sorted(c, key=pos.get)) for c in nx.connected_components(link)]
+    chains += [(None, sorted(c, key=lambda e: pos[e])) for c in nx.connected_components(link)]
     member_rows, elem_rows = [], []
-    for name, elist in chains:
-        order, nodes = _chain_order(elist, ends, name)
-        if name is not None:
+    for group, elist in chains:
+        order, nodes = _chain_order(elist, ends, group)
+        if group is not None:
             k0 = pos[order[0]]
             for e in order[1:]:
                 k = pos[e]
                 if abs(unit[k] @ unit[k0]) < COLLINEAR_COS:
-                    raise TopologyError(f"member '{name}': element '{e}' is not collinear with "
-                                        f"element '{order[0]}'", field=f"groups.{name}")
+                    raise TopologyError(f"member '{group}': element '{e}' is not collinear with "
+                                        f"element '{order[0]}'", field=f"groups.{group}")
                 for col in ("section", "grade"):
                     if el[col].iloc[k] != el[col].iloc[k0]:
                         raise TopologyError(
-                            f"member '{name}': element '{e}' has {col} '{el[col].iloc[k]}' but "
+                            f"member '{group}': element '{e}' has {col} '{el[col].iloc[k]}' but "
                             f"'{order[0]}' has '{el[col].iloc[k0]}'; one member needs one {col}",
-                            field=f"groups.{name}")
+                            field=f"groups.{group}")
         flipped = [node_i[pos[e]] != nodes[p] for p, e in enumerate(order)]
-        if name is None and sum(flipped) * 2 > len(order):
+        if group is None and sum(flipped) * 2 > len(order):
             # run the member the way most of its elements run
             order, nodes = order[::-1], nodes[::-1]
             flipped = [node_i[pos[e]] != nodes[p] for p, e in enumerate(order)]
         lengths = length[[pos[e] for e in order]]
         x0 = np.concatenate([[0.0], np.cumsum(lengths)[:-1]])
-        if name is None:
-            name = order[0] if len(order) == 1 else f"{order[0]}-{order[-1]}"
+        name = group if group is not None else (
+            order[0] if len(order) == 1 else f"{order[0]}-{order[-1]}")
         member_rows.append((name, float(lengths.sum()), el["section"].iloc[pos[order[0]]],
                             el["grade"].iloc[pos[order[0]]], len(order), nodes[0], nodes[-1]))
         for p, e in enumerate(order):

@@ -85,12 +85,20 @@ class Mesh:
     K: sp.csc_matrix           # (F, F) elastic stiffness on the kept freedoms, scaled
     scale: np.ndarray          # (F,) 1/sqrt(diag K): K_scaled = S K S
     chol: np.ndarray | None    # (F, F) lower Cholesky factor of the scaled K (small models)
-    lu: object | None          # sparse LU factors of the scaled K (larger models)
+    lu: spla.SuperLU | None    # sparse LU factors of the scaled K (larger models)
     g_index: np.ndarray        # (s, 24) global freedom of each column of the element matrices
     g_unit: np.ndarray         # (s, 24, 24) geometric stiffness per unit tension, global axes
-    k_force: np.ndarray | None = None  # (s, 12, 24) local end actions per unit element freedom
+    k_force: np.ndarray                # (s, 12, 24) local end actions per unit element freedom
     tie: sp.csr_matrix | None = None   # (n_dof, n_dof) u = tie @ u, tied columns empty; None
                                        # where the frame has no ties
+
+    def solve(self, b: np.ndarray) -> np.ndarray:
+        """K^-1 b on the scaled kept freedoms, with the factor kept (Cholesky or sparse LU)."""
+        if self.chol is not None:
+            return sla.cho_solve((self.chol, True), b)
+        if self.lu is None:
+            raise ValueError("the mesh holds no factor of its stiffness")
+        return self.lu.solve(b)
 
 
 def _local_stiffness(E: float, G: float, A: np.ndarray, I_y: np.ndarray, I_z: np.ndarray,
@@ -341,12 +349,16 @@ def tie_transformation(frame: Frame, xyz: np.ndarray, node_ids: list[str], n_dof
                                  "and tied to another node; hold the master instead",
                                  row=k, field="dofs")
             tied[g] = True
-            rows.append(g), cols.append(6 * pm + d), vals.append(1.0)
+            rows.append(g)
+            cols.append(6 * pm + d)
+            vals.append(1.0)
             if bool(t.rigid) and d < 3:
                 for r in rotations:
                     c = _lever(d, r, arm)
                     if c != 0.0:
-                        rows.append(g), cols.append(6 * pm + r), vals.append(c)
+                        rows.append(g)
+                        cols.append(6 * pm + r)
+                        vals.append(c)
     keep = np.nonzero(~tied)[0]
     rows += keep.tolist()
     cols += keep.tolist()
@@ -434,7 +446,7 @@ def buckling_modes(mesh: Mesh, tension: np.ndarray, count: int, *,
         # factorised K, which converges to the largest mu (lowest alpha) first
         # a few more than asked and a wide Krylov space, so that a cluster of member modes
         # does not make ARPACK skip one; a fixed start vector, so that a run repeats exactly
-        minv = spla.LinearOperator((n, n), matvec=mesh.lu.solve, dtype=float)
+        minv = spla.LinearOperator((n, n), matvec=mesh.solve, dtype=float)
         ask = min(k + ARPACK_SPARE, n - 1)
         start = np.random.default_rng(0).standard_normal(n)
         mu, phi_s = spla.eigsh(Gs.tocsc(), k=ask, M=mesh.K, Minv=minv, which="LA",
@@ -489,10 +501,7 @@ def joint_sway_basis(mesh: Mesh, rows: np.ndarray) -> JointSway:
     n, m = len(mesh.free), len(rows)
     unit = np.zeros((n, m))
     unit[rows, np.arange(m)] = 1.0
-    if mesh.chol is not None:
-        shapes = sla.cho_solve((mesh.chol, True), unit)
-    else:
-        shapes = mesh.lu.solve(unit)
+    shapes = mesh.solve(unit)
     flexibility = shapes[rows]
     return JointSway(np.asarray(rows), shapes, 0.5 * (flexibility + flexibility.T))
 

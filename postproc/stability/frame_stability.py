@@ -15,6 +15,7 @@
 from __future__ import annotations
 
 import dataclasses
+from typing import Any
 
 import numpy as np
 import pandas as pd
@@ -247,7 +248,7 @@ def _mode_search(mesh: Mesh, gauge: ModeGauge, tension: np.ndarray, solve_first:
             solved = next((s for s in steps if s >= max(count, solve_first)), steps[-1])
             alphas, phis = buckling_modes(mesh, tension, solved, geometric=geometric)
         top_k = alphas[:count]
-        found = {"n": len(top_k), "top": float(top_k[-1]) if len(top_k) else np.inf,
+        found: dict[str, Any] = {"n": len(top_k), "top": float(top_k[-1]) if len(top_k) else np.inf,
                  "sway": None, "local": None, "lowest": None, "exhausted": len(top_k) < count,
                  "solved": solved, "step": count, "by": "modes"}
         for a, phi in zip(top_k, phis.T[:count]):
@@ -673,8 +674,9 @@ def amplified_part(paths: pd.DataFrame, sway: SwayPart | None, *,
     for comb in out.index[out["path"] == "amplified"]:
         if bool(known.get(str(comb), False)):
             out.at[comb, "amplified_part"] = "sway part"
+            method = sway.method if sway is not None else ""
             out.at[comb, "reason"] += (f"; sway part amplified, axial forces included "
-                                       f"({sway.method})")
+                                       f"({method})")
             continue
         why = notes.get(str(comb), "") or "no sway part given"
         if whole_if_unknown:
@@ -720,6 +722,8 @@ def amplify_sway_effects(results: Results, paths: pd.DataFrame, sway: SwayPart |
     if not len(on_sway) and not len(on_whole):
         return results                  # nothing amplified: no copy of the force table
     if len(on_sway):
+        if sway is None:   # 'sway part' is only ever set where the sway part is known
+            raise ValueError("amplified_part says 'sway part' but no sway part was given")
         f = amplified_forces(f, on_sway, sway)
     else:
         f = f.copy()

@@ -23,7 +23,6 @@ from dataclasses import dataclass
 
 import numpy as np
 import pandas as pd
-import scipy.linalg as sla
 
 from ..model.frame import NODE_COLUMNS, Frame
 from ..model.members import Members
@@ -120,10 +119,7 @@ def solve(mesh: Mesh, b: np.ndarray) -> np.ndarray:
     if b.ndim == 1:
         return solve(mesh, b[:, None])[:, 0]
     rhs = mesh.scale[:, None] * b
-    if mesh.chol is not None:
-        y = sla.cho_solve((mesh.chol, True), rhs)
-    else:
-        y = np.column_stack([mesh.lu.solve(rhs[:, k]) for k in range(rhs.shape[1])])
+    y = mesh.solve(rhs)
     return mesh.scale[:, None] * y
 
 
