@@ -99,10 +99,10 @@ class DesignSettings:
         sway_search: how alpha_cr of the frame's sway mode (5.2.1(3)) is found where the whole
             model's lowest modes are all member modes (models too large for the dense solver):
             'joints' (default) takes the sway mode of the frame condensed onto its joints'
-            horizontal freedoms, the members following their ends so that none can buckle on its
-            own; 'more modes' searches more of the whole model's modes (up to 48), and where none
-            of them is a sway mode and they end below 10 the combination is not evaluated.
-            docs/stability.md.
+            horizontal freedoms, the members following their ends and bowing only as the sway
+            makes them, so that none can buckle on its own; 'more modes' searches more of the
+            whole model's modes (up to 48), and where none of them is a sway mode and they end
+            below 10 the combination is not evaluated. docs/stability.md.
     """
 
     gamma_M0: float = limits(1.00, **PLAUSIBLE_FACTOR)

@@ -61,8 +61,10 @@ ARPACK_NCV_MIN = 20
 ARPACK_TOL = 1e-8
 TIE_CHAIN_MAX = 10  # masters tied to masters: substitution rounds before a loop is assumed
 # joint freedoms up to which the frame is condensed onto them to find its sway mode: the static
-# shapes are kept as a (free freedoms x joint freedoms) array, 300 x 40,000 freedoms is 96 MB
-JOINT_FREEDOMS_MAX = 300
+# shapes and the bows are (free freedoms x joint freedoms) arrays, four of them at a time per
+# combination (48 MB each at 150 x 40,000), and each combination's products grow with the square
+# of the count (about a second per combination at 150 on 40,000 freedoms)
+JOINT_FREEDOMS_MAX = 150
 
 # local freedom index of each releasable end action: u, v, w, theta_x, theta_y, theta_z
 ACTION_DOF = {"N": 0, "Vy": 1, "Vz": 2, "T": 3, "My": 4, "Mz": 5}
@@ -507,22 +509,54 @@ def joint_sway_basis(mesh: Mesh, rows: np.ndarray) -> JointSway:
 
 
 def joint_sway_modes(mesh: Mesh, basis: JointSway, tension: np.ndarray, *,
-                     geometric: sp.csr_matrix | None = None) -> tuple[np.ndarray, np.ndarray]:
+                     geometric: sp.csr_matrix | None = None, bow_step: bool = True
+                     ) -> tuple[np.ndarray, np.ndarray]:
     """Every positive load factor of the condensed frame (`JointSway`), ascending, and its mode
     over all freedoms.
 
-    Rayleigh-Ritz on the static shapes W: (W^T (-K_G) W) y = mu (W^T K W) y with
-    W^T K W = E^T K^-1 E (the flexibility), alpha = 1 / mu; the mode is W y. A load factor of
-    the condensed frame is never below the lowest of the whole model (the shapes are a subspace
-    of its freedoms). `geometric`: `geometric_stiffness(mesh, tension)` where already built."""
+    Rayleigh-Ritz (W^T (-K_G) W) y = mu (W^T K W) y, alpha = 1 / mu, mode W y, on:
+    - the static shapes W (K W = E, so W^T K W = E^T K^-1 E, the flexibility);
+    - with `bow_step` (default), also Z = K^-1 (-K_G) W: the frame's first-order response to the
+      geometric forces of those shapes, i.e. the bow each member takes under its axial force as
+      the frame sways (one step of inverse iteration from the static shapes). Without it a
+      member stays in its static shape, which is stiff where a column carries more than its own
+      critical load at the sway load factor and leans on others (2.7 % high on the platform of
+      tests/test_stability_ties.py, 0.03 % with it). Only the part of Z that the static shapes
+      do not already hold is added, so the space stays well conditioned.
+    `geometric`: `geometric_stiffness(mesh, tension)` where already built."""
     if not np.any(tension < 0.0) or not len(basis.rows):
         return np.zeros(0), np.zeros((mesh.n_dof, 0))
-    W = basis.shapes
+    W, F = basis.shapes, basis.flexibility
     Gs = geometric_stiffness(mesh, tension) if geometric is None else geometric
-    reduced = W.T @ (Gs @ W)
-    mu, y = sla.eigh(0.5 * (reduced + reduced.T), basis.flexibility)
+    GW = np.asarray(Gs @ W)
+    G_ww = _symmetric(W.T @ GW)
+    if not bow_step:
+        mu, y = sla.eigh(G_ww, F)
+        order = np.argsort(-mu)
+        return _positive_modes(mesh, mu[order], W @ y[:, order])
+    Z = mesh.solve(GW)                          # K Z = GW
+    # Z' = Z - W C is K-orthogonal to W (W^T K Z = W^T GW = G_ww, W^T K W = F)
+    C = sla.solve(F, G_ww, assume_a="pos")
+    B = GW.T @ Z                                # W^T G Z (= Z^T K Z as well, K Z = G W)
+    S = _symmetric(B - G_ww @ C)                # Z'^T K Z'
+    G_wz = B - G_ww @ C                         # W^T G Z'
+    GZ = np.asarray(Gs @ Z)
+    G_zz = _symmetric(Z.T @ GZ - B.T @ C - C.T @ B + C.T @ G_ww @ C)   # Z'^T G Z'
+    lam, U = sla.eigh(S)
+    keep = lam > 1e-10 * max(float(lam.max(initial=0.0)), 1e-300)
+    P = U[:, keep] / np.sqrt(lam[keep])         # Z' P is K-orthonormal
+    m, k = len(F), int(keep.sum())
+    G_r = np.block([[G_ww, G_wz @ P], [P.T @ G_wz.T, P.T @ G_zz @ P]])
+    K_r = np.block([[F, np.zeros((m, k))], [np.zeros((k, m)), np.eye(k)]])
+    mu, y = sla.eigh(_symmetric(G_r), K_r)
     order = np.argsort(-mu)
-    return _positive_modes(mesh, mu[order], W @ y[:, order])
+    y = y[:, order]
+    modes = W @ (y[:m] - C @ (P @ y[m:])) + Z @ (P @ y[m:])
+    return _positive_modes(mesh, mu[order], modes)
+
+
+def _symmetric(a: np.ndarray) -> np.ndarray:
+    return 0.5 * (a + a.T)
 
 
 def translations(mesh: Mesh, phi: np.ndarray) -> np.ndarray:

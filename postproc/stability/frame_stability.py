@@ -289,8 +289,9 @@ def critical_load_factors(frame: Frame, results: Results, members: Members, *,
     - The whole model's lowest modes (the first step of `search_steps`) all member modes, the
       highest of them below ALPHA_FIRST_ORDER, on a model large enough for the sparse solver:
       with `sway_search` 'joints' (default) the sway mode is that of the frame condensed onto
-      its joints' horizontal freedoms (`joint_freedoms`, `JointSway`: the members follow their
-      ends' movement statically and cannot bow on their own), the note says so; with 'more
+      its joints' horizontal freedoms (`joint_freedoms`, `JointSway`, `joint_sway_modes`: the
+      members follow their ends' movement and bow only as the sway makes them, so none can
+      buckle on its own), the note says so; with 'more
       modes' the whole model's search goes on to MODES_MAX modes. 'joints' needs at most
       JOINT_FREEDOMS_MAX such freedoms (the floors tied rigid in their plane count three each);
       beyond, the search goes on as with 'more modes', and the note says why.
@@ -371,8 +372,9 @@ def critical_load_factors(frame: Frame, results: Results, members: Members, *,
             note = (f"sway mode: column drift {drift:.2f}, largest member bow {bow:.2f} "
                     "(relative to the largest displacement)")
             if found["by"] == "joints":
-                note = (f"sway mode of the frame condensed onto its joints (members following "
-                        f"their ends, design setting sway_search = joints; {searched}, up to "
+                note = (f"sway mode of the frame condensed onto its joints (members follow their "
+                        f"ends and bow only under the sway, design setting sway_search = joints; "
+                        f"{searched}, up to "
                         f"alpha = {found['top']:.2f}): column drift {drift:.2f}, largest member "
                         f"bow {bow:.2f}")
             out.append((comb, a, True, *local_cols, found["n"], note + local_text))
@@ -380,7 +382,8 @@ def critical_load_factors(frame: Frame, results: Results, members: Members, *,
         if found["by"] == "joints":
             out.append((comb, np.inf, False, *local_cols, found["n"],
                         f"no sway mode at any load factor in the frame condensed onto its joints "
-                        f"(members following their ends, design setting sway_search = joints; "
+                        f"(members follow their ends and bow only under the sway, design setting "
+                        f"sway_search = joints; "
                         f"{searched}, up to alpha = {found['top']:.2f})" + local_text))
             continue
         if found["exhausted"]:
