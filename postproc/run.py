@@ -7,6 +7,7 @@ from dataclasses import dataclass, field
 from pathlib import Path
 
 import pandas as pd
+from threadpoolctl import threadpool_limits
 
 from .checker import check_frame
 from .model.frame import Frame
@@ -57,7 +58,12 @@ def run_project(path: str | Path, *, stages: Stages = QUIET) -> RunOutput:
     with warnings.catch_warnings(record=True) as caught:
         # numpy's floating point warnings are collected and reported once, not flooded
         warnings.simplefilter("always", RuntimeWarning)
-        with stages.stage("stability, buckling lengths and checks"):
+        # one BLAS thread: the checks run a thread per core already, and the eigen solves of the
+        # stability stage work on vectors too small to gain from more; with more, BLAS threads
+        # wait on each other and on the check threads (7 times slower on two shared cores,
+        # docs/speed.md)
+        with stages.stage("stability, buckling lengths and checks"), \
+                threadpool_limits(limits=1, user_api="blas"):
             outcome = check_frame(frame, results, project.settings, overrides=project.overrides,
                                   groups=project.groups, restraint_nodes=project.restraint_nodes,
                                   rules=project.rules,
