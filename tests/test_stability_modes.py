@@ -432,3 +432,24 @@ def test_sway_search_setting_is_read_and_checked():
     assert DesignSettings.from_mapping({"sway_search": "more modes"}).sway_search == "more modes"
     with pytest.raises(InputError, match="sway_search"):
         DesignSettings.from_mapping({"sway_search": "lowest"})
+
+
+@pytest.mark.parametrize("search", ["joints", "more modes"])
+def test_sway_search_setting_reaches_the_stability_stage(monkeypatch, search):
+    """The check of a frame hands the design setting to the stability stage (the stage itself is
+    tested above); the run is stopped there."""
+    import postproc.checker as checker
+    from postproc.settings import DesignSettings
+
+    class Reached(Exception):
+        pass
+
+    def stop(frame, results, members, *, sway_search):
+        raise Reached(sway_search)
+
+    monkeypatch.setattr(checker.stability, "critical_load_factors", stop)
+    f, C, P, _ = bay_case(0.07, 5.0)
+    axial = {"U1": {"C1": -P, "C2": -P, "D1": -C}}
+    res = Results(constant_forces(axial, f), combos(axial))
+    with pytest.raises(Reached, match=search):
+        checker.check_frame(f, res, DesignSettings(sway_search=search))
