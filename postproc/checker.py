@@ -26,6 +26,7 @@ from .checks.tension_only import left_out_for_tension_only, tension_only_checks
 from .engine import CheckFamily, run_checks
 from .model.frame import Frame
 from .model.member_rows import build_member_rows
+from .model.member_info import MemberInfo
 from .model.members import Members, design_members
 from .model.outcome import KEY_COLUMNS, CheckOutcome
 from .model.positions import restraints_along as restraints_along_members
@@ -95,11 +96,18 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
     rows = build_member_rows(frame, checked.forces, members, settings, lengths)
     rows, blocks = run_checks(rows, families or CHECK_FAMILIES, overrides=overrides)
     blocks = _leave_out_for_tension_only(blocks, rows.member, tension_only)
-    table = results_table(rows, blocks, settings.utilisation_limit)
-    # members without forces first, so that a combination's frame path applies to them too
     covered = np.zeros(len(rows.member), dtype=bool)
+    value_columns: dict[str, tuple[str, ...]] = {}
     for block in blocks:
         covered |= np.asarray(block.applies, bool)
+        value_columns.setdefault(block.check, tuple(block.values))
+    stations = station_forces(rows)
+    # the blocks' values move into the table (never both held in full); the blocks, and the
+    # rows' member information, are not needed after it
+    table = results_table(rows, blocks, settings.utilisation_limit, release_values=True)
+    del blocks
+    rows = replace(rows, info=MemberInfo())
+    # members without forces first, so that a combination's frame path applies to them too
     table = _mark_unchecked_members(table, members, rows, list(uls), covered)
     table = _mark_unusable_combinations(table, per_combination, combos, members)
     table = _explain_missing_lengths(table, lengths)
@@ -113,13 +121,10 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
                          table["combination"].map(per_combination[column]).fillna("").to_numpy())
         bows = stability.bow_imperfections_needed(frame, members, checked, alpha)
         table = _mark_member_bows(table, bows, settings.bow_imperfections)
-    value_columns: dict[str, tuple[str, ...]] = {}
-    for block in blocks:
-        value_columns.setdefault(block.check, tuple(block.values))
     return CheckOutcome(table=table, members=members,
                         stability=_with_analysis_status(per_combination, combos),
                         lengths=lengths, settings=settings, combinations=combos,
-                        stations=station_forces(rows), value_columns=value_columns, frame=frame,
+                        stations=stations, value_columns=value_columns, frame=frame,
                         member_settings=member_settings(overrides))
 
 
@@ -273,9 +278,20 @@ def _length_overrides(overrides: pd.DataFrame | None) -> pd.DataFrame | None:
     return overrides[["member", *columns, *where, *set_by]].rename(columns={**columns, **set_by})
 
 
-def results_table(rows: MemberRows, blocks: list[CheckBlock], limit: float = 1.0) -> pd.DataFrame:
-    """The long table: one row per (member, combination, check) where the check applies."""
-    parts = []
+def results_table(rows: MemberRows, blocks: list[CheckBlock], limit: float = 1.0, *,
+                  release_values: bool = False) -> pd.DataFrame:
+    """The long table: one row per (member, combination, check) where the check applies.
+
+    The columns are those of concatenating one frame per check (KEY_COLUMNS, then each check's
+    values in order of first appearance, NaN where a check has no such value), with the dtypes
+    that concatenation gives; but each column is filled straight into an array of the table's
+    length, and the float columns share one two-dimensional array, so the table is built
+    without a second full-size copy (it is the largest object of a large run).
+
+    release_values: drop each block's `values` once they are copied (the blocks are left
+        without values), so that the blocks' values and the whole table are not held at once.
+    """
+    parts: list[tuple[int, dict[str, object]]] = []
     for block in blocks:
         keep = np.asarray(block.applies, bool)
         if not keep.any():
@@ -283,7 +299,7 @@ def results_table(rows: MemberRows, blocks: list[CheckBlock], limit: float = 1.0
         reason = np.asarray(block.reason, dtype=object).copy()
         unexplained = np.isnan(block.utilisation) & (reason == "")
         reason[unexplained] = "could not be evaluated"
-        data = {
+        data: dict[str, object] = {
             "member": rows.member[keep], "combination": rows.combination[keep],
             "check": block.check, "clause": block.clause, "x_m": block.x[keep],
             "utilisation": block.utilisation[keep],
@@ -291,12 +307,55 @@ def results_table(rows: MemberRows, blocks: list[CheckBlock], limit: float = 1.0
         }
         for name, values in block.values.items():
             data[name] = np.asarray(values)[keep]
-        parts.append(pd.DataFrame(data))
+        if release_values:
+            block.values = {}
+        # text columns get the dtype a frame built from them would give (pandas' inference)
+        parts.append((int(keep.sum()), {k: pd.Series(v) if isinstance(v, np.ndarray)
+                                        and v.dtype == object else v
+                                        for k, v in data.items()}))
     if not parts:
         return pd.DataFrame(columns=KEY_COLUMNS)
-    # concat keeps one block per piece and column kind; copy() joins them, so that later column
-    # inserts do not work on (and warn about) a table of a hundred-odd blocks
-    return pd.concat(parts, ignore_index=True, sort=False).copy()
+    return _joined_parts(parts)
+
+
+def _joined_parts(parts: list[tuple[int, dict[str, object]]]) -> pd.DataFrame:
+    """The parts one under the other, as `pd.concat(..., sort=False)` of their frames would
+    give them (column order, dtypes, NaN where a part has no such column), column by column;
+    each part's column is dropped once copied."""
+    def first(value: object) -> object:
+        if isinstance(value, pd.Series):
+            return value.iloc[:1].reset_index(drop=True)
+        return value[:1] if isinstance(value, np.ndarray) else value
+
+    # the result's columns and dtypes from one row of each part (they follow from the dtypes)
+    head = pd.concat([pd.DataFrame({k: first(v) for k, v in data.items()}, index=[0])
+                      for _, data in parts], ignore_index=True, sort=False)
+    sizes = np.array([size for size, _ in parts])
+    starts = np.concatenate([[0], np.cumsum(sizes)])
+    n = int(starts[-1])
+    dtypes = head.dtypes
+    floats = [c for c in head.columns if dtypes[c] == np.float64]
+    block = np.full((len(floats), n), np.nan)
+    for i, column in enumerate(floats):
+        for (size, data), a in zip(parts, starts[:-1]):
+            if column in data:
+                block[i, a:a + size] = np.asarray(data.pop(column), dtype=float)
+    # one float block (the transpose is a view), the other columns inserted at their places
+    table = pd.DataFrame(block.T, columns=floats, copy=False)
+    for position, column in enumerate(head.columns):
+        if column in table.columns:
+            continue
+        cells = np.empty(n, dtype=object)
+        cells.fill(np.nan)
+        for (size, data), a in zip(parts, starts[:-1]):
+            if column in data:
+                value = data.pop(column)
+                cells[a:a + size] = (value if isinstance(value, str) else
+                                     np.asarray(value, dtype=object))
+        dtype = dtypes[column]
+        table.insert(position, column, pd.array(cells, dtype=dtype) if dtype != object
+                     else pd.Series(cells, dtype=object))
+    return table
 
 
 def _status(utilisation: np.ndarray, reason: np.ndarray, limit: float) -> np.ndarray:
