@@ -16,14 +16,16 @@ def governing_checks(table: pd.DataFrame) -> pd.DataFrame:
     was never evaluated for the member, its first not-evaluated row (with the reason)."""
     if table.empty:
         return table.copy()
-    order = pd.DataFrame({
-        "evaluated": (table["status"] != NOT_EVALUATED).to_numpy(),
-        "u": table["utilisation"].to_numpy(float)}, index=table.index)
-    ranked = table.assign(_evaluated=order["evaluated"], _u=np.nan_to_num(order["u"], nan=-1.0))
+    # ranked on the four key columns alone; only the chosen rows of the wide table are taken
+    ranked = pd.DataFrame({
+        "member": table["member"].reset_index(drop=True),
+        "check": table["check"].reset_index(drop=True),
+        "_evaluated": (table["status"] != NOT_EVALUATED).to_numpy(),
+        "_u": np.nan_to_num(table["utilisation"].to_numpy(float), nan=-1.0)})
     ranked = ranked.sort_values(["member", "check", "_evaluated", "_u"],
                                 ascending=[True, True, False, False], kind="stable")
-    first = ranked.drop_duplicates(["member", "check"]).drop(columns=["_evaluated", "_u"])
-    return first.reset_index(drop=True)
+    first = ranked.index[~ranked.duplicated(["member", "check"]).to_numpy()]
+    return table.take(first).reset_index(drop=True)
 
 
 def combination_utilisations(rows: pd.DataFrame) -> pd.DataFrame:
