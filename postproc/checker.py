@@ -23,7 +23,7 @@ from .checks.cross_section import cross_section_checks
 from .checks.interaction import interaction_checks
 from .checks.member_buckling import flexural_buckling_checks, lateral_torsional_checks
 from .checks.tension_only import left_out_for_tension_only, tension_only_checks
-from .engine import CheckFamily, run_checks
+from .engine import CheckFamily, release_free_memory, run_checks
 from .model.frame import Frame
 from .model.member_rows import build_member_rows
 from .model.member_info import MemberInfo
@@ -102,11 +102,12 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
         covered |= np.asarray(block.applies, bool)
         value_columns.setdefault(block.check, tuple(block.values))
     stations = station_forces(rows)
-    # the blocks' values move into the table (never both held in full); the blocks, and the
-    # rows' member information, are not needed after it
+    # the blocks' values move into the table (never both held in full); the rows' member
+    # information and the blocks are not needed after it
+    rows = replace(rows, info=MemberInfo())
     table = results_table(rows, blocks, settings.utilisation_limit, release_values=True)
     del blocks
-    rows = replace(rows, info=MemberInfo())
+    release_free_memory()
     # members without forces first, so that a combination's frame path applies to them too
     table = _mark_unchecked_members(table, members, rows, list(uls), covered)
     table = _mark_unusable_combinations(table, per_combination, combos, members)
@@ -161,10 +162,17 @@ BOW_NOTES = {
 def _mark_member_bows(table: pd.DataFrame, bows: pd.DataFrame, covered_by: str) -> pd.DataFrame:
     """Say on each row whether 5.3.2(6) wants the member's bow in the frame analysis, and what
     covers it; where nothing does, the row is not evaluated."""
-    needed = bows.loc[bows["bow_needed"], ["member", "combination"]]
-    key = pd.MultiIndex.from_frame(table[["member", "combination"]].astype(str))
-    hit = key.isin(pd.MultiIndex.from_frame(needed.astype(str))) if len(needed) else \
-        np.zeros(len(table), dtype=bool)
+    needed = bows.loc[bows["bow_needed"], ["member", "combination"]].astype(str)
+    hit = np.zeros(len(table), dtype=bool)
+    if len(needed):
+        # (member, combination) pairs as integer codes: no index of string pairs over the table
+        bow_members = pd.Index(needed["member"].unique())
+        bow_combos = pd.Index(needed["combination"].unique())
+        m = bow_members.get_indexer(table["member"].astype(str))
+        c = bow_combos.get_indexer(table["combination"].astype(str))
+        wanted = (bow_members.get_indexer(needed["member"]) * len(bow_combos)
+                  + bow_combos.get_indexer(needed["combination"]))
+        hit = (m >= 0) & (c >= 0) & np.isin(m * len(bow_combos) + c, wanted)
     position = list(table.columns).index("amplified_part") + 1
     table.insert(position, "bow_imperfection", np.where(hit, BOW_NOTES[covered_by], ""))
     if covered_by == "not covered" and hit.any():
@@ -294,6 +302,7 @@ def results_table(rows: MemberRows, blocks: list[CheckBlock], limit: float = 1.0
     parts: list[tuple[int, dict[str, object]]] = []
     for block in blocks:
         keep = np.asarray(block.applies, bool)
+        values, block.values = block.values, ({} if release_values else block.values)
         if not keep.any():
             continue
         reason = np.asarray(block.reason, dtype=object).copy()
@@ -305,10 +314,9 @@ def results_table(rows: MemberRows, blocks: list[CheckBlock], limit: float = 1.0
             "utilisation": block.utilisation[keep],
             "status": _status(block.utilisation, reason, limit)[keep], "reason": reason[keep],
         }
-        for name, values in block.values.items():
-            data[name] = np.asarray(values)[keep]
-        if release_values:
-            block.values = {}
+        for name, value in values.items():
+            data[name] = np.asarray(value)[keep]
+        del values
         # text columns get the dtype a frame built from them would give (pandas' inference)
         parts.append((int(keep.sum()), {k: pd.Series(v) if isinstance(v, np.ndarray)
                                         and v.dtype == object else v
@@ -335,15 +343,20 @@ def _joined_parts(parts: list[tuple[int, dict[str, object]]]) -> pd.DataFrame:
     n = int(starts[-1])
     dtypes = head.dtypes
     floats = [c for c in head.columns if dtypes[c] == np.float64]
-    block = np.full((len(floats), n), np.nan)
+    block = np.empty((len(floats), n))  # every cell is written once below
     for i, column in enumerate(floats):
         for (size, data), a in zip(parts, starts[:-1]):
-            if column in data:
-                block[i, a:a + size] = np.asarray(data.pop(column), dtype=float)
+            block[i, a:a + size] = (np.asarray(data.pop(column), dtype=float) if column in data
+                                    else np.nan)
     # one float block (the transpose is a view), the other columns inserted at their places
     table = pd.DataFrame(block.T, columns=floats, copy=False)
     for position, column in enumerate(head.columns):
         if column in table.columns:
+            continue
+        dtype = dtypes[column]
+        text = _arrow_text(parts, column, dtype)
+        if text is not None:
+            table.insert(position, column, text)
             continue
         cells = np.empty(n, dtype=object)
         cells.fill(np.nan)
@@ -352,10 +365,32 @@ def _joined_parts(parts: list[tuple[int, dict[str, object]]]) -> pd.DataFrame:
                 value = data.pop(column)
                 cells[a:a + size] = (value if isinstance(value, str) else
                                      np.asarray(value, dtype=object))
-        dtype = dtypes[column]
         table.insert(position, column, pd.array(cells, dtype=dtype) if dtype != object
                      else pd.Series(cells, dtype=object))
     return table
+
+
+def _arrow_text(parts: list[tuple[int, dict[str, object]]], column: str, dtype: object
+                ) -> pd.api.extensions.ExtensionArray | None:
+    """A text column of Arrow-backed strings joined from the parts' Arrow strings (a missing
+    part is nulls, a single text repeated), without a round trip through Python objects; None
+    where the column is not such text (the caller then joins it cell by cell)."""
+    if not (isinstance(dtype, pd.StringDtype) and dtype.storage == "pyarrow"):
+        return None
+    import pyarrow as pa
+
+    present = [data[column] for _, data in parts if column in data]
+    if not all(isinstance(v, str) or (isinstance(v, pd.Series) and v.dtype == dtype)
+               for v in present):
+        return None
+    kind = pa.large_string()
+    pieces = []
+    for size, data in parts:
+        value = data.pop(column, None) if column in data else None
+        pieces.append(pa.nulls(size, kind) if value is None else
+                      pa.repeat(pa.scalar(value, kind), size) if isinstance(value, str) else
+                      pa.array(value, type=kind))
+    return pd.array(pa.chunked_array(pieces, type=kind).combine_chunks(), dtype=dtype)
 
 
 def _status(utilisation: np.ndarray, reason: np.ndarray, limit: float) -> np.ndarray:
