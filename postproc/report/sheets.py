@@ -312,7 +312,7 @@ def interaction_svg(points: pd.DataFrame, limit: float) -> str:
     """Each combination's N term against its moment terms (M_y + M_z) of eq. (6.61) (circles)
     and (6.62) (squares), with the line where they sum to the limit; failing points are filled
     and labelled."""
-    usable = points.dropna(subset=[c for c in ("term_N", "term_M_y") if c in points]) \
+    usable = points[(points["term_N"].notna() & points["term_M_y"].notna()).to_numpy()] \
         if {"term_N", "term_M_y"} <= set(points.columns) else points.iloc[0:0]
     if usable.empty:
         return "<p>No evaluated 6.61/6.62 rows for this member (see the checks above).</p>"
