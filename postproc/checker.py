@@ -166,13 +166,13 @@ def _mark_member_bows(table: pd.DataFrame, bows: pd.DataFrame, covered_by: str) 
     hit = np.zeros(len(table), dtype=bool)
     if len(needed):
         # (member, combination) pairs as integer codes: no index of string pairs over the table
-        bow_members = pd.Index(needed["member"].unique())
-        bow_combos = pd.Index(needed["combination"].unique())
-        m = bow_members.get_indexer(table["member"].astype(str))
-        c = bow_combos.get_indexer(table["combination"].astype(str))
-        wanted = (bow_members.get_indexer(needed["member"]) * len(bow_combos)
-                  + bow_combos.get_indexer(needed["combination"]))
-        hit = (m >= 0) & (c >= 0) & np.isin(m * len(bow_combos) + c, wanted)
+        m, members_in_table = pd.factorize(table["member"].astype(str))
+        c, combos_in_table = pd.factorize(table["combination"].astype(str))
+        m_needed = pd.Index(members_in_table).get_indexer(needed["member"])
+        c_needed = pd.Index(combos_in_table).get_indexer(needed["combination"])
+        known = (m_needed >= 0) & (c_needed >= 0)
+        wanted = m_needed[known].astype(np.int64) * len(combos_in_table) + c_needed[known]
+        hit = np.isin(m.astype(np.int64) * len(combos_in_table) + c, wanted)
     position = list(table.columns).index("amplified_part") + 1
     table.insert(position, "bow_imperfection", np.where(hit, BOW_NOTES[covered_by], ""))
     if covered_by == "not covered" and hit.any():
