@@ -25,8 +25,8 @@ from .checks.member_buckling import flexural_buckling_checks, lateral_torsional_
 from .checks.tension_only import left_out_for_tension_only, tension_only_checks
 from .engine import CheckFamily, release_free_memory, run_checks
 from .model.frame import Frame
-from .model.member_rows import build_member_rows
 from .model.member_info import MemberInfo
+from .model.member_rows import build_member_rows
 from .model.members import Members, design_members
 from .model.outcome import KEY_COLUMNS, CheckOutcome
 from .model.positions import restraints_along as restraints_along_members
@@ -342,7 +342,7 @@ def _joined_parts(parts: list[tuple[int, dict[str, object]]]) -> pd.DataFrame:
     starts = np.concatenate([[0], np.cumsum(sizes)])
     n = int(starts[-1])
     dtypes = head.dtypes
-    floats = [c for c in head.columns if dtypes[c] == np.float64]
+    floats = [c for c in head.columns if dtypes[c] == np.dtype(np.float64)]
     block = np.empty((len(floats), n))  # every cell is written once below
     for i, column in enumerate(floats):
         for (size, data), a in zip(parts, starts[:-1]):
@@ -365,8 +365,8 @@ def _joined_parts(parts: list[tuple[int, dict[str, object]]]) -> pd.DataFrame:
                 value = data.pop(column)
                 cells[a:a + size] = (value if isinstance(value, str) else
                                      np.asarray(value, dtype=object))
-        table.insert(position, column, pd.array(cells, dtype=dtype) if dtype != object
-                     else pd.Series(cells, dtype=object))
+        table.insert(position, column, pd.Series(cells, dtype=object)
+                     if pd.api.types.is_object_dtype(dtype) else pd.array(cells, dtype=dtype))
     return table
 
 

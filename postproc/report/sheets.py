@@ -86,7 +86,7 @@ FORCE_COLUMNS = [("N_N", "N", "kN"), ("V_z_N", "V_z", "kN"), ("M_y_Nm", "M_y", "
 STATUS_WORDS = {"pass": "pass", FAIL: "FAIL", NOT_EVALUATED: "not evaluated"}
 
 
-@functools.lru_cache(maxsize=None)  # a few hundred distinct (check, clause, column) per run
+@functools.cache  # a few hundred distinct (check, clause, column) per run
 def value_source(check: str, clause: str, column: str) -> str:
     """The clause, equation or table an intermediate value comes from ('' if none is listed)."""
     symbol, _ = display_name(column)
