@@ -37,7 +37,8 @@ REPORT_FILES = {
 # the file that holds every row of each workbook view (a view may be cut to its first rows)
 WORKBOOK_SOURCES = {"members": "summary.csv", "governing checks": "utilisation.parquet",
                     "failures": "failures.csv", "stability": "stability.csv",
-                    "buckling lengths": "buckling_lengths.csv", "settings": "settings.csv"}
+                    "buckling lengths": "buckling_lengths.csv",
+                    "settings": "settings.csv and report.html"}
 
 SHEET_ROW_COLUMNS = ["member", "combination", "check", "utilisation", "status", "section_class",
                      "class_part", "term_N", "term_M_y", "term_M_z"]
