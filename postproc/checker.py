@@ -23,8 +23,9 @@ from .checks.cross_section import cross_section_checks
 from .checks.interaction import interaction_checks
 from .checks.member_buckling import flexural_buckling_checks, lateral_torsional_checks
 from .checks.tension_only import left_out_for_tension_only, tension_only_checks
-from .engine import CheckFamily, run_checks
+from .engine import CheckFamily, release_free_memory, run_checks
 from .model.frame import Frame
+from .model.member_info import MemberInfo
 from .model.member_rows import build_member_rows
 from .model.members import Members, design_members
 from .model.outcome import KEY_COLUMNS, CheckOutcome
@@ -96,11 +97,19 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
     rows = build_member_rows(frame, checked.forces, members, settings, lengths)
     rows, blocks = run_checks(rows, families or CHECK_FAMILIES, overrides=overrides)
     blocks = _leave_out_for_tension_only(blocks, rows.member, tension_only)
-    table = results_table(rows, blocks, settings.utilisation_limit)
-    # members without forces first, so that a combination's frame path applies to them too
     covered = np.zeros(len(rows.member), dtype=bool)
+    value_columns: dict[str, tuple[str, ...]] = {}
     for block in blocks:
         covered |= np.asarray(block.applies, bool)
+        value_columns.setdefault(block.check, tuple(block.values))
+    stations = station_forces(rows)
+    # the blocks' values move into the table (never both held in full); the rows' member
+    # information and the blocks are not needed after it
+    rows = replace(rows, info=MemberInfo())
+    table = results_table(rows, blocks, settings.utilisation_limit, release_values=True)
+    del blocks
+    release_free_memory()
+    # members without forces first, so that a combination's frame path applies to them too
     table = _mark_unchecked_members(table, members, rows, list(uls), covered)
     table = _mark_unusable_combinations(table, per_combination, combos, members)
     table = _explain_missing_lengths(table, lengths)
@@ -114,13 +123,10 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
                          table["combination"].map(per_combination[column]).fillna("").to_numpy())
         bows = stability.bow_imperfections_needed(frame, members, checked, alpha)
         table = _mark_member_bows(table, bows, settings.bow_imperfections)
-    value_columns: dict[str, tuple[str, ...]] = {}
-    for block in blocks:
-        value_columns.setdefault(block.check, tuple(block.values))
     return CheckOutcome(table=table, members=members,
                         stability=_with_analysis_status(per_combination, combos),
                         lengths=lengths, settings=settings, combinations=combos,
-                        stations=station_forces(rows), value_columns=value_columns, frame=frame,
+                        stations=stations, value_columns=value_columns, frame=frame,
                         member_settings=member_settings(overrides))
 
 
@@ -157,10 +163,17 @@ BOW_NOTES = {
 def _mark_member_bows(table: pd.DataFrame, bows: pd.DataFrame, covered_by: str) -> pd.DataFrame:
     """Say on each row whether 5.3.2(6) wants the member's bow in the frame analysis, and what
     covers it; where nothing does, the row is not evaluated."""
-    needed = bows.loc[bows["bow_needed"], ["member", "combination"]]
-    key = pd.MultiIndex.from_frame(table[["member", "combination"]].astype(str))
-    hit = key.isin(pd.MultiIndex.from_frame(needed.astype(str))) if len(needed) else \
-        np.zeros(len(table), dtype=bool)
+    needed = bows.loc[bows["bow_needed"], ["member", "combination"]].astype(str)
+    hit = np.zeros(len(table), dtype=bool)
+    if len(needed):
+        # (member, combination) pairs as integer codes: no index of string pairs over the table
+        m, members_in_table = pd.factorize(table["member"].astype(str))
+        c, combos_in_table = pd.factorize(table["combination"].astype(str))
+        m_needed = pd.Index(members_in_table).get_indexer(needed["member"])
+        c_needed = pd.Index(combos_in_table).get_indexer(needed["combination"])
+        known = (m_needed >= 0) & (c_needed >= 0)
+        wanted = m_needed[known].astype(np.int64) * len(combos_in_table) + c_needed[known]
+        hit = np.isin(m.astype(np.int64) * len(combos_in_table) + c, wanted)
     position = list(table.columns).index("amplified_part") + 1
     table.insert(position, "bow_imperfection", np.where(hit, BOW_NOTES[covered_by], ""))
     if covered_by == "not covered" and hit.any():
@@ -274,30 +287,111 @@ def _length_overrides(overrides: pd.DataFrame | None) -> pd.DataFrame | None:
     return overrides[["member", *columns, *where, *set_by]].rename(columns={**columns, **set_by})
 
 
-def results_table(rows: MemberRows, blocks: list[CheckBlock], limit: float = 1.0) -> pd.DataFrame:
-    """The long table: one row per (member, combination, check) where the check applies."""
-    parts = []
+def results_table(rows: MemberRows, blocks: list[CheckBlock], limit: float = 1.0, *,
+                  release_values: bool = False) -> pd.DataFrame:
+    """The long table: one row per (member, combination, check) where the check applies.
+
+    The columns are those of concatenating one frame per check (KEY_COLUMNS, then each check's
+    values in order of first appearance, NaN where a check has no such value), with the dtypes
+    that concatenation gives; but each column is filled straight into an array of the table's
+    length, and the float columns share one two-dimensional array, so the table is built
+    without a second full-size copy (it is the largest object of a large run).
+
+    release_values: drop each block's `values` once they are copied (the blocks are left
+        without values), so that the blocks' values and the whole table are not held at once.
+    """
+    parts: list[tuple[int, dict[str, object]]] = []
     for block in blocks:
         keep = np.asarray(block.applies, bool)
+        values, block.values = block.values, ({} if release_values else block.values)
         if not keep.any():
             continue
         reason = np.asarray(block.reason, dtype=object).copy()
         unexplained = np.isnan(block.utilisation) & (reason == "")
         reason[unexplained] = "could not be evaluated"
-        data = {
+        data: dict[str, object] = {
             "member": rows.member[keep], "combination": rows.combination[keep],
             "check": block.check, "clause": block.clause, "x_m": block.x[keep],
             "utilisation": block.utilisation[keep],
             "status": _status(block.utilisation, reason, limit)[keep], "reason": reason[keep],
         }
-        for name, values in block.values.items():
-            data[name] = np.asarray(values)[keep]
-        parts.append(pd.DataFrame(data))
+        for name, value in values.items():
+            data[name] = np.asarray(value)[keep]
+        del values
+        # text columns get the dtype a frame built from them would give (pandas' inference)
+        parts.append((int(keep.sum()), {k: pd.Series(v) if isinstance(v, np.ndarray)
+                                        and v.dtype == object else v
+                                        for k, v in data.items()}))
     if not parts:
         return pd.DataFrame(columns=KEY_COLUMNS)
-    # concat keeps one block per piece and column kind; copy() joins them, so that later column
-    # inserts do not work on (and warn about) a table of a hundred-odd blocks
-    return pd.concat(parts, ignore_index=True, sort=False).copy()
+    return _joined_parts(parts)
+
+
+def _joined_parts(parts: list[tuple[int, dict[str, object]]]) -> pd.DataFrame:
+    """The parts one under the other, as `pd.concat(..., sort=False)` of their frames would
+    give them (column order, dtypes, NaN where a part has no such column), column by column;
+    each part's column is dropped once copied."""
+    def first(value: object) -> object:
+        if isinstance(value, pd.Series):
+            return value.iloc[:1].reset_index(drop=True)
+        return value[:1] if isinstance(value, np.ndarray) else value
+
+    # the result's columns and dtypes from one row of each part (they follow from the dtypes)
+    head = pd.concat([pd.DataFrame({k: first(v) for k, v in data.items()}, index=[0])
+                      for _, data in parts], ignore_index=True, sort=False)
+    sizes = np.array([size for size, _ in parts])
+    starts = np.concatenate([[0], np.cumsum(sizes)])
+    n = int(starts[-1])
+    dtypes = head.dtypes
+    floats = [c for c in head.columns if dtypes[c] == np.dtype(np.float64)]
+    block = np.empty((len(floats), n))  # every cell is written once below
+    for i, column in enumerate(floats):
+        for (size, data), a in zip(parts, starts[:-1]):
+            block[i, a:a + size] = (np.asarray(data.pop(column), dtype=float) if column in data
+                                    else np.nan)
+    # one float block (the transpose is a view), the other columns inserted at their places
+    table = pd.DataFrame(block.T, columns=floats, copy=False)
+    for position, column in enumerate(head.columns):
+        if column in table.columns:
+            continue
+        dtype = dtypes[column]
+        text = _arrow_text(parts, column, dtype)
+        if text is not None:
+            table.insert(position, column, text)
+            continue
+        cells = np.empty(n, dtype=object)
+        cells.fill(np.nan)
+        for (size, data), a in zip(parts, starts[:-1]):
+            if column in data:
+                value = data.pop(column)
+                cells[a:a + size] = (value if isinstance(value, str) else
+                                     np.asarray(value, dtype=object))
+        table.insert(position, column, pd.Series(cells, dtype=object)
+                     if pd.api.types.is_object_dtype(dtype) else pd.array(cells, dtype=dtype))
+    return table
+
+
+def _arrow_text(parts: list[tuple[int, dict[str, object]]], column: str, dtype: object
+                ) -> pd.api.extensions.ExtensionArray | None:
+    """A text column of Arrow-backed strings joined from the parts' Arrow strings (a missing
+    part is nulls, a single text repeated), without a round trip through Python objects; None
+    where the column is not such text (the caller then joins it cell by cell)."""
+    if not (isinstance(dtype, pd.StringDtype) and dtype.storage == "pyarrow"):
+        return None
+    import pyarrow as pa
+
+    present = [data[column] for _, data in parts if column in data]
+    if not all(isinstance(v, str) or (isinstance(v, pd.Series) and v.dtype == dtype)
+               for v in present):
+        return None
+    kind = pa.large_string()
+    pieces = []
+    for size, data in parts:
+        value = data.pop(column, None) if column in data else None
+        pieces.append(pa.nulls(size, kind) if value is None else
+                      pa.repeat(pa.scalar(value, kind), size) if isinstance(value, str) else
+                      pa.array(value, type=kind))
+    return pd.array(pa.chunked_array(pieces, type=kind).combine_chunks(), dtype=dtype)
 
 
 def _status(utilisation: np.ndarray, reason: np.ndarray, limit: float) -> np.ndarray:

@@ -66,6 +66,11 @@ def _parser() -> argparse.ArgumentParser:
                         help="up to this many members the calculation sheets are part of "
                              "report.html, above it one page each under sheets/ "
                              "(default %(default)s)")
+    report.add_argument("--workbook-row-limit", type=int,
+                        default=ReportOptions.workbook_row_limit,
+                        help="a view in report.xlsx keeps at most this many rows, its first; "
+                             "the about sheet names the file with all of them "
+                             "(default %(default)s)")
     sections = commands.add_parser("sections", help="list catalogue sections and their properties")
     sections.add_argument("filter", nargs="?", default=None,
                           help="part of a designation or family, e.g. IPE or 'HEB 2'")
@@ -92,7 +97,8 @@ def main(argv: list[str] | None = None) -> int:
             csv_row_limit=args.csv_row_limit, full_csv=args.full_csv,
             summary_only=args.summary_only, per_combination=args.per_combination,
             views=tuple(args.views), paper=args.paper,
-            inline_sheet_limit=args.inline_sheet_limit)
+            inline_sheet_limit=args.inline_sheet_limit,
+            workbook_row_limit=args.workbook_row_limit)
         return _run(args.project, args.out, quiet=args.quiet, options=options)
     except InputError as exc:
         print(f"framesweep: bad input: {exc}", file=sys.stderr)

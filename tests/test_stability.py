@@ -473,6 +473,41 @@ def test_lengths_from_restraints_and_overrides():
                          overrides=over.assign(member="C9"))
 
 
+def test_overrides_apply_to_every_combination_of_their_member_in_order():
+    """Two combinations; two overrides of C1 (the later one wins where both give a value), one of
+    the beam. Expected values are the overrides themselves (the module's rule: overrides win
+    over everything); the members without an override keep the lengths found without any."""
+    f = portal(FIXED, L=5.0, beam="IPE 300")
+    decl = pd.DataFrame({"node": ["2", "3"], "direction": ["all", "all"]})
+    members = design_members(f, restraint_nodes=decl)
+    res = Results(constant_forces({"U1": {"C1": -1e5, "C2": -1e5, "R1": 2e4},
+                                   "U2": {"C1": -2e5, "C2": -2e5, "R1": 1e4}}, f),
+                  combos(["U1", "U2"]))
+    paths = analysis_path(critical_load_factors(f, res, members), res.combinations)
+    found = buckling_lengths(f, members, res, paths)
+    over = pd.DataFrame({"member": ["C1", "R1", "C1"], "L_cr_y_m": [7.5, np.nan, 8.0],
+                         "L_cr_z_m": [3.0, np.nan, np.nan], "L_LT_m": [np.nan, 2.0, np.nan],
+                         "L_cr_T_m": [np.nan, np.nan, np.nan],
+                         "set_by_L_cr_y_m": ["[members.C1]", "", "[[rules]] 1"]})
+    out = buckling_lengths(f, members, res, paths, overrides=over)
+    assert len(out) == len(found) == 6  # 3 members x 2 combinations, in the same order
+    c1 = out[out["member"] == "C1"]
+    assert c1["L_cr_y_m"].tolist() == [8.0, 8.0]
+    assert c1["origin_y"].tolist() == ["override from the project: [[rules]] 1"] * 2
+    assert c1["L_cr_z_m"].tolist() == [3.0, 3.0]
+    assert c1["origin_z"].tolist() == ["override from the project"] * 2
+    assert not c1["sway_y"].any() and not c1["sway_z"].any()
+    assert not c1["L_LT_override"].any()
+    r1 = out[out["member"] == "R1"]
+    assert r1["L_LT_m"].tolist() == [2.0, 2.0] and r1["L_LT_override"].all()
+    assert r1["origin_LT"].tolist() == ["override from the project"] * 2
+    untouched = ["L_cr_y_m", "L_cr_z_m", "L_cr_T_m", "origin_y", "origin_z", "sway_y", "sway_z"]
+    pd.testing.assert_frame_equal(out.loc[out["member"] == "R1", untouched],
+                                  found.loc[found["member"] == "R1", untouched])
+    pd.testing.assert_frame_equal(out[out["member"] == "C2"], found[found["member"] == "C2"])
+    assert out["L_LT_override"].dtype == bool and out["origin_y"].dtype == found["origin_y"].dtype
+
+
 def test_unrestrained_out_of_plane_end_gives_nan_and_reason():
     f = portal()
     members = design_members(f)

@@ -21,8 +21,8 @@ from .spreadsheet import write_parquet, write_workbook
 from .summaries import member_grouping
 from .views import governing_checks
 
-__all__ = ["REPORT_FILES", "SHEET_ROW_COLUMNS", "csv_wanted", "member_records", "member_slices",
-           "ordered_summary", "write_report_outputs"]
+__all__ = ["REPORT_FILES", "SHEET_ROW_COLUMNS", "WORKBOOK_SOURCES", "csv_wanted",
+           "member_records", "member_slices", "ordered_summary", "write_report_outputs"]
 
 REPORT_FILES = {
     "report.html": "the report: summary, the frame drawn, members, stability, settings, sheets",
@@ -34,6 +34,11 @@ REPORT_FILES = {
     "combinations.html": "the frame shaded by each combination (when asked for)",
 }
 
+# the file that holds every row of each workbook view (a view may be cut to its first rows)
+WORKBOOK_SOURCES = {"members": "summary.csv", "governing checks": "utilisation.parquet",
+                    "failures": "failures.csv", "stability": "stability.csv",
+                    "buckling lengths": "buckling_lengths.csv",
+                    "settings": "settings.csv and report.html"}
 
 SHEET_ROW_COLUMNS = ["member", "combination", "check", "utilisation", "status", "section_class",
                      "class_part", "term_N", "term_M_y", "term_M_z"]
@@ -112,7 +117,8 @@ def write_report_outputs(outcome: CheckOutcome, folder: Path, summary: pd.DataFr
                             "buckling lengths": outcome.lengths, "settings": settings},
                            folder / "report.xlsx",
                            notes=[f"{title}: framesweep results, one sheet per view.",
-                                  "Units are in the column headings."])
+                                  "Units are in the column headings."],
+                           row_limit=options.workbook_row_limit, sources=WORKBOOK_SOURCES)
         written["report.xlsx"] = REPORT_FILES["report.xlsx"]
         sections = _write_sheets(outcome, folder, summary, governing, title=title,
                                  options=options, inline=inline, stages=stages)

@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import functools
+
 import pandas as pd
 
 __all__ = ["SUFFIXES", "UNITLESS", "display_name", "to_display"]
@@ -14,6 +16,7 @@ SUFFIXES = {"_Nm": ("kNm", 1e-3), "_N": ("kN", 1e-3), "_Pa": ("MPa", 1e-6),
 UNITLESS = {"term_N"}
 
 
+@functools.cache  # called per value on every sheet; a few hundred names
 def display_name(column: str) -> tuple[str, float]:
     """Display header and factor for an SI column name, e.g. 'N_Ed_N' -> ('N_Ed [kN]', 1e-3)."""
     if column in UNITLESS:

@@ -30,6 +30,10 @@ class ReportOptions:
             open) and the report says so.
         table_row_limit: a table in report.html shows at most this many rows; the rest are in
             the named file and the page says so.
+        workbook_row_limit: a view in report.xlsx keeps at most this many rows (its first); the
+            workbook's about sheet says so and names the file that holds them all. Writing a
+            workbook costs about a second per 100,000 cells, so a large job's per-combination
+            views (buckling lengths: members x combinations) are cut by default.
     """
 
     csv_row_limit: int = 200_000
@@ -40,6 +44,7 @@ class ReportOptions:
     paper: str = "A4"
     inline_sheet_limit: int = 300
     table_row_limit: int = 500
+    workbook_row_limit: int = 25_000
 
     def __post_init__(self) -> None:
         if self.paper not in PAPER_SIZES:
@@ -51,6 +56,9 @@ class ReportOptions:
                              field="--views")
         if self.csv_row_limit < 0:
             raise InputError("csv_row_limit must not be negative", field="--csv-row-limit")
+        if self.workbook_row_limit < 0:
+            raise InputError("workbook_row_limit must not be negative",
+                             field="--workbook-row-limit")
 
     def as_dict(self) -> dict:
         values = asdict(self)

@@ -11,6 +11,7 @@ interaction terms of every combination against the limit.
 
 from __future__ import annotations
 
+import functools
 import html
 from dataclasses import dataclass, field
 
@@ -85,6 +86,7 @@ FORCE_COLUMNS = [("N_N", "N", "kN"), ("V_z_N", "V_z", "kN"), ("M_y_Nm", "M_y", "
 STATUS_WORDS = {"pass": "pass", FAIL: "FAIL", NOT_EVALUATED: "not evaluated"}
 
 
+@functools.cache  # a few hundred distinct (check, clause, column) per run
 def value_source(check: str, clause: str, column: str) -> str:
     """The clause, equation or table an intermediate value comes from ('' if none is listed)."""
     symbol, _ = display_name(column)
@@ -310,7 +312,7 @@ def interaction_svg(points: pd.DataFrame, limit: float) -> str:
     """Each combination's N term against its moment terms (M_y + M_z) of eq. (6.61) (circles)
     and (6.62) (squares), with the line where they sum to the limit; failing points are filled
     and labelled."""
-    usable = points.dropna(subset=[c for c in ("term_N", "term_M_y") if c in points]) \
+    usable = points[(points["term_N"].notna() & points["term_M_y"].notna()).to_numpy()] \
         if {"term_N", "term_M_y"} <= set(points.columns) else points.iloc[0:0]
     if usable.empty:
         return "<p>No evaluated 6.61/6.62 rows for this member (see the checks above).</p>"
@@ -327,12 +329,14 @@ def interaction_svg(points: pd.DataFrame, limit: float) -> str:
         return o + s - b / top * s
 
     marks = []
-    for r, a, b in zip(usable.to_dict("records"), n, m):
-        failing = r["status"] == FAIL
+    # plain Python values column by column (as records would give them, without building dicts)
+    for status, combination, check, utilisation, a, b in zip(
+            usable["status"].tolist(), usable["combination"].tolist(), usable["check"].tolist(),
+            usable["utilisation"].tolist(), n, m):
+        failing = status == FAIL
         fill = "#000" if failing else "none"
-        title = html.escape(f"{r['combination']}: {r['check']}, "
-                            f"utilisation {fmt(r['utilisation'])}")
-        if str(r["check"]).endswith("6.61"):
+        title = html.escape(f"{combination}: {check}, utilisation {fmt(utilisation)}")
+        if str(check).endswith("6.61"):
             marks.append(f'<circle cx="{px(a):.1f}" cy="{py(b):.1f}" r="3.5" stroke="#000" '
                          f'fill="{fill}"><title>{title}</title></circle>')
         else:
@@ -382,8 +386,9 @@ def sheet_markdown(sheet: Sheet, *, utilisation_limit: float) -> str:
     out += ["## Forces along the member (governing combination)", ""]
     if len(sheet.forces):
         cols = [(c, f"{lab} [{unit}]") for c, lab, unit in FORCE_COLUMNS if c in sheet.forces]
-        rows = [(fmt(r["x_m"]), *(fmt(r[c] * 1e-3) for c, _ in cols))
-                for r in sheet.forces.to_dict("records")]
+        values = [sheet.forces[c].tolist() for c, _ in cols]
+        rows = [(fmt(x), *(fmt(v * 1e-3) for v in at)) for x, *at in
+                zip(sheet.forces["x_m"].tolist(), *values)]
         out += _md_table(["x [m]", *(h for _, h in cols)], rows)
     else:
         out.append("No force stations for this combination.")

@@ -11,63 +11,126 @@ import pandas as pd
 from .cells import formula_safe, formula_safe_table
 from .display import to_display
 
-__all__ = ["XLSX_MAX_ROWS", "arrow_ready", "write_parquet", "write_workbook"]
+__all__ = ["PARQUET_CHUNK_ROWS", "XLSX_MAX_ROWS", "arrow_ready", "write_parquet",
+           "write_workbook"]
 
 XLSX_MAX_ROWS = 1_048_575  # rows below the header that one worksheet holds
+
+
+# rows converted to Arrow at a time; on the large job of docs/speed.md about 0.1 GiB in flight
+# (a whole-table conversion: 1.0 GiB) and a file as small as one row group (smaller slices:
+# 100,000 rows gave a third more bytes)
+PARQUET_CHUNK_ROWS = 500_000
+
+
+def _arrow_kinds(table: pd.DataFrame) -> dict[str, str]:
+    """For each object column, the one type Parquet stores it as, decided on the whole column:
+    'boolean' where every cell is a boolean, 'string' where any is text, 'number' where every
+    cell is a number, 'mixed' (text and numbers, kept as text)."""
+    kinds = {}
+    for column in table.columns:
+        values = table[column]
+        if not pd.api.types.is_object_dtype(values):
+            continue
+        kind = pd.api.types.infer_dtype(values, skipna=True)  # one pass in C
+        kinds[column] = ("boolean" if kind == "boolean" else
+                         "string" if kind in ("string", "empty") else
+                         "number" if kind in ("floating", "integer", "mixed-integer-float",
+                                              "decimal") else "mixed")
+    return kinds
+
+
+def _as_kind(values: pd.Series, kind: str) -> pd.Series:
+    if kind == "boolean":
+        return values.astype("boolean")
+    if kind == "string":
+        return values.astype("string")
+    if kind == "number":
+        return pd.to_numeric(values, errors="coerce")
+    # mixed text and numbers: keep every cell, as text
+    return values.map(lambda v: v if isinstance(v, str) or pd.isna(v) else str(v)
+                      ).astype("string")
 
 
 def arrow_ready(table: pd.DataFrame) -> pd.DataFrame:
     """The table with every mixed object column given one type Parquet can store: text where any
     cell is text, nullable booleans where every cell is a boolean, else numbers."""
     out = table.copy()
-    for column in out.columns:
-        values = out[column]
-        if not pd.api.types.is_object_dtype(values):
-            continue
-        kind = pd.api.types.infer_dtype(values, skipna=True)  # one pass in C
-        if kind == "boolean":
-            out[column] = values.astype("boolean")
-        elif kind in ("string", "empty"):
-            out[column] = values.astype("string")
-        elif kind in ("floating", "integer", "mixed-integer-float", "decimal"):
-            out[column] = pd.to_numeric(values, errors="coerce")
-        else:  # mixed text and numbers: keep every cell, as text
-            out[column] = values.map(lambda v: v if isinstance(v, str) or pd.isna(v)
-                                     else str(v)).astype("string")
+    for column, kind in _arrow_kinds(table).items():
+        out[column] = _as_kind(table[column], kind)
     return out
 
 
 def write_parquet(table: pd.DataFrame, path: Path) -> None:
-    """The long results table in SI, column names as in the checker (unit suffixes)."""
-    arrow_ready(table).to_parquet(path, index=False)
+    """The long results table in SI, column names as in the checker (unit suffixes).
+
+    Written PARQUET_CHUNK_ROWS rows at a time (one row group each), with each column's type
+    decided on the whole table first: the same file content as converting the whole table at
+    once, without a second copy of a large table in memory."""
+    import pyarrow as pa
+    import pyarrow.parquet as pq
+
+    kinds = _arrow_kinds(table)
+    writer = None
+    try:
+        for a in range(0, max(len(table), 1), PARQUET_CHUNK_ROWS):
+            part = table.iloc[a:a + PARQUET_CHUNK_ROWS]
+            if kinds:
+                part = part.assign(**{c: _as_kind(part[c], k) for c, k in kinds.items()})
+            arrow = pa.Table.from_pandas(part, preserve_index=False,
+                                         schema=writer.schema if writer is not None else None)
+            if writer is None:
+                writer = pq.ParquetWriter(path, arrow.schema)
+            writer.write_table(arrow)
+    finally:
+        if writer is not None:
+            writer.close()
 
 
-def write_workbook(views: dict[str, pd.DataFrame], path: Path, *, notes: list[str]) -> None:
+def write_workbook(views: dict[str, pd.DataFrame], path: Path, *, notes: list[str],
+                   row_limit: int = XLSX_MAX_ROWS, sources: dict[str, str] | None = None) -> None:
     """One worksheet per view in display units, after an 'about' sheet listing the sheets and
-    anything shortened (a view longer than a worksheet holds keeps its first rows and says so)."""
+    anything shortened: a view longer than `row_limit` rows (at most what a worksheet holds)
+    keeps its first rows, and the about sheet says so and names the file that holds all of them
+    (`sources`, by view; utilisation.parquet where none is named)."""
     from openpyxl import Workbook
 
     book = Workbook(write_only=True)
     about = book.create_sheet("about")
     lines = list(notes)
+    limit = min(row_limit, XLSX_MAX_ROWS)
     prepared = {}
     for name, view in views.items():
-        shown = formula_safe_table(to_display(view))
-        if len(shown) > XLSX_MAX_ROWS:
-            lines.append(f"{name}: the first {XLSX_MAX_ROWS} of {len(shown)} rows; all rows are "
-                         f"in utilisation.parquet")
-            shown = shown.head(XLSX_MAX_ROWS)
+        if len(view) > limit:
+            where = (sources or {}).get(name, "utilisation.parquet")
+            lines.append(f"{name}: the first {limit} of {len(view)} rows; all rows are in "
+                         f"{where}")
+            view = view.head(limit)
         else:
-            lines.append(f"{name}: {len(shown)} rows")
-        prepared[name] = shown
+            lines.append(f"{name}: {len(view)} rows")
+        prepared[name] = formula_safe_table(to_display(view))
     for line in lines:
         about.append([formula_safe(line)])
     for name, shown in prepared.items():
         sheet = book.create_sheet(name[:31])
         sheet.append(list(shown.columns))
-        for row in shown.itertuples(index=False, name=None):
-            sheet.append([_cell(v) for v in row])
+        # cells converted column by column (numbers in bulk), then written row by row
+        for row in zip(*(_cells(shown.iloc[:, k]) for k in range(shown.shape[1]))):
+            sheet.append(row)
     book.save(path)
+
+
+def _cells(column: pd.Series) -> list:
+    """A column's values as workbook cells: Python numbers, text, None for a missing or
+    non-finite value (an empty cell, never 0)."""
+    values = column.to_numpy()
+    if values.dtype.kind == "f":
+        cells = values.astype(object)
+        cells[~np.isfinite(values)] = None
+        return cells.tolist()
+    if values.dtype.kind in "biu":
+        return values.tolist()
+    return [_cell(v) for v in values]
 
 
 def _cell(value: object) -> object:

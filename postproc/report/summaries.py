@@ -16,10 +16,11 @@ def member_summary(table: pd.DataFrame, members: pd.DataFrame) -> pd.DataFrame:
     A member's status is 'fail' if any check fails, else 'not evaluated' if any check could not be
     evaluated (it is not a pass), else 'pass'.
     """
-    evaluated = table[table["status"] != NOT_EVALUATED]
+    # the few columns needed, never a copy of the whole wide table
+    shown = ["member", "utilisation", "combination", "check", "clause", "x_m"]
+    evaluated = table.loc[(table["status"] != NOT_EVALUATED).to_numpy(), shown]
     idx = evaluated.groupby("member")["utilisation"].idxmax()
-    governing = evaluated.loc[idx.dropna().astype(int),
-                              ["member", "utilisation", "combination", "check", "clause", "x_m"]]
+    governing = evaluated.loc[idx.dropna().astype(int), shown]
     governing = governing.set_index("member").rename(columns={
         "utilisation": "max_utilisation", "combination": "governing_combination",
         "check": "governing_check", "clause": "governing_clause", "x_m": "governing_x_m"})
@@ -35,7 +36,8 @@ def member_summary(table: pd.DataFrame, members: pd.DataFrame) -> pd.DataFrame:
     summary["status"] = np.where(summary["failed"] > 0, FAIL,
                                  np.where((summary["not_evaluated"] > 0) | (summary["checks"] == 0),
                                           NOT_EVALUATED, PASS))
-    first_reason = (table[table["status"] == NOT_EVALUATED].groupby("member")["reason"].first())
+    first_reason = (table.loc[(table["status"] == NOT_EVALUATED).to_numpy(), ["member", "reason"]]
+                    .groupby("member")["reason"].first())
     summary["not_evaluated_reason"] = first_reason.reindex(summary.index).fillna("")
     summary.index.name = "member"
     return summary.reset_index()
@@ -43,7 +45,8 @@ def member_summary(table: pd.DataFrame, members: pd.DataFrame) -> pd.DataFrame:
 
 def failures_by_combination(table: pd.DataFrame) -> pd.DataFrame:
     """Overstressed members per combination: the worst failing check of each member."""
-    failing = table[table["status"] == FAIL]
+    failing = table.loc[(table["status"] == FAIL).to_numpy(),
+                        ["combination", "member", "utilisation", "check", "clause", "x_m"]]
     if failing.empty:
         return pd.DataFrame(columns=["combination", "member", "utilisation", "check", "clause",
                                      "x_m", "failing_checks"])

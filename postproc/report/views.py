@@ -16,25 +16,38 @@ def governing_checks(table: pd.DataFrame) -> pd.DataFrame:
     was never evaluated for the member, its first not-evaluated row (with the reason)."""
     if table.empty:
         return table.copy()
-    order = pd.DataFrame({
-        "evaluated": (table["status"] != NOT_EVALUATED).to_numpy(),
-        "u": table["utilisation"].to_numpy(float)}, index=table.index)
-    ranked = table.assign(_evaluated=order["evaluated"], _u=np.nan_to_num(order["u"], nan=-1.0))
+    # ranked on the four key columns alone; only the chosen rows of the wide table are taken
+    ranked = pd.DataFrame({
+        "member": table["member"].reset_index(drop=True),
+        "check": table["check"].reset_index(drop=True),
+        "_evaluated": (table["status"] != NOT_EVALUATED).to_numpy(),
+        "_u": np.nan_to_num(table["utilisation"].to_numpy(float), nan=-1.0)})
     ranked = ranked.sort_values(["member", "check", "_evaluated", "_u"],
                                 ascending=[True, True, False, False], kind="stable")
-    first = ranked.drop_duplicates(["member", "check"]).drop(columns=["_evaluated", "_u"])
-    return first.reset_index(drop=True)
+    first = ranked.index[~ranked.duplicated(["member", "check"]).to_numpy()]
+    return table.take(first).reset_index(drop=True)
 
 
 def combination_utilisations(rows: pd.DataFrame) -> pd.DataFrame:
-    """A member's rows as combination x check: utilisation, or NaN where not evaluated."""
+    """A member's rows as combination x check: utilisation, or NaN where not evaluated.
+
+    Combinations and checks sorted, as a pivot gives them; built from integer codes (one
+    sheet per member of a large job calls this a few thousand times)."""
     if rows.empty:
         return pd.DataFrame()
-    # (member, combination, check) is unique in the table, so a plain pivot is enough
-    return rows.pivot(index="combination", columns="check", values="utilisation").sort_index()
+    combos, c = np.unique(rows["combination"].to_numpy(dtype=object), return_inverse=True)
+    checks, k = np.unique(rows["check"].to_numpy(dtype=object), return_inverse=True)
+    if len(np.unique(c * len(checks) + k)) < len(rows):
+        # (member, combination, check) is unique in the table; a pivot says so if it is not
+        return rows.pivot(index="combination", columns="check", values="utilisation")
+    grid = np.full((len(combos), len(checks)), np.nan)
+    grid[c, k] = rows["utilisation"].to_numpy(float)
+    return pd.DataFrame(grid, index=pd.Index(combos, name="combination"),
+                        columns=pd.Index(checks, name="check"))
 
 
 def not_evaluated_cells(rows: pd.DataFrame) -> set[tuple[str, str]]:
     """(combination, check) pairs of a member's rows that were not evaluated."""
-    hit = rows[rows["status"] == NOT_EVALUATED]
-    return set(zip(hit["combination"].astype(str), hit["check"].astype(str)))
+    hit = (rows["status"] == NOT_EVALUATED).to_numpy(bool)
+    return {(str(a), str(b)) for a, b in zip(rows["combination"].to_numpy(dtype=object)[hit],
+                                             rows["check"].to_numpy(dtype=object)[hit])}

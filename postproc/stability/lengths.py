@@ -103,12 +103,12 @@ class _Model:
         self.I_z = secs.loc[el["section"].astype(str), "I_z"].to_numpy(float)
         self.rel = {(end, a): released(frame, end, a) for end in "ij" for a in ("My", "Mz")}
         self.pin = {end: moment_released(frame, end) for end in "ij"}
-        self.xyz = frame.nodes[NODE_COLUMNS].astype(float)
-        self.xyz.index = self.xyz.index.astype(str)
+        # plain dicts: the per-member work looks up single nodes and members many times over
+        self.xyz = dict(zip(frame.nodes.index.astype(str),
+                            frame.nodes[NODE_COLUMNS].to_numpy(float)))
         sup = frame.supports.reindex(columns=["ux", "uy", "uz", "rx", "ry", "rz"],
                                      fill_value=False)
-        sup.index = sup.index.astype(str)
-        self.sup = sup
+        self.sup = dict(zip(sup.index.astype(str), sup.to_numpy(bool)))
         me = members.member_elements
         self.member_of = dict(zip(me["element"].astype(str), me["member"]))
         self.at_node: dict[str, list[int]] = {}
@@ -117,6 +117,14 @@ class _Model:
             self.at_node.setdefault(b, []).append(k)
         self.maxes = member_axes(frame, members.members, me)
         self.index = {m: k for k, m in enumerate(members.members.index)}
+        mm = members.members
+        self.start_node = dict(zip(mm.index, mm["start_node"]))
+        self.end_node = dict(zip(mm.index, mm["end_node"]))
+        self.length = dict(zip(mm.index, mm["length_m"]))
+        r = members.restraints
+        self.restraint_x = {d: {m: g.to_numpy(float) for m, g in
+                                r.loc[r["direction"] == d].groupby("member", sort=False)["x_m"]}
+                            for d in ("y", "z", "torsion")}
         self.ends = {}
         for m, rows in me.sort_values("position").groupby("member"):
             first, last = rows.iloc[0], rows.iloc[-1]
@@ -124,9 +132,9 @@ class _Model:
                             (self.pos[last["element"]], "i" if last["flipped"] else "j"))
 
     def rotation_held(self, node: str, v: np.ndarray) -> bool:
-        if node not in self.sup.index:
+        if node not in self.sup:
             return False
-        rot = self.sup.loc[node, ["rx", "ry", "rz"]].to_numpy(bool).copy()
+        rot = self.sup[node][3:].copy()
         if self.frame.ndm == 2:
             rot[:2] = True
         return float(np.sum(v[~rot] ** 2)) < 0.01
@@ -143,8 +151,7 @@ class _Model:
 
     def eta(self, m: str, which: int, axis: str, sway: bool) -> tuple[float, str]:
         """Distribution factor at the start (0) or end (1) of member m for bending about axis."""
-        mm = self.members.members
-        node = mm.at[m, "start_node" if which == 0 else "end_node"]
+        node = self.start_node[m] if which == 0 else self.end_node[m]
         k, end = self.ends[m][which]
         v = self.maxes[self.index[m], 1 if axis == "y" else 2]
         if self.rel[(end, "M" + axis)][k]:
@@ -153,7 +160,7 @@ class _Model:
             return 0.0, f"fixed support at {node}"
         ex = self.maxes[self.index[m], 0]
         I_own = self.I_y[k] if axis == "y" else self.I_z[k]
-        K_c = E_STEEL * I_own / mm.at[m, "length_m"]
+        K_c = E_STEEL * I_own / self.length[m]
         K_1 = K_b = 0.0
         for q in self.at_node.get(node, []):
             other = self.member_of.get(self.eid[q])
@@ -162,7 +169,7 @@ class _Model:
             q_end = "i" if self.node_i[q] == node else "j"
             stiff = self.bending_stiffness(q, q_end, v, self._arm_length(other, node, q))
             far = self.node_j[q] if q_end == "i" else self.node_i[q]
-            u = self.xyz.loc[far].to_numpy() - self.xyz.loc[node].to_numpy()
+            u = self.xyz[far] - self.xyz[node]
             if abs(u @ ex) >= COLLINEAR_COS * np.linalg.norm(u):
                 K_1 += stiff
                 continue
@@ -173,18 +180,17 @@ class _Model:
         return float(eta), f"eta = {eta:.2f} at {node}"
 
     def _supported(self, node: str) -> bool:
-        return node in self.sup.index and bool(self.sup.loc[node].any())
+        return node in self.sup and bool(self.sup[node].any())
 
     def _toward_end(self, member: str, node: str, q: int) -> bool:
         """True where element q leads from `node` towards the member's end (else its start)."""
-        mm = self.members.members
-        if node == mm.at[member, "start_node"]:
+        if node == self.start_node[member]:
             return True
-        if node == mm.at[member, "end_node"]:
+        if node == self.end_node[member]:
             return False
         ex = self.maxes[self.index[member], 0]
         far = self.node_j[q] if self.node_i[q] == node else self.node_i[q]
-        return float((self.xyz.loc[far].to_numpy() - self.xyz.loc[node].to_numpy()) @ ex) > 0
+        return float((self.xyz[far] - self.xyz[node]) @ ex) > 0
 
     def _arm_length(self, member: str | None, node: str, q: int) -> float:
         """Length of `member` from `node` to its end on element q's side.
@@ -192,16 +198,14 @@ class _Model:
         The member length where the node is one of its ends; where the member runs through
         the node (it is not held there), the part on q's side, as a separate member would be.
         """
-        mm = self.members.members
-        if member is None or member not in mm.index:
-            return float(np.linalg.norm(self.xyz.loc[self.node_j[q]].to_numpy()
-                                        - self.xyz.loc[self.node_i[q]].to_numpy()))
-        L = float(mm.at[member, "length_m"])
-        if node in (mm.at[member, "start_node"], mm.at[member, "end_node"]):
+        if member is None or member not in self.length:
+            return float(np.linalg.norm(self.xyz[self.node_j[q]] - self.xyz[self.node_i[q]]))
+        L = float(self.length[member])
+        if node in (self.start_node[member], self.end_node[member]):
             return L
         ex = self.maxes[self.index[member], 0]
-        origin = self.xyz.loc[mm.at[member, "start_node"]].to_numpy()
-        x_node = float((self.xyz.loc[node].to_numpy() - origin) @ ex)
+        origin = self.xyz[self.start_node[member]]
+        x_node = float((self.xyz[node] - origin) @ ex)
         return L - x_node if self._toward_end(member, node, q) else x_node
 
     def _far_end(self, member: str | None, near: str, v: np.ndarray, q: int) -> str:
@@ -210,9 +214,8 @@ class _Model:
         support that holds rotation about v) or 'continuous'."""
         if member is None or member not in self.ends:
             return "continuous"
-        mm = self.members.members
         which = 1 if self._toward_end(member, near, q) else 0
-        far = mm.at[member, "start_node" if which == 0 else "end_node"]
+        far = self.start_node[member] if which == 0 else self.end_node[member]
         k, end = self.ends[member][which]
         if self.pin[end][k]:
             return "pinned"
@@ -239,12 +242,9 @@ def _span(xs: np.ndarray, length: float, what: str, ends: tuple[str, str]) -> tu
 
 def _member_candidates(model: _Model, m: str, k1: bool = False) -> dict:
     """Per-member lengths that do not depend on the combination."""
-    mm = model.members.members
-    L = float(mm.at[m, "length_m"])
-    ends = (mm.at[m, "start_node"], mm.at[m, "end_node"])
-    r = model.members.restraints
-    r = r[r["member"] == m]
-    xs = {d: r.loc[r["direction"] == d, "x_m"].to_numpy(float) for d in ("y", "z", "torsion")}
+    L = float(model.length[m])
+    ends = (model.start_node[m], model.end_node[m])
+    xs = {d: model.restraint_x[d].get(m, np.zeros(0)) for d in ("y", "z", "torsion")}
     axes_v = model.maxes[model.index[m]]
     if model.frame.ndm == 2:
         in_plane = "y" if abs(axes_v[1, 2]) >= 0.5 else "z"
@@ -447,6 +447,14 @@ def _apply_overrides(out: pd.DataFrame, overrides: pd.DataFrame, known: set[str]
     origin = {"L_cr_y_m": "origin_y", "L_cr_z_m": "origin_z", "L_LT_m": "origin_LT",
               "L_cr_T_m": "origin_T"}
     located = {"file", "entry"} <= set(overrides.columns)
+    # each member's rows found once (one sort), the columns changed as arrays and put back at
+    # the end: a large job has hundreds of overrides over (members x combinations) rows
+    code, names = pd.factorize(out["member"].astype(str))
+    order = np.argsort(code, kind="stable")
+    bounds = np.searchsorted(code[order], np.arange(len(names) + 1))
+    position = {m: k for k, m in enumerate(names)}
+    changed = {col: out[col].to_numpy(copy=True) for col in
+               [*OVERRIDE_COLUMNS, *origin.values(), "sway_y", "sway_z", "L_LT_override"]}
     for k, r in enumerate(overrides.itertuples(index=False)):
         m = str(r.member)
         # where the override was written: the project file's [members.<name>], else row k + 1
@@ -457,7 +465,8 @@ def _apply_overrides(out: pd.DataFrame, overrides: pd.DataFrame, known: set[str]
                              f"members: {', '.join(sorted(known)[:20])}"
                              f"{' ...' if len(known) > 20 else ''})", file=file, row=row,
                              field=f"{prefix}member" if not located else prefix.rstrip("."))
-        sel = out["member"] == m
+        sel = (order[bounds[position[m]]:bounds[position[m] + 1]] if m in position
+               else np.zeros(0, dtype=int))
         for col in OVERRIDE_COLUMNS:
             if col not in overrides.columns:
                 continue
@@ -468,14 +477,16 @@ def _apply_overrides(out: pd.DataFrame, overrides: pd.DataFrame, known: set[str]
                 raise InputError(f"{col} = {v} must be a positive length in m (or empty to "
                                  "keep the found value)", file=file, row=row,
                                  field=f"{prefix}{col}")
-            out.loc[sel, col] = float(v)
+            changed[col][sel] = float(v)
             by = str(getattr(r, f"set_by_{col}", "") or "")
-            out.loc[sel, origin[col]] = (f"override from the project: {by}" if by else
+            changed[origin[col]][sel] = (f"override from the project: {by}" if by else
                                          "override from the project")
             if col in ("L_cr_y_m", "L_cr_z_m"):
-                out.loc[sel, "sway_" + col[5]] = False
+                changed["sway_" + col[5]][sel] = False
             if col == "L_LT_m":  # the LTB check then keeps equal parts of L_LT, and says so
-                out.loc[sel, "L_LT_override"] = True
+                changed["L_LT_override"][sel] = True
+    for col, values in changed.items():
+        out[col] = pd.array(values, dtype=out[col].dtype)
     return out
 
 

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import numpy as np
+import pandas as pd
 
 from postproc.benchmark import synthetic_model
 from postproc.checker import CHECK_FAMILIES, results_table
@@ -49,3 +50,40 @@ def test_streamed_benchmark_keeps_the_statuses_of_the_table() -> None:
         assert [names[c] for c in kept_status[applies]] == list(part["status"])
         np.testing.assert_array_equal(kept.utilisation[applies, k], part["utilisation"])
     assert {"member rows", "cross_section_checks", "keep"} <= set(timings)
+
+
+def _one_frame_per_check(rows, blocks, limit: float = 1.0) -> pd.DataFrame:
+    """The long table by its definition: one frame per check (the rows it applies to), one
+    under the other (pandas concat: union of the columns, NaN where a check has no value)."""
+    from postproc.checker import _status
+
+    parts = []
+    for block in blocks:
+        keep = np.asarray(block.applies, bool)
+        if not keep.any():
+            continue
+        reason = np.asarray(block.reason, dtype=object).copy()
+        reason[np.isnan(block.utilisation) & (reason == "")] = "could not be evaluated"
+        data = {"member": rows.member[keep], "combination": rows.combination[keep],
+                "check": block.check, "clause": block.clause, "x_m": block.x[keep],
+                "utilisation": block.utilisation[keep],
+                "status": _status(block.utilisation, reason, limit)[keep],
+                "reason": reason[keep]}
+        data.update({name: np.asarray(v)[keep] for name, v in block.values.items()})
+        parts.append(pd.DataFrame(data))
+    return pd.concat(parts, ignore_index=True, sort=False)
+
+
+def test_results_table_is_one_frame_per_check_concatenated() -> None:
+    """The column-by-column build gives exactly the concatenated frames (columns, order,
+    dtypes, NaN fill), also when the blocks' values are released on the way."""
+    frame, forces, lengths = synthetic_model(40, 6, seed=5)
+    rows = build_member_rows(frame, forces, one_member_per_element(frame),
+                             DesignSettings(annex="A"), lengths)
+    rows, blocks = run_checks(rows, CHECK_FAMILIES, threads=1)
+    expected = _one_frame_per_check(rows, blocks)
+    assert expected["check"].nunique() > 3  # several checks with different value columns
+    pd.testing.assert_frame_equal(results_table(rows, blocks), expected, check_exact=True)
+    released = results_table(rows, blocks, release_values=True)
+    pd.testing.assert_frame_equal(released, expected, check_exact=True)
+    assert all(not block.values for block in blocks)

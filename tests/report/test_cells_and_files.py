@@ -86,3 +86,50 @@ def test_display_units_and_the_unitless_n_term() -> None:
     assert display_name("N_Ed_N") == ("N_Ed [kN]", 1e-3)
     assert display_name("M_y_Ed_Nm") == ("M_y_Ed [kNm]", 1e-3)
     assert display_name("term_N") == ("term_N", 1.0)  # the N term of eq. (6.61), a ratio
+
+
+def test_a_long_workbook_view_keeps_its_first_rows_and_says_where_all_are(tmp_path: Path
+                                                                          ) -> None:
+    """A view over the row limit keeps its first rows; the about sheet names the file with all
+    of them. The expected cells are the input rows themselves (round trip)."""
+    from openpyxl import load_workbook
+
+    lengths = pd.DataFrame({"member": [f"M{k}" for k in range(7)],
+                            "L_cr_y_m": np.arange(7, dtype=float) + 0.5,
+                            "sway_y": [True, False] * 3 + [True]})
+    short = pd.DataFrame({"setting": ["gamma_M0"], "value": ["1.0"]})
+    path = tmp_path / "book.xlsx"
+    write_workbook({"buckling lengths": lengths, "settings": short}, path, notes=["x"],
+                   row_limit=3, sources={"buckling lengths": "buckling_lengths.csv"})
+    book = load_workbook(path)
+    rows = list(book["buckling lengths"].iter_rows(values_only=True))
+    assert rows == [("member", "L_cr_y [m]", "sway_y"), ("M0", 0.5, True), ("M1", 1.5, False),
+                    ("M2", 2.5, True)]
+    about = [r[0] for r in book["about"].iter_rows(values_only=True)]
+    assert "buckling lengths: the first 3 of 7 rows; all rows are in buckling_lengths.csv" in about
+    assert "settings: 1 rows" in about
+    assert list(book["settings"].iter_rows(values_only=True))[1] == ("gamma_M0", "1.0")
+
+
+def test_parquet_written_in_slices_equals_the_table(tmp_path: Path,
+                                                    monkeypatch: pytest.MonkeyPatch) -> None:
+    """Slices of 2 rows give the same file content as the table converted at once: a column
+    whose kind only shows in a later slice (text after NaN, a boolean after NaN) is typed on
+    the whole column."""
+    from postproc.report import spreadsheet
+
+    table = pd.DataFrame({"member": ["A", "B", "C", "D", "E"],
+                          "class_part": [np.nan, np.nan, "web", np.nan, "flange"],
+                          "flag": [np.nan, np.nan, np.nan, True, False],
+                          "u": [0.1, np.nan, 1.2, 0.3, 0.0]})
+    table["class_part"] = table["class_part"].astype(object)
+    table["flag"] = table["flag"].astype(object)
+    whole = tmp_path / "whole.parquet"
+    arrow_ready(table).to_parquet(whole, index=False)
+    monkeypatch.setattr(spreadsheet, "PARQUET_CHUNK_ROWS", 2)
+    sliced = tmp_path / "sliced.parquet"
+    write_parquet(table, sliced)
+    pd.testing.assert_frame_equal(pd.read_parquet(sliced), pd.read_parquet(whole))
+    import pyarrow.parquet as pq
+
+    assert pq.ParquetFile(sliced).num_row_groups == 3

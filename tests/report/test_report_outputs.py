@@ -68,6 +68,28 @@ def test_workbook_has_one_sheet_per_view(default_run: Path) -> None:
     assert book["members"].max_row == len(summary) + 1
 
 
+def test_workbook_views_cut_to_the_row_limit_name_their_full_file(default_run: Path,
+                                                                  tmp_path: Path) -> None:
+    """--workbook-row-limit: the buckling lengths view keeps its first rows (those of
+    buckling_lengths.csv, in order), the about sheet says where all are; the default keeps all."""
+    from openpyxl import load_workbook
+
+    lengths = pd.read_csv(default_run / "buckling_lengths.csv")
+    full = load_workbook(default_run / "report.xlsx")
+    assert full["buckling lengths"].max_row == len(lengths) + 1
+    out = tmp_path / "out"
+    run(out, "--workbook-row-limit", "5")
+    book = load_workbook(out / "report.xlsx")
+    cut = list(book["buckling lengths"].iter_rows(min_row=2, max_col=2, values_only=True))
+    assert cut == list(zip(lengths["member"].astype(str), lengths["combination"].astype(str)))[:5]
+    about = [row[0] for row in book["about"].iter_rows(values_only=True)]
+    assert (f"buckling lengths: the first 5 of {len(lengths)} rows; all rows are in "
+            "buckling_lengths.csv") in about
+    assert any(line.startswith("settings: the first 5 of ") for line in about)
+    html = (out / "report.html").read_text(encoding="utf-8")
+    assert re.search(r"<td>workbook_row_limit</td>\s*<td>5</td>", html)  # the option is echoed
+
+
 def test_csv_only_when_small_or_asked_and_a_stale_one_is_removed(default_run: Path,
                                                                   tmp_path: Path) -> None:
     out = tmp_path / "out"
