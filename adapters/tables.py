@@ -23,6 +23,7 @@ from postproc.model.results import COMBINATION_COLUMNS, DISPLACEMENT_COLUMNS, FO
 from postproc.project import Project
 from postproc.project_schema import TABLE_FILES
 from postproc.sections import build_sections
+from postproc.stability.given_alpha import GIVEN, GIVEN_IN
 from postproc.units import factor
 
 DEFAULT_UNITS = {"length": "m", "force": "kN", "moment": "kNm"}
@@ -167,7 +168,8 @@ def load(project: Project) -> tuple[Frame, Results]:
     given = (combos["imperfections"] if "imperfections" in combos
              else pd.Series(np.nan, combos.index))
     combos["imperfections"] = given.fillna(float(imperfections)).astype(bool)
-    results = Results(forces=results.forces, combinations=combos[COMBINATION_COLUMNS],
+    given = [c for c in (GIVEN, GIVEN_IN) if c in combos]
+    results = Results(forces=results.forces, combinations=combos[COMBINATION_COLUMNS + given],
                       displacements=results.displacements, notes=results.notes)
     return frame, results
 
@@ -335,7 +337,7 @@ def _check_stations(forces: pd.DataFrame, frame: Frame, table: Table) -> None:
                  f"(length {length[k]:g} m)")
 
 
-COMBINATION_LIST_COLUMNS = ("combination", "kind", "analysis", "imperfections")
+COMBINATION_LIST_COLUMNS = ("combination", "kind", "analysis", "imperfections", "alpha_cr")
 COMBINATION_FACTOR_COLUMNS = ("combination", "load_case", "factor", "kind")
 LOAD_CASE_COLUMNS = ("load_case", "category", "group", "psi_0")
 
@@ -371,10 +373,12 @@ def _refuse_load_cases_with_combinations(forces: Table, files: dict, units: dict
                          "load case (header load_case)", file=forces.name, field="combination")
     given = project.raw.get("combinations", {})
     if given:
+        hint = (f" (alpha_cr per combination goes in the alpha_cr column of "
+                f"{files['combinations'].name})" if "alpha_cr" in given else "")
         raise InputError(f"forces are given per combination (header 'combination' in "
                          f"{forces.name}), so [combinations] ({', '.join(given)}) cannot be "
-                         "applied: remove it, or give forces per load case", file=project_file,
-                         field="combinations")
+                         f"applied: remove it, or give forces per load case{hint}",
+                         file=project_file, field="combinations")
     path = files["combinations"]
     if not path.is_file():
         raise InputError(f"forces are given per combination (header 'combination'), so "
@@ -413,8 +417,17 @@ def _combination_table(path: Path, units: dict, present: np.ndarray,
     table.refuse(~np.isnan(imperfections) & ~np.isin(imperfections, (0.0, 1.0)),
                  "imperfections", lambda k: "imperfections must be 1 (the forces carry the "
                  "frame imperfection) or 0")
+    # alpha_cr of the frame's sway mode from the user's own analysis (blank: computed here)
+    alpha = table.number("alpha_cr", required=False)
+    table.refuse(alpha <= 0.0, "alpha_cr", lambda k: "alpha_cr must be a positive number (the "
+                 "elastic critical load factor of the frame's sway mode) or blank, got "
+                 f"{table.frame['alpha_cr'].iloc[k]!r}")
+    table.refuse(~np.isnan(alpha) & (kind != "ULS").to_numpy(), "alpha_cr",
+                 lambda k: "alpha_cr is for ULS combinations; leave it blank for SLS ones")
+    where = np.where(np.isnan(alpha), "", [f"{path.name} row {r}" for r in table.rows])
     return pd.DataFrame({"kind": kind.to_numpy(), "analysis": analysis.to_numpy(),
-                         "imperfections": imperfections, "status": "ok", "message": ""},
+                         "imperfections": imperfections, "status": "ok", "message": "",
+                         GIVEN: alpha, GIVEN_IN: where.astype(object)},
                         index=pd.Index(ids.to_numpy(), name="combination"))
 
 

@@ -33,6 +33,7 @@ from .model.results import Results
 from .model.rows import FAIL, NOT_EVALUATED, PASS, CheckBlock, MemberRows
 from .model.rules import member_settings, resolved_overrides
 from .settings import DesignSettings
+from .stability.given_alpha import given_alpha, given_critical_load_factors
 from .stability.tension_only import without_compression_of
 
 __all__ = ["CHECK_FAMILIES", "check_frame", "results_table", "station_forces"]
@@ -78,9 +79,9 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
     tension_only = _tension_only_members(overrides, members)
     # a tension-only member's compression adds no geometric stiffness (postproc/stability/
     # tension_only.py); every other stage reads the forces as analysed
-    alpha = stability.critical_load_factors(
-        frame, without_compression_of(uls_results, members, tension_only), members)
-    paths = stability.analysis_path(alpha, uls_results.combinations)
+    alpha = _critical_load_factors(frame, uls_results, members, tension_only)
+    paths = _say_given(stability.analysis_path(alpha, uls_results.combinations),
+                       uls_results.combinations)
     amplified = paths.index[paths["path"] == "amplified"].astype(str).tolist()
     sway = stability.sway_part(frame, members, uls_results, amplified) if amplified else None
     paths = stability.amplified_part(
@@ -88,6 +89,7 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
     per_combination = alpha.rename(columns={"alpha_cr": "alpha_cr_eigen"}).drop(
         columns=[c for c in paths.columns if c in alpha.columns and c != "alpha_cr"]).join(
         paths, how="outer")
+    per_combination = _with_given_column(per_combination, uls_results.combinations)
     checked = stability.amplify_sway_effects(uls_results, paths, sway)
     lengths = stability.buckling_lengths(frame, members, checked, paths,
                                          _length_overrides(overrides))
@@ -121,6 +123,50 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
                         lengths=lengths, settings=settings, combinations=combos,
                         stations=station_forces(rows), value_columns=value_columns, frame=frame,
                         member_settings=member_settings(overrides))
+
+
+def _critical_load_factors(frame: Frame, results: Results, members: Members,
+                           tension_only: list[str]) -> pd.DataFrame:
+    """alpha_cr per ULS combination of `results`: as given where the input gives it
+    (`stability.given_alpha`), from the frame's eigen analysis for the others; the mesh is not
+    built when every combination has a given value."""
+    combos = results.combinations
+    given = given_critical_load_factors(combos)
+    if not len(given):
+        return stability.critical_load_factors(
+            frame, without_compression_of(results, members, tension_only), members)
+    rest = combos.index[~combos.index.isin(given.index)]
+    if not len(rest):
+        return given
+    computed = stability.critical_load_factors(
+        frame, without_compression_of(replace(results, combinations=combos.loc[rest]), members,
+                                      tension_only), members)
+    return pd.concat([computed, given.astype({"sway_mode": bool})]).loc[
+        combos.index.astype(str)]
+
+
+def _say_given(paths: pd.DataFrame, combos: pd.DataFrame) -> pd.DataFrame:
+    """The reason of each path names a given alpha_cr as given."""
+    alpha = given_alpha(combos)
+    given = paths.index[paths.index.isin(alpha.index[alpha.notna()].astype(str))]
+    if len(given):
+        paths = paths.copy()
+        paths.loc[given, "reason"] = paths.loc[given, "reason"].str.replace(
+            "alpha_cr = ", "alpha_cr (given) = ", n=1, regex=False)
+    return paths
+
+
+def _with_given_column(per_combination: pd.DataFrame, combos: pd.DataFrame) -> pd.DataFrame:
+    """stability.csv: where some alpha_cr is given, the column alpha_cr_given beside
+    alpha_cr_eigen (NaN there: no eigen analysis for those combinations)."""
+    alpha = given_alpha(combos)
+    if not alpha.notna().any():
+        return per_combination
+    out = per_combination.copy()
+    values = alpha.reindex(out.index.astype(str)).to_numpy(float)
+    out.loc[~np.isnan(values), "alpha_cr_eigen"] = np.nan
+    out.insert(list(out.columns).index("alpha_cr_eigen") + 1, "alpha_cr_given", values)
+    return out
 
 
 def station_forces(rows: MemberRows) -> pd.DataFrame:

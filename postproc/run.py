@@ -15,6 +15,7 @@ from .model.results import Results
 from .plausibility import COLUMNS, numerical_warnings, plausibility_warnings
 from .project import Project, read_project
 from .report.progress import QUIET, Stages
+from .stability.given_alpha import with_project_alpha_cr
 
 __all__ = ["RunOutput", "forces_source", "load_model", "run_project"]
 
@@ -29,14 +30,18 @@ class RunOutput:
 
 
 def load_model(project: Project) -> tuple[Frame, Results]:
-    """The project's model through its adapter."""
+    """The project's model through its adapter, with the alpha_cr values that the project
+    file's [combinations.alpha_cr] gives for the combinations the run built."""
     if project.model["source"] == "tables":
         from adapters import tables
 
-        return tables.load(project)
-    from adapters import opensees
+        frame, results = tables.load(project)
+    else:
+        from adapters import opensees
 
-    return opensees.load(project)
+        frame, results = opensees.load(project)
+    given = project.raw.get("combinations", {}).get("alpha_cr", {})
+    return frame, with_project_alpha_cr(results, given, file=str(project.path))
 
 
 def forces_source(project: Project) -> str:
