@@ -44,6 +44,8 @@ def _parser() -> argparse.ArgumentParser:
     run.add_argument("project", type=Path, help="project file (TOML)")
     run.add_argument("--out", type=Path, default=Path("out"), help="output folder (default: out)")
     run.add_argument("--quiet", action="store_true", help="print only the outcome line")
+    run.add_argument("--stage-times", action="store_true",
+                     help="print how long each stage of the run took")
     report = run.add_argument_group("report outputs")
     report.add_argument("--summary-only", action="store_true",
                         help="write only the summary views and a short report (no sheets, "
@@ -93,7 +95,8 @@ def main(argv: list[str] | None = None) -> int:
             summary_only=args.summary_only, per_combination=args.per_combination,
             views=tuple(args.views), paper=args.paper,
             inline_sheet_limit=args.inline_sheet_limit)
-        return _run(args.project, args.out, quiet=args.quiet, options=options)
+        return _run(args.project, args.out, quiet=args.quiet, options=options,
+                    stage_times=args.stage_times)
     except InputError as exc:
         print(f"framesweep: bad input: {exc}", file=sys.stderr)
         return EXIT_INPUT
@@ -176,7 +179,8 @@ def _members(path: Path, select: str | None) -> int:
     return EXIT_PASS
 
 
-def _run(project: Path, out: Path, *, quiet: bool, options: ReportOptions | None = None) -> int:
+def _run(project: Path, out: Path, *, quiet: bool, options: ReportOptions | None = None,
+         stage_times: bool = False) -> int:
     from .report.bundle import REPORT_FILES
     from .report.progress import QUIET, Stages
     from .report.summaries import member_summary
@@ -184,12 +188,15 @@ def _run(project: Path, out: Path, *, quiet: bool, options: ReportOptions | None
     from .run import run_project
 
     staging = prepare_output(out)  # a bad output path is refused before any computation
-    stages = QUIET if quiet else Stages()
+    stages = (Stages(enabled=False if quiet else None, timed=True) if stage_times
+              else QUIET if quiet else Stages())
     try:
         output = run_project(project, stages=stages)
         outcome = output.outcome
-        write_outputs(outcome, out, title=output.project.title, source=output.frame.source,
-                      warnings=output.warnings, staging=staging, options=options, stages=stages)
+        with stages.step("writing the outputs"):
+            write_outputs(outcome, out, title=output.project.title, source=output.frame.source,
+                          warnings=output.warnings, staging=staging, options=options,
+                          stages=stages)
     except BaseException as exc:
         reason = (f"bad input: {exc}" if isinstance(exc, InputError) else
                   "interrupted" if isinstance(exc, KeyboardInterrupt) else
@@ -220,6 +227,10 @@ def _run(project: Path, out: Path, *, quiet: bool, options: ReportOptions | None
                 print(f"  {out / name}: {what}")
         print(f"\n{CAUTION}\n")
     _print_problems(output)
+    if stage_times:
+        print("stage times:")
+        for t in stages.timings():
+            print(f"  {'  ' * t.depth}{t.name}: {t.seconds:.2f} s")
     print(f"{counts['pass']} checks pass, {counts['fail']} fail, "
           f"{counts['not evaluated']} not evaluated; outputs in {out}/")
     return outcome.exit_code

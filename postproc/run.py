@@ -66,12 +66,13 @@ def run_project(path: str | Path, *, stages: Stages = QUIET) -> RunOutput:
             outcome = check_frame(frame, results, project.settings, overrides=project.overrides,
                                   groups=project.groups, restraint_nodes=project.restraint_nodes,
                                   rules=project.rules,
-                                  restraints_along=project.restraints_along)
+                                  restraints_along=project.restraints_along, stages=stages)
     numeric = [w for w in caught if issubclass(w.category, RuntimeWarning)]
     for w in caught:  # anything else is shown as usual
         if not issubclass(w.category, RuntimeWarning):
             warnings.warn_explicit(w.message, w.category, w.filename, w.lineno)
-    found = pd.concat([plausibility_warnings(frame, results, outcome,
-                                             forces_file=forces_source(project)),
-                       numerical_warnings(numeric)], ignore_index=True)
+    with stages.step("plausibility warnings"):
+        found = pd.concat([plausibility_warnings(frame, results, outcome,
+                                                 forces_file=forces_source(project)),
+                           numerical_warnings(numeric)], ignore_index=True)
     return RunOutput(project, frame, results, outcome, found)
