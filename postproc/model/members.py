@@ -554,10 +554,11 @@ def _classify(frame: Frame, members: pd.DataFrame, member_elements: pd.DataFrame
     pin_i, pin_j = moment_released(frame, "i"), moment_released(frame, "j")
     eid = frame.elements.index.astype(str)
     pin = {e: (a, b) for e, a, b in zip(eid, pin_i, pin_j)}
-    me = member_elements.set_index("member")
+    # each member's elements in order along it, grouped once (not looked up per member)
+    ordered = dict(tuple(member_elements.sort_values("position").groupby("member", sort=False)))
     axial_only = np.zeros(len(members), dtype=bool)
     for k, m in enumerate(members.index):
-        rows = me.loc[[m]].sort_values("position")
+        rows = ordered[m]
         first, last = rows.iloc[0], rows.iloc[-1]
         at_start = pin[first["element"]][1 if first["flipped"] else 0]
         at_end = pin[last["element"]][0 if last["flipped"] else 1]

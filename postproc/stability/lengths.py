@@ -109,6 +109,13 @@ class _Model:
                                      fill_value=False)
         sup.index = sup.index.astype(str)
         self.sup = sup
+        # plain look-ups for the per-member work (a pandas .loc per call costs a millisecond)
+        self.rot_held = dict(zip(sup.index, sup[["rx", "ry", "rz"]].to_numpy(bool)))
+        self.supported = dict(zip(sup.index, sup.to_numpy(bool).any(axis=1)))
+        self.coords = dict(zip(self.xyz.index, self.xyz.to_numpy()))
+        r = members.restraints
+        self.restraint_x = {key: group["x_m"].to_numpy(float) for key, group in
+                            r.groupby(["member", "direction"], sort=False)} if len(r) else {}
         me = members.member_elements
         self.member_of = dict(zip(me["element"].astype(str), me["member"]))
         self.at_node: dict[str, list[int]] = {}
@@ -124,9 +131,9 @@ class _Model:
                             (self.pos[last["element"]], "i" if last["flipped"] else "j"))
 
     def rotation_held(self, node: str, v: np.ndarray) -> bool:
-        if node not in self.sup.index:
+        if node not in self.rot_held:
             return False
-        rot = self.sup.loc[node, ["rx", "ry", "rz"]].to_numpy(bool).copy()
+        rot = self.rot_held[node].copy()
         if self.frame.ndm == 2:
             rot[:2] = True
         return float(np.sum(v[~rot] ** 2)) < 0.01
@@ -162,7 +169,7 @@ class _Model:
             q_end = "i" if self.node_i[q] == node else "j"
             stiff = self.bending_stiffness(q, q_end, v, self._arm_length(other, node, q))
             far = self.node_j[q] if q_end == "i" else self.node_i[q]
-            u = self.xyz.loc[far].to_numpy() - self.xyz.loc[node].to_numpy()
+            u = self.coords[far] - self.coords[node]
             if abs(u @ ex) >= COLLINEAR_COS * np.linalg.norm(u):
                 K_1 += stiff
                 continue
@@ -173,7 +180,7 @@ class _Model:
         return float(eta), f"eta = {eta:.2f} at {node}"
 
     def _supported(self, node: str) -> bool:
-        return node in self.sup.index and bool(self.sup.loc[node].any())
+        return bool(self.supported.get(node, False))
 
     def _toward_end(self, member: str, node: str, q: int) -> bool:
         """True where element q leads from `node` towards the member's end (else its start)."""
@@ -184,7 +191,7 @@ class _Model:
             return False
         ex = self.maxes[self.index[member], 0]
         far = self.node_j[q] if self.node_i[q] == node else self.node_i[q]
-        return float((self.xyz.loc[far].to_numpy() - self.xyz.loc[node].to_numpy()) @ ex) > 0
+        return float((self.coords[far] - self.coords[node]) @ ex) > 0
 
     def _arm_length(self, member: str | None, node: str, q: int) -> float:
         """Length of `member` from `node` to its end on element q's side.
@@ -194,14 +201,14 @@ class _Model:
         """
         mm = self.members.members
         if member is None or member not in mm.index:
-            return float(np.linalg.norm(self.xyz.loc[self.node_j[q]].to_numpy()
-                                        - self.xyz.loc[self.node_i[q]].to_numpy()))
+            return float(np.linalg.norm(self.coords[self.node_j[q]]
+                                        - self.coords[self.node_i[q]]))
         L = float(mm.at[member, "length_m"])
         if node in (mm.at[member, "start_node"], mm.at[member, "end_node"]):
             return L
         ex = self.maxes[self.index[member], 0]
-        origin = self.xyz.loc[mm.at[member, "start_node"]].to_numpy()
-        x_node = float((self.xyz.loc[node].to_numpy() - origin) @ ex)
+        origin = self.coords[mm.at[member, "start_node"]]
+        x_node = float((self.coords[node] - origin) @ ex)
         return L - x_node if self._toward_end(member, node, q) else x_node
 
     def _far_end(self, member: str | None, near: str, v: np.ndarray, q: int) -> str:
@@ -242,9 +249,7 @@ def _member_candidates(model: _Model, m: str, k1: bool = False) -> dict:
     mm = model.members.members
     L = float(mm.at[m, "length_m"])
     ends = (mm.at[m, "start_node"], mm.at[m, "end_node"])
-    r = model.members.restraints
-    r = r[r["member"] == m]
-    xs = {d: r.loc[r["direction"] == d, "x_m"].to_numpy(float) for d in ("y", "z", "torsion")}
+    xs = {d: model.restraint_x.get((m, d), np.zeros(0)) for d in ("y", "z", "torsion")}
     axes_v = model.maxes[model.index[m]]
     if model.frame.ndm == 2:
         in_plane = "y" if abs(axes_v[1, 2]) >= 0.5 else "z"
