@@ -94,6 +94,9 @@ def main(argv: list[str] | None = None) -> None:
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     parser.add_argument("--rows", type=int, default=1_000_000, help="member-combinations")
     parser.add_argument("--combinations", type=int, default=100)
+    parser.add_argument("--max-memory", type=float, default=12.0,
+                        help="stop the run when its resident memory passes this many GiB "
+                             "(default 12)")
     parser.add_argument("--keep", type=Path, default=None,
                         help="folder for the tables and outputs (default: a temporary folder)")
     args = parser.parse_args(argv)
@@ -109,17 +112,49 @@ def main(argv: list[str] | None = None) -> None:
         env = dict(os.environ, PYTHONPATH=os.pathsep.join(
             [str(Path(__file__).resolve().parent.parent), os.environ.get("PYTHONPATH", "")]))
         t0 = time.perf_counter()
-        done = subprocess.run([sys.executable, "-m", "postproc.cli", "run", str(project),
-                               "--out", str(folder / "out"), "--quiet", "--stage-times"],
-                              env=env, capture_output=True, text=True)
-        t_run = time.perf_counter() - t0
+        with open(folder / "run.out", "w+") as out, open(folder / "run.err", "w+") as err:
+            child = subprocess.Popen([sys.executable, "-m", "postproc.cli", "run", str(project),
+                                      "--out", str(folder / "out"), "--quiet", "--stage-times"],
+                                     env=env, stdout=out, stderr=err, text=True)
+            stopped = _watch(child, args.max_memory)
+            t_run = time.perf_counter() - t0
+            out.seek(0)
+            err.seek(0)
+            printed, complaints = out.read(), err.read()
         peak = resource.getrusage(resource.RUSAGE_CHILDREN).ru_maxrss / 1024 ** 2
-        print(done.stdout.rstrip())
-        if done.stderr.strip():
-            print(done.stderr.rstrip()[-4000:])
-        print(f"framesweep run, end to end: {t_run:.2f} s, exit code {done.returncode}, "
+        print(printed.rstrip())
+        warnings = sum(line.startswith("framesweep: warning") for line in complaints.splitlines())
+        rest = "\n".join(line for line in complaints.splitlines()
+                         if not line.startswith("framesweep: warning"))
+        if warnings:
+            print(f"({warnings} plausibility warnings on stderr, not shown)")
+        if rest.strip():
+            print(rest.rstrip()[-4000:])
+        if stopped:
+            print(f"stopped: the run's resident memory passed {args.max_memory:g} GiB "
+                  "(--max-memory), so the times above are the stages it finished")
+        print(f"framesweep run, end to end: {t_run:.2f} s, exit code {child.returncode}, "
               f"ratio to the CSV read {t_run / t_read:.2f} (target <= 3)")
         print(f"peak memory of the run (max resident set): {peak:.2f} GiB (target < 4)")
+
+
+def _watch(child: subprocess.Popen, max_gib: float) -> bool:
+    """Wait for `child`; stop it if its resident memory passes `max_gib` (a shared machine must
+    not run out of memory for a benchmark). True where it was stopped. Linux only (/proc);
+    elsewhere it just waits."""
+    status = Path(f"/proc/{child.pid}/status")
+    while child.poll() is None:
+        try:
+            rss = next((int(line.split()[1]) for line in status.read_text().splitlines()
+                        if line.startswith("VmRSS:")), 0) / 1024 ** 2
+        except (OSError, ValueError):
+            rss = 0.0
+        if rss > max_gib:
+            child.kill()
+            child.wait()
+            return True
+        time.sleep(0.2)
+    return False
 
 
 if __name__ == "__main__":

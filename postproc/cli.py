@@ -45,7 +45,8 @@ def _parser() -> argparse.ArgumentParser:
     run.add_argument("--out", type=Path, default=Path("out"), help="output folder (default: out)")
     run.add_argument("--quiet", action="store_true", help="print only the outcome line")
     run.add_argument("--stage-times", action="store_true",
-                     help="print how long each stage of the run took")
+                     help="print how long each stage of the run took, as it ends, with the "
+                          "peak memory so far")
     report = run.add_argument_group("report outputs")
     report.add_argument("--summary-only", action="store_true",
                         help="write only the summary views and a short report (no sheets, "
@@ -188,8 +189,8 @@ def _run(project: Path, out: Path, *, quiet: bool, options: ReportOptions | None
     from .run import run_project
 
     staging = prepare_output(out)  # a bad output path is refused before any computation
-    stages = (Stages(enabled=False if quiet else None, timed=True) if stage_times
-              else QUIET if quiet else Stages())
+    stages = (Stages(enabled=False if quiet else None, timed=True, on_time=_print_stage_time)
+              if stage_times else QUIET if quiet else Stages())
     try:
         output = run_project(project, stages=stages)
         outcome = output.outcome
@@ -227,13 +228,15 @@ def _run(project: Path, out: Path, *, quiet: bool, options: ReportOptions | None
                 print(f"  {out / name}: {what}")
         print(f"\n{CAUTION}\n")
     _print_problems(output)
-    if stage_times:
-        print("stage times:")
-        for t in stages.timings():
-            print(f"  {'  ' * t.depth}{t.name}: {t.seconds:.2f} s")
     print(f"{counts['pass']} checks pass, {counts['fail']} fail, "
           f"{counts['not evaluated']} not evaluated; outputs in {out}/")
     return outcome.exit_code
+
+
+def _print_stage_time(t) -> None:
+    """One line as each stage ends (`--stage-times`): a stage's steps come before it."""
+    print(f"stage time: {'  ' * t.depth}{t.name}: {t.seconds:.2f} s (peak memory so far "
+          f"{t.peak_gib:.2f} GiB)", flush=True)
 
 
 def _print_problems(output) -> None:

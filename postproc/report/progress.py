@@ -4,24 +4,37 @@ a terminal (a pipe, a file, a test), and the time each stage took when asked for
 
 from __future__ import annotations
 
+import sys
 import time
 from collections.abc import Callable, Iterator
 from contextlib import contextmanager
 from dataclasses import dataclass
 
-__all__ = ["QUIET", "StageTime", "Stages", "Tick"]
+__all__ = ["QUIET", "StageTime", "Stages", "Tick", "peak_memory_gib"]
 
 Tick = Callable[[int], None]
 
 
 @dataclass(frozen=True)
 class StageTime:
-    """How long one stage took; `depth` counts the stages it runs inside."""
+    """How long one stage took; `depth` counts the stages it runs inside; `peak_gib` is the
+    process's peak resident memory when it ended (GiB)."""
 
     name: str
     start: float
     seconds: float
     depth: int
+    peak_gib: float
+
+
+def peak_memory_gib() -> float:
+    """The peak resident set of this process so far, in GiB (0 where the system cannot say)."""
+    try:
+        import resource
+    except ImportError:  # not on every system
+        return 0.0
+    peak = resource.getrusage(resource.RUSAGE_SELF).ru_maxrss
+    return peak / 1024 ** 3 if sys.platform == "darwin" else peak / 1024 ** 2
 
 
 class Stages:
@@ -29,12 +42,14 @@ class Stages:
     standard error is a terminal (or `enabled` says otherwise). With `timed`, each stage and
     each `step` (a part of a stage, timed but never displayed) is kept in `times`."""
 
-    def __init__(self, enabled: bool | None = None, *, timed: bool = False) -> None:
+    def __init__(self, enabled: bool | None = None, *, timed: bool = False,
+                 on_time: Callable[[StageTime], None] | None = None) -> None:
         from rich.console import Console
 
         self.console = Console(stderr=True)
         self.enabled = self.console.is_terminal if enabled is None else enabled
         self.timed = timed
+        self.on_time = on_time   # told as each stage ends (a run stopped midway still says)
         self.times: list[StageTime] = []
         self._open = 0
 
@@ -47,7 +62,11 @@ class Stages:
         finally:
             self._open -= 1
             if self.timed:
-                self.times.append(StageTime(name, start, time.perf_counter() - start, depth))
+                done = StageTime(name, start, time.perf_counter() - start, depth,
+                                 peak_memory_gib())
+                self.times.append(done)
+                if self.on_time is not None:
+                    self.on_time(done)
 
     @contextmanager
     def step(self, name: str) -> Iterator[None]:
