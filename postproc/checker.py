@@ -213,9 +213,10 @@ def _mark_member_bows(table: pd.DataFrame, bows: pd.DataFrame, covered_by: str) 
     """Say on each row whether 5.3.2(6) wants the member's bow in the frame analysis, and what
     covers it; where nothing does, the row is not evaluated."""
     needed = bows.loc[bows["bow_needed"], ["member", "combination"]]
-    key = pd.MultiIndex.from_frame(table[["member", "combination"]].astype(str))
-    hit = key.isin(pd.MultiIndex.from_frame(needed.astype(str))) if len(needed) else \
-        np.zeros(len(table), dtype=bool)
+    # the long table's keys are only looked at where some bow is needed
+    hit = (pd.MultiIndex.from_frame(table[["member", "combination"]].astype(str)).isin(
+        pd.MultiIndex.from_frame(needed.astype(str))) if len(needed)
+        else np.zeros(len(table), dtype=bool))
     position = list(table.columns).index("amplified_part") + 1
     table.insert(position, "bow_imperfection", np.where(hit, BOW_NOTES[covered_by], ""))
     if covered_by == "not covered" and hit.any():

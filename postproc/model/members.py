@@ -554,14 +554,16 @@ def _classify(frame: Frame, members: pd.DataFrame, member_elements: pd.DataFrame
     pin_i, pin_j = moment_released(frame, "i"), moment_released(frame, "j")
     eid = frame.elements.index.astype(str)
     pin = {e: (a, b) for e, a, b in zip(eid, pin_i, pin_j)}
-    # each member's elements in order along it, grouped once (not looked up per member)
-    ordered = dict(tuple(member_elements.sort_values("position").groupby("member", sort=False)))
+    # each member's first and last element along it (element, flipped), found once
+    ordered = member_elements.sort_values("position")
+    ends = [dict(zip(part["member"], zip(part["element"], part["flipped"]))) for part in
+            (ordered.groupby("member", sort=False).head(1),
+             ordered.groupby("member", sort=False).tail(1))]
     axial_only = np.zeros(len(members), dtype=bool)
     for k, m in enumerate(members.index):
-        rows = ordered[m]
-        first, last = rows.iloc[0], rows.iloc[-1]
-        at_start = pin[first["element"]][1 if first["flipped"] else 0]
-        at_end = pin[last["element"]][0 if last["flipped"] else 1]
+        (first, first_flipped), (last, last_flipped) = ends[0][m], ends[1][m]
+        at_start = pin[first][1 if first_flipped else 0]
+        at_end = pin[last][0 if last_flipped else 1]
         axial_only[k] = at_start and at_end
     # columns rising from a node: the node is not on the roof line
     rises = set()
@@ -587,12 +589,14 @@ def _restraints(frame: Frame, members: pd.DataFrame, member_elements: pd.DataFra
     """Restraint points of each member from supports, framing members and declarations."""
     maxes = member_axes(frame, members, member_elements)
     elem_member = dict(zip(member_elements["element"], member_elements["member"]))
-    by_member = member_elements.groupby("member")["element"].apply(set)
+    by_member = member_elements.groupby("member")["element"].apply(set).to_dict()
+    start_of = dict(zip(members.index, members["start_node"]))
+    end_of = dict(zip(members.index, members["end_node"]))
     rows = []
     for k, m in enumerate(members.index):
         ex, ey, ez = maxes[k]
-        origin = holding.xyz[members.at[m, "start_node"]]
-        ends = (members.at[m, "start_node"], members.at[m, "end_node"])
+        origin = holding.xyz[start_of[m]]
+        ends = (start_of[m], end_of[m])
         mine = by_member[m]
         nodes = {n for e in mine for n in holding.ends[e]}
         for n in nodes:

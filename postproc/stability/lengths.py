@@ -124,11 +124,19 @@ class _Model:
             self.at_node.setdefault(b, []).append(k)
         self.maxes = member_axes(frame, members.members, me)
         self.index = {m: k for k, m in enumerate(members.members.index)}
-        self.ends = {}
-        for m, rows in me.sort_values("position").groupby("member"):
-            first, last = rows.iloc[0], rows.iloc[-1]
-            self.ends[m] = ((self.pos[first["element"]], "j" if first["flipped"] else "i"),
-                            (self.pos[last["element"]], "i" if last["flipped"] else "j"))
+        mm = members.members
+        self.start_of = dict(zip(mm.index, mm["start_node"]))
+        self.end_of = dict(zip(mm.index, mm["end_node"]))
+        self.length_of = dict(zip(mm.index, mm["length_m"].astype(float)))
+        # each member's first and last element (by position along it), and the element end
+        # at the member's start and end
+        ordered = me.sort_values("position")
+        firsts = ordered.groupby("member", sort=False).head(1)
+        lasts = ordered.groupby("member", sort=False).tail(1)
+        start = {m: (self.pos[e], "j" if flipped else "i")
+                 for m, e, flipped in zip(firsts["member"], firsts["element"], firsts["flipped"])}
+        self.ends = {m: (start[m], (self.pos[e], "i" if flipped else "j"))
+                     for m, e, flipped in zip(lasts["member"], lasts["element"], lasts["flipped"])}
 
     def rotation_held(self, node: str, v: np.ndarray) -> bool:
         if node not in self.rot_held:
@@ -150,8 +158,7 @@ class _Model:
 
     def eta(self, m: str, which: int, axis: str, sway: bool) -> tuple[float, str]:
         """Distribution factor at the start (0) or end (1) of member m for bending about axis."""
-        mm = self.members.members
-        node = mm.at[m, "start_node" if which == 0 else "end_node"]
+        node = self.start_of[m] if which == 0 else self.end_of[m]
         k, end = self.ends[m][which]
         v = self.maxes[self.index[m], 1 if axis == "y" else 2]
         if self.rel[(end, "M" + axis)][k]:
@@ -160,7 +167,7 @@ class _Model:
             return 0.0, f"fixed support at {node}"
         ex = self.maxes[self.index[m], 0]
         I_own = self.I_y[k] if axis == "y" else self.I_z[k]
-        K_c = E_STEEL * I_own / mm.at[m, "length_m"]
+        K_c = E_STEEL * I_own / self.length_of[m]
         K_1 = K_b = 0.0
         for q in self.at_node.get(node, []):
             other = self.member_of.get(self.eid[q])
@@ -184,10 +191,9 @@ class _Model:
 
     def _toward_end(self, member: str, node: str, q: int) -> bool:
         """True where element q leads from `node` towards the member's end (else its start)."""
-        mm = self.members.members
-        if node == mm.at[member, "start_node"]:
+        if node == self.start_of[member]:
             return True
-        if node == mm.at[member, "end_node"]:
+        if node == self.end_of[member]:
             return False
         ex = self.maxes[self.index[member], 0]
         far = self.node_j[q] if self.node_i[q] == node else self.node_i[q]
@@ -199,15 +205,14 @@ class _Model:
         The member length where the node is one of its ends; where the member runs through
         the node (it is not held there), the part on q's side, as a separate member would be.
         """
-        mm = self.members.members
-        if member is None or member not in mm.index:
+        if member is None or member not in self.length_of:
             return float(np.linalg.norm(self.coords[self.node_j[q]]
                                         - self.coords[self.node_i[q]]))
-        L = float(mm.at[member, "length_m"])
-        if node in (mm.at[member, "start_node"], mm.at[member, "end_node"]):
+        L = float(self.length_of[member])
+        if node in (self.start_of[member], self.end_of[member]):
             return L
         ex = self.maxes[self.index[member], 0]
-        origin = self.coords[mm.at[member, "start_node"]]
+        origin = self.coords[self.start_of[member]]
         x_node = float((self.coords[node] - origin) @ ex)
         return L - x_node if self._toward_end(member, node, q) else x_node
 
@@ -217,9 +222,8 @@ class _Model:
         support that holds rotation about v) or 'continuous'."""
         if member is None or member not in self.ends:
             return "continuous"
-        mm = self.members.members
         which = 1 if self._toward_end(member, near, q) else 0
-        far = mm.at[member, "start_node" if which == 0 else "end_node"]
+        far = self.start_of[member] if which == 0 else self.end_of[member]
         k, end = self.ends[member][which]
         if self.pin[end][k]:
             return "pinned"
@@ -246,9 +250,8 @@ def _span(xs: np.ndarray, length: float, what: str, ends: tuple[str, str]) -> tu
 
 def _member_candidates(model: _Model, m: str, k1: bool = False) -> dict:
     """Per-member lengths that do not depend on the combination."""
-    mm = model.members.members
-    L = float(mm.at[m, "length_m"])
-    ends = (mm.at[m, "start_node"], mm.at[m, "end_node"])
+    L = float(model.length_of[m])
+    ends = (model.start_of[m], model.end_of[m])
     xs = {d: model.restraint_x.get((m, d), np.zeros(0)) for d in ("y", "z", "torsion")}
     axes_v = model.maxes[model.index[m]]
     if model.frame.ndm == 2:
