@@ -199,8 +199,10 @@ class Table:
         values = values.to_numpy(float)
         if kind is not None:
             unit = self.column_units.get(column) or self.units[kind]
-            values = values * factor(kind, unit, file=self.name, field=column)
-        if (np.isinf(values) | (np.abs(values) > MAGNITUDE_LIMIT)).any():
+            scale = factor(kind, unit, file=self.name, field=column)
+            values = values * scale if scale != 1.0 else values   # x * 1.0 is x: no copy
+        # finite on reading; beyond the limit (inf after scaling included) is refused
+        if len(values) and (values.max() > MAGNITUDE_LIMIT or values.min() < -MAGNITUDE_LIMIT):
             self._read_text()
             return None
         return values
