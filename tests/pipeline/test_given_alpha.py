@@ -194,3 +194,29 @@ def test_per_combination_forces_point_to_the_column(tmp_path):
         run_project(project)
     assert "alpha_cr column of combinations.csv" in str(info.value)
 
+
+
+def test_the_openseespy_route_takes_alpha_cr_from_the_project_file(tmp_path, monkeypatch):
+    """examples/portal_shed builds its combinations from load cases (EN 1990 eq. 6.10); one
+    ULS combination is given alpha_cr = 15, the others still go to the eigen analysis."""
+    shed = Path(__file__).resolve().parents[2] / "examples" / "portal_shed"
+    first = run_project(shed / "project.toml").outcome.stability.index.astype(str).tolist()
+    target = tmp_path / "shed"
+    shutil.copytree(shed, target)
+    project = target / "project.toml"
+    models = Path(__file__).resolve().parents[2] / "models"
+    project.write_text(project.read_text().replace('"../../models/', f'"{models}/')
+                       + f'\n[combinations.alpha_cr]\n"{first[0]}" = 15.0\n')
+    seen: list[list[str]] = []
+    real = stability.critical_load_factors
+
+    def record(frame, results, members):
+        seen.append(results.combinations.index.astype(str).tolist())
+        return real(frame, results, members)
+
+    monkeypatch.setattr(stability, "critical_load_factors", record)
+    st = run_project(project).outcome.stability
+    assert len(seen) == 1 and set(seen[0]) == set(first[1:])
+    assert st.loc[first[0], "alpha_cr_given"] == 15.0
+    assert st.loc[first[0], "path"] == "first-order"
+    assert st.loc[first[1:], "alpha_cr_given"].isna().all()
