@@ -23,7 +23,7 @@ PLAIN = ("combination,element,x [m],N [kN],My\n"
 
 def _both(tmp_path: Path, text: str) -> tuple[Table, Table]:
     path = tmp_path / "forces.csv"
-    path.write_text(text)
+    path.write_text(text, encoding="utf-8", newline="")
     return Table(path, UNITS, ids=IDS), Table(path, UNITS)
 
 
@@ -80,3 +80,15 @@ def test_a_bad_cell_gives_the_same_message(tmp_path, cell):
         errors.append(str(info.value))
     assert errors[0] == errors[1]
     assert "row 4" in errors[0] and "field 'N'" in errors[0]
+
+
+@pytest.mark.parametrize("text", [
+    "combination,element,x [m],N [kN],My\n",                                   # header only
+    PLAIN.replace("\n", "\r\n"),                                               # Windows lines
+    "\ufeff" + PLAIN,                                                          # byte-order mark
+    PLAIN.replace("ULS1,E1,2.5", "\nULS1,E1,2.5"),                             # a blank line
+])
+def test_line_endings_marks_and_blank_lines_read_the_same(tmp_path, text):
+    quick, exact = _both(tmp_path, text)
+    _same_numbers(quick, exact)
+    assert quick.rows.tolist() == exact.rows.tolist()
