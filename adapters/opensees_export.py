@@ -69,10 +69,12 @@ def export_tables(frame: Frame, results: Results, directory: Path) -> None:
         directory / "forces.csv", index=False, float_format=FLOAT)
 
     combos = results.combinations
-    pd.DataFrame({"combination": combos.index.astype(str), "kind": combos["kind"],
-                  "analysis": combos["analysis"],
-                  "imperfections": combos["imperfections"].astype(int)}).to_csv(
-        directory / "combinations.csv", index=False)
+    listing = pd.DataFrame({"combination": combos.index.astype(str), "kind": combos["kind"],
+                            "analysis": combos["analysis"],
+                            "imperfections": combos["imperfections"].astype(int)})
+    if "alpha_cr_given" in combos and combos["alpha_cr_given"].notna().any():
+        listing["alpha_cr"] = combos["alpha_cr_given"].to_numpy(float)  # blank where computed
+    listing.to_csv(directory / "combinations.csv", index=False)
     if results.displacements is not None and len(results.displacements):
         headers = {c: (f"{c.split('_')[0]} [m]" if c.startswith("u") else c.split("_")[0])
                    for c in DISPLACEMENT_COLUMNS}

@@ -23,6 +23,7 @@ from postproc.model.results import COMBINATION_COLUMNS, DISPLACEMENT_COLUMNS, FO
 from postproc.project import Project
 from postproc.project_schema import TABLE_FILES
 from postproc.sections import build_sections
+from postproc.stability.given_alpha import GIVEN, GIVEN_IN
 from postproc.units import factor
 
 DEFAULT_UNITS = {"length": "m", "force": "kN", "moment": "kNm"}
@@ -37,20 +38,41 @@ _HEADER = re.compile(r"^\s*([^\[\]]+?)\s*(?:\[\s*([^\]]*?)\s*\])?\s*$")
 
 
 class Table:
-    """One CSV file with its columns split into names and declared units."""
+    """One CSV file with its columns split into names and declared units.
 
-    def __init__(self, path: Path, units: dict[str, str]) -> None:
+    Every cell is read as text, stripped, and checked where it is used (`text`, `number`), so a
+    message can quote the cell as written. A large table of numbers (forces, displacements) names
+    its text columns in `ids`: it is first read the quick way (`_read_quick`: pyarrow, the id
+    columns as text and every other column as a number) and falls back to the cell-by-cell
+    reading the moment anything is not plainly so (a comment, padding, an empty or non-numeric
+    cell, a number that `number` would refuse), so that what is accepted, and every message, is
+    the same either way."""
+
+    def __init__(self, path: Path, units: dict[str, str], *, ids: tuple[str, ...] = ()) -> None:
         self.path, self.name, self.units = path, str(path), units
         if not path.is_file():
             raise InputError("file not found", file=self.name)
+        self.quick = bool(ids) and self._read_quick(ids)
+        if not self.quick:
+            self._read_text()
+
+    def _read_text(self) -> None:
         try:
-            raw = pd.read_csv(path, dtype=str, keep_default_na=False, skipinitialspace=True,
+            raw = pd.read_csv(self.path, dtype=str, keep_default_na=False, skipinitialspace=True,
                               comment="#")
         except (pd.errors.ParserError, pd.errors.EmptyDataError, UnicodeDecodeError) as exc:
             raise InputError(f"cannot be read as CSV: {exc}", file=self.name) from None
+        raw.columns = self._names(raw.columns)
+        self.quick = False
+        self.frame = raw.map(str.strip) if len(raw) else raw
+        # data row k (0-based) sits on spreadsheet row k + 2 (the header is row 1)
+        self.rows = np.arange(len(raw)) + 2
+
+    def _names(self, columns) -> list[str]:
+        """Column names without their units; the units go to `column_units`."""
         self.column_units: dict[str, str | None] = {}
         names = []
-        for column in raw.columns:
+        for column in columns:
             match = _HEADER.match(str(column))
             if match is None:
                 raise InputError(f"cannot read column header {column!r}", file=self.name)
@@ -58,11 +80,48 @@ class Table:
             self.column_units[match.group(1)] = match.group(2)
         if len(set(names)) != len(names):
             raise InputError("a column name appears twice", file=self.name)
-        raw.columns = names
-        self.frame = raw.map(str.strip) if len(raw) else raw
-        # data row k (0-based) sits on spreadsheet row k + 2 (the header is row 1)
-        self.rows = np.arange(len(raw)) + 2
+        return names
 
+    def _read_quick(self, ids: tuple[str, ...]) -> bool:
+        """Read the table with pyarrow: the columns named in `ids` as text, every other one as
+        a finite number. False (nothing kept) where the file is not plainly such a table."""
+        import pyarrow as pa
+        from pyarrow import csv
+
+        try:
+            header = pd.read_csv(self.path, dtype=str, nrows=0, skipinitialspace=True,
+                                 comment="#").columns
+            names = self._names(header)
+        except (ValueError, UnicodeDecodeError, InputError):
+            return False
+        text = [raw for raw, name in zip(header, names) if name in ids]
+        try:
+            table = csv.read_csv(self.path, convert_options=csv.ConvertOptions(
+                column_types={raw: (pa.string() if raw in text else pa.float64())
+                              for raw in header},
+                null_values=[], strings_can_be_null=False, quoted_strings_can_be_null=False))
+        except (pa.ArrowException, OSError, ValueError):
+            return False
+        if table.column_names != [str(c) for c in header]:
+            return False
+        import pyarrow.compute as pc
+
+        for raw in table.column_names:
+            column = table.column(raw)
+            if raw in text:
+                # padding (stripped by the exact reading) or a comment: read cell by cell
+                values = pc.unique(column)
+                if (pc.any(pc.not_equal(pc.utf8_trim_whitespace(values), values)).as_py()
+                        or pc.any(pc.match_substring(values, "#")).as_py()):
+                    return False
+            elif not pc.all(pc.is_finite(column)).as_py() and len(column):
+                return False
+        string = pd.StringDtype(storage="pyarrow", na_value=np.nan)   # the dtype of dtype=str
+        frame = table.to_pandas(types_mapper={pa.string(): string}.get)
+        frame.columns = names
+        self.frame = frame
+        self.rows = np.arange(len(frame)) + 2
+        return True
     def refuse(self, mask, field: str, message: Callable[[int], str]) -> None:
         """Raise InputError at the first row where `mask` holds, naming file, row and field."""
         mask = np.asarray(mask, dtype=bool)
@@ -72,7 +131,8 @@ class Table:
 
     def refuse_unknown(self, values: pd.Series, known, field: str, what: str) -> None:
         """Refuse the first value that is not among `known` ("unknown node 'N9'")."""
-        values = pd.Series(np.asarray(values, dtype=object))
+        values = (values.reset_index(drop=True) if isinstance(values, pd.Series)
+                  else pd.Series(np.asarray(values, dtype=object)))
         self.refuse(~values.isin(known).to_numpy(), field,
                     lambda k: f"unknown {what} {values.iloc[k]!r}")
 
@@ -86,6 +146,8 @@ class Table:
         return column in self.frame.columns
 
     def text(self, column: str, *, required: bool = True) -> pd.Series:
+        if self.quick and self.has(column) and self.frame[column].dtype.kind == "f":
+            self._read_text()   # a number column wanted as text: the cells as written
         if not self.has(column):
             if required:
                 self.require(column)
@@ -106,6 +168,11 @@ class Table:
                 self.require(column)
             return np.full(len(self.frame), default)
         text = self.frame[column]
+        if self.quick:
+            quick = self._quick_number(column, kind)
+            if quick is not None:
+                return quick
+            return self.number(column, kind, required=required, default=default)
         values = pd.to_numeric(text, errors="coerce").to_numpy(float)
         empty = (text == "").to_numpy()
         bad = np.isnan(values) & ~empty if not required else np.isnan(values)
@@ -119,6 +186,25 @@ class Table:
         self.refuse(np.isinf(values) | (np.abs(values) > MAGNITUDE_LIMIT), column,
                     lambda k: f"{text.iloc[k]!r} is beyond any plausible value (more than "
                     f"{MAGNITUDE_LIMIT:.0e} in SI units)")
+        return values
+
+    def _quick_number(self, column: str, kind: str | None) -> np.ndarray | None:
+        """A column read as finite numbers (`_read_quick`), in SI; None after falling back to
+        the cells as text, where `number` would refuse a value (so that its message quotes
+        the cell as written)."""
+        values = self.frame[column]
+        if values.dtype.kind != "f":
+            self._read_text()
+            return None
+        values = values.to_numpy(float)
+        if kind is not None:
+            unit = self.column_units.get(column) or self.units[kind]
+            scale = factor(kind, unit, file=self.name, field=column)
+            values = values * scale if scale != 1.0 else values   # x * 1.0 is x: no copy
+        # finite on reading; beyond the limit (inf after scaling included) is refused
+        if len(values) and (values.max() > MAGNITUDE_LIMIT or values.min() < -MAGNITUDE_LIMIT):
+            self._read_text()
+            return None
         return values
 
     def unique_ids(self, column: str) -> pd.Series:
@@ -167,7 +253,8 @@ def load(project: Project) -> tuple[Frame, Results]:
     given = (combos["imperfections"] if "imperfections" in combos
              else pd.Series(np.nan, combos.index))
     combos["imperfections"] = given.fillna(float(imperfections)).astype(bool)
-    results = Results(forces=results.forces, combinations=combos[COMBINATION_COLUMNS],
+    given = [c for c in (GIVEN, GIVEN_IN) if c in combos]
+    results = Results(forces=results.forces, combinations=combos[COMBINATION_COLUMNS + given],
                       displacements=results.displacements, notes=results.notes)
     return frame, results
 
@@ -275,11 +362,12 @@ def _ties(path: Path, units: dict, nodes: pd.DataFrame, supports: pd.DataFrame, 
 
 
 def _results(files: dict, units: dict, frame: Frame, project) -> Results:
-    table = Table(files["forces"], units)
+    table = Table(files["forces"], units, ids=("load_case", "combination", "element"))
     key = _case_column(table)
     table.require(key, "element", "x")
     required = FORCES_2D_REQUIRED if frame.ndm == 2 else tuple(FORCE_FIELDS)
-    data = {key: table.text(key).to_numpy(), "element": table.text("element").to_numpy()}
+    # the id columns stay Series of text (no copy through Python objects)
+    data = {key: table.text(key), "element": table.text("element")}
     table.refuse_unknown(data["element"], frame.elements.index, "element", "element")
     data["x_m"] = table.number("x", "length")
     for name, (column, kind) in FORCE_FIELDS.items():
@@ -300,7 +388,7 @@ def _results(files: dict, units: dict, frame: Frame, project) -> Results:
         _refuse_load_cases_with_combinations(table, files, units, project)
         combinations = _combination_table(files["combinations"], units,
                                           forces["combination"].unique(), table.name)
-    missing = sorted(set(frame.elements.index) - set(forces["element"]))
+    missing = sorted(set(frame.elements.index) - set(forces["element"].unique()))
     if missing:
         raise InputError(f"element(s) with no forces at all: {', '.join(missing[:10])}"
                          f"{' ...' if len(missing) > 10 else ''}", file=table.name, field="element")
@@ -326,16 +414,18 @@ def _case_column(table: Table) -> str:
 
 def _check_stations(forces: pd.DataFrame, frame: Frame, table: Table) -> None:
     xyz = frame.nodes[["x_m", "y_m", "z_m"]]
-    ends = frame.elements.loc[forces["element"], ["node_i", "node_j"]]
+    # each element's length once, then taken per row by the element's code
+    codes, elements = pd.factorize(forces["element"])
+    ends = frame.elements.loc[elements, ["node_i", "node_j"]]
     length = np.linalg.norm(xyz.loc[ends["node_j"]].to_numpy() - xyz.loc[ends["node_i"]].to_numpy(),
-                            axis=1)
+                            axis=1)[codes]
     x = forces["x_m"].to_numpy()
     outside = (x < -1e-6) | (x > length * (1 + 1e-6) + 1e-6)
     table.refuse(outside, "x", lambda k: f"station x = {x[k]:g} m lies outside the element "
                  f"(length {length[k]:g} m)")
 
 
-COMBINATION_LIST_COLUMNS = ("combination", "kind", "analysis", "imperfections")
+COMBINATION_LIST_COLUMNS = ("combination", "kind", "analysis", "imperfections", "alpha_cr")
 COMBINATION_FACTOR_COLUMNS = ("combination", "load_case", "factor", "kind")
 LOAD_CASE_COLUMNS = ("load_case", "category", "group", "psi_0")
 
@@ -352,7 +442,7 @@ def _refuse_load_cases_with_combinations(forces: Table, files: dict, units: dict
     """Forces per combination: no load case table, no [load_cases] or [combinations] settings,
     since none of them could be applied and none may be ignored."""
     project_file = str(project.path)
-    names = set(forces.frame["combination"])
+    names = set(forces.frame["combination"].unique())
     sources = []
     if files["load_cases"].is_file():
         sources.append((files["load_cases"].name, set(Table(files["load_cases"], units)
@@ -371,10 +461,12 @@ def _refuse_load_cases_with_combinations(forces: Table, files: dict, units: dict
                          "load case (header load_case)", file=forces.name, field="combination")
     given = project.raw.get("combinations", {})
     if given:
+        hint = (f" (alpha_cr per combination goes in the alpha_cr column of "
+                f"{files['combinations'].name})" if "alpha_cr" in given else "")
         raise InputError(f"forces are given per combination (header 'combination' in "
                          f"{forces.name}), so [combinations] ({', '.join(given)}) cannot be "
-                         "applied: remove it, or give forces per load case", file=project_file,
-                         field="combinations")
+                         f"applied: remove it, or give forces per load case{hint}",
+                         file=project_file, field="combinations")
     path = files["combinations"]
     if not path.is_file():
         raise InputError(f"forces are given per combination (header 'combination'), so "
@@ -413,8 +505,17 @@ def _combination_table(path: Path, units: dict, present: np.ndarray,
     table.refuse(~np.isnan(imperfections) & ~np.isin(imperfections, (0.0, 1.0)),
                  "imperfections", lambda k: "imperfections must be 1 (the forces carry the "
                  "frame imperfection) or 0")
+    # alpha_cr of the frame's sway mode from the user's own analysis (blank: computed here)
+    alpha = table.number("alpha_cr", required=False)
+    table.refuse(alpha <= 0.0, "alpha_cr", lambda k: "alpha_cr must be a positive number (the "
+                 "elastic critical load factor of the frame's sway mode) or blank, got "
+                 f"{table.frame['alpha_cr'].iloc[k]!r}")
+    table.refuse(~np.isnan(alpha) & (kind != "ULS").to_numpy(), "alpha_cr",
+                 lambda k: "alpha_cr is for ULS combinations; leave it blank for SLS ones")
+    where = np.where(np.isnan(alpha), "", [f"{path.name} row {r}" for r in table.rows])
     return pd.DataFrame({"kind": kind.to_numpy(), "analysis": analysis.to_numpy(),
-                         "imperfections": imperfections, "status": "ok", "message": ""},
+                         "imperfections": imperfections, "status": "ok", "message": "",
+                         GIVEN: alpha, GIVEN_IN: where.astype(object)},
                         index=pd.Index(ids.to_numpy(), name="combination"))
 
 
@@ -529,7 +630,7 @@ def _displacements(path: Path, units: dict, frame: Frame, combinations: pd.Index
 
     if not path.is_file():
         return None
-    table = Table(path, units)
+    table = Table(path, units, ids=("load_case", "combination", "node"))
     key = _case_column(table)
     table.require(key, "node")
     nodes = table.text("node")

@@ -33,7 +33,9 @@ from .model.positions import restraints_along as restraints_along_members
 from .model.results import Results
 from .model.rows import FAIL, NOT_EVALUATED, PASS, CheckBlock, MemberRows
 from .model.rules import member_settings, resolved_overrides
-from .settings import DesignSettings
+from .report.progress import QUIET, Stages
+from .settings import DesignSettings, SwaySearch
+from .stability.given_alpha import given_alpha, given_critical_load_factors
 from .stability.tension_only import without_compression_of
 
 __all__ = ["CHECK_FAMILIES", "check_frame", "results_table", "station_forces"]
@@ -51,15 +53,18 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
                 overrides: pd.DataFrame | None = None, groups: dict[str, list[str]] | None = None,
                 restraint_nodes: pd.DataFrame | None = None, rules: pd.DataFrame | None = None,
                 restraints_along: pd.DataFrame | None = None,
-                families: list[CheckFamily] | None = None) -> CheckOutcome:
+                families: list[CheckFamily] | None = None,
+                stages: Stages = QUIET) -> CheckOutcome:
     """Check every design member of `frame` for every ULS combination of `results`.
 
     `overrides` are per member ([members.<name>]); `rules` per selection ([[rules]]), resolved
     against the design members here (`postproc.model.rules`: the member's own table wins);
-    `restraints_along` are points along the members of a selection (`postproc.model.positions`)."""
-    members = design_members(frame, groups=groups or None, restraint_nodes=restraint_nodes)
-    members = restraints_along_members(members, frame, restraints_along)
-    overrides = resolved_overrides(members, frame, rules, overrides)
+    `restraints_along` are points along the members of a selection (`postproc.model.positions`);
+    `stages` times each stage when asked (`framesweep run --stage-times`)."""
+    with stages.step("design members"):
+        members = design_members(frame, groups=groups or None, restraint_nodes=restraint_nodes)
+        members = restraints_along_members(members, frame, restraints_along)
+        overrides = resolved_overrides(members, frame, rules, overrides)
     combos = results.combinations
     uls = combos.index[(combos["kind"] == "ULS") & (combos["status"] == "ok")]
     usable = results.forces["combination"].isin(uls).to_numpy()
@@ -77,57 +82,109 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
                             member_settings=member_settings(overrides))
 
     tension_only = _tension_only_members(overrides, members)
-    # a tension-only member's compression adds no geometric stiffness (postproc/stability/
-    # tension_only.py); every other stage reads the forces as analysed
-    alpha = stability.critical_load_factors(
-        frame, without_compression_of(uls_results, members, tension_only), members,
-        sway_search=settings.sway_search)
-    paths = stability.analysis_path(alpha, uls_results.combinations)
-    amplified = paths.index[paths["path"] == "amplified"].astype(str).tolist()
-    sway = stability.sway_part(frame, members, uls_results, amplified) if amplified else None
-    paths = stability.amplified_part(
-        paths, sway, whole_if_unknown=settings.amplify_whole_when_sway_unknown)
-    per_combination = alpha.rename(columns={"alpha_cr": "alpha_cr_eigen"}).drop(
-        columns=[c for c in paths.columns if c in alpha.columns and c != "alpha_cr"]).join(
-        paths, how="outer")
-    checked = stability.amplify_sway_effects(uls_results, paths, sway)
-    lengths = stability.buckling_lengths(frame, members, checked, paths,
-                                         _length_overrides(overrides))
-
-    rows = build_member_rows(frame, checked.forces, members, settings, lengths)
-    rows, blocks = run_checks(rows, families or CHECK_FAMILIES, overrides=overrides)
-    blocks = _leave_out_for_tension_only(blocks, rows.member, tension_only)
-    covered = np.zeros(len(rows.member), dtype=bool)
-    value_columns: dict[str, tuple[str, ...]] = {}
-    for block in blocks:
-        covered |= np.asarray(block.applies, bool)
-        value_columns.setdefault(block.check, tuple(block.values))
-    stations = station_forces(rows)
-    # the blocks' values move into the table (never both held in full); the rows' member
-    # information and the blocks are not needed after it
-    rows = replace(rows, info=MemberInfo())
-    table = results_table(rows, blocks, settings.utilisation_limit, release_values=True)
-    del blocks
-    release_free_memory()
-    # members without forces first, so that a combination's frame path applies to them too
-    table = _mark_unchecked_members(table, members, rows, list(uls), covered)
-    table = _mark_unusable_combinations(table, per_combination, combos, members)
-    table = _explain_missing_lengths(table, lengths)
+    with stages.step("frame stability (alpha_cr, analysis path, sway effects)"):
+        # a tension-only member's compression adds no geometric stiffness (postproc/stability/
+        # tension_only.py); every other stage reads the forces as analysed
+        alpha = _critical_load_factors(frame, uls_results, members, tension_only,
+                                       settings.sway_search)
+        paths = _say_given(stability.analysis_path(alpha, uls_results.combinations),
+                           uls_results.combinations)
+        amplified = paths.index[paths["path"] == "amplified"].astype(str).tolist()
+        sway = stability.sway_part(frame, members, uls_results, amplified) if amplified else None
+        paths = stability.amplified_part(
+            paths, sway, whole_if_unknown=settings.amplify_whole_when_sway_unknown)
+        per_combination = alpha.rename(columns={"alpha_cr": "alpha_cr_eigen"}).drop(
+            columns=[c for c in paths.columns if c in alpha.columns and c != "alpha_cr"]).join(
+            paths, how="outer")
+        per_combination = _with_given_column(per_combination, uls_results.combinations)
+        checked = stability.amplify_sway_effects(uls_results, paths, sway)
+    with stages.step("buckling lengths"):
+        lengths = stability.buckling_lengths(frame, members, checked, paths,
+                                             _length_overrides(overrides))
+    with stages.step("member rows"):
+        rows = build_member_rows(frame, checked.forces, members, settings, lengths)
+    with stages.step("checks"):
+        rows, blocks = run_checks(rows, families or CHECK_FAMILIES, overrides=overrides)
+        blocks = _leave_out_for_tension_only(blocks, rows.member, tension_only)
+    with stages.step("results table"):
+        covered = np.zeros(len(rows.member), dtype=bool)
+        value_columns: dict[str, tuple[str, ...]] = {}
+        for block in blocks:
+            covered |= np.asarray(block.applies, bool)
+            value_columns.setdefault(block.check, tuple(block.values))
+        stations = station_forces(rows)
+        # the blocks' values move into the table (never both held in full); the rows' member
+        # information and the blocks are not needed after it
+        rows = replace(rows, info=MemberInfo())
+        table = results_table(rows, blocks, settings.utilisation_limit, release_values=True)
+        del blocks
+        release_free_memory()
+        # members without forces first, so that a combination's frame path applies to them too
+        table = _mark_unchecked_members(table, members, rows, list(uls), covered)
+        table = _mark_unusable_combinations(table, per_combination, combos, members)
+        table = _explain_missing_lengths(table, lengths)
+        if "path" in per_combination and len(table):
+            # the analysis path of 5.2.1/5.2.2 that each row's forces went through, and on the
+            # amplified path which part of the forces was amplified
+            position = list(table.columns).index("reason") + 1
+            for offset, (name, column) in enumerate((("analysis_path", "path"),
+                                                     ("amplified_part", "amplified_part"))):
+                table.insert(position + offset, name, table["combination"].map(
+                    per_combination[column]).fillna("").to_numpy())
     if "path" in per_combination and len(table):
-        # the analysis path of 5.2.1/5.2.2 that each row's forces went through, and on the
-        # amplified path which part of the forces was amplified
-        position = list(table.columns).index("reason") + 1
-        for offset, (name, column) in enumerate((("analysis_path", "path"),
-                                                 ("amplified_part", "amplified_part"))):
-            table.insert(position + offset, name,
-                         table["combination"].map(per_combination[column]).fillna("").to_numpy())
-        bows = stability.bow_imperfections_needed(frame, members, checked, alpha)
-        table = _mark_member_bows(table, bows, settings.bow_imperfections)
+        with stages.step("member bow imperfections (5.3.2(6))"):
+            bows = stability.bow_imperfections_needed(frame, members, checked, alpha)
+            table = _mark_member_bows(table, bows, settings.bow_imperfections)
     return CheckOutcome(table=table, members=members,
                         stability=_with_analysis_status(per_combination, combos),
                         lengths=lengths, settings=settings, combinations=combos,
                         stations=stations, value_columns=value_columns, frame=frame,
                         member_settings=member_settings(overrides))
+
+
+def _critical_load_factors(frame: Frame, results: Results, members: Members,
+                           tension_only: list[str], sway_search: SwaySearch) -> pd.DataFrame:
+    """alpha_cr per ULS combination of `results`: as given where the input gives it
+    (`stability.given_alpha`), from the frame's eigen analysis for the others; the mesh is not
+    built when every combination has a given value."""
+    combos = results.combinations
+    given = given_critical_load_factors(combos)
+    if not len(given):
+        return stability.critical_load_factors(
+            frame, without_compression_of(results, members, tension_only), members,
+            sway_search=sway_search)
+    rest = combos.index[~combos.index.isin(given.index)]
+    if not len(rest):
+        return given
+    computed = stability.critical_load_factors(
+        frame, without_compression_of(replace(results, combinations=combos.loc[rest]), members,
+                                      tension_only), members, sway_search=sway_search)
+    return pd.concat([computed, given.astype({"sway_mode": bool})]).loc[
+        combos.index.astype(str)]
+
+
+def _say_given(paths: pd.DataFrame, combos: pd.DataFrame) -> pd.DataFrame:
+    """The reason of each path names a given alpha_cr as given."""
+    alpha = given_alpha(combos)
+    given = paths.index[paths.index.isin(alpha.index[alpha.notna()].astype(str))]
+    if len(given):
+        paths = paths.copy()
+        paths.loc[given, "reason"] = paths.loc[given, "reason"].str.replace(
+            "alpha_cr = ", "alpha_cr (given) = ", n=1, regex=False)
+    return paths
+
+
+def _with_given_column(per_combination: pd.DataFrame, combos: pd.DataFrame) -> pd.DataFrame:
+    """stability.csv: where some alpha_cr is given, the column alpha_cr_given beside
+    alpha_cr_eigen (NaN there: no eigen analysis for those combinations)."""
+    alpha = given_alpha(combos)
+    if not alpha.notna().any():
+        return per_combination
+    out = per_combination.copy()
+    values = alpha.reindex(out.index.astype(str)).to_numpy(float)
+    out.loc[~np.isnan(values), "alpha_cr_eigen"] = np.nan
+    out.insert(list(out.columns).index("alpha_cr_eigen") + 1, "alpha_cr_given", values)
+    return out
 
 
 def station_forces(rows: MemberRows) -> pd.DataFrame:

@@ -44,6 +44,9 @@ def _parser() -> argparse.ArgumentParser:
     run.add_argument("project", type=Path, help="project file (TOML)")
     run.add_argument("--out", type=Path, default=Path("out"), help="output folder (default: out)")
     run.add_argument("--quiet", action="store_true", help="print only the outcome line")
+    run.add_argument("--stage-times", action="store_true",
+                     help="print how long each stage of the run took, as it ends, with the "
+                          "peak memory so far")
     report = run.add_argument_group("report outputs")
     report.add_argument("--summary-only", action="store_true",
                         help="write only the summary views and a short report (no sheets, "
@@ -99,7 +102,8 @@ def main(argv: list[str] | None = None) -> int:
             views=tuple(args.views), paper=args.paper,
             inline_sheet_limit=args.inline_sheet_limit,
             workbook_row_limit=args.workbook_row_limit)
-        return _run(args.project, args.out, quiet=args.quiet, options=options)
+        return _run(args.project, args.out, quiet=args.quiet, options=options,
+                    stage_times=args.stage_times)
     except InputError as exc:
         print(f"framesweep: bad input: {exc}", file=sys.stderr)
         return EXIT_INPUT
@@ -182,7 +186,8 @@ def _members(path: Path, select: str | None) -> int:
     return EXIT_PASS
 
 
-def _run(project: Path, out: Path, *, quiet: bool, options: ReportOptions | None = None) -> int:
+def _run(project: Path, out: Path, *, quiet: bool, options: ReportOptions | None = None,
+         stage_times: bool = False) -> int:
     from .report.bundle import REPORT_FILES
     from .report.progress import QUIET, Stages
     from .report.summaries import member_summary
@@ -190,12 +195,15 @@ def _run(project: Path, out: Path, *, quiet: bool, options: ReportOptions | None
     from .run import run_project
 
     staging = prepare_output(out)  # a bad output path is refused before any computation
-    stages = QUIET if quiet else Stages()
+    stages = (Stages(enabled=False if quiet else None, timed=True, on_time=_print_stage_time)
+              if stage_times else QUIET if quiet else Stages())
     try:
         output = run_project(project, stages=stages)
         outcome = output.outcome
-        write_outputs(outcome, out, title=output.project.title, source=output.frame.source,
-                      warnings=output.warnings, staging=staging, options=options, stages=stages)
+        with stages.step("writing the outputs"):
+            write_outputs(outcome, out, title=output.project.title, source=output.frame.source,
+                          warnings=output.warnings, staging=staging, options=options,
+                          stages=stages)
     except BaseException as exc:
         reason = (f"bad input: {exc}" if isinstance(exc, InputError) else
                   "interrupted" if isinstance(exc, KeyboardInterrupt) else
@@ -229,6 +237,12 @@ def _run(project: Path, out: Path, *, quiet: bool, options: ReportOptions | None
     print(f"{counts['pass']} checks pass, {counts['fail']} fail, "
           f"{counts['not evaluated']} not evaluated; outputs in {out}/")
     return outcome.exit_code
+
+
+def _print_stage_time(t) -> None:
+    """One line as each stage ends (`--stage-times`): a stage's steps come before it."""
+    print(f"stage time: {'  ' * t.depth}{t.name}: {t.seconds:.2f} s (peak memory so far "
+          f"{t.peak_gib:.2f} GiB)", flush=True)
 
 
 def _print_problems(output) -> None:

@@ -376,7 +376,8 @@ def explicit_combinations(table: Mapping, *, known_cases: Iterable[str], file: s
 
 GENERATION_KEYS = ("sls", "favourable_permanent", "gamma_G_sup", "gamma_G_inf", "gamma_Q", "xi",
                    "max_combinations")
-COMBINATION_KEYS = ("method", *GENERATION_KEYS, "extra")
+# alpha_cr (given per combination) is read by the run, not here: postproc/stability/given_alpha.py
+COMBINATION_KEYS = ("method", *GENERATION_KEYS, "extra", "alpha_cr")
 
 
 def project_combinations(cases: pd.DataFrame | None, settings: Mapping, *,

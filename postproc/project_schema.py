@@ -124,6 +124,9 @@ class Combinations(Strict):
     xi: Factor = 0.85
     max_combinations: Annotated[int, Field(ge=1, le=1_000_000)] = 2000
     extra: dict[Name, ExtraCombination] = {}
+    # alpha_cr of the frame's sway mode per combination, from the user's own analysis: those
+    # combinations skip the eigen analysis (postproc/stability/given_alpha.py)
+    alpha_cr: dict[Name, Annotated[float, Field(gt=0.0)]] = {}
 
 
 class MemberOverride(Strict):
@@ -203,7 +206,7 @@ OVERRIDE_KEYS = tuple(MemberOverride.model_fields)
 # [combinations] keys that a method does not read (xi is the factor of eq. 6.10b only; "none"
 # builds no combination, so only the explicit ones are read)
 UNREAD_BY_METHOD = {"6.10": {"xi"}, "6.10ab": set(),
-                    "none": set(Combinations.model_fields) - {"method", "extra"}}
+                    "none": set(Combinations.model_fields) - {"method", "extra", "alpha_cr"}}
 # project tables a route cannot use, and why (none: both routes read [load_cases])
 ROUTE_ONLY_TABLES: dict[str, tuple[str, str]] = {}
 

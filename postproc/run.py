@@ -16,6 +16,7 @@ from .model.results import Results
 from .plausibility import COLUMNS, numerical_warnings, plausibility_warnings
 from .project import Project, read_project
 from .report.progress import QUIET, Stages
+from .stability.given_alpha import with_project_alpha_cr
 
 __all__ = ["RunOutput", "forces_source", "load_model", "run_project"]
 
@@ -30,14 +31,18 @@ class RunOutput:
 
 
 def load_model(project: Project) -> tuple[Frame, Results]:
-    """The project's model through its adapter."""
+    """The project's model through its adapter, with the alpha_cr values that the project
+    file's [combinations.alpha_cr] gives for the combinations the run built."""
     if project.model["source"] == "tables":
         from adapters import tables
 
-        return tables.load(project)
-    from adapters import opensees
+        frame, results = tables.load(project)
+    else:
+        from adapters import opensees
 
-    return opensees.load(project)
+        frame, results = opensees.load(project)
+    given = project.raw.get("combinations", {}).get("alpha_cr", {})
+    return frame, with_project_alpha_cr(results, given, file=str(project.path))
 
 
 def forces_source(project: Project) -> str:
@@ -67,12 +72,13 @@ def run_project(path: str | Path, *, stages: Stages = QUIET) -> RunOutput:
             outcome = check_frame(frame, results, project.settings, overrides=project.overrides,
                                   groups=project.groups, restraint_nodes=project.restraint_nodes,
                                   rules=project.rules,
-                                  restraints_along=project.restraints_along)
+                                  restraints_along=project.restraints_along, stages=stages)
     numeric = [w for w in caught if issubclass(w.category, RuntimeWarning)]
     for w in caught:  # anything else is shown as usual
         if not issubclass(w.category, RuntimeWarning):
             warnings.warn_explicit(w.message, w.category, w.filename, w.lineno)
-    found = pd.concat([plausibility_warnings(frame, results, outcome,
-                                             forces_file=forces_source(project)),
-                       numerical_warnings(numeric)], ignore_index=True)
+    with stages.step("plausibility warnings"):
+        found = pd.concat([plausibility_warnings(frame, results, outcome,
+                                                 forces_file=forces_source(project)),
+                           numerical_warnings(numeric)], ignore_index=True)
     return RunOutput(project, frame, results, outcome, found)

@@ -245,8 +245,9 @@ class _Holding:
         sup.index = sup.index.astype(str)
         self.support_trans: dict[str, np.ndarray] = {}
         self.support_rot: dict[str, np.ndarray] = {}
-        for n, row in sup[sup.any(axis=1)].iterrows():
-            trans, rot = row.to_numpy()[:3].copy(), row.to_numpy()[3:].copy()
+        held = sup[sup.any(axis=1)]
+        for n, row in zip(held.index, held.to_numpy(bool)):
+            trans, rot = row[:3].copy(), row[3:].copy()
             if frame.ndm == 2:
                 # a plane model says nothing out of plane: a support node is taken to be held
                 # out of plane and against twist (a foundation or a wall)
@@ -379,14 +380,16 @@ def _modelled_directions(frame: Frame, axes: np.ndarray) -> dict[str, np.ndarray
 
 
 def _through_pairs(n: str, holding: _Holding, grouped: dict[str, str], pos: dict[str, int],
-                   unit: np.ndarray, el: pd.DataFrame, axes: np.ndarray, release_i: np.ndarray,
-                   release_j: np.ndarray, node_i: list[str]) -> list[tuple[str, str]]:
+                   unit: np.ndarray, kinds: tuple[list, list], axes: np.ndarray,
+                   release_i: np.ndarray, release_j: np.ndarray, node_i: list[str]
+                   ) -> list[tuple[str, str]]:
     """Pairs of elements that run straight through node n as one continuous piece.
 
     Both run on opposite sides of n along one line (within 1 degree), have the same section,
     grade and orientation, and release nothing at n. An element with more than one such partner
-    is left unpaired.
+    is left unpaired. `kinds`: each element's section and grade, in element order.
     """
+    section, grade = kinds
     at = [e for e in holding.at.get(n, []) if e not in grouped]
     partners: dict[str, list[str]] = {e: [] for e in at}
     for k, a in enumerate(at):
@@ -402,8 +405,8 @@ def _through_pairs(n: str, holding: _Holding, grouped: dict[str, str], pos: dict
                 continue
             ub = holding.unit(n, holding.other_end(b, n))
             if (ua @ ub <= -COLLINEAR_COS
-                    and el["section"].iloc[ka] == el["section"].iloc[kb]
-                    and el["grade"].iloc[ka] == el["grade"].iloc[kb]
+                    and section[ka] == section[kb]
+                    and grade[ka] == grade[kb]
                     and abs(axes[ka, 2] @ axes[kb, 2]) >= COLLINEAR_COS):
                 partners[a].append(b)
                 partners[b].append(a)
@@ -433,6 +436,7 @@ def design_members(frame: Frame, *, groups: dict[str, list[str]] | None = None,
     node_i = el["node_i"].astype(str).tolist()
     node_j = el["node_j"].astype(str).tolist()
     ends = {e: (a, b) for e, a, b in zip(ids, node_i, node_j)}
+    section, grade = el["section"].tolist(), el["grade"].tolist()   # looked up per element
     chord, length = element_vectors(frame)
     if np.any(length <= 0.0):
         bad = ids[int(np.argmin(length))]
@@ -465,8 +469,8 @@ def design_members(frame: Frame, *, groups: dict[str, list[str]] | None = None,
     link = nx.Graph()
     link.add_nodes_from(free)
     for n in g.nodes:
-        for a, b in _through_pairs(n, holding, grouped, pos, unit, el, axes, release_i,
-                                   release_j, node_i):
+        for a, b in _through_pairs(n, holding, grouped, pos, unit, (section, grade), axes,
+                                   release_i, release_j, node_i):
             # a joint splits the member only where it is held in every direction the model
             # bends in: a lateral restraint alone, or a member framing in that holds nothing,
             # leaves the member whole (its lengths are split per axis instead)
@@ -489,11 +493,11 @@ def design_members(frame: Frame, *, groups: dict[str, list[str]] | None = None,
                 if abs(unit[k] @ unit[k0]) < COLLINEAR_COS:
                     raise TopologyError(f"member '{group}': element '{e}' is not collinear with "
                                         f"element '{order[0]}'", field=f"groups.{group}")
-                for col in ("section", "grade"):
-                    if el[col].iloc[k] != el[col].iloc[k0]:
+                for col, values in (("section", section), ("grade", grade)):
+                    if values[k] != values[k0]:
                         raise TopologyError(
-                            f"member '{group}': element '{e}' has {col} '{el[col].iloc[k]}' but "
-                            f"'{order[0]}' has '{el[col].iloc[k0]}'; one member needs one {col}",
+                            f"member '{group}': element '{e}' has {col} '{values[k]}' but "
+                            f"'{order[0]}' has '{values[k0]}'; one member needs one {col}",
                             field=f"groups.{group}")
         flipped = [node_i[pos[e]] != nodes[p] for p, e in enumerate(order)]
         if group is None and sum(flipped) * 2 > len(order):
@@ -504,8 +508,8 @@ def design_members(frame: Frame, *, groups: dict[str, list[str]] | None = None,
         x0 = np.concatenate([[0.0], np.cumsum(lengths)[:-1]])
         name = group if group is not None else (
             order[0] if len(order) == 1 else f"{order[0]}-{order[-1]}")
-        member_rows.append((name, float(lengths.sum()), el["section"].iloc[pos[order[0]]],
-                            el["grade"].iloc[pos[order[0]]], len(order), nodes[0], nodes[-1]))
+        member_rows.append((name, float(lengths.sum()), section[pos[order[0]]],
+                            grade[pos[order[0]]], len(order), nodes[0], nodes[-1]))
         for p, e in enumerate(order):
             elem_rows.append((name, e, p, float(x0[p]), bool(flipped[p])))
     members = pd.DataFrame(member_rows, columns=["member", "length_m", "section", "grade",
@@ -554,13 +558,16 @@ def _classify(frame: Frame, members: pd.DataFrame, member_elements: pd.DataFrame
     pin_i, pin_j = moment_released(frame, "i"), moment_released(frame, "j")
     eid = frame.elements.index.astype(str)
     pin = {e: (a, b) for e, a, b in zip(eid, pin_i, pin_j)}
-    me = member_elements.set_index("member")
+    # each member's first and last element along it (element, flipped), found once
+    ordered = member_elements.sort_values("position")
+    ends = [dict(zip(part["member"], zip(part["element"], part["flipped"]))) for part in
+            (ordered.groupby("member", sort=False).head(1),
+             ordered.groupby("member", sort=False).tail(1))]
     axial_only = np.zeros(len(members), dtype=bool)
     for k, m in enumerate(members.index):
-        rows = me.loc[[m]].sort_values("position")
-        first, last = rows.iloc[0], rows.iloc[-1]
-        at_start = pin[first["element"]][1 if first["flipped"] else 0]
-        at_end = pin[last["element"]][0 if last["flipped"] else 1]
+        (first, first_flipped), (last, last_flipped) = ends[0][m], ends[1][m]
+        at_start = pin[first][1 if first_flipped else 0]
+        at_end = pin[last][0 if last_flipped else 1]
         axial_only[k] = at_start and at_end
     # columns rising from a node: the node is not on the roof line
     rises = set()
@@ -586,12 +593,16 @@ def _restraints(frame: Frame, members: pd.DataFrame, member_elements: pd.DataFra
     """Restraint points of each member from supports, framing members and declarations."""
     maxes = member_axes(frame, members, member_elements)
     elem_member = dict(zip(member_elements["element"], member_elements["member"]))
-    by_member = member_elements.groupby("member")["element"].apply(set)
+    by_member: dict[str, set] = {}
+    for m, e in zip(member_elements["member"], member_elements["element"]):
+        by_member.setdefault(m, set()).add(e)
+    start_of = dict(zip(members.index, members["start_node"]))
+    end_of = dict(zip(members.index, members["end_node"]))
     rows = []
     for k, m in enumerate(members.index):
         ex, ey, ez = maxes[k]
-        origin = holding.xyz[members.at[m, "start_node"]]
-        ends = (members.at[m, "start_node"], members.at[m, "end_node"])
+        origin = holding.xyz[start_of[m]]
+        ends = (start_of[m], end_of[m])
         mine = by_member[m]
         nodes = {n for e in mine for n in holding.ends[e]}
         for n in nodes:

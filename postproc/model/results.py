@@ -44,7 +44,9 @@ class Results:
             5.3.2, e.g. as equivalent horizontal forces; False where unknown, and then members
             in a sway mode keep their sway buckling lengths),
             status ('ok' or 'failed'), message (why it failed). A failed combination has no
-            forces and its members are reported not evaluated.
+            forces and its members are reported not evaluated. Optional: alpha_cr_given
+            (alpha_cr of the sway mode given by the user, NaN where not given) and
+            alpha_cr_given_in (where it was given); see postproc/stability/given_alpha.py.
         displacements: columns combination, node, ux_m .. rz_rad; may be empty.
         reactions: columns combination, node, and force and moment components in global axes
             (FX_N, FY_N, FZ_N, MX_Nm, MY_Nm, MZ_Nm); may be empty.

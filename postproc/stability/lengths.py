@@ -333,7 +333,34 @@ def restraint_positions(members: Members, direction: str = "y") -> np.ndarray:
 
 
 def member_compression(members: Members, results: Results, combos: list[str]) -> pd.DataFrame:
-    """Most compressive N_Ed (N, tension > 0) per member and combination: (members x combos)."""
+    """Most compressive N_Ed (N, tension > 0) per member and combination: (members x combos).
+
+    Grouped on integer codes of the force table's element and combination columns (each
+    element's member looked up once, not joined row by row); NaN where a member has no force
+    in a combination."""
+    names = members.members.index
+    me = members.member_elements
+    elements = me["element"].astype(str)
+    if elements.duplicated().any():   # an element in two members: every row goes to both
+        return _member_compression_joined(members, results, combos)
+    f = results.forces
+    e_codes, e_names = pd.factorize(f["element"].astype(str))
+    member_of = pd.Series(names.get_indexer(me["member"]), index=elements.to_numpy())
+    m = member_of.reindex(e_names).fillna(-1).to_numpy(int)[e_codes]    # -1: in no member
+    c_codes, c_names = pd.factorize(f["combination"].astype(str))
+    c = pd.Index(combos).get_indexer(c_names)[c_codes] if len(c_names) else c_codes
+    keep = (m >= 0) & (c >= 0)
+    C = len(combos)
+    lowest = pd.Series(f["N_N"].to_numpy(float)[keep]).groupby(m[keep] * C + c[keep],
+                                                                sort=False).min()
+    out = np.full(len(names) * C, np.nan)
+    out[lowest.index.to_numpy(int)] = lowest.to_numpy(float)
+    return pd.DataFrame(out.reshape(len(names), C), index=names,
+                        columns=pd.Index(combos, name="combination"))
+
+
+def _member_compression_joined(members: Members, results: Results, combos: list[str]
+                               ) -> pd.DataFrame:
     f = results.forces[["combination", "element", "N_N"]].copy()
     f["element"] = f["element"].astype(str)
     f["combination"] = f["combination"].astype(str)
