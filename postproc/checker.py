@@ -61,10 +61,11 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
     against the design members here (`postproc.model.rules`: the member's own table wins);
     `restraints_along` are points along the members of a selection (`postproc.model.positions`);
     `stages` times each stage when asked (`framesweep run --stage-times`)."""
-    with stages.step("design members"):
-        members = design_members(frame, groups=groups or None, restraint_nodes=restraint_nodes)
-        members = restraints_along_members(members, frame, restraints_along)
-        overrides = resolved_overrides(members, frame, rules, overrides)
+    lap = stages.clock()   # times each step below when asked (`--stage-times`)
+    members = design_members(frame, groups=groups or None, restraint_nodes=restraint_nodes)
+    members = restraints_along_members(members, frame, restraints_along)
+    overrides = resolved_overrides(members, frame, rules, overrides)
+    lap("design members")
     combos = results.combinations
     uls = combos.index[(combos["kind"] == "ULS") & (combos["status"] == "ok")]
     usable = results.forces["combination"].isin(uls).to_numpy()
@@ -82,59 +83,59 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
                             member_settings=member_settings(overrides))
 
     tension_only = _tension_only_members(overrides, members)
-    with stages.step("frame stability (alpha_cr, analysis path, sway effects)"):
-        # a tension-only member's compression adds no geometric stiffness (postproc/stability/
-        # tension_only.py); every other stage reads the forces as analysed
-        alpha = _critical_load_factors(frame, uls_results, members, tension_only,
-                                       settings.sway_search)
-        paths = _say_given(stability.analysis_path(alpha, uls_results.combinations),
-                           uls_results.combinations)
-        amplified = paths.index[paths["path"] == "amplified"].astype(str).tolist()
-        sway = stability.sway_part(frame, members, uls_results, amplified) if amplified else None
-        paths = stability.amplified_part(
-            paths, sway, whole_if_unknown=settings.amplify_whole_when_sway_unknown)
-        per_combination = alpha.rename(columns={"alpha_cr": "alpha_cr_eigen"}).drop(
-            columns=[c for c in paths.columns if c in alpha.columns and c != "alpha_cr"]).join(
-            paths, how="outer")
-        per_combination = _with_given_column(per_combination, uls_results.combinations)
-        checked = stability.amplify_sway_effects(uls_results, paths, sway)
-    with stages.step("buckling lengths"):
-        lengths = stability.buckling_lengths(frame, members, checked, paths,
-                                             _length_overrides(overrides))
-    with stages.step("member rows"):
-        rows = build_member_rows(frame, checked.forces, members, settings, lengths)
-    with stages.step("checks"):
-        rows, blocks = run_checks(rows, families or CHECK_FAMILIES, overrides=overrides)
-        blocks = _leave_out_for_tension_only(blocks, rows.member, tension_only)
-    with stages.step("results table"):
-        covered = np.zeros(len(rows.member), dtype=bool)
-        value_columns: dict[str, tuple[str, ...]] = {}
-        for block in blocks:
-            covered |= np.asarray(block.applies, bool)
-            value_columns.setdefault(block.check, tuple(block.values))
-        stations = station_forces(rows)
-        # the blocks' values move into the table (never both held in full); the rows' member
-        # information and the blocks are not needed after it
-        rows = replace(rows, info=MemberInfo())
-        table = results_table(rows, blocks, settings.utilisation_limit, release_values=True)
-        del blocks
-        release_free_memory()
-        # members without forces first, so that a combination's frame path applies to them too
-        table = _mark_unchecked_members(table, members, rows, list(uls), covered)
-        table = _mark_unusable_combinations(table, per_combination, combos, members)
-        table = _explain_missing_lengths(table, lengths)
-        if "path" in per_combination and len(table):
-            # the analysis path of 5.2.1/5.2.2 that each row's forces went through, and on the
-            # amplified path which part of the forces was amplified
-            position = list(table.columns).index("reason") + 1
-            for offset, (name, column) in enumerate((("analysis_path", "path"),
-                                                     ("amplified_part", "amplified_part"))):
-                table.insert(position + offset, name, table["combination"].map(
-                    per_combination[column]).fillna("").to_numpy())
+    # a tension-only member's compression adds no geometric stiffness (postproc/stability/
+    # tension_only.py); every other stage reads the forces as analysed; alpha_cr given in the
+    # input is taken as given (postproc/stability/given_alpha.py)
+    alpha = _critical_load_factors(frame, uls_results, members, tension_only,
+                                   settings.sway_search)
+    paths = _say_given(stability.analysis_path(alpha, uls_results.combinations),
+                       uls_results.combinations)
+    amplified = paths.index[paths["path"] == "amplified"].astype(str).tolist()
+    sway = stability.sway_part(frame, members, uls_results, amplified) if amplified else None
+    paths = stability.amplified_part(
+        paths, sway, whole_if_unknown=settings.amplify_whole_when_sway_unknown)
+    per_combination = alpha.rename(columns={"alpha_cr": "alpha_cr_eigen"}).drop(
+        columns=[c for c in paths.columns if c in alpha.columns and c != "alpha_cr"]).join(
+        paths, how="outer")
+    per_combination = _with_given_column(per_combination, uls_results.combinations)
+    checked = stability.amplify_sway_effects(uls_results, paths, sway)
+    lap("frame stability (alpha_cr, analysis path, sway effects)")
+    lengths = stability.buckling_lengths(frame, members, checked, paths,
+                                         _length_overrides(overrides))
+    lap("buckling lengths")
+
+    rows = build_member_rows(frame, checked.forces, members, settings, lengths)
+    lap("member rows")
+    rows, blocks = run_checks(rows, families or CHECK_FAMILIES, overrides=overrides)
+    blocks = _leave_out_for_tension_only(blocks, rows.member, tension_only)
+    lap("checks")
+    covered = np.zeros(len(rows.member), dtype=bool)
+    value_columns: dict[str, tuple[str, ...]] = {}
+    for block in blocks:
+        covered |= np.asarray(block.applies, bool)
+        value_columns.setdefault(block.check, tuple(block.values))
+    stations = station_forces(rows)
+    # the blocks' values move into the table (never both held in full); the rows' member
+    # information and the blocks are not needed after it
+    rows = replace(rows, info=MemberInfo())
+    table = results_table(rows, blocks, settings.utilisation_limit, release_values=True)
+    del blocks
+    release_free_memory()
+    # members without forces first, so that a combination's frame path applies to them too
+    table = _mark_unchecked_members(table, members, rows, list(uls), covered)
+    table = _mark_unusable_combinations(table, per_combination, combos, members)
+    table = _explain_missing_lengths(table, lengths)
     if "path" in per_combination and len(table):
-        with stages.step("member bow imperfections (5.3.2(6))"):
-            bows = stability.bow_imperfections_needed(frame, members, checked, alpha)
-            table = _mark_member_bows(table, bows, settings.bow_imperfections)
+        # the analysis path of 5.2.1/5.2.2 that each row's forces went through, and on the
+        # amplified path which part of the forces was amplified
+        position = list(table.columns).index("reason") + 1
+        for offset, (name, column) in enumerate((("analysis_path", "path"),
+                                                 ("amplified_part", "amplified_part"))):
+            table.insert(position + offset, name,
+                         table["combination"].map(per_combination[column]).fillna("").to_numpy())
+        bows = stability.bow_imperfections_needed(frame, members, checked, alpha)
+        table = _mark_member_bows(table, bows, settings.bow_imperfections)
+    lap("results table (with the analysis path and member bows)")
     return CheckOutcome(table=table, members=members,
                         stability=_with_analysis_status(per_combination, combos),
                         lengths=lengths, settings=settings, combinations=combos,

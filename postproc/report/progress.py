@@ -75,6 +75,23 @@ class Stages:
         with self._timer(name):
             yield
 
+    def clock(self) -> Callable[[str], None]:
+        """`lap = stages.clock(); ...; lap("design members"); ...; lap("checks")`: each call
+        times the code since the previous one (or since the clock was made), as a step."""
+        start, depth = time.perf_counter(), self._open
+
+        def lap(name: str) -> None:
+            nonlocal start
+            now = time.perf_counter()
+            if self.timed:
+                done = StageTime(name, start, now - start, depth, peak_memory_gib())
+                self.times.append(done)
+                if self.on_time is not None:
+                    self.on_time(done)
+            start = now
+
+        return lap
+
     def timings(self) -> list[StageTime]:
         """The stages and steps timed so far, in the order they started."""
         return sorted(self.times, key=lambda t: t.start)

@@ -6,6 +6,7 @@ from __future__ import annotations
 from pathlib import Path
 
 import pandas as pd
+import pytest
 
 from postproc.bench_run import ALPHA_CR, write_job
 from postproc.cli import main
@@ -29,6 +30,14 @@ def test_steps_nest_inside_stages_and_are_kept_in_order() -> None:
     assert [(t.name, t.depth) for t in stages.timings()] == [("outer", 0), ("first", 1),
                                                               ("second", 1)]
     assert all(t.seconds >= 0 and t.peak_gib > 0 for t in seen)
+    laps = Stages(enabled=False, timed=True)
+    with laps.stage("outer"):
+        lap = laps.clock()
+        lap("one")
+        lap("two")
+    assert [(t.name, t.depth) for t in laps.timings()] == [("outer", 0), ("one", 1), ("two", 1)]
+    one, two = laps.timings()[1:]
+    assert one.start + one.seconds == pytest.approx(two.start)     # laps follow each other
     quiet = Stages(enabled=False)
     with quiet.stage("nothing kept"):
         pass
