@@ -174,7 +174,10 @@ def _mark_member_bows(table: pd.DataFrame, bows: pd.DataFrame, covered_by: str) 
         wanted = m_needed[known].astype(np.int64) * len(combos_in_table) + c_needed[known]
         hit = np.isin(m.astype(np.int64) * len(combos_in_table) + c, wanted)
     position = list(table.columns).index("amplified_part") + 1
-    table.insert(position, "bow_imperfection", np.where(hit, BOW_NOTES[covered_by], ""))
+    # text objects, not a fixed-width numpy text array (of about 100 characters per row)
+    notes = np.full(len(table), "", dtype=object)
+    notes[hit] = BOW_NOTES[covered_by]
+    table.insert(position, "bow_imperfection", notes)
     if covered_by == "not covered" and hit.any():
         table.loc[hit, "status"] = NOT_EVALUATED
         table.loc[hit, "reason"] = ("5.3.2(6): the member's bow imperfection belongs in the frame "
