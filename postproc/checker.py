@@ -101,13 +101,13 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
     for block in blocks:
         covered |= np.asarray(block.applies, bool)
         value_columns.setdefault(block.check, tuple(block.values))
-    stations = station_forces(rows)
     # the blocks' values move into the table (never both held in full); the rows' member
     # information and the blocks are not needed after it
     rows = replace(rows, info=MemberInfo())
     table = results_table(rows, blocks, settings.utilisation_limit, release_values=True)
     del blocks
     release_free_memory()
+    stations = station_forces(rows)
     # members without forces first, so that a combination's frame path applies to them too
     table = _mark_unchecked_members(table, members, rows, list(uls), covered)
     table = _mark_unusable_combinations(table, per_combination, combos, members)
@@ -326,6 +326,8 @@ def results_table(rows: MemberRows, blocks: list[CheckBlock], limit: float = 1.0
                                         for k, v in data.items()}))
     if not parts:
         return pd.DataFrame(columns=KEY_COLUMNS)
+    if release_values:
+        release_free_memory()  # the blocks' values, freed into the C library's heaps
     return _joined_parts(parts)
 
 
@@ -351,6 +353,7 @@ def _joined_parts(parts: list[tuple[int, dict[str, object]]]) -> pd.DataFrame:
         for (size, data), a in zip(parts, starts[:-1]):
             block[i, a:a + size] = (np.asarray(data.pop(column), dtype=float) if column in data
                                     else np.nan)
+    release_free_memory()  # the parts' float values, freed
     # one float block (the transpose is a view), the other columns inserted at their places
     table = pd.DataFrame(block.T, columns=floats, copy=False)
     for position, column in enumerate(head.columns):
