@@ -114,13 +114,13 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
     for block in blocks:
         covered |= np.asarray(block.applies, bool)
         value_columns.setdefault(block.check, tuple(block.values))
-    stations = station_forces(rows)
     # the blocks' values move into the table (never both held in full); the rows' member
     # information and the blocks are not needed after it
     rows = replace(rows, info=MemberInfo())
     table = results_table(rows, blocks, settings.utilisation_limit, release_values=True)
     del blocks
     release_free_memory()
+    stations = station_forces(rows)
     # members without forces first, so that a combination's frame path applies to them too
     table = _mark_unchecked_members(table, members, rows, list(uls), covered)
     table = _mark_unusable_combinations(table, per_combination, combos, members)
@@ -233,7 +233,10 @@ def _mark_member_bows(table: pd.DataFrame, bows: pd.DataFrame, covered_by: str) 
         wanted = m_needed[known].astype(np.int64) * len(combos_in_table) + c_needed[known]
         hit = np.isin(m.astype(np.int64) * len(combos_in_table) + c, wanted)
     position = list(table.columns).index("amplified_part") + 1
-    table.insert(position, "bow_imperfection", np.where(hit, BOW_NOTES[covered_by], ""))
+    # text objects, not a fixed-width numpy text array (of about 100 characters per row)
+    notes = np.full(len(table), "", dtype=object)
+    notes[hit] = BOW_NOTES[covered_by]
+    table.insert(position, "bow_imperfection", notes)
     if covered_by == "not covered" and hit.any():
         table.loc[hit, "status"] = NOT_EVALUATED
         table.loc[hit, "reason"] = ("5.3.2(6): the member's bow imperfection belongs in the frame "
@@ -382,6 +385,8 @@ def results_table(rows: MemberRows, blocks: list[CheckBlock], limit: float = 1.0
                                         for k, v in data.items()}))
     if not parts:
         return pd.DataFrame(columns=KEY_COLUMNS)
+    if release_values:
+        release_free_memory()  # the blocks' values, freed into the C library's heaps
     return _joined_parts(parts)
 
 
@@ -407,6 +412,7 @@ def _joined_parts(parts: list[tuple[int, dict[str, object]]]) -> pd.DataFrame:
         for (size, data), a in zip(parts, starts[:-1]):
             block[i, a:a + size] = (np.asarray(data.pop(column), dtype=float) if column in data
                                     else np.nan)
+    release_free_memory()  # the parts' float values, freed
     # one float block (the transpose is a view), the other columns inserted at their places
     table = pd.DataFrame(block.T, columns=floats, copy=False)
     for position, column in enumerate(head.columns):

@@ -113,9 +113,10 @@ def run_checks(rows: MemberRows, families: list[CheckFamily], *,
 
 def release_free_memory() -> None:
     """Hand memory that the run has freed back to the operating system (the C library's
-    malloc_trim). The worker threads' chunk arrays are freed into per-thread heaps that the
-    C library keeps for those threads: on the large job of docs/speed.md about 0.4 GiB that
-    the main thread cannot reuse for the long table. A no-op where there is no malloc_trim."""
+    malloc_trim). The worker threads' chunk arrays are freed into heaps that the C library
+    keeps (one per thread): on the large job of docs/speed.md about 0.4 GiB after the checks,
+    which the long table, a few large arrays allocated afterwards, could not reuse. A no-op
+    where there is no malloc_trim."""
     try:
         trim = ctypes.CDLL(ctypes.util.find_library("c") or "libc.so.6").malloc_trim
     except (OSError, AttributeError):

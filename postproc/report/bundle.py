@@ -147,8 +147,9 @@ def _write_sheets(outcome: CheckOutcome, folder: Path, summary: pd.DataFrame,
     sheets_dir.mkdir()
     # the sheets read only a few columns of every row (the values come from `governing`), and
     # each member's rows as one contiguous slice of member-sorted tables: cheap on a wide table
-    slim = outcome.table[[c for c in SHEET_ROW_COLUMNS if c in outcome.table.columns]]
-    rows_of = member_slices(slim)
+    # (only the member-sorted copy is kept)
+    rows_of = member_slices(outcome.table[[c for c in SHEET_ROW_COLUMNS
+                                           if c in outcome.table.columns]])
     governing_of = member_records(governing)
     lengths_of = member_slices(outcome.lengths)
     stations_of = member_slices(outcome.stations)
