@@ -20,6 +20,7 @@ Sources of the expected values:
 from __future__ import annotations
 
 import numpy as np
+import pandas as pd
 import pytest
 import scipy.linalg as sla
 from scipy.optimize import brentq
@@ -453,3 +454,47 @@ def test_sway_search_setting_reaches_the_stability_stage(monkeypatch, search):
     res = Results(constant_forces(axial, f), combos(axial))
     with pytest.raises(Reached, match=search):
         checker.check_frame(f, res, DesignSettings(sway_search=search))
+
+
+def test_combinations_on_several_processes_give_what_one_gives(monkeypatch):
+    """The sparse solver with the joints search: the combinations' searches shared out over
+    processes give the same table as one process, value for value (the same solver and start
+    vector, one BLAS thread each)."""
+    import postproc.numerics.parallel as par
+    import postproc.stability.eigen as eig
+    monkeypatch.setattr(eig, "DENSE_MAX", 0)
+    cases = {f"U{k}": local for k, local in enumerate((0.07, 0.08, 1.2, 0.5, 2.0), start=1)}
+    axial = {}
+    for comb, local in cases.items():
+        f, C, P, _ = bay_case(local, 5.0)
+        axial[comb] = {"C1": -P, "C2": -P, "D1": -C}
+    frame = braced_bay()
+    forked = []
+    real = par.process_map
+
+    def counted(task, items, **kw):
+        out = real(task, items, workers=2)
+        forked.append(len(out))
+        return out
+
+    monkeypatch.setattr("postproc.stability.frame_stability.process_map", counted)
+    _, _, several, _ = run(frame, axial)
+    assert forked == [5]
+    monkeypatch.setattr("postproc.stability.frame_stability.process_map",
+                        lambda task, items, **kw: real(task, items, workers=1))
+    _, _, one, _ = run(frame, axial)
+    pd.testing.assert_frame_equal(several, one)
+    assert several["alpha_cr"].notna().all()
+
+
+def test_process_map_keeps_the_order_and_runs_small_lists_in_place():
+    """process_map returns the results in the order of the items; below PROCESS_ITEMS_MIN it
+    runs them in the caller's process."""
+    import os
+
+    from postproc.numerics.parallel import PROCESS_ITEMS_MIN, process_map
+    here = os.getpid()
+    items = list(range(12))
+    assert process_map(lambda k: k * k, items, workers=2) == [k * k for k in items]
+    small = process_map(lambda k: os.getpid(), list(range(PROCESS_ITEMS_MIN - 1)), workers=2)
+    assert set(small) == {here}

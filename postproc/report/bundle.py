@@ -10,6 +10,7 @@ import numpy as np
 import pandas as pd
 
 from ..model.outcome import CheckOutcome
+from ..numerics.parallel import process_map
 from .cells import formula_safe_table
 from .display import to_display
 from .links import member_slug
@@ -40,6 +41,7 @@ WORKBOOK_SOURCES = {"members": "summary.csv", "governing checks": "utilisation.p
                     "buckling lengths": "buckling_lengths.csv",
                     "settings": "settings.csv and report.html"}
 
+SHEET_BATCH = 50   # members per batch of sheets handed to a worker process
 SHEET_ROW_COLUMNS = ["member", "combination", "check", "utilisation", "status", "section_class",
                      "class_part", "term_N", "term_M_y", "term_M_z"]
 
@@ -155,24 +157,37 @@ def _write_sheets(outcome: CheckOutcome, folder: Path, summary: pd.DataFrame,
     stations_of = member_slices(outcome.stations)
     grouping = member_grouping(outcome.members).set_index("member")
     limit = outcome.settings.utilisation_limit
+
+    def write(row: dict) -> str:
+        """Write one member's sheet; its HTML section where the sheets go inline, else ''."""
+        member = str(row["member"])
+        sheet = build_sheet(
+            member, rows_of(member), governing_of(member), row,
+            grouping.loc[member] if member in grouping.index else None,
+            lengths_of(member), outcome.stability, stations_of(member),
+            outcome.value_columns)
+        stem = member_slug(member)
+        (sheets_dir / f"{stem}.md").write_text(
+            sheet_markdown(sheet, utilisation_limit=limit), encoding="utf-8")
+        section = sheet_html(sheet, utilisation_limit=limit)
+        if inline:
+            return section
+        (sheets_dir / f"{stem}.html").write_text(
+            sheet_page(section, title=f"{title}: member {member}", paper=options.paper),
+            encoding="utf-8")
+        return ""
+
+    records = summary.to_dict("records")
     sections = []
-    with stages.stage("writing calculation sheets", total=len(summary)) as tick:
-        for row in summary.to_dict("records"):
-            member = str(row["member"])
-            sheet = build_sheet(
-                member, rows_of(member), governing_of(member), row,
-                grouping.loc[member] if member in grouping.index else None,
-                lengths_of(member), outcome.stability, stations_of(member),
-                outcome.value_columns)
-            stem = member_slug(member)
-            (sheets_dir / f"{stem}.md").write_text(
-                sheet_markdown(sheet, utilisation_limit=limit), encoding="utf-8")
-            section = sheet_html(sheet, utilisation_limit=limit)
-            if inline:
-                sections.append(section)
-            else:
-                (sheets_dir / f"{stem}.html").write_text(
-                    sheet_page(section, title=f"{title}: member {member}", paper=options.paper),
-                    encoding="utf-8")
-            tick(1)
+    with stages.stage("writing calculation sheets", total=len(records)) as tick:
+        if inline:
+            for row in records:
+                sections.append(write(row))
+                tick(1)
+            return sections
+        # a large job's sheets are independent files: written in batches on a process per
+        # core (each batch a slice of the members, in order)
+        batches = [records[k:k + SHEET_BATCH] for k in range(0, len(records), SHEET_BATCH)]
+        for done in process_map(lambda batch: len([write(row) for row in batch]), batches):
+            tick(done)
     return sections

@@ -29,6 +29,7 @@ from ..errors import InputError
 from ..model.frame import NODE_COLUMNS, Frame, element_vectors, local_axes
 from ..model.members import Members, member_axes, moment_released
 from ..model.results import Results
+from ..numerics.parallel import process_map
 from ..settings import SwaySearch
 from .eigen import (
     E_STEEL,
@@ -272,6 +273,32 @@ def _mode_search(mesh: Mesh, gauge: ModeGauge, tension: np.ndarray, solve_first:
     raise AssertionError("unreachable: the last step always ends the search")
 
 
+def _searchable(uls: pd.DataFrame, tension: np.ndarray, c: int) -> bool:
+    """Combination c was analysed and has forces for every element."""
+    status = str(uls["status"].iloc[c]) if "status" in uls.columns else "ok"
+    return status == "ok" and not np.isnan(tension[c]).any()
+
+
+def _mode_searches(mesh: Mesh, gauge: ModeGauge, tension: np.ndarray, joints: JointSway | None,
+                   todo: list[int]) -> dict[int, dict]:
+    """`_mode_search` of each combination in `todo`.
+
+    Where each combination's search stands on its own (the frame condensed onto its joints:
+    one step of the whole model each), the combinations are shared out over a process per core
+    (`process_map`; the same results, in the same order). Otherwise one after the other, the
+    sparse solver starting each at the step the previous one needed (the dense one solves for
+    all modes about as fast as for a few)."""
+    if joints is not None and mesh.chol is None:
+        found = process_map(lambda c: _mode_search(mesh, gauge, tension[c], 0, joints), todo)
+        return dict(zip(todo, found, strict=True))
+    out, solve_first = {}, 0
+    for c in todo:
+        out[c] = _mode_search(mesh, gauge, tension[c], solve_first, joints)
+        if mesh.chol is None:
+            solve_first = out[c]["step"]
+    return out
+
+
 def critical_load_factors(frame: Frame, results: Results, members: Members, *,
                           sway_search: SwaySearch = "joints") -> pd.DataFrame:
     """EN 1993-1-1:2005, 5.2.1(3) and 5.2.1(4)B, eq. (5.2): alpha_cr of every ULS combination.
@@ -336,9 +363,8 @@ def critical_load_factors(frame: Frame, results: Results, members: Members, *,
     eid = frame.elements.index.astype(str)
     out = []
     none = (np.nan, "", 0)
-    # the sparse solver starts each combination at the step the previous one needed (the dense
-    # one solves for all modes about as fast as for a few)
-    solve_first = 0
+    search_of = _mode_searches(mesh, gauge, tension, joints,
+                              [c for c in range(len(combos)) if _searchable(uls, tension, c)])
     for c, comb in enumerate(combos):
         status = str(uls["status"].iloc[c]) if "status" in uls.columns else "ok"
         if status != "ok":
@@ -351,9 +377,7 @@ def critical_load_factors(frame: Frame, results: Results, members: Members, *,
             out.append((comb, np.nan, False, *none,
                         f"no forces for element {e}: alpha_cr not found"))
             continue
-        found = _mode_search(mesh, gauge, tension[c], solve_first, joints)
-        if mesh.chol is None:
-            solve_first = found["step"]
+        found = search_of[c]
         if found["lowest"] is None:
             out.append((comb, np.inf, False, *none, "no member in compression: no buckling mode"))
             continue
