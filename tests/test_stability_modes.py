@@ -68,15 +68,8 @@ def test_portal_with_a_leaning_column_buckling_first_on_its_own():
     as a member mode, and it keeps its own length. Taking the lowest mode as the frame's gave
     alpha_cr = 2, 'second-order needed', and every member not evaluated."""
     L = 5.0
-    EI = E * I_HEB200_Y
+    f, P_c, P_p, EI = leaning_portal()               # portal columns, leaning column
     euler = np.pi ** 2 * EI / L ** 2
-    P_c, P_p = 0.05 * euler, 0.5 * euler            # portal columns, leaning column
-    nodes = [("1", 0, 0, 0), ("2", 0, L, 0), ("3", 6, L, 0), ("4", 6, 0, 0), ("5", 12, 0, 0),
-             ("6", 12, L, 0)]
-    els = [("C1", "1", "2", "HEB 200", "", ""), ("R1", "2", "3", "STIFF", "", ""),
-           ("C2", "4", "3", "HEB 200", "", ""), ("K1", "3", "6", "STIFF", "My", "My"),
-           ("P1", "5", "6", "HEB 200", "My", "My")]
-    f = make_frame(nodes, els, [("1", *FIXED), ("4", *FIXED), ("5", *PINNED)])
     res, members, alpha, paths = run(f, {"U1": {"C1": -P_c, "C2": -P_c, "P1": -P_p}})
     # storey balance: 2 k_c(a P_c) = a P_p / L, below the guided column's Euler load
     a_sway = brentq(lambda a: 2 * guided_column_stiffness(a * P_c, EI, L) - a * P_p / L,

@@ -48,6 +48,7 @@ def test_the_benchmark_job_runs_every_stage_with_its_checks_evaluated(tmp_path: 
                                                                        capsys) -> None:
     project = write_job(tmp_path, n_members=6, n_combinations=3)
     combos = pd.read_csv(tmp_path / "tables" / "combinations.csv")
+    # 5.2.1(3): alpha_cr >= 10, first-order analysis is enough
     assert (combos["alpha_cr"] == ALPHA_CR).all() and ALPHA_CR >= 10
     code = main(["run", str(project), "--out", str(tmp_path / "out"), "--quiet",
                  "--stage-times"])
