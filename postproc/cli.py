@@ -10,6 +10,7 @@ was interrupted (Ctrl-C; 143 for a termination signal).
 from __future__ import annotations
 
 import argparse
+import os
 import signal
 import sys
 import traceback
@@ -260,5 +261,18 @@ def _print_problems(output) -> None:
         print(f"framesweep: warning: {where}: {text}", file=sys.stderr)
 
 
+def console() -> None:
+    """The `framesweep` command: `main`, and its exit code. An interrupted run (130, 143) ends
+    here at once: its analyses' worker pool was stopped mid-way, and the interpreter's usual
+    shutdown would wait on that pool's manager thread, where a late signal prints a traceback
+    after the run has already said it was interrupted."""
+    code = main()
+    if code in (EXIT_INTERRUPTED, 128 + signal.SIGTERM):
+        sys.stdout.flush()
+        sys.stderr.flush()
+        os._exit(code)
+    sys.exit(code)
+
+
 if __name__ == "__main__":
-    sys.exit(main())
+    console()

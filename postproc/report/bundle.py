@@ -4,6 +4,7 @@ per combination. Every number is read from the CheckOutcome; nothing is recomput
 
 from __future__ import annotations
 
+from collections.abc import Callable
 from pathlib import Path
 
 import numpy as np
@@ -108,7 +109,8 @@ def write_report_outputs(outcome: CheckOutcome, folder: Path, summary: pd.DataFr
     sections: list[str] = []
     if not options.summary_only:
         governing = governing_checks(table)
-        with stages.stage("writing the workbook"):
+
+        def write_book() -> None:
             settings = pd.DataFrame(
                 [("design", k, str(v)) for k, v in sorted(outcome.settings.as_dict().items())]
                 + [("report", k, str(v)) for k, v in sorted(options.as_dict().items())],
@@ -121,9 +123,14 @@ def write_report_outputs(outcome: CheckOutcome, folder: Path, summary: pd.DataFr
                            notes=[f"{title}: framesweep results, one sheet per view.",
                                   "Units are in the column headings."],
                            row_limit=options.workbook_row_limit, sources=WORKBOOK_SOURCES)
-        written["report.xlsx"] = REPORT_FILES["report.xlsx"]
+
+        if inline:
+            with stages.stage("writing the workbook"):
+                write_book()
         sections = _write_sheets(outcome, folder, summary, governing, title=title,
-                                 options=options, inline=inline, stages=stages)
+                                 options=options, inline=inline, stages=stages,
+                                 beside=None if inline else write_book)
+        written["report.xlsx"] = REPORT_FILES["report.xlsx"]
         written["sheets"] = REPORT_FILES["sheets"]
         if options.per_combination:
             with stages.stage("drawing the frame per combination"):
@@ -142,9 +149,10 @@ def write_report_outputs(outcome: CheckOutcome, folder: Path, summary: pd.DataFr
 
 def _write_sheets(outcome: CheckOutcome, folder: Path, summary: pd.DataFrame,
                   governing: pd.DataFrame, *, title: str, options: ReportOptions, inline: bool,
-                  stages: Stages) -> list[str]:
+                  stages: Stages, beside: Callable[[], None] | None = None) -> list[str]:
     """A sheet per member: Markdown files always, HTML pages when not inline; returns the HTML
-    sections when inline."""
+    sections when inline. `beside`: other output work run as one more piece beside the
+    batches of sheets (the workbook of a large job)."""
     sheets_dir = folder / "sheets"
     sheets_dir.mkdir()
     # the sheets read only a few columns of every row (the values come from `governing`), and
@@ -179,15 +187,29 @@ def _write_sheets(outcome: CheckOutcome, folder: Path, summary: pd.DataFrame,
 
     records = summary.to_dict("records")
     sections = []
-    with stages.stage("writing calculation sheets", total=len(records)) as tick:
-        if inline:
+    if inline:
+        with stages.stage("writing calculation sheets", total=len(records)) as tick:
             for row in records:
                 sections.append(write(row))
                 tick(1)
-            return sections
-        # a large job's sheets are independent files: written in batches on a process per
-        # core (each batch a slice of the members, in order)
-        batches = [records[k:k + SHEET_BATCH] for k in range(0, len(records), SHEET_BATCH)]
-        for done in process_map(lambda batch: len([write(row) for row in batch]), batches):
+        return sections
+    # a large job's sheets are independent files: written in batches on a process per core
+    # (each batch a slice of the members, in order), the other work (`beside`) first, as a
+    # piece of its own
+    batches: list[list[dict] | None] = [records[k:k + SHEET_BATCH]
+                                        for k in range(0, len(records), SHEET_BATCH)]
+    if beside is not None:
+        batches.insert(0, None)
+
+    def piece(batch: list[dict] | None) -> int:
+        if batch is None:
+            if beside is not None:
+                beside()
+            return 0
+        return len([write(row) for row in batch])
+
+    stage = "writing calculation sheets" + (" and the workbook" if beside is not None else "")
+    with stages.stage(stage, total=len(records)) as tick:
+        for done in process_map(piece, batches):
             tick(done)
     return sections
