@@ -150,16 +150,16 @@ def _critical_load_factors(frame: Frame, results: Results, members: Members,
     built when every combination has a given value."""
     combos = results.combinations
     given = given_critical_load_factors(combos)
-    if not len(given):
-        return stability.critical_load_factors(
-            frame, without_compression_of(results, members, tension_only), members,
-            sway_search=sway_search)
     rest = combos.index[~combos.index.isin(given.index)]
     if not len(rest):
         return given
+    # the combinations without a given value (all of them: the results as they are)
     computed = stability.critical_load_factors(
-        frame, without_compression_of(replace(results, combinations=combos.loc[rest]), members,
-                                      tension_only), members, sway_search=sway_search)
+        frame, without_compression_of(replace(results, combinations=combos.loc[rest])
+                                      if len(given) else results, members, tension_only),
+        members, sway_search=sway_search)
+    if not len(given):
+        return computed
     return pd.concat([computed, given.astype({"sway_mode": bool})]).loc[
         combos.index.astype(str)]
 

@@ -28,6 +28,7 @@ from postproc.stability.frame_stability import (
     analysis_path,
     critical_load_factors,
 )
+from tests.opensees_reference import tangent
 
 ops = pytest.importorskip("openseespy.opensees")
 pytestmark = pytest.mark.opensees
@@ -110,12 +111,6 @@ def static(steps: int, algorithm: str = "Newton") -> None:
         assert ops.analyze(1) == 0
 
 
-def tangent() -> np.ndarray:
-    a = np.array(ops.printA("-ret"))
-    n = int(round(np.sqrt(a.size)))
-    return a.reshape(n, n)
-
-
 def opensees_alpha(model, loads) -> float:
     """Load factor at which the PDelta tangent stiffness becomes singular (module docstring)."""
     build_opensees(model, "PDelta", loads)
@@ -124,13 +119,13 @@ def opensees_alpha(model, loads) -> float:
     ops.integrator("LoadControl", 0.0)
     ops.analysis("Static")
     ops.analyze(1)                      # forms the tangent with no load: K_E
-    K_E = tangent()
+    K_E = tangent(ops)
     ops.wipeAnalysis()
     build_opensees(model, "PDelta", loads)
     static(1, "Linear")                 # axial forces of the load at factor 1
     ops.integrator("LoadControl", 0.0)
     ops.analyze(1)                      # tangent at that state: K_E + K_G
-    K_G = tangent() - K_E
+    K_G = tangent(ops) - K_E
     lam = sla.eigvals(K_E, -K_G)
     lam = lam.real[(np.abs(lam.imag) < 1e-9 * np.abs(lam.real) + 1e-12) & (lam.real > 0)]
     return float(lam.min())

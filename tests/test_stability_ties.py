@@ -28,7 +28,6 @@ from __future__ import annotations
 import numpy as np
 import pandas as pd
 import pytest
-import scipy.linalg as sla
 from scipy.optimize import brentq
 
 from postproc.errors import InputError, TopologyError
@@ -36,6 +35,7 @@ from postproc.model.frame import Frame
 from postproc.model.members import design_members
 from postproc.model.results import Results
 from postproc.stability.frame_stability import critical_load_factors
+from tests.opensees_reference import singular_load_factors
 from tests.test_stability import combos, constant_forces
 
 E, G = 210e9, 81e9          # Pa, EN 1993-1-1 3.2.6(1)
@@ -258,20 +258,7 @@ def opensees_alpha(diaphragm: bool) -> float:
         ops.integrator("LoadControl", 0.0)
         assert ops.analyze(1) == 0          # the tangent at this state
 
-    def tangent() -> np.ndarray:
-        a = np.array(ops.printA("-ret"))
-        n = int(round(np.sqrt(a.size)))
-        return a.reshape(n, n)
-
-    build(False)
-    K_E = tangent()
-    build(True)
-    K_G = tangent() - K_E
-    ops.wipe()
-    lam = sla.eigvals(K_E, -K_G)
-    lam = lam.real[(np.abs(lam.imag) < 1e-9 * np.abs(lam.real) + 1e-12) & (lam.real > 0)
-                   & np.isfinite(lam.real)]
-    return float(lam.min())
+    return float(singular_load_factors(ops, build)[0])
 
 
 @pytest.mark.opensees

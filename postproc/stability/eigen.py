@@ -538,8 +538,8 @@ def joint_sway_modes(mesh: Mesh, basis: JointSway, tension: np.ndarray, *,
     # Z' = Z - W C is K-orthogonal to W (W^T K Z = W^T GW = G_ww, W^T K W = F)
     C = sla.solve(F, G_ww, assume_a="pos")
     B = GW.T @ Z                                # W^T G Z (= Z^T K Z as well, K Z = G W)
-    S = _symmetric(B - G_ww @ C)                # Z'^T K Z'
-    G_wz = B - G_ww @ C                         # W^T G Z'
+    G_wz = B - G_ww @ C                         # W^T G Z', and Z'^T K Z' (K Z = G W)
+    S = _symmetric(G_wz)                        # Z'^T K Z'
     GZ = np.asarray(Gs @ Z)
     G_zz = _symmetric(Z.T @ GZ - B.T @ C - C.T @ B + C.T @ G_ww @ C)   # Z'^T G Z'
     lam, U = sla.eigh(S)
