@@ -14,6 +14,7 @@ family, 8. the long table.
 from __future__ import annotations
 
 from dataclasses import replace
+from typing import cast
 
 import numpy as np
 import pandas as pd
@@ -23,15 +24,15 @@ from .checks.cross_section import cross_section_checks
 from .checks.interaction import interaction_checks
 from .checks.member_buckling import flexural_buckling_checks, lateral_torsional_checks
 from .checks.tension_only import left_out_for_tension_only, tension_only_checks
-from .engine import CheckFamily, release_free_memory, run_checks
+from .engine import CheckFamily, iter_checks, release_free_memory
+from .model.check_values import CheckValues
 from .model.frame import Frame
-from .model.member_info import MemberInfo
 from .model.member_rows import build_member_rows
 from .model.members import Members, design_members
 from .model.outcome import KEY_COLUMNS, CheckOutcome
 from .model.positions import restraints_along as restraints_along_members
 from .model.results import Results
-from .model.rows import FAIL, NOT_EVALUATED, PASS, CheckBlock, MemberRows
+from .model.rows import FAIL, NOT_EVALUATED, PASS, CheckBlock, MemberRows, block_concat
 from .model.rules import member_settings, resolved_overrides
 from .report.progress import QUIET, Stages
 from .settings import DesignSettings, SwaySearch
@@ -106,19 +107,11 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
 
     rows = build_member_rows(frame, checked.forces, members, settings, lengths)
     lap("member rows")
-    rows, blocks = run_checks(rows, families or CHECK_FAMILIES, overrides=overrides)
-    blocks = _leave_out_for_tension_only(blocks, rows.member, tension_only)
+    parts, covered, value_columns = _checked_parts(
+        rows, families or CHECK_FAMILIES, overrides, tension_only, settings.utilisation_limit)
     lap("checks")
-    covered = np.zeros(len(rows.member), dtype=bool)
-    value_columns: dict[str, tuple[str, ...]] = {}
-    for block in blocks:
-        covered |= np.asarray(block.applies, bool)
-        value_columns.setdefault(block.check, tuple(block.values))
-    # the blocks' values move into the table (never both held in full); the rows' member
-    # information and the blocks are not needed after it
-    rows = replace(rows, info=MemberInfo())
-    table = results_table(rows, blocks, settings.utilisation_limit, release_values=True)
-    del blocks
+    table, value_parts = _long_table(parts)
+    del parts
     release_free_memory()
     stations = station_forces(rows)
     # members without forces first, so that a combination's frame path applies to them too
@@ -135,8 +128,10 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
                          table["combination"].map(per_combination[column]).fillna("").to_numpy())
         bows = stability.bow_imperfections_needed(frame, members, checked, alpha)
         table = _mark_member_bows(table, bows, settings.bow_imperfections)
+    values = CheckValues.from_parts(value_parts, rows_after=len(table) > sum(
+        size for size, _ in value_parts))
     lap("results table (with the analysis path and member bows)")
-    return CheckOutcome(table=table, members=members,
+    return CheckOutcome(table=table, values=values, members=members,
                         stability=_with_analysis_status(per_combination, combos),
                         lengths=lengths, settings=settings, combinations=combos,
                         stations=stations, value_columns=value_columns, frame=frame,
@@ -348,46 +343,122 @@ def _length_overrides(overrides: pd.DataFrame | None) -> pd.DataFrame | None:
     return overrides[["member", *columns, *where, *set_by]].rename(columns={**columns, **set_by})
 
 
+Part = tuple[int, dict[str, object], dict[str, object]]  # rows, key columns, value columns
+
+
+def _checked_parts(rows: MemberRows, families: list[CheckFamily],
+                   overrides: pd.DataFrame | None, tension_only: list[str], limit: float
+                   ) -> tuple[list[Part], np.ndarray, dict[str, tuple[str, ...]]]:
+    """Every check family over the rows, chunk by chunk on the engine's threads; of each
+    chunk's blocks only the rows a check applies to are kept (the chunk's member information
+    and the blocks' other rows are dropped on the worker thread), and each check's pieces are
+    joined in row order at the end. Returns one table part per check that applies to any row,
+    (R,) whether a row has at least one check, and each check's value names in the order its
+    family fills them."""
+    def keep(part: MemberRows, blocks: list[CheckBlock]
+             ) -> tuple[list[tuple[np.ndarray, np.ndarray, CheckBlock]], np.ndarray]:
+        blocks = _leave_out_for_tension_only(blocks, part.member, tension_only)
+        covered = np.zeros(part.n_rows, dtype=bool)
+        kept = []
+        for block in blocks:
+            applies = np.asarray(block.applies, bool)
+            covered |= applies
+            kept.append((part.member[applies], part.combination[applies],
+                         _applying(block, applies)))
+        return kept, covered
+
+    pieces: list[list[tuple[np.ndarray, np.ndarray, CheckBlock]]] = []
+    covered = []
+    for _, digest in iter_checks(rows, families, overrides=overrides, keep=keep):
+        kept, chunk_covered = cast(tuple[list[tuple[np.ndarray, np.ndarray, CheckBlock]],
+                                         np.ndarray], digest)
+        covered.append(chunk_covered)
+        if not pieces:
+            pieces = [[] for _ in kept]
+        for k, piece in enumerate(kept):
+            pieces[k].append(piece)
+    parts = []
+    value_columns: dict[str, tuple[str, ...]] = {}
+    for k in range(len(pieces)):
+        check = pieces[k]
+        member = np.concatenate([p[0] for p in check])
+        combination = np.concatenate([p[1] for p in check])
+        block = block_concat([p[2] for p in check]) if len(check) > 1 else check[0][2]
+        pieces[k] = []  # each check's pieces freed once joined
+        value_columns.setdefault(block.check, tuple(block.values))
+        if len(member):
+            parts.append(_table_part(member, combination, block, limit))
+    return (parts, np.concatenate(covered) if covered else np.zeros(0, dtype=bool),
+            value_columns)
+
+
+def _applying(block: CheckBlock, applies: np.ndarray) -> CheckBlock:
+    """The block for the rows it applies to."""
+    return CheckBlock(check=block.check, clause=block.clause,
+                      utilisation=block.utilisation[applies], x=block.x[applies],
+                      applies=np.ones(int(applies.sum()), dtype=bool),
+                      reason=np.asarray(block.reason, dtype=object)[applies],
+                      values={k: np.asarray(v)[applies] for k, v in block.values.items()})
+
+
+def _table_part(member: np.ndarray, combination: np.ndarray, block: CheckBlock, limit: float
+                ) -> Part:
+    """One check's rows of the long table: its key columns and its values (text values as the
+    dtype a frame built from them would give, pandas' inference)."""
+    reason = np.asarray(block.reason, dtype=object).copy()
+    unexplained = np.isnan(block.utilisation) & (reason == "")
+    reason[unexplained] = "could not be evaluated"
+    keys: dict[str, object] = {
+        "member": member, "combination": combination, "check": block.check,
+        "clause": block.clause, "x_m": block.x, "utilisation": block.utilisation,
+        "status": _status(block.utilisation, reason, limit), "reason": reason}
+    return (len(member), _inferred(keys), _inferred(dict(block.values)))
+
+
+def _inferred(columns: dict[str, object]) -> dict[str, object]:
+    """Object columns as the dtype pandas infers for them (text: Arrow-backed strings)."""
+    out: dict[str, object] = {}
+    for name, value in columns.items():
+        if isinstance(value, np.ndarray) and value.dtype == object:
+            series = pd.Series(value)
+            out[name] = series.to_numpy() if series.dtype == object else series
+        else:
+            out[name] = value
+    return out
+
+
+def _long_table(parts: list[Part]) -> tuple[pd.DataFrame, list[tuple[int, dict[str, object]]]]:
+    """The key columns of the parts one under the other (the long table), and each part's
+    values (`CheckValues` once the table is complete)."""
+    if not parts:
+        return pd.DataFrame(columns=KEY_COLUMNS), []
+    values = [(size, {k: v.array if isinstance(v, pd.Series) else v
+                      for k, v in part_values.items()}) for size, _, part_values in parts]
+    keys = [(size, part_keys) for size, part_keys, _ in parts]
+    return _joined_parts(keys), values
+
+
 def results_table(rows: MemberRows, blocks: list[CheckBlock], limit: float = 1.0, *,
                   release_values: bool = False) -> pd.DataFrame:
-    """The long table: one row per (member, combination, check) where the check applies.
-
-    The columns are those of concatenating one frame per check (KEY_COLUMNS, then each check's
-    values in order of first appearance, NaN where a check has no such value), with the dtypes
-    that concatenation gives; but each column is filled straight into an array of the table's
-    length, and the float columns share one two-dimensional array, so the table is built
-    without a second full-size copy (it is the largest object of a large run).
+    """The long table with every check's values: one row per (member, combination, check)
+    where the check applies; KEY_COLUMNS, then each check's values in order of first
+    appearance, NaN where a check has no such value (a run keeps the values apart,
+    `CheckOutcome.values`; this is the table with them joined, for one member's checks and
+    for tests).
 
     release_values: drop each block's `values` once they are copied (the blocks are left
-        without values), so that the blocks' values and the whole table are not held at once.
+        without values).
     """
-    parts: list[tuple[int, dict[str, object]]] = []
+    parts = []
     for block in blocks:
         keep = np.asarray(block.applies, bool)
-        values, block.values = block.values, ({} if release_values else block.values)
-        if not keep.any():
-            continue
-        reason = np.asarray(block.reason, dtype=object).copy()
-        unexplained = np.isnan(block.utilisation) & (reason == "")
-        reason[unexplained] = "could not be evaluated"
-        data: dict[str, object] = {
-            "member": rows.member[keep], "combination": rows.combination[keep],
-            "check": block.check, "clause": block.clause, "x_m": block.x[keep],
-            "utilisation": block.utilisation[keep],
-            "status": _status(block.utilisation, reason, limit)[keep], "reason": reason[keep],
-        }
-        for name, value in values.items():
-            data[name] = np.asarray(value)[keep]
-        del values
-        # text columns get the dtype a frame built from them would give (pandas' inference)
-        parts.append((int(keep.sum()), {k: pd.Series(v) if isinstance(v, np.ndarray)
-                                        and v.dtype == object else v
-                                        for k, v in data.items()}))
-    if not parts:
-        return pd.DataFrame(columns=KEY_COLUMNS)
-    if release_values:
-        release_free_memory()  # the blocks' values, freed into the C library's heaps
-    return _joined_parts(parts)
+        kept = _applying(block, keep)
+        if release_values:
+            block.values = {}
+        if keep.any():
+            parts.append(_table_part(rows.member[keep], rows.combination[keep], kept, limit))
+    table, values = _long_table(parts)
+    return CheckValues.from_parts(values).join(table) if values else table
 
 
 def _joined_parts(parts: list[tuple[int, dict[str, object]]]) -> pd.DataFrame:

@@ -232,7 +232,7 @@ def test_single_member_and_frame_run_agree(tmp_path) -> None:
         'title = "one column"\n[model]\nsource = "tables"\ndirectory = "tables"\nndm = 2\n'
         '[members.C1]\nL_cr_y = 5.0\nL_cr_z = 5.0\nL_LT = 5.0\nL_cr_T = 5.0\n')
     outcome = run_project(tmp_path / "project.toml").outcome
-    frame_table = outcome.table.set_index("check")
+    frame_table = outcome.with_values().set_index("check")
     lengths = outcome.lengths.iloc[0]
     single = check_member("HEB 280", "S460", length=L, N_Ed=-400e3, My_ends=(0.0, 60e3),
                           stations=n, sway_y=bool(lengths["sway_y"]),

@@ -7,6 +7,7 @@ from dataclasses import dataclass, field
 import pandas as pd
 
 from ..settings import DesignSettings
+from .check_values import CheckValues
 from .frame import Frame
 from .members import Members
 from .rows import FAIL, NOT_EVALUATED, PASS
@@ -21,8 +22,11 @@ class CheckOutcome:
     """Everything a report needs.
 
     Attributes:
-        table: the long results table, one row per (member, combination, check): KEY_COLUMNS,
-            then the intermediate values of each check (SI, names with unit suffixes).
+        table: the long results table, one row per (member, combination, check): KEY_COLUMNS
+            and what the checker marks beside them (analysis path, amplified part, member
+            bow), with a RangeIndex: row labels 0..n-1 address `values`.
+        values: the intermediate values of each check (SI, names with unit suffixes), kept
+            apart from the table (`postproc.model.check_values`); `with_values` joins them.
         members: the design members used.
         stability: per combination: alpha_cr, sway_mode, path, amplification, reason.
         lengths: per (member, combination): buckling lengths and where they came from.
@@ -48,6 +52,14 @@ class CheckOutcome:
     value_columns: dict[str, tuple[str, ...]] = field(default_factory=dict)
     frame: Frame | None = None
     member_settings: pd.DataFrame = field(default_factory=pd.DataFrame)
+    values: CheckValues = field(default_factory=CheckValues)
+
+    def with_values(self, rows: pd.DataFrame | None = None,
+                    columns: list[str] | None = None) -> pd.DataFrame:
+        """Rows of the long table (all, or a subset of `table`) with each check's values
+        (all, or `columns`) after the key columns: the wide table. On a large job, ask for a
+        slice at a time."""
+        return self.values.join(self.table if rows is None else rows, columns)
 
     @property
     def counts(self) -> dict[str, int]:

@@ -98,17 +98,17 @@ def write_report_outputs(outcome: CheckOutcome, folder: Path, summary: pd.DataFr
     table = outcome.table
     if not options.summary_only:
         with stages.stage("writing the long table (Parquet)"):
-            write_parquet(table, folder / "utilisation.parquet")
+            write_parquet(table, folder / "utilisation.parquet", outcome.values)
         written["utilisation.parquet"] = REPORT_FILES["utilisation.parquet"]
         if csv_wanted(table, options):
             with stages.stage("writing the long table (CSV)"):
-                formula_safe_table(to_display(table)).to_csv(folder / "utilisation.csv",
-                                                              index=False, float_format="%.6g")
+                formula_safe_table(to_display(outcome.with_values())).to_csv(
+                    folder / "utilisation.csv", index=False, float_format="%.6g")
             written["utilisation.csv"] = REPORT_FILES["utilisation.csv"]
     inline = len(summary) <= options.inline_sheet_limit
     sections: list[str] = []
     if not options.summary_only:
-        governing = governing_checks(table)
+        governing = governing_checks(table, outcome.values)
 
         def write_book() -> None:
             settings = pd.DataFrame(
@@ -158,8 +158,9 @@ def _write_sheets(outcome: CheckOutcome, folder: Path, summary: pd.DataFrame,
     # the sheets read only a few columns of every row (the values come from `governing`), and
     # each member's rows as one contiguous slice of member-sorted tables: cheap on a wide table
     # (only the member-sorted copy is kept)
-    rows_of = member_slices(outcome.table[[c for c in SHEET_ROW_COLUMNS
-                                           if c in outcome.table.columns]])
+    rows_of = member_slices(outcome.with_values(
+        outcome.table[[c for c in SHEET_ROW_COLUMNS if c in outcome.table.columns]],
+        columns=SHEET_ROW_COLUMNS))
     governing_of = member_records(governing)
     lengths_of = member_slices(outcome.lengths)
     stations_of = member_slices(outcome.stations)

@@ -8,6 +8,7 @@ from pathlib import Path
 import numpy as np
 import pandas as pd
 
+from ..model.check_values import CheckValues
 from .cells import formula_safe, formula_safe_table
 from .display import to_display
 
@@ -23,20 +24,34 @@ XLSX_MAX_ROWS = 1_048_575  # rows below the header that one worksheet holds
 PARQUET_CHUNK_ROWS = 500_000
 
 
-def _arrow_kinds(table: pd.DataFrame) -> dict[str, str]:
-    """For each object column, the one type Parquet stores it as, decided on the whole column:
-    'boolean' where every cell is a boolean, 'string' where any is text, 'number' where every
-    cell is a number, 'mixed' (text and numbers, kept as text)."""
+NUMBER_KINDS = ("floating", "integer", "mixed-integer-float", "decimal")
+
+
+def _kind(inferred: list[str]) -> str:
+    """One Parquet kind from what pandas infers on a column (or on each of its pieces):
+    'boolean' where every cell is a boolean, 'string' where every cell is text, 'number' where
+    every cell is a number, 'mixed' (text and numbers, kept as text)."""
+    found = {k for k in inferred if k != "empty"}
+    if not found or found == {"string"}:
+        return "string"
+    if found == {"boolean"}:
+        return "boolean"
+    if found <= set(NUMBER_KINDS):
+        return "number"
+    return "mixed"
+
+
+def _arrow_kinds(table: pd.DataFrame, values: CheckValues | None = None) -> dict[str, str]:
+    """For each object column, the one type Parquet stores it as, decided on the whole column
+    (for check values, on every part of it): see `_kind`."""
     kinds = {}
     for column in table.columns:
-        values = table[column]
-        if not pd.api.types.is_object_dtype(values):
-            continue
-        kind = pd.api.types.infer_dtype(values, skipna=True)  # one pass in C
-        kinds[column] = ("boolean" if kind == "boolean" else
-                         "string" if kind in ("string", "empty") else
-                         "number" if kind in ("floating", "integer", "mixed-integer-float",
-                                              "decimal") else "mixed")
+        if pd.api.types.is_object_dtype(table[column]):
+            kinds[column] = _kind([pd.api.types.infer_dtype(table[column], skipna=True)])
+    if values is not None:
+        for column, dtype in values.dtypes.items():
+            if column not in kinds and dtype == np.dtype(object):
+                kinds[column] = _kind(values.kinds_of(column))
     return kinds
 
 
@@ -61,20 +76,23 @@ def arrow_ready(table: pd.DataFrame) -> pd.DataFrame:
     return out
 
 
-def write_parquet(table: pd.DataFrame, path: Path) -> None:
-    """The long results table in SI, column names as in the checker (unit suffixes).
+def write_parquet(table: pd.DataFrame, path: Path, values: CheckValues | None = None) -> None:
+    """The long results table in SI, column names as in the checker (unit suffixes), with each
+    check's values joined from `values`.
 
-    Written PARQUET_CHUNK_ROWS rows at a time (one row group each), with each column's type
-    decided on the whole table first: the same file content as converting the whole table at
-    once, without a second copy of a large table in memory."""
+    Written PARQUET_CHUNK_ROWS rows at a time (one row group each, its values joined there),
+    with each column's type decided on the whole table first: the same file content as
+    converting the whole wide table at once, without it in memory."""
     import pyarrow as pa
     import pyarrow.parquet as pq
 
-    kinds = _arrow_kinds(table)
+    kinds = _arrow_kinds(table, values)
     writer = None
     try:
         for a in range(0, max(len(table), 1), PARQUET_CHUNK_ROWS):
             part = table.iloc[a:a + PARQUET_CHUNK_ROWS]
+            if values is not None:
+                part = values.join(part)
             if kinds:
                 part = part.assign(**{c: _as_kind(part[c], k) for c, k in kinds.items()})
             arrow = pa.Table.from_pandas(part, preserve_index=False,

@@ -6,16 +6,18 @@ from __future__ import annotations
 import numpy as np
 import pandas as pd
 
+from ..model.check_values import CheckValues
 from ..model.rows import NOT_EVALUATED
 
 __all__ = ["combination_utilisations", "governing_checks", "not_evaluated_cells"]
 
 
-def governing_checks(table: pd.DataFrame) -> pd.DataFrame:
+def governing_checks(table: pd.DataFrame, values: CheckValues | None = None) -> pd.DataFrame:
     """One row per (member, check): the evaluated row of largest utilisation, or where the check
-    was never evaluated for the member, its first not-evaluated row (with the reason)."""
+    was never evaluated for the member, its first not-evaluated row (with the reason); with
+    each check's values joined from `values` (the table's row labels address them)."""
     if table.empty:
-        return table.copy()
+        return table.copy() if values is None else values.join(table.copy())
     # ranked on the four key columns alone; only the chosen rows of the wide table are taken
     ranked = pd.DataFrame({
         "member": table["member"].reset_index(drop=True),
@@ -25,7 +27,10 @@ def governing_checks(table: pd.DataFrame) -> pd.DataFrame:
     ranked = ranked.sort_values(["member", "check", "_evaluated", "_u"],
                                 ascending=[True, True, False, False], kind="stable")
     first = ranked.index[~ranked.duplicated(["member", "check"]).to_numpy()]
-    return table.take(first).reset_index(drop=True)
+    chosen = table.take(first)
+    if values is not None:
+        chosen = values.join(chosen)
+    return chosen.reset_index(drop=True)
 
 
 def combination_utilisations(rows: pd.DataFrame) -> pd.DataFrame:

@@ -26,7 +26,7 @@ EVERY = 3
 
 def regression_rows(example: str) -> pd.DataFrame:
     """Every EVERY-th row of the example's results table, the pinned columns."""
-    table = run_project(ROOT / "examples" / example / "project.toml").outcome.table
+    table = run_project(ROOT / "examples" / example / "project.toml").outcome.with_values()
     picked = table.iloc[::EVERY][[*KEYS, "status", *VALUES]].astype({k: str for k in KEYS})
     return picked.assign(example=example)[["example", *KEYS, "status", *VALUES]]
 
