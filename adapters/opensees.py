@@ -31,7 +31,7 @@ from postproc.project_schema import SCRIPT_TIME_LIMIT_S, OpenSeesModel
 
 from .opensees_export import export_tables
 from .opensees_model import Captured, axis_map, import_opensees, read_domain, run_user_model, to_en
-from .opensees_run import Job, clear_patterns, forces_along, run_jobs, station_grid
+from .opensees_run import Job, Outcome, clear_patterns, forces_along, run_jobs, station_grid
 
 MODEL_KEYS = set(OpenSeesModel.model_fields)  # the project schema's [model] keys
 ANALYSES = ("linear", "p-delta")
@@ -132,7 +132,7 @@ def load_table(project: dict, project_path: Path) -> tuple[Frame, Results]:
                          file=file, field="model.major_axis")
     cases = load_cases(project.get("load_cases", {}), captured.patterns, file=file)
     factors = loads.project_combinations(cases, project.get("combinations", {}), file=file)
-    notes = (factors.attrs["note"],)
+    notes: tuple[str, ...] = (factors.attrs["note"],)
     frame = build_frame(captured, model, project, watched, major_axis=opt.major_axis, file=file,
                         script=opt.script)
     clear_patterns(ops)
@@ -142,11 +142,14 @@ def load_table(project: dict, project_path: Path) -> tuple[Frame, Results]:
     names = list(dict.fromkeys(factors["combination"]))
     kinds = factors.groupby("combination", sort=False)["kind"].first()
     matrix = _factor_matrix(factors, names, patterns, pattern_of)
-    run = dict(script=str(opt.script), builder=opt.builder, pdelta=pdelta,
-               processes=opt.processes)
+
+    def run(jobs: list[Job]) -> list[Outcome]:  # every analysis with the script's options
+        return run_jobs(ops, captured, jobs, script=str(opt.script), builder=opt.builder,
+                        pdelta=pdelta, processes=opt.processes)
+
     if not pdelta:
         jobs = [Job(f"load case {c}", {p: 1.0}) for c, p in zip(cases["load_case"], patterns)]
-        outcomes = run_jobs(ops, captured, jobs, **run)
+        outcomes = run(jobs)
         sets = _superpose_outcomes(outcomes, matrix, names, list(cases["load_case"]))
         set_kinds = [kinds[n] for n in names]
     else:
@@ -155,7 +158,7 @@ def load_table(project: dict, project_path: Path) -> tuple[Frame, Results]:
         jobs, rows, set_names = opensees_sway.jobs(frame, captured, matrix, names,
                                                    [kinds[n] for n in names], patterns,
                                                    model.get("imperfection", {}), file=file)
-        outcomes = run_jobs(ops, captured, jobs, **run)
+        outcomes = run(jobs)
         sets = [(o.end_forces, o.displacements, o.reactions, o.error) for o in outcomes]
         set_kinds = [kinds[names[r]] for r in rows]
         matrix, names = matrix[rows], set_names
@@ -207,11 +210,11 @@ def build_frame(captured: Captured, model: dict, project: dict, watched, *, majo
     sections = build_sections(specs, file=file)
     axes = axis_map(captured, major_axis)
     vz = axes[:, 1, :]
-    release_i, release_j = _releases(watched, els.index, major_axis)
+    declared_i, declared_j = _releases(watched, els.index, major_axis)
     truss = els["truss"].to_numpy(bool)
     pinned = "My" if captured.ndm == 2 else "My Mz"
-    release_i = np.where(truss, pinned, release_i)
-    release_j = np.where(truss, pinned, release_j)
+    release_i = np.where(truss, pinned, declared_i)
+    release_j = np.where(truss, pinned, declared_j)
     elements = pd.DataFrame({
         "node_i": els["node_i"].to_numpy(), "node_j": els["node_j"].to_numpy(),
         "section": designation, "grade": grade,
@@ -282,7 +285,7 @@ def _releases(watched, elements: pd.Index, major_axis: str) -> tuple[list[str], 
     out_i, out_j = [], []
     for element in elements:
         _, args = watched.elements.get(int(element), ("", ()))
-        ends = {"i": [], "j": []}
+        ends: dict[str, list[str]] = {"i": [], "j": []}
         for flag, action in (("-release", about_z), ("-releasez", about_z), ("-releasey", about_y)):
             if flag in args:
                 code = int(args[args.index(flag) + 1])

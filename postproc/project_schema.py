@@ -216,7 +216,8 @@ def design_model() -> type[BaseModel]:
     """[design] as a pydantic model built from the DesignSettings fields: the annotation is the
     type, `limits(...)` metadata the range (see postproc/settings.py)."""
     hints = get_type_hints(DesignSettings, include_extras=True)
-    spec = {}
+    # field name -> (annotation, default): Any, as the annotations are built at run time
+    spec: dict[str, Any] = {}
     for f in fields(DesignSettings):
         kind = hints[f.name]
         bounds = dict(f.metadata.get("bounds", {}))
@@ -281,7 +282,7 @@ def validate_project(raw: dict, *, file: str) -> tuple[ProjectFile, BaseModel, d
         model = route.model_validate(project.model)
     except ValidationError as exc:
         raise _input_error(exc, route, file=file, prefix=("model",)) from None
-    if source == "opensees" and model.analysis != "p-delta":
+    if isinstance(model, OpenSeesModel) and model.analysis != "p-delta":
         for key in P_DELTA_ONLY:
             if key in project.model:
                 raise InputError(f"[model] {key} is used only with analysis = \"p-delta\"; this "

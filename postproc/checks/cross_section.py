@@ -44,6 +44,7 @@ NOISE times the section's own capacity are taken as exactly 0 (numerical noise o
 
 from __future__ import annotations
 
+from collections.abc import Callable, Mapping
 from functools import partial
 
 import numpy as np
@@ -153,7 +154,7 @@ class _Rows:
         self.sigma_com[at] = np.where(c4[at], sigma, np.nan)
         return out
 
-    def effective_values(self) -> dict[str, object]:
+    def effective_values(self) -> dict[str, _Value]:
         """The effective properties, shown where the governing station is class 4, and psi,
         lambda_p and rho of the web and flange under that station's stresses."""
         names = ([eff_rows.column_name(k) for k in eff_rows.VALUE_KEYS]
@@ -161,7 +162,7 @@ class _Rows:
         if not self.effective.any():  # no class 4 station here: the same columns, all NaN
             blank = np.full((self.R, 1), np.nan)
             return dict.fromkeys(names, blank)
-        out: dict[str, object] = {eff_rows.column_name(k): _Later(_where_nan, self.effective,
+        out: dict[str, _Value] = {eff_rows.column_name(k): _Later(_where_nan, self.effective,
                                                                   self.e(k))
                                   for k in eff_rows.VALUE_KEYS}
         for key in STRESS_KEYS:
@@ -240,7 +241,8 @@ class _Reasons:
     def at(self, idx: np.ndarray) -> np.ndarray:
         util, cases = self.util, self.cases
         nan = np.isnan(util)
-        codes = np.zeros(util.shape, np.int8)
+        # annotated: numpy's stubs type zeros() of an unknown shape as 0-d
+        codes: np.ndarray = np.zeros(util.shape, np.int8)
         codes[nan] = len(cases) + 1                      # 'could not be evaluated'
         for k in range(len(cases) - 1, -1, -1):          # earlier cases win
             codes[nan & np.broadcast_to(cases[k][0], util.shape)] = k + 1
@@ -264,11 +266,16 @@ class _Coded:
 class _Later:
     """An elementwise function of (R, S) values, applied only at the governing station."""
 
-    def __init__(self, function, *arrays) -> None:
+    def __init__(self, function: Callable[..., np.ndarray], *arrays: _Value) -> None:
         self.function, self.arrays = function, arrays
 
 
-def _pick(c: _Rows, value, idx: np.ndarray) -> np.ndarray:
+# a value of a block before the governing station is picked: an array that broadcasts to (R, S),
+# text codes, or a function of such values
+_Value = np.ndarray | _Coded | _Later
+
+
+def _pick(c: _Rows, value: _Value, idx: np.ndarray) -> np.ndarray:
     """One station per row (idx) of a value that broadcasts to (R, S)."""
     if isinstance(value, _Coded):
         return value.texts[_pick(c, value.codes, idx)]
@@ -281,7 +288,7 @@ def _pick(c: _Rows, value, idx: np.ndarray) -> np.ndarray:
 
 
 def _block(c: _Rows, check: str, clause: str, util: np.ndarray, reason: _Reasons,
-           applies: np.ndarray, values: dict[str, np.ndarray],
+           applies: np.ndarray, values: Mapping[str, _Value],
            nan_station=None) -> CheckBlock:
     """Reduce (R, S) results to the governing station per row; a NaN at a real station makes the
     row not evaluated, reported at that station (or at `nan_station`: (R,) station indices, or a
@@ -574,7 +581,7 @@ def _bending_and_axial(c: _Rows, sv: dict[str, np.ndarray]) -> list[CheckBlock]:
     # unknown class and NaN forces stay with the plastic criterion, which then is not evaluated
     at_pl, at_el, at_eff = combined & ~elastic_side, combined & c.elastic, combined & class_4
     no_geometry = c.plastic & ~(is_I | is_RHS | is_CHS) & (N != 0.0)
-    common = {"N_Ed_N": N, "M_y_Ed_Nm": My, "M_z_Ed_Nm": Mz, "rho": sv["rho"],
+    common: dict[str, _Value] = {"N_Ed_N": N, "M_y_Ed_Nm": My, "M_z_Ed_Nm": Mz, "rho": sv["rho"],
               "N_V_Rd_N": _Later(_where_nan, shear, N_V),
               "M_y_V_Rd_Nm": _Later(_where_nan, shear, sv["M_y_V_Rd_Nm"]),
               "M_z_V_Rd_Nm": _Later(_where_nan, shear, sv["M_z_V_Rd_Nm"]), **c.common()}

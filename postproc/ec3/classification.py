@@ -42,6 +42,7 @@ Parts (plate dimensions from the sections table, see `postproc.sections`):
 from __future__ import annotations
 
 import numpy as np
+from numpy.typing import ArrayLike
 
 __all__ = ["Array", "chs_limits", "class_from_limits", "epsilon", "internal_part_limit_elastic",
            "internal_part_limits_plastic", "k_sigma_outstand", "outstand_limit_elastic",
@@ -77,7 +78,7 @@ def internal_part_limits_plastic(alpha: Array, eps: Array) -> tuple[Array, Array
     return lim_1, lim_2
 
 
-def internal_part_limit_elastic(psi: Array, eps: Array) -> Array:
+def internal_part_limit_elastic(psi: ArrayLike, eps: Array) -> Array:
     """EN 1993-1-1:2005, 5.5.2, Table 5.2 (sheet 1).
 
     Class 3 c/t limit of internal compression parts.
@@ -109,7 +110,7 @@ def outstand_limits_plastic(alpha: Array, tip_in_compression: Array, eps: Array
         return 9.0 * eps / denominator, 10.0 * eps / denominator
 
 
-def k_sigma_outstand(psi: Array, tip_in_compression: Array) -> Array:
+def k_sigma_outstand(psi: ArrayLike, tip_in_compression: ArrayLike) -> Array:
     """EN 1993-1-5:2006, 4.4, Table 4.2.
 
     Buckling factor k_sigma of an outstand compression element.
@@ -129,7 +130,7 @@ def k_sigma_outstand(psi: Array, tip_in_compression: Array) -> Array:
     return np.where(tip_in_compression, k_tip, k_root)
 
 
-def outstand_limit_elastic(psi: Array, tip_in_compression: Array, eps: Array) -> Array:
+def outstand_limit_elastic(psi: ArrayLike, tip_in_compression: ArrayLike, eps: Array) -> Array:
     """EN 1993-1-1:2005, 5.5.2, Table 5.2 (sheet 2).
 
     Class 3 c/t limit of outstand flanges.

@@ -68,6 +68,7 @@ def _block(xi, M, L, E, G, I_z, I_t, I_w, k, k_w, z_g, n, peak) -> np.ndarray:
     height = np.zeros(R, bool) if z_g is None else np.nan_to_num(z_g) != 0.0
     I_mm, I_sq, F_ss, order = _work_integrals(xi, m, n, with_point_loads=bool(height.any()),
                                               with_square=True, packed=True)
+    assert I_sq is not None  # asked for (with_square)
     packed = I_sq.ndim == 2  # else rows integrated one by one: full matrices
     # G_ij = int M u_i'' phi_j dx = -(i pi/L)^2 L int_0^1 m s_i s_j dxi. Scaled by K^-1/2 on both
     # sides, (i pi/L)^2 cancels against sqrt(K_u,i): B = K_u^-1/2 G K_phi^-1/2 = I_mm diag(d).
@@ -94,6 +95,7 @@ def _block(xi, M, L, E, G, I_z, I_t, I_w, k, k_w, z_g, n, peak) -> np.ndarray:
         # with a load height the reduced problem is quadratic in lambda:
         # (I + lambda Q~) c = lambda^2 A c, Q~ = K_phi^-1/2 Q K_phi^-1/2, A = B^T B, with
         # Q_jl = int q_z z_g s_j s_l dx, q_z = -M'': point loads F at the interior stations
+        assert I_mm is not None and F_ss is not None  # a load height asks for both
         h = np.flatnonzero(height)
         Q = (z_g[h] / L[h])[:, None, None] * F_ss[h]
         Q_t = Q / np.sqrt(K_phi[h][:, :, None] * K_phi[h][:, None, :])
@@ -154,8 +156,8 @@ def _largest_eigenvalue(P: np.ndarray, n: int, index: np.ndarray, *,
         return mu
     diag = index[:: n + 1]
     identity = index.size == P.shape[1] and np.array_equal(index, np.arange(index.size))
-    i_up, l_up = np.triu_indices(n)
-    i_up, l_up = i_up.tolist(), l_up.tolist()
+    triangle = np.triu_indices(n)
+    i_up, l_up = triangle[0].tolist(), triangle[1].tolist()
 
     def entries(sel) -> np.ndarray:  # the (packed or full) entries of the rows sel
         if scale is None:
@@ -392,21 +394,22 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
         return np.zeros((0, n, n)), np.zeros((0, n, n)), np.zeros((0, n, n)), None
     # I itself is needed with a load height (and to square it row by row); else only I @ I
     need_I = with_point_loads or not with_square or patterns.shape[0] > MAX_GROUPS
-    I_mm = np.empty((R, n * n)) if need_I else None
+    I_mm: np.ndarray | None = np.empty((R, n * n)) if need_I else None
     by_pattern = patterns.shape[0] <= MAX_GROUPS
     packed = packed and by_pattern
     one = patterns.shape[0] == 1
-    I_sq = (np.empty((R, n * (n + 1) // 2 if packed else n * n))
-            if with_square and not (packed and one) else None)
+    I_sq: np.ndarray | None = (np.empty((R, n * (n + 1) // 2 if packed else n * n))
+                               if with_square and not (packed and one) else None)
     i_up, l_up = np.triu_indices(n)
     full_index = _full_index(n)  # upper triangle to full matrix
-    F_ss = np.empty((R, n * n)) if with_point_loads else None
+    F_ss: np.ndarray | None = np.empty((R, n * n)) if with_point_loads else None
     order = None
     if packed and with_square and not need_I and patterns.shape[0] > 1:
         order = np.argsort(inverse, kind="stable")  # rows grouped by pattern, in order within
         ends = np.cumsum(np.bincount(inverse, minlength=patterns.shape[0]))
     if patterns.shape[0] <= MAX_GROUPS:
         for g, pattern in enumerate(patterns):  # over distinct station patterns, not over rows
+            rows: slice | np.ndarray
             if patterns.shape[0] == 1:
                 rows = slice(None)
             elif order is not None:
@@ -417,7 +420,7 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
             # weights of each station's moment: the integrals of its hat function (S, n*n)
             W_g = _exact_integrals(np.broadcast_to(xi_g, (S, S)), np.eye(S), n)
             m_g = m[rows]
-            if need_I:
+            if I_mm is not None:  # need_I
                 I_mm[rows] = rows_matmul(m_g, W_g)
             if with_square:
                 # only stations whose hat function reaches into the segment carry weight (a
@@ -431,7 +434,7 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
                 twice = np.where(s_up == t_up, 2.0, 1.0)[:, None, None]
                 WW = (WW + WW.transpose(1, 0, 2, 3))[s_up, t_up] / twice
                 pairs = m_g[:, s_up] * m_g[:, t_up]
-                if packed and patterns.shape[0] == 1:
+                if I_sq is None:  # packed, one pattern: the product is the whole square
                     I_sq = rows_matmul(pairs, WW[:, i_up, l_up])
                 elif order is not None:  # straight into this pattern's block of rows
                     rows_matmul(pairs, WW[:, i_up, l_up],
@@ -439,18 +442,24 @@ def _work_integrals(xi: np.ndarray, m: np.ndarray, n: int, *, with_point_loads: 
                 else:
                     upper = rows_matmul(pairs, WW[:, i_up, l_up])
                     I_sq[rows] = upper if packed else upper[:, full_index]
-            if with_point_loads:
+            if F_ss is not None:  # with_point_loads
                 s_st = np.sin(np.pi * np.nan_to_num(xi_g)[:, None] * j[None, :])
                 Wq = (s_st[:, :, None] * s_st[:, None, :]).reshape(S, n * n)
                 F_ss[rows] = rows_matmul(m[rows], _kink_matrix(xi_g) @ Wq)
     else:
-        I_mm[:] = _exact_integrals(xi, m, n)
-        if with_point_loads:
+        I_mm = _exact_integrals(xi, m, n)  # row by row (need_I)
+        if F_ss is not None:
             F_ss[:] = _point_load_integrals_rows(xi, m, j)
-    I_mm = I_mm.reshape(R, n, n) if need_I else None
+    if I_mm is not None:
+        I_mm = I_mm.reshape(R, n, n)
     if with_square and not packed:
-        I_sq = I_sq.reshape(R, n, n) if by_pattern else I_mm @ I_mm
-    return I_mm, I_sq, (F_ss.reshape(R, n, n) if with_point_loads else None), order
+        if by_pattern:
+            assert I_sq is not None  # allocated for the full matrices, filled above
+            I_sq = I_sq.reshape(R, n, n)
+        else:
+            assert I_mm is not None  # row by row: need_I
+            I_sq = I_mm @ I_mm
+    return I_mm, I_sq, (F_ss.reshape(R, n, n) if F_ss is not None else None), order
 
 
 def _full_index(n: int) -> np.ndarray:

@@ -77,7 +77,7 @@ class _Row:
     def number(self, field: str, *, required: bool, allow_zero: bool = False) -> float:
         """A positive number (mm, cm2 ...) from `field`; NaN when blank and not required."""
         value = self.record.get(field)
-        if _blank(value):
+        if value is None or _blank(value):
             if required:
                 raise self.error("value missing; a positive number is required", field)
             return np.nan
@@ -95,8 +95,8 @@ class _Row:
         return number
 
 
-def _empty_record() -> dict:
-    rec = {c: np.nan for c in COLUMNS}
+def _empty_record() -> dict[str, object]:
+    rec: dict[str, object] = {c: np.nan for c in COLUMNS}
     rec.update(shape="", fabrication="", designation="")
     return rec
 
@@ -230,7 +230,7 @@ def _generic(row: _Row) -> dict:
 
 def _given_class(row: _Row) -> float:
     value = row.record.get("class")
-    if _blank(value):
+    if value is None or _blank(value):
         return np.nan
     try:
         number = float(value)

@@ -38,6 +38,7 @@ from __future__ import annotations
 
 import numpy as np
 import pandas as pd
+from numpy.typing import ArrayLike
 
 from ..errors import InputError
 from ..model.frame import NODE_COLUMNS, Frame, local_axes, released
@@ -67,7 +68,7 @@ SWAY_PATHS = ("second-order needed", "unstable", "not evaluated")
 OVERRIDE_COLUMNS = ["L_cr_y_m", "L_cr_z_m", "L_LT_m", "L_cr_T_m"]
 
 
-def effective_length_ratio(eta_1: np.ndarray, eta_2: np.ndarray, *, sway: bool) -> np.ndarray:
+def effective_length_ratio(eta_1: ArrayLike, eta_2: ArrayLike, *, sway: bool) -> np.ndarray:
     """ENV 1993-1-1:1992, Annex E, eqs. (E.1) and (E.2) (from memory): L_cr / L from end restraint.
 
     eta_1, eta_2: distribution factors at the ends, 0 (rigidly held against rotation) to 1
