@@ -87,22 +87,47 @@ def write_parquet(table: pd.DataFrame, path: Path, values: CheckValues | None = 
     import pyarrow.parquet as pq
 
     kinds = _arrow_kinds(table, values)
+    key_kinds = {c: k for c, k in kinds.items() if c in table.columns}
     writer = None
     try:
         for a in range(0, max(len(table), 1), PARQUET_CHUNK_ROWS):
-            part = table.iloc[a:a + PARQUET_CHUNK_ROWS]
-            if values is not None:
-                part = values.join(part)
-            if kinds:
-                part = part.assign(**{c: _as_kind(part[c], k) for c, k in kinds.items()})
-            arrow = pa.Table.from_pandas(part, preserve_index=False,
-                                         schema=writer.schema if writer is not None else None)
+            keys = table.iloc[a:a + PARQUET_CHUNK_ROWS]
+            if key_kinds:
+                keys = keys.assign(**{c: _as_kind(keys[c], k) for c, k in key_kinds.items()})
+            arrow = pa.Table.from_pandas(keys, preserve_index=False)
+            if values is not None and len(values):
+                arrow = _with_value_columns(arrow, keys, values, kinds)
             if writer is None:
                 writer = pq.ParquetWriter(path, arrow.schema)
+            else:
+                arrow = arrow.cast(writer.schema)  # a slice's all-empty text column: nulls
             writer.write_table(arrow)
     finally:
         if writer is not None:
             writer.close()
+
+
+def _with_value_columns(arrow, keys: pd.DataFrame, values: CheckValues,
+                        kinds: dict[str, str]):
+    """A slice's key columns (Arrow) with the check values of its rows added column by
+    column, straight from the values' arrays (no wide pandas frame in between), and the pandas
+    schema description a wide frame of the same columns would carry."""
+    import pyarrow as pa
+
+    columns = values.columns_at(keys.index.to_numpy())
+    arrays = list(arrow.columns)
+    names = list(arrow.column_names)
+    for name, column in columns.items():
+        if name in kinds:
+            column = _as_kind(pd.Series(column, copy=False), kinds[name]).array
+        arrays.append(pa.array(column, from_pandas=True))
+        names.append(name)
+    # the schema (and its pandas description) of a wide frame with these columns, from its
+    # first row
+    head = values.join(keys.iloc[:1])
+    head = head.assign(**{c: _as_kind(head[c], k) for c, k in kinds.items()})
+    schema = pa.Schema.from_pandas(head, preserve_index=False)
+    return pa.Table.from_arrays(arrays, schema=schema)
 
 
 def write_workbook(views: dict[str, pd.DataFrame], path: Path, *, notes: list[str],
