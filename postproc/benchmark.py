@@ -40,6 +40,7 @@ from .engine import iter_checks
 from .model.frame import Frame
 from .model.member_rows import build_member_rows
 from .model.members import one_member_per_element
+from .model.rows import CheckBlock, MemberRows
 from .sections import build_sections
 from .settings import DesignSettings
 
@@ -138,7 +139,8 @@ def run_checks(frame: Frame, forces: pd.DataFrame, lengths: pd.DataFrame,
     n = rows.n_rows
     limit = settings.utilisation_limit
 
-    def digest(part, blocks) -> tuple[list[str], np.ndarray, np.ndarray]:
+    def digest(part: MemberRows, blocks: list[CheckBlock]
+               ) -> tuple[list[str], np.ndarray, np.ndarray]:
         """Governing utilisation and status codes of a chunk, (rows, checks); on the worker."""
         util = np.stack([np.asarray(b.utilisation, float) for b in blocks], axis=1)
         applies = np.stack([np.asarray(b.applies, bool) for b in blocks], axis=1)
@@ -163,6 +165,8 @@ def run_checks(frame: Frame, forces: pd.DataFrame, lengths: pd.DataFrame,
         kept.status[start:stop] = status
         start = stop
         timings[KEEP_STAGE] = timings.get(KEEP_STAGE, 0.0) + time.perf_counter() - t0
+    # iter_checks yields at least one chunk (an empty one for no rows)
+    assert kept is not None
     return kept
 
 

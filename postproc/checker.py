@@ -14,7 +14,6 @@ family, 8. the long table.
 from __future__ import annotations
 
 from dataclasses import replace
-from typing import cast
 
 import numpy as np
 import pandas as pd
@@ -369,9 +368,8 @@ def _checked_parts(rows: MemberRows, families: list[CheckFamily],
 
     pieces: list[list[tuple[np.ndarray, np.ndarray, CheckBlock]]] = []
     covered = []
-    for _, digest in iter_checks(rows, families, overrides=overrides, keep=keep):
-        kept, chunk_covered = cast(tuple[list[tuple[np.ndarray, np.ndarray, CheckBlock]],
-                                         np.ndarray], digest)
+    for _, (kept, chunk_covered) in iter_checks(rows, families, overrides=overrides,
+                                                keep=keep):
         covered.append(chunk_covered)
         if not pieces:
             pieces = [[] for _ in kept]

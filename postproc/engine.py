@@ -17,6 +17,7 @@ import time
 from collections import deque
 from collections.abc import Callable, Iterator
 from concurrent.futures import Future, ThreadPoolExecutor
+from typing import Any, TypeVar, overload
 
 import pandas as pd
 
@@ -27,13 +28,29 @@ __all__ = ["CHUNK_ROWS", "CheckFamily", "iter_checks", "release_free_memory", "r
 
 CheckFamily = Callable[[MemberRows], list[CheckBlock]]
 CHUNK_ROWS = 20_000  # rows per chunk: (rows x stations) arrays of a few MB stay in cache
+Digest = TypeVar("Digest")  # what a caller's `keep` makes of a chunk's blocks
+
+
+@overload
+def iter_checks(rows: MemberRows, families: list[CheckFamily], *,
+                overrides: pd.DataFrame | None = None, chunk_rows: int = CHUNK_ROWS,
+                threads: int | None = None, timings: dict[str, float] | None = None,
+                keep: None = None) -> Iterator[tuple[MemberRows, list[CheckBlock]]]: ...
+
+
+@overload
+def iter_checks(rows: MemberRows, families: list[CheckFamily], *,
+                overrides: pd.DataFrame | None = None, chunk_rows: int = CHUNK_ROWS,
+                threads: int | None = None, timings: dict[str, float] | None = None,
+                keep: Callable[[MemberRows, list[CheckBlock]], Digest]
+                ) -> Iterator[tuple[MemberRows, Digest]]: ...
 
 
 def iter_checks(rows: MemberRows, families: list[CheckFamily], *,
                 overrides: pd.DataFrame | None = None, chunk_rows: int = CHUNK_ROWS,
                 threads: int | None = None, timings: dict[str, float] | None = None,
-                keep: Callable[[MemberRows, list[CheckBlock]], object] | None = None
-                ) -> Iterator[tuple[MemberRows, object]]:
+                keep: Callable[[MemberRows, list[CheckBlock]], Any] | None = None
+                ) -> Iterator[tuple[MemberRows, Any]]:
     """Section classes, member buckling values and every check family, chunk by chunk.
 
     Rows are independent, so they are cut into chunks that fit the processor caches and run on
@@ -59,7 +76,7 @@ def iter_checks(rows: MemberRows, families: list[CheckFamily], *,
             with lock:
                 timings[stage] = timings.get(stage, 0.0) + seconds
 
-    def one(bound: tuple[int, int]) -> tuple[MemberRows, list[CheckBlock]]:
+    def one(bound: tuple[int, int]) -> tuple[MemberRows, Any]:
         t0 = time.perf_counter()
         part = with_member_info(rows_slice(rows, *bound), overrides)
         add("classification and buckling values", time.perf_counter() - t0)
