@@ -120,7 +120,8 @@ def load_table(project: dict, project_path: Path) -> tuple[Frame, Results]:
                              time_limit_s=opt.time_limit_s)
     captured = read_domain(ops, watched, script=str(opt.script))
     if pdelta:
-        unseen = [e for e, t in zip(captured.elements.index, captured.elements["truss"])
+        unseen = [e for e, t in zip(captured.elements.index, captured.elements["truss"],
+                                    strict=True)
                   if not t and int(e) not in watched.elements]
         if unseen or not watched.transforms:
             raise InputError(f"element {unseen[0] if unseen else ''} was not built through "
@@ -137,7 +138,7 @@ def load_table(project: dict, project_path: Path) -> tuple[Frame, Results]:
                         script=opt.script)
     clear_patterns(ops)
 
-    pattern_of = dict(zip(cases["load_case"], cases["pattern"]))
+    pattern_of = dict(zip(cases["load_case"], cases["pattern"], strict=True))
     patterns = list(cases["pattern"])
     names = list(dict.fromkeys(factors["combination"]))
     kinds = factors.groupby("combination", sort=False)["kind"].first()
@@ -148,7 +149,8 @@ def load_table(project: dict, project_path: Path) -> tuple[Frame, Results]:
                         pdelta=pdelta, processes=opt.processes)
 
     if not pdelta:
-        jobs = [Job(f"load case {c}", {p: 1.0}) for c, p in zip(cases["load_case"], patterns)]
+        jobs = [Job(f"load case {c}", {p: 1.0})
+                for c, p in zip(cases["load_case"], patterns, strict=True)]
         outcomes = run(jobs)
         sets = _superpose_outcomes(outcomes, matrix, names, list(cases["load_case"]))
         set_kinds = [kinds[n] for n in names]
@@ -193,7 +195,7 @@ def build_frame(captured: Captured, model: dict, project: dict, watched, *, majo
     by_element = element_assignment(model.get("element_sections", {}),
                                     els.index.astype(str), file=file)
     designation, grade = [], []
-    for element, tag in zip(els.index, els["section_tag"]):
+    for element, tag in zip(els.index, els["section_tag"], strict=True):
         tag_key = "" if np.isnan(tag) else str(int(tag))
         name = by_element.get(element) or by_tag.get(tag_key)
         if name is None:
@@ -406,7 +408,7 @@ def _results(captured: Captured, matrix: np.ndarray, patterns: list[str],
     ok = [j for j, s in enumerate(sets) if not s[3]]
     # P-delta ULS runs carry the sway imperfection as equivalent horizontal forces (5.3.2(7));
     # linear runs do not, so members in a sway mode keep their sway buckling lengths
-    imperfect = [a == "second-order" and k == "ULS" for a, k in zip(analysis, kinds)]
+    imperfect = [a == "second-order" and k == "ULS" for a, k in zip(analysis, kinds, strict=True)]
     combos = pd.DataFrame({"kind": kinds, "analysis": analysis, "imperfections": imperfect,
                            "status": ["failed" if s[3] else "ok" for s in sets],
                            "message": [s[3] for s in sets]},

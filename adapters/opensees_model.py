@@ -396,7 +396,8 @@ def _loads(ops, watched: Watched, ndm: int, ndf: int, script: str
             node_parts.append(part)
         loads = list(ops.getEleLoadData(pattern))
         at = 0
-        for tag, cls in zip(ops.getEleLoadTags(pattern), ops.getEleLoadClassTags(pattern)):
+        for tag, cls in zip(ops.getEleLoadTags(pattern), ops.getEleLoadClassTags(pattern),
+                            strict=True):
             if cls not in LOAD_CLASSES:
                 raise InputError(f"load pattern {pattern} has an element load of class {cls} on "
                                  f"element {tag}; framesweep reads -beamUniform (full length, "

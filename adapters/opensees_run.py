@@ -71,7 +71,7 @@ def _apply(ops, captured: Captured, job: Job) -> None:
         if f == 0.0:
             continue
         rows = loads[loads["pattern"] == pattern]
-        for node, values in zip(rows["node"], rows[cols].to_numpy(float)):
+        for node, values in zip(rows["node"], rows[cols].to_numpy(float), strict=True):
             ops.load(int(node), *(f * values[nodal]))
         rows = captured.element_loads[captured.element_loads["pattern"] == pattern]
         for rec in rows.itertuples(index=False):
@@ -147,7 +147,8 @@ def _end_forces(ops, captured: Captured) -> np.ndarray:
     """(E, 2, 6) forces of the nodes on each element, OpenSees local axes, 6 per end."""
     out = np.zeros((len(captured.elements), 2, 6))
     columns = [0, 1, 5] if captured.ndm == 2 else list(range(6))
-    for k, (tag, truss) in enumerate(zip(captured.elements.index, captured.elements["truss"])):
+    for k, (tag, truss) in enumerate(zip(captured.elements.index, captured.elements["truss"],
+                                         strict=True)):
         if truss:  # tension N pulls node i's end towards -x and node j's towards +x
             N = ops.eleResponse(int(tag), "axialForce")[0]
             out[k, 0, 0], out[k, 1, 0] = -N, N
@@ -284,7 +285,7 @@ def station_grid(length: np.ndarray, point_a: pd.DataFrame, n: int) -> np.ndarra
     """
     base = np.linspace(0.0, 1.0, n)
     extra: list[list[float]] = [[] for _ in range(len(length))]
-    for e, a in zip(point_a["element_index"], point_a["a"]):
+    for e, a in zip(point_a["element_index"], point_a["a"], strict=True):
         extra[int(e)].append(float(a))
     rows = [np.unique(np.round(np.concatenate([base, np.array(x, float)]), 12)) for x in extra]
     width = max(len(r) for r in rows)

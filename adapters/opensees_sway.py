@@ -73,7 +73,7 @@ def jobs(frame: Frame, captured: Captured, matrix: np.ndarray, names: list[str],
     horizontal_axes = [0] if frame.ndm == 2 else [0, 1]
     out_jobs, rows, out_names = [], [], []
     for c, name in enumerate(names):
-        factors = {p: float(f) for p, f in zip(patterns, matrix[c]) if f != 0.0}
+        factors = {p: float(f) for p, f in zip(patterns, matrix[c], strict=True) if f != 0.0}
         if kinds[c] != "ULS":
             out_jobs.append(Job(name, factors, (), second_order=True))
             rows.append(c)

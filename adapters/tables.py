@@ -94,7 +94,7 @@ class Table:
             names = self._names(header)
         except (ValueError, UnicodeDecodeError, InputError):
             return False
-        text = [raw for raw, name in zip(header, names) if name in ids]
+        text = [raw for raw, name in zip(header, names, strict=True) if name in ids]
         try:
             table = csv.read_csv(self.path, convert_options=csv.ConvertOptions(
                 column_types={raw: (pa.string() if raw in text else pa.float64())

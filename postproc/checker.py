@@ -484,7 +484,7 @@ def _joined_parts(parts: list[tuple[int, dict[str, object]]]) -> pd.DataFrame:
     floats = [c for c in head.columns if dtypes[c] == np.dtype(np.float64)]
     block = np.empty((len(floats), n))  # every cell is written once below
     for i, column in enumerate(floats):
-        for (size, data), a in zip(parts, starts[:-1]):
+        for (size, data), a in zip(parts, starts[:-1], strict=True):
             block[i, a:a + size] = (np.asarray(data.pop(column), dtype=float) if column in data
                                     else np.nan)
     release_free_memory()  # the parts' float values, freed
@@ -500,7 +500,7 @@ def _joined_parts(parts: list[tuple[int, dict[str, object]]]) -> pd.DataFrame:
             continue
         cells = np.empty(n, dtype=object)
         cells.fill(np.nan)
-        for (size, data), a in zip(parts, starts[:-1]):
+        for (size, data), a in zip(parts, starts[:-1], strict=True):
             if column in data:
                 value = data.pop(column)
                 cells[a:a + size] = (value if isinstance(value, str) else

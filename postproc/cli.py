@@ -251,13 +251,13 @@ def _print_problems(output) -> None:
     combos = output.outcome.combinations
     if len(combos) and "status" in combos:
         failed = combos[combos["status"] != "ok"]
-        for name, message in zip(failed.index[:10], failed["message"].iloc[:10]):
+        for name, message in zip(failed.index[:10], failed["message"].iloc[:10], strict=True):
             print(f"framesweep: analysis of combination {name!r} failed ({output.frame.source}): "
                   f"{message}; its members are not evaluated", file=sys.stderr)
         if len(failed) > 10:
             print(f"framesweep: ... {len(failed) - 10} more failed combinations in stability.csv",
                   file=sys.stderr)
-    for where, text in zip(output.warnings["where"], output.warnings["warning"]):
+    for where, text in zip(output.warnings["where"], output.warnings["warning"], strict=True):
         print(f"framesweep: warning: {where}: {text}", file=sys.stderr)
 
 

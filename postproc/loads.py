@@ -113,7 +113,7 @@ def check_cases(cases: pd.DataFrame, *, file: str | None = None,
         row = int(rows[k]) if rows is not None else k + 1
         raise InputError(message, file=file, row=row, field=column)
 
-    for k, (name, category) in enumerate(zip(out["load_case"], out["category"])):
+    for k, (name, category) in enumerate(zip(out["load_case"], out["category"], strict=True)):
         if not isinstance(category, str) or category not in CATEGORIES:
             refuse(k, "category", f"load case {name!r} has category {category!r}; allowed: "
                    f"{', '.join(CATEGORIES)}")
@@ -207,7 +207,7 @@ def uls_count(cases: pd.DataFrame, *, method: str = "6.10", favourable_permanent
     """
     _check_options(method, favourable_permanent)
     cases = check_cases(cases)
-    category = dict(zip(cases["load_case"], cases["category"]))
+    category = dict(zip(cases["load_case"], cases["category"], strict=True))
     variable = cases[cases["category"] != PERMANENT]
     wind = {c for c, k in category.items() if k == "wind"}
     count = 1
@@ -265,8 +265,8 @@ def uls_combinations(cases: pd.DataFrame, *, method: str = "6.10",
     _refuse_too_many(uls_count(cases, method=method, favourable_permanent=favourable_permanent),
                      limit, "ULS")
     cases = check_cases(cases)
-    psi_0 = dict(zip(cases["load_case"], _psi_0(cases, psi)))
-    category = dict(zip(cases["load_case"], cases["category"]))
+    psi_0 = dict(zip(cases["load_case"], _psi_0(cases, psi), strict=True))
+    category = dict(zip(cases["load_case"], cases["category"], strict=True))
     permanent = cases.loc[cases["category"] == PERMANENT, "load_case"].tolist()
     variable = cases[cases["category"] != PERMANENT]
     combos: list[list[tuple[str, float]]] = []
@@ -310,7 +310,7 @@ def sls_characteristic_combinations(cases: pd.DataFrame, *, psi: Mapping[str, tu
     """
     _refuse_too_many(sls_count(cases), limit, "SLS")
     cases = check_cases(cases)
-    psi_0 = dict(zip(cases["load_case"], _psi_0(cases, psi)))
+    psi_0 = dict(zip(cases["load_case"], _psi_0(cases, psi), strict=True))
     permanent = cases.loc[cases["category"] == PERMANENT, "load_case"].tolist()
     variable = cases[cases["category"] != PERMANENT]
     combos = [[(c, 1.0) for c in permanent]]
@@ -329,7 +329,7 @@ def _long(combos: list[list[tuple[str, float]]], prefixes: list[str], kind: str)
     `attrs['generated']` and `attrs['identical']` count the term lists and the dropped repeats.
     """
     records, seen, names = [], set(), set()
-    for terms, prefix in zip(combos, prefixes):
+    for terms, prefix in zip(combos, prefixes, strict=True):
         key = tuple(sorted((c, round(f, 10)) for c, f in terms))
         if key in seen:
             continue

@@ -71,8 +71,10 @@ _TABLE_3_1: dict[str, tuple[float, ...]] = {
     "S460NH": (460, 560, 430, 550),
 }
 # S420 / S460 with no delivery letter: the lower of the N (EN 10025-3) and M (EN 10025-4) rows
-_TABLE_3_1["S420"] = tuple(min(a, b) for a, b in zip(_TABLE_3_1["S420N"], _TABLE_3_1["S420M"]))
-_TABLE_3_1["S460"] = tuple(min(a, b) for a, b in zip(_TABLE_3_1["S460N"], _TABLE_3_1["S460M"]))
+_TABLE_3_1["S420"] = tuple(min(a, b) for a, b in zip(_TABLE_3_1["S420N"], _TABLE_3_1["S420M"],
+                                                     strict=True))
+_TABLE_3_1["S460"] = tuple(min(a, b) for a, b in zip(_TABLE_3_1["S460N"], _TABLE_3_1["S460M"],
+                                                     strict=True))
 
 _ALIASES = {"S420H": "S420NH", "S460H": "S460NH"}
 

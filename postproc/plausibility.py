@@ -163,7 +163,7 @@ def _utilisations(outcome: CheckOutcome) -> list[tuple[str, str]]:
 
 def _element_member(outcome: CheckOutcome) -> dict[str, str]:
     pairs = outcome.members.member_elements
-    return dict(zip(pairs["element"].astype(str), pairs["member"].astype(str)))
+    return dict(zip(pairs["element"].astype(str), pairs["member"].astype(str), strict=True))
 
 
 def numerical_warnings(caught: list) -> pd.DataFrame:

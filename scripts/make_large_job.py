@@ -371,7 +371,7 @@ def main(argv: list[str] | None = None) -> None:
             "x [m]": np.floor(x.ravel() * 1e6) / 1e6,  # never past the end
             **{f"{c} [{u}]": (forces[..., k].ravel() / 1e3).round(6)
                for k, (c, u) in enumerate(zip(["N", "Vy", "Vz", "T", "My", "Mz"],
-                                              ["kN"] * 3 + ["kNm"] * 3))}}))
+                                              ["kN"] * 3 + ["kNm"] * 3, strict=True))}}))
         moved_rows.append(pd.DataFrame({
             "combination": name, "node": nodes.index,
             **{f"{c} [mm]": (moved[:, k] * 1e3).round(4) for k, c in enumerate(["ux", "uy", "uz"])},

@@ -17,7 +17,7 @@ EXACT = 1e-12  # factors are products of two decimal numbers: no tolerance neede
 
 def factors_of(table: pd.DataFrame, combination: str) -> dict[str, float]:
     rows = table[table["combination"] == combination]
-    return dict(zip(rows["load_case"], rows["factor"]))
+    return dict(zip(rows["load_case"], rows["factor"], strict=True))
 
 
 def find(table: pd.DataFrame, wanted: dict[str, float]) -> str:

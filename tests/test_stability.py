@@ -75,7 +75,8 @@ def constant_forces(axial: dict[str, dict[str, float]], frame: Frame) -> pd.Data
     rows = []
     length = dict(zip(frame.elements.index, np.linalg.norm(
         frame.nodes.loc[frame.elements["node_j"], ["x_m", "y_m", "z_m"]].to_numpy()
-        - frame.nodes.loc[frame.elements["node_i"], ["x_m", "y_m", "z_m"]].to_numpy(), axis=1)))
+        - frame.nodes.loc[frame.elements["node_i"], ["x_m", "y_m", "z_m"]].to_numpy(), axis=1),
+        strict=True))
     for c, per in axial.items():
         for e in frame.elements.index:
             for x in (0.0, length[e]):

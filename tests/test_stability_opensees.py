@@ -73,7 +73,8 @@ def to_frame(model) -> Frame:
     e = pd.DataFrame(elements, columns=["element", "node_i", "node_j", "section"])
     e = e.set_index("element").assign(grade="S355", vz_x=np.nan, vz_y=np.nan, vz_z=np.nan,
                                       release_i="", release_j="")
-    s = pd.DataFrame([(b, True, True, True, True, True, f) for b, f in zip(bases, fixed)],
+    s = pd.DataFrame([(b, True, True, True, True, True, f)
+                      for b, f in zip(bases, fixed, strict=True)],
                      columns=["node", "ux", "uy", "uz", "rx", "ry", "rz"]).set_index("node")
     return Frame(2, n, e, s, SECTIONS)
 
@@ -86,7 +87,7 @@ def build_opensees(model, transf: str, loads: dict[str, tuple[float, float]]) ->
     tag = {n: k + 1 for k, n in enumerate(nodes)}
     for n, (x, y) in nodes.items():
         ops.node(tag[n], x, y)
-    for b, f in zip(bases, fixed):
+    for b, f in zip(bases, fixed, strict=True):
         ops.fix(tag[b], 1, 1, 1 if f else 0)
     ops.geomTransf(transf, 1)
     for k, (_, i, j, sec) in enumerate(elements):

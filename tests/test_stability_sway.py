@@ -61,7 +61,7 @@ def own_results(frame: Frame, members, top_loads: dict[str, tuple[float, float]]
     rows = []
     lengths = np.linalg.norm(frame.nodes.loc[frame.elements["node_j"]].to_numpy(float)
                              - frame.nodes.loc[frame.elements["node_i"]].to_numpy(float), axis=1)
-    for k, (e, L) in enumerate(zip(frame.elements.index, lengths)):
+    for k, (e, L) in enumerate(zip(frame.elements.index, lengths, strict=True)):
         rows.append(("U1", e, 0.0, *(-act[first[k], :6])))
         rows.append(("U1", e, L, *act[last[k], 6:]))
     forces = pd.DataFrame(rows, columns=["combination", "element", "x_m", "N_N", "Vy_N", "Vz_N",

@@ -52,7 +52,7 @@ def results(f: Frame, per_element: dict[str, tuple[float, float]]) -> Results:
     ends = f.nodes.loc[f.elements["node_j"], ["x_m", "y_m"]].to_numpy() - \
         f.nodes.loc[f.elements["node_i"], ["x_m", "y_m"]].to_numpy()
     rows = []
-    for e, L in zip(f.elements.index, np.linalg.norm(ends, axis=1)):
+    for e, L in zip(f.elements.index, np.linalg.norm(ends, axis=1), strict=True):
         N, Vz = per_element.get(e, (0.0, 0.0))
         rows += [("U1", e, x, N, 0.0, Vz, 0.0, 0.0, 0.0) for x in (0.0, L)]
     combos = pd.DataFrame({"kind": ["ULS"], "analysis": ["first-order"], "status": ["ok"],

@@ -328,7 +328,7 @@ def _part_at_stress(key: str, keep: np.ndarray, N: np.ndarray, My: np.ndarray, M
     out = np.full(keep.shape, np.nan)
     at = np.flatnonzero(keep)
     if at.size:
-        section = {n: p[at] for n, p in zip(_STRESS_PROPS, props)}
+        section = {n: p[at] for n, p in zip(_STRESS_PROPS, props, strict=True)}
         section["shape"] = shape[at]
         out[at] = parts_at_stress(section, f_y[at], N[at], My[at], Mz[at])[key]
     return out

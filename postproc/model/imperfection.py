@@ -99,7 +99,7 @@ def equivalent_horizontal_forces(frame: Frame, vertical_node_loads: pd.DataFrame
     nodes = vertical_node_loads["node"].astype(str)
     V = pd.to_numeric(vertical_node_loads["V_N"], errors="coerce").to_numpy(float)
     known = set(frame.nodes.index.astype(str))
-    for k, (n, v) in enumerate(zip(nodes, V)):
+    for k, (n, v) in enumerate(zip(nodes, V, strict=True)):
         if n not in known:
             raise TopologyError(f"node '{n}' is not a node of the frame", row=k, field="node")
         if not np.isfinite(v):

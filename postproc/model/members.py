@@ -144,7 +144,7 @@ def _declared_nodes(frame: Frame, restraint_nodes: pd.DataFrame | None) -> pd.Da
                 raise InputError(f"column '{col}' is missing; restraint tables need columns "
                                  "node, direction", file=name, field=col)
         for k, (node, direction) in enumerate(zip(table["node"].astype(str),
-                                                  table["direction"].astype(str))):
+                                                  table["direction"].astype(str), strict=True)):
             file, row, entry = _entry(table, k, name)
             if node not in frame.nodes.index:
                 raise TopologyError(f"restraint at node '{node}', which is not a node of the "
@@ -226,19 +226,19 @@ class _Holding:
     def __init__(self, frame: Frame, declared: pd.DataFrame) -> None:
         self.ndm = frame.ndm
         xyz = frame.nodes[NODE_COLUMNS].astype(float)
-        self.xyz = dict(zip(xyz.index.astype(str), xyz.to_numpy()))
+        self.xyz = dict(zip(xyz.index.astype(str), xyz.to_numpy(), strict=True))
         el = frame.elements
         eids = el.index.astype(str).tolist()
         node_i = el["node_i"].astype(str).tolist()
         node_j = el["node_j"].astype(str).tolist()
-        self.ends = {e: (a, b) for e, a, b in zip(eids, node_i, node_j)}
+        self.ends = {e: (a, b) for e, a, b in zip(eids, node_i, node_j, strict=True)}
         self.at: dict[str, list[str]] = {}
-        for e, a, b in zip(eids, node_i, node_j):
+        for e, a, b in zip(eids, node_i, node_j, strict=True):
             self.at.setdefault(a, []).append(e)
             self.at.setdefault(b, []).append(e)
         pin_i, pin_j = moment_released(frame, "i"), moment_released(frame, "j")
         self.pinned = {}
-        for e, a, b, pa, pb in zip(eids, node_i, node_j, pin_i, pin_j):
+        for e, a, b, pa, pb in zip(eids, node_i, node_j, pin_i, pin_j, strict=True):
             self.pinned[(e, a)], self.pinned[(e, b)] = bool(pa), bool(pb)
         sup = frame.supports.reindex(columns=["ux", "uy", "uz", "rx", "ry", "rz"],
                                      fill_value=False).astype(bool)
@@ -246,7 +246,7 @@ class _Holding:
         self.support_trans: dict[str, np.ndarray] = {}
         self.support_rot: dict[str, np.ndarray] = {}
         held = sup[sup.any(axis=1)]
-        for n, row in zip(held.index, held.to_numpy(bool)):
+        for n, row in zip(held.index, held.to_numpy(bool), strict=True):
             trans, rot = row[:3].copy(), row[3:].copy()
             if frame.ndm == 2:
                 # a plane model says nothing out of plane: a support node is taken to be held
@@ -435,7 +435,7 @@ def design_members(frame: Frame, *, groups: dict[str, list[str]] | None = None,
     ids = el.index.astype(str).tolist()
     node_i = el["node_i"].astype(str).tolist()
     node_j = el["node_j"].astype(str).tolist()
-    ends = {e: (a, b) for e, a, b in zip(ids, node_i, node_j)}
+    ends = {e: (a, b) for e, a, b in zip(ids, node_i, node_j, strict=True)}
     section, grade = el["section"].tolist(), el["grade"].tolist()   # looked up per element
     chord, length = element_vectors(frame)
     if np.any(length <= 0.0):
@@ -557,10 +557,11 @@ def _classify(frame: Frame, members: pd.DataFrame, member_elements: pd.DataFrame
     # axial-only: bending released at the member's start and end
     pin_i, pin_j = moment_released(frame, "i"), moment_released(frame, "j")
     eid = frame.elements.index.astype(str)
-    pin = {e: (a, b) for e, a, b in zip(eid, pin_i, pin_j)}
+    pin = {e: (a, b) for e, a, b in zip(eid, pin_i, pin_j, strict=True)}
     # each member's first and last element along it (element, flipped), found once
     ordered = member_elements.sort_values("position")
-    ends = [dict(zip(part["member"], zip(part["element"], part["flipped"]))) for part in
+    ends = [dict(zip(part["member"], zip(part["element"], part["flipped"], strict=True),
+                     strict=True)) for part in
             (ordered.groupby("member", sort=False).head(1),
              ordered.groupby("member", sort=False).tail(1))]
     axial_only = np.zeros(len(members), dtype=bool)
@@ -578,7 +579,8 @@ def _classify(frame: Frame, members: pd.DataFrame, member_elements: pd.DataFrame
                   else (members.at[m, "end_node"], members.at[m, "start_node"]))
         rises.add(lo)
     on_roof = np.array([s not in rises and e not in rises
-                        for s, e in zip(members["start_node"], members["end_node"])], dtype=bool)
+                        for s, e in zip(members["start_node"], members["end_node"], strict=True)],
+                       dtype=bool)
     kind = np.full(len(members), "member", dtype=object)
     inclined = ~column & ~beam
     kind[inclined & ~axial_only & (slope <= RAFTER_MAX_SLOPE_DEG) & on_roof] = "rafter"
@@ -592,12 +594,12 @@ def _restraints(frame: Frame, members: pd.DataFrame, member_elements: pd.DataFra
                 g: nx.MultiGraph, holding: _Holding) -> pd.DataFrame:
     """Restraint points of each member from supports, framing members and declarations."""
     maxes = member_axes(frame, members, member_elements)
-    elem_member = dict(zip(member_elements["element"], member_elements["member"]))
+    elem_member = dict(zip(member_elements["element"], member_elements["member"], strict=True))
     by_member: dict[str, set] = {}
-    for m, e in zip(member_elements["member"], member_elements["element"]):
+    for m, e in zip(member_elements["member"], member_elements["element"], strict=True):
         by_member.setdefault(m, set()).add(e)
-    start_of = dict(zip(members.index, members["start_node"]))
-    end_of = dict(zip(members.index, members["end_node"]))
+    start_of = dict(zip(members.index, members["start_node"], strict=True))
+    end_of = dict(zip(members.index, members["end_node"], strict=True))
     rows = []
     for k, m in enumerate(members.index):
         ex, ey, ez = maxes[k]

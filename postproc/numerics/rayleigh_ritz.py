@@ -164,7 +164,8 @@ def _largest_eigenvalue(P: np.ndarray, n: int, index: np.ndarray, *,
             return P[sel]
         s_sel = scale[sel]
         A = np.empty((s_sel.shape[0], len(i_up)))
-        for q, (i, l) in enumerate(zip(i_up, l_up)):  # column by column: n (n + 1) / 2 of them
+        # column by column: n (n + 1) / 2 of them
+        for q, (i, l) in enumerate(zip(i_up, l_up, strict=True)):
             np.multiply(s_sel[:, i], s_sel[:, l], out=A[:, q])
         A *= P[sel]  # P_ij (s_i s_j), as P * (s s^T) of the full matrices
         return A
@@ -319,7 +320,7 @@ def _kink_matrix(xi: np.ndarray) -> np.ndarray:
     D = np.zeros((S, S))
     valid = np.flatnonzero(~np.isnan(xi))
     left = None  # last interval of non-zero length: (start, end)
-    for a, c in zip(valid[:-1], valid[1:]):  # over stations of one pattern only
+    for a, c in zip(valid[:-1], valid[1:], strict=True):  # over stations of one pattern only
         h = xi[c] - xi[a]
         if h <= 0.0:
             continue

@@ -52,7 +52,7 @@ def _by_member(table: pd.DataFrame) -> tuple[pd.DataFrame, dict[str, tuple[int, 
     ordered = table.sort_values("member", kind="stable", key=lambda m: m.astype(str))
     names = ordered["member"].astype(str).to_numpy()
     bounds = np.flatnonzero(np.r_[True, names[1:] != names[:-1], True])
-    return ordered, {names[a]: (a, b) for a, b in zip(bounds[:-1], bounds[1:])}
+    return ordered, {names[a]: (a, b) for a, b in zip(bounds[:-1], bounds[1:], strict=True)}
 
 
 def member_slices(table: pd.DataFrame):

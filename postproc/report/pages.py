@@ -58,7 +58,7 @@ def member_shading(summary: pd.DataFrame) -> pd.DataFrame:
     s = summary.set_index("member")
     u = s["max_utilisation"].astype(float)
     label = pd.Series([_member_label(m, float(uu), st, sec) for m, uu, st, sec in
-                       zip(s.index, u, s["status"], s["section"])], index=s.index)
+                       zip(s.index, u, s["status"], s["section"], strict=True)], index=s.index)
     return pd.DataFrame({"utilisation": u, "status": s["status"], "label": label})
 
 
@@ -85,7 +85,7 @@ def combination_shading(table: pd.DataFrame, combination: str, members: Iterable
     status[index.isin(fail.index)] = FAIL
     u = u.reindex(index)
     label = pd.Series([_member_label(m, float(uu), st, "") .replace(" ()", "")
-                       for m, uu, st in zip(index, u, status)], index=index)
+                       for m, uu, st in zip(index, u, status, strict=True)], index=index)
     return pd.DataFrame({"utilisation": u, "status": status, "label": label})
 
 
@@ -110,12 +110,12 @@ def histogram_svg(summary: pd.DataFrame) -> str:
     u = summary["max_utilisation"].astype(float).to_numpy()
     edges = np.linspace(0.0, 1.0, 11)
     counts = list(np.histogram(np.clip(u[np.isfinite(u) & (u <= 1.0)], 0, 1), bins=edges)[0])
-    labels = [f"{a:.1f}-{b:.1f}" for a, b in zip(edges[:-1], edges[1:])]
+    labels = [f"{a:.1f}-{b:.1f}" for a, b in zip(edges[:-1], edges[1:], strict=True)]
     counts += [int((u > 1.0).sum()), int((~np.isfinite(u)).sum())]
     labels += ["over 1.0", "none"]
     top = max(max(counts), 1)
     bars = []
-    for k, (n, lab) in enumerate(zip(counts, labels)):
+    for k, (n, lab) in enumerate(zip(counts, labels, strict=True)):
         x = 40 + k * 46
         h = 150 * n / top
         if k < 10:

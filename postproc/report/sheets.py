@@ -251,9 +251,9 @@ def _others_html(others: pd.DataFrame, not_evaluated: set, limit: float) -> str:
     head = "".join(f"<th>{esc(str(c))}</th>" for c in others.columns)
     body = []
     checks = [str(c) for c in others.columns]
-    for combo, values in zip(others.index, others.to_numpy(float)):
+    for combo, values in zip(others.index, others.to_numpy(float), strict=True):
         cells = []
-        for check, u in zip(checks, values):
+        for check, u in zip(checks, values, strict=True):
             if (str(combo), str(check)) in not_evaluated:
                 cells.append("<td class='ne'>? n/e</td>")
             elif np.isfinite(u):
@@ -292,7 +292,8 @@ def _line_plot(x: np.ndarray, v: np.ndarray, label: str) -> str:
     px = left + (x - x.min()) / span * (w - 2 * left)
     py = pad + (h - 2 * pad) / 2 * (1 - v / top)
     zero = pad + (h - 2 * pad) / 2
-    area = (f"{px[0]:.1f},{zero:.1f} " + " ".join(f"{a:.1f},{b:.1f}" for a, b in zip(px, py))
+    area = (f"{px[0]:.1f},{zero:.1f} "
+            + " ".join(f"{a:.1f},{b:.1f}" for a, b in zip(px, py, strict=True))
             + f" {px[-1]:.1f},{zero:.1f}")
     i_max, i_min = int(np.nanargmax(v)), int(np.nanargmin(v))
     notes = (f"max {v[i_max]:.4g} at x = {x[i_max]:.3g} m; "
@@ -302,7 +303,8 @@ def _line_plot(x: np.ndarray, v: np.ndarray, label: str) -> str:
             f'<text x="{left}" y="14" class="plot-title">{html.escape(label)}</text>'
             f'<polygon points="{area}" fill="#d9d9d9" stroke="none"/>'
             f'<line x1="{left}" y1="{zero:.1f}" x2="{w - left}" y2="{zero:.1f}" stroke="#000"/>'
-            f'<polyline points="{" ".join(f"{a:.1f},{b:.1f}" for a, b in zip(px, py))}" '
+            f'<polyline points="'
+            f'{" ".join(f"{a:.1f},{b:.1f}" for a, b in zip(px, py, strict=True))}" '
             f'fill="none" stroke="#000" stroke-width="1.5"/>'
             f'<text x="{left}" y="{h + 10:.0f}" class="plot-note">{html.escape(notes)}</text>'
             '</svg>')
@@ -332,7 +334,7 @@ def interaction_svg(points: pd.DataFrame, limit: float) -> str:
     # plain Python values column by column (as records would give them, without building dicts)
     for status, combination, check, utilisation, a, b in zip(
             usable["status"].tolist(), usable["combination"].tolist(), usable["check"].tolist(),
-            usable["utilisation"].tolist(), n, m):
+            usable["utilisation"].tolist(), n, m, strict=True):
         failing = status == FAIL
         fill = "#000" if failing else "none"
         title = html.escape(f"{combination}: {check}, utilisation {fmt(utilisation)}")
@@ -388,7 +390,7 @@ def sheet_markdown(sheet: Sheet, *, utilisation_limit: float) -> str:
         cols = [(c, f"{lab} [{unit}]") for c, lab, unit in FORCE_COLUMNS if c in sheet.forces]
         values = [sheet.forces[c].tolist() for c, _ in cols]
         rows = [(fmt(x), *(fmt(v * 1e-3) for v in at)) for x, *at in
-                zip(sheet.forces["x_m"].tolist(), *values)]
+                zip(sheet.forces["x_m"].tolist(), *values, strict=True)]
         out += _md_table(["x [m]", *(h for _, h in cols)], rows)
     else:
         out.append("No force stations for this combination.")
@@ -396,9 +398,9 @@ def sheet_markdown(sheet: Sheet, *, utilisation_limit: float) -> str:
     if not sheet.others.empty:
         rows = []
         checks = [str(c) for c in sheet.others.columns]
-        for combo, values in zip(sheet.others.index, sheet.others.to_numpy(float)):
+        for combo, values in zip(sheet.others.index, sheet.others.to_numpy(float), strict=True):
             cells = []
-            for check, u in zip(checks, values):
+            for check, u in zip(checks, values, strict=True):
                 if (str(combo), str(check)) in sheet.not_evaluated:
                     cells.append("? n/e")
                 elif np.isfinite(u):

@@ -158,7 +158,7 @@ def write_workbook(views: dict[str, pd.DataFrame], path: Path, *, notes: list[st
         sheet = book.create_sheet(name[:31])
         sheet.append(list(shown.columns))
         # cells converted column by column (numbers in bulk), then written row by row
-        for row in zip(*(_cells(shown.iloc[:, k]) for k in range(shown.shape[1]))):
+        for row in zip(*(_cells(shown.iloc[:, k]) for k in range(shown.shape[1])), strict=True):
             sheet.append(row)
     book.save(path)
 

@@ -55,4 +55,5 @@ def not_evaluated_cells(rows: pd.DataFrame) -> set[tuple[str, str]]:
     """(combination, check) pairs of a member's rows that were not evaluated."""
     hit = (rows["status"] == NOT_EVALUATED).to_numpy(bool)
     return {(str(a), str(b)) for a, b in zip(rows["combination"].to_numpy(dtype=object)[hit],
-                                             rows["check"].to_numpy(dtype=object)[hit])}
+                                             rows["check"].to_numpy(dtype=object)[hit],
+                                             strict=True)}

@@ -90,7 +90,9 @@ def suggestions(designation: str, n: int = 3) -> list[str]:
         sizes = [[float(v) for v in name_key(name).partition(" ")[2].split("x")]
                  for name in same.index]
         def distance(size: list[float]) -> tuple[float, ...]:
-            return tuple(abs(a - b) for a, b in zip(size, wanted))
+            # a designation may give fewer dimensions than the sizes ('SHS 100', 'CHS 168.3'),
+            # or more: the leading ones given are compared
+            return tuple(abs(a - b) for a, b in zip(size, wanted, strict=False))
         order = sorted(range(len(sizes)), key=lambda i: distance(sizes[i]))
         return [same.index[i] for i in order[:n]]
     keys = _keys()

@@ -269,6 +269,6 @@ def parts_at_stress(section: dict[str, Array], f_y: Array, N_Ed: Array, M_y_Ed: 
         flange_I = (psi_f, lam_f, ew.rho_outstand(lam_f))
     out = {}
     for name, part_I, part_R in (("web", web_I, web_R), ("flange", flange_I, flange_R)):
-        for key, a, b in zip(("psi", "lambda_p", "rho"), part_I, part_R):
+        for key, a, b in zip(("psi", "lambda_p", "rho"), part_I, part_R, strict=True):
             out[f"{key}_{name}"] = np.where(is_I, a, np.where(is_RHS, b, np.nan))
     return out

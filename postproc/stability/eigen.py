@@ -178,8 +178,9 @@ def check_connected(frame: Frame) -> None:
     """Raise TopologyError if the elements (with the ties) form more than one connected piece."""
     g = nx.Graph()
     g.add_edges_from(zip(frame.elements["node_i"].astype(str),
-                         frame.elements["node_j"].astype(str)))
-    g.add_edges_from(zip(frame.ties["node"].astype(str), frame.ties["master"].astype(str)))
+                         frame.elements["node_j"].astype(str), strict=True))
+    g.add_edges_from(zip(frame.ties["node"].astype(str), frame.ties["master"].astype(str),
+                         strict=True))
     parts = sorted(nx.connected_components(g), key=len, reverse=True)
     if len(parts) > 1:
         lone = sorted(parts[1])[:5]

@@ -212,7 +212,7 @@ def _joint_sway(mesh: Mesh, basis: JointSway, gauge: ModeGauge, tension: np.ndar
     """The lowest sway mode of the frame condensed onto its joints (`joint_sway_modes`), as
     (alpha, drift, bow, member bowing most); None when it has no positive sway mode."""
     alphas, phis = joint_sway_modes(mesh, basis, tension, geometric=geometric)
-    for a, phi in zip(alphas, phis.T):
+    for a, phi in zip(alphas, phis.T, strict=True):
         drift, bow, member = gauge.measure(phi)
         if is_sway(drift, bow):
             return float(a), drift, bow, member
@@ -252,7 +252,7 @@ def _mode_search(mesh: Mesh, gauge: ModeGauge, tension: np.ndarray, solve_first:
         found: dict[str, Any] = {"n": len(top_k), "top": float(top_k[-1]) if len(top_k) else np.inf,
                  "sway": None, "local": None, "lowest": None, "exhausted": len(top_k) < count,
                  "solved": solved, "step": count, "by": "modes"}
-        for a, phi in zip(top_k, phis.T[:count]):
+        for a, phi in zip(top_k, phis.T[:count], strict=True):
             drift, bow, member = gauge.measure(phi)
             mode = (float(a), drift, bow, member)
             if found["lowest"] is None:
@@ -492,7 +492,7 @@ def storey_alpha(frame: Frame, results: Results, members: Members, combos: list[
     h = np.abs(z1 - z0)
     level = np.round(np.minimum(z0, z1) / LEVEL_TOL_M).astype(int)
     level_top = np.round(np.maximum(z0, z1) / LEVEL_TOL_M).astype(int)
-    storey = pd.Series(list(zip(level, level_top))).factorize()[0]
+    storey = pd.Series(list(zip(level, level_top, strict=True))).factorize()[0]
     F = _column_bottom_forces(frame, results, members, cols, bottom, combos)   # (C, n_col, 3)
     mesh = build_mesh(frame, sub_elements(frame, members))
     unit = unit_sway_cases(frame, members, mesh)
@@ -557,7 +557,7 @@ def _column_bottom_forces(frame: Frame, results: Results, members: Members, cols
     axes = local_axes(frame)
     epos = {e: k for k, e in enumerate(frame.elements.index.astype(str))}
     low_elem, low_x, sign = [], [], []
-    for m, b in zip(cols.index, bottom):
+    for m, b in zip(cols.index, bottom, strict=True):
         rows = me.loc[[m]].sort_values("position")
         first = b == mm.at[m, "start_node"]
         r = rows.iloc[0] if first else rows.iloc[-1]
@@ -777,8 +777,8 @@ def bow_imperfections_needed(frame: Frame, members: Members, results: Results,
     mm = members.members
     eid = frame.elements.index.astype(str)
     N_cr = _pinned_N_cr(frame, members)
-    pin = {"i": dict(zip(eid, moment_released(frame, "i"))),
-           "j": dict(zip(eid, moment_released(frame, "j")))}
+    pin = {"i": dict(zip(eid, moment_released(frame, "i"), strict=True)),
+           "j": dict(zip(eid, moment_released(frame, "j"), strict=True))}
     me = members.member_elements.sort_values(["member", "position"])
     firsts, lasts = me.groupby("member").head(1), me.groupby("member").tail(1)
     start_pin = {r.member: pin["j" if r.flipped else "i"][r.element]

@@ -106,22 +106,22 @@ class _Model:
         self.pin = {end: moment_released(frame, end) for end in "ij"}
         # plain dicts: the per-member work looks up single nodes and members many times over
         self.xyz = dict(zip(frame.nodes.index.astype(str),
-                            frame.nodes[NODE_COLUMNS].to_numpy(float)))
+                            frame.nodes[NODE_COLUMNS].to_numpy(float), strict=True))
         sup = frame.supports.reindex(columns=["ux", "uy", "uz", "rx", "ry", "rz"],
                                      fill_value=False)
-        self.sup = dict(zip(sup.index.astype(str), sup.to_numpy(bool)))
+        self.sup = dict(zip(sup.index.astype(str), sup.to_numpy(bool), strict=True))
         me = members.member_elements
-        self.member_of = dict(zip(me["element"].astype(str), me["member"]))
+        self.member_of = dict(zip(me["element"].astype(str), me["member"], strict=True))
         self.at_node: dict[str, list[int]] = {}
-        for k, (a, b) in enumerate(zip(self.node_i, self.node_j)):
+        for k, (a, b) in enumerate(zip(self.node_i, self.node_j, strict=True)):
             self.at_node.setdefault(a, []).append(k)
             self.at_node.setdefault(b, []).append(k)
         self.maxes = member_axes(frame, members.members, me)
         self.index = {m: k for k, m in enumerate(members.members.index)}
         mm = members.members
-        self.start_node = dict(zip(mm.index, mm["start_node"]))
-        self.end_node = dict(zip(mm.index, mm["end_node"]))
-        self.length = dict(zip(mm.index, mm["length_m"]))
+        self.start_node = dict(zip(mm.index, mm["start_node"], strict=True))
+        self.end_node = dict(zip(mm.index, mm["end_node"], strict=True))
+        self.length = dict(zip(mm.index, mm["length_m"], strict=True))
         r = members.restraints
         self.restraint_x = {d: {m: g.to_numpy(float) for m, g in
                                 r.loc[r["direction"] == d].groupby("member", sort=False)["x_m"]}
@@ -445,7 +445,8 @@ def buckling_lengths(frame: Frame, members: Members, results: Results, paths: pd
             ratio = frame_len[long] / np.broadcast_to(member_L, long.shape)[long]
             origin[long] = [f"{o}; {v:.2f} m = {r:.1f} L, more than {SHOWN_LENGTH_CAP:g} L: "
                             f"shown as {SHOWN_LENGTH_CAP:g} L in the report, the check uses "
-                            f"{v:.2f} m" for o, v, r in zip(origin[long], frame_len[long], ratio)]
+                            f"{v:.2f} m"
+                            for o, v, r in zip(origin[long], frame_len[long], ratio, strict=True)]
         origin = np.where(own_first, base_o[:, None] + "; longer than its length in the frame's "
                           "sway mode, so the member buckles first over its own length (6.3.1)",
                           origin)

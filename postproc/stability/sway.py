@@ -157,8 +157,8 @@ def unit_sway_cases(frame: Frame, members: Members, mesh: Mesh) -> UnitSway:
                 C[k, p] += w
     keep = np.abs(C).sum(axis=1) > 0
     C = C[keep]
-    rows = [r for r, k in zip(rows, keep) if k]
-    keys = [r for r, k in zip(keys, keep) if k]
+    rows = [r for r, k in zip(rows, keep, strict=True) if k]
+    keys = [r for r, k in zip(keys, keep, strict=True) if k]
     if not len(rows):
         return UnitSway(np.zeros((0, 0)), np.zeros((0, len(mesh.n_sub), 2, 6)), rows, keys,
                         np.zeros((0, len(mesh.xyz), 3)))

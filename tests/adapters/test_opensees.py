@@ -303,7 +303,7 @@ def test_bundled_frames_reactions_balance_applied_loads(example):
     project, captured, cases, factors = _captured_and_factors(project_file)
     frame, results = opensees.load_table(project, project_file)
     names = list(results.combinations.index)
-    pattern_of = dict(zip(cases["load_case"], cases["pattern"]))
+    pattern_of = dict(zip(cases["load_case"], cases["pattern"], strict=True))
     patterns = list(cases["pattern"])
     matrix = opensees._factor_matrix(factors, names, patterns, pattern_of)
     applied = node_loads_global(captured, matrix, patterns).sum(axis=1)  # (C, 3)

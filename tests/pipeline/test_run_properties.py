@@ -53,20 +53,20 @@ def test_every_member_and_combination_has_a_status(scales, failed, kinds) -> Non
     combinations made SLS at random: each (member, ULS combination) still has rows, each row a
     status, and no row is a pass where the combination failed."""
     forces = RESULTS.forces.copy()
-    factor = forces["combination"].map(dict(zip(COMBINATIONS, scales))).to_numpy()
+    factor = forces["combination"].map(dict(zip(COMBINATIONS, scales, strict=True))).to_numpy()
     forces[FORCE_COLUMNS] = forces[FORCE_COLUMNS].to_numpy() * factor[:, None]
     combos = RESULTS.combinations.copy()
     combos["kind"] = kinds
-    gone = [c for c, f in zip(COMBINATIONS, failed) if f]
+    gone = [c for c, f in zip(COMBINATIONS, failed, strict=True) if f]
     combos.loc[gone, ["status", "message"]] = ["failed", "made to fail by the test"]
     forces = forces[~forces["combination"].isin(gone)]
     outcome = _check(PROJECT, FRAME, replace(RESULTS, forces=forces, combinations=combos))
     table = outcome.table
     assert set(table["status"]) <= STATUSES
     members = set(outcome.members.members.index)
-    uls = [c for c, k in zip(COMBINATIONS, kinds) if k == "ULS"]
+    uls = [c for c, k in zip(COMBINATIONS, kinds, strict=True) if k == "ULS"]
     if uls:
-        pairs = set(zip(table["member"], table["combination"]))
+        pairs = set(zip(table["member"], table["combination"], strict=True))
         assert pairs == {(m, c) for m in members for c in uls}
     else:
         assert set(table["member"]) == members and (table["status"] == "not evaluated").all()

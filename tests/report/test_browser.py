@@ -170,7 +170,7 @@ def test_printed_report_cuts_nothing(report: Path, tmp_path: Path) -> None:
         assert heading.replace(" ", "") in text, heading
     summary = pd.read_csv(report / "summary.csv")
     for member, combination in zip(summary["member"].astype(str),
-                                   summary["governing_combination"].astype(str)):
+                                   summary["governing_combination"].astype(str), strict=True):
         assert f"Calculationsheet:member{member}" in text
         assert combination.replace(" ", "") in text  # the last columns' content
 

@@ -81,7 +81,8 @@ def test_workbook_views_cut_to_the_row_limit_name_their_full_file(default_run: P
     run(out, "--workbook-row-limit", "5")
     book = load_workbook(out / "report.xlsx")
     cut = list(book["buckling lengths"].iter_rows(min_row=2, max_col=2, values_only=True))
-    assert cut == list(zip(lengths["member"].astype(str), lengths["combination"].astype(str)))[:5]
+    assert cut == list(zip(lengths["member"].astype(str), lengths["combination"].astype(str),
+                           strict=True))[:5]
     about = [row[0] for row in book["about"].iter_rows(values_only=True)]
     assert (f"buckling lengths: the first 5 of {len(lengths)} rows; all rows are in "
             "buckling_lengths.csv") in about

@@ -107,6 +107,9 @@ BAD = [
     # (specification, field, words the message must contain)
     (dict(designation="IPE 310"), "designation", ["IPE 310", "IPE 300", "IPE 330"]),
     (dict(designation="HEA 210"), "designation", ["HEA 200", "HEA 220"]),
+    # fewer dimensions than the catalogue sizes: the sizes nearest in those given
+    (dict(designation="SHS 100"), "designation", ["SHS 100x100x4", "SHS 100x100x5"]),
+    (dict(designation="CHS 168.3"), "designation", ["CHS 168.3x5", "CHS 168.3x6.3"]),
     (dict(shape="I", h_mm=300, b_mm=150, tw_mm=7.1, tf_mm=-10.7, r_mm=15), "tf_mm",
      ["-10.7", "positive"]),
     (dict(shape="I", h_mm=0, b_mm=150, tw_mm=7.1, tf_mm=10.7, r_mm=15), "h_mm", ["positive"]),
