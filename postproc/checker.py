@@ -31,8 +31,9 @@ from .model.members import Members, design_members
 from .model.outcome import KEY_COLUMNS, CheckOutcome
 from .model.positions import restraints_along as restraints_along_members
 from .model.results import Results
-from .model.rows import FAIL, NOT_EVALUATED, PASS, CheckBlock, MemberRows, block_concat
+from .model.rows import FAIL, NOT_EVALUATED, PASS, CheckBlock, MemberRows
 from .model.rules import member_settings, resolved_overrides
+from .numerics.dictionary_coding import Coded, ColumnBuilder
 from .report.progress import QUIET, Stages
 from .settings import DesignSettings, SwaySearch
 from .stability.given_alpha import given_alpha, given_critical_load_factors
@@ -366,34 +367,78 @@ def _checked_parts(rows: MemberRows, families: list[CheckFamily],
             covered |= np.asarray(block.applies, bool)
         return blocks, covered
 
-    pieces: list[list[tuple[np.ndarray, np.ndarray, CheckBlock]]] = []
+    sinks: list[_CheckSink] = []
     covered = []
     start = 0
     for _, (blocks, chunk_covered) in iter_checks(rows, families, overrides=overrides,
                                                   keep=keep):
         covered.append(chunk_covered)
-        stop = start + len(chunk_covered)
-        member, combination = rows.member[start:stop], rows.combination[start:stop]
-        start = stop
-        if not pieces:
-            pieces = [[] for _ in blocks]
-        for k, block in enumerate(blocks):
-            applies = np.asarray(block.applies, bool)
-            pieces[k].append((member[applies], combination[applies], _applying(block, applies)))
+        if not sinks:
+            sinks = [_CheckSink(block) for block in blocks]
+        for sink, block in zip(sinks, blocks, strict=True):
+            sink.add(start, block)
+        start += len(chunk_covered)
         del blocks
     parts = []
     value_columns: dict[str, tuple[str, ...]] = {}
-    for k in range(len(pieces)):
-        check = pieces[k]
-        member = np.concatenate([p[0] for p in check])
-        combination = np.concatenate([p[1] for p in check])
-        block = block_concat([p[2] for p in check]) if len(check) > 1 else check[0][2]
-        pieces[k] = []  # each check's pieces freed once joined
-        value_columns.setdefault(block.check, tuple(block.values))
-        if len(member):
-            parts.append(_table_part(member, combination, block, limit))
+    for k, sink in enumerate(sinks):
+        value_columns.setdefault(sink.check, tuple(sink.values))
+        if sink.n_rows:
+            parts.append(sink.part(rows, limit))
+        sinks[k] = _CheckSink(None)  # each check's pieces freed once joined
     return (parts, np.concatenate(covered) if covered else np.zeros(0, dtype=bool),
             value_columns)
+
+
+class _CheckSink:
+    """One check's kept rows, added chunk by chunk in row order: the row numbers, utilisation,
+    location, reason and values of the rows the check applies to. Values and reasons are
+    dictionary-coded as they come (`numerics.dictionary_coding`: exact, one or two bytes a row
+    where a column has few distinct values), so a large run never holds them as full arrays."""
+
+    def __init__(self, block: CheckBlock | None) -> None:
+        self.check = block.check if block is not None else ""
+        self.clause = block.clause if block is not None else ""
+        self.rows: list[np.ndarray] = []
+        self.utilisation: list[np.ndarray] = []
+        self.x: list[np.ndarray] = []
+        self.reason = ColumnBuilder()
+        self.values: dict[str, ColumnBuilder] = {}
+        self.n_rows = 0
+
+    def add(self, offset: int, block: CheckBlock) -> None:
+        """A chunk's block, its rows starting at row `offset`; a value the chunk lacks is NaN
+        there, as joining the chunks' blocks (`block_concat`) makes it."""
+        applies = np.asarray(block.applies, bool)
+        where = np.flatnonzero(applies)
+        n = len(where)
+        self.rows.append(offset + where)
+        self.utilisation.append(np.asarray(block.utilisation)[applies])
+        self.x.append(np.asarray(block.x)[applies])
+        self.reason.add(np.asarray(block.reason, dtype=object)[applies])
+        for name, builder in self.values.items():
+            if name not in block.values:
+                builder.add(np.full(n, np.nan))
+        for name, value in block.values.items():
+            if name not in self.values:
+                self.values[name] = ColumnBuilder()
+                if self.n_rows:
+                    self.values[name].add(np.full(self.n_rows, np.nan))
+            self.values[name].add(np.asarray(value)[applies])
+        self.n_rows += n
+
+    def part(self, rows: MemberRows, limit: float) -> Part:
+        """The check's rows of the long table (`_table_part`)."""
+        where = np.concatenate(self.rows)
+        reason = self.reason.finish()
+        block = CheckBlock(
+            check=self.check, clause=self.clause,
+            utilisation=np.concatenate(self.utilisation), x=np.concatenate(self.x),
+            applies=np.ones(len(where), dtype=bool),
+            reason=reason.decoded() if isinstance(reason, Coded) else reason)
+        values: dict[str, object] = {name: builder.finish()
+                                     for name, builder in self.values.items()}
+        return _table_part(rows.member[where], rows.combination[where], block, limit, values)
 
 
 def _applying(block: CheckBlock, applies: np.ndarray) -> CheckBlock:
@@ -405,10 +450,11 @@ def _applying(block: CheckBlock, applies: np.ndarray) -> CheckBlock:
                       values={k: np.asarray(v)[applies] for k, v in block.values.items()})
 
 
-def _table_part(member: np.ndarray, combination: np.ndarray, block: CheckBlock, limit: float
-                ) -> Part:
-    """One check's rows of the long table: its key columns and its values (text values as the
-    dtype a frame built from them would give, pandas' inference)."""
+def _table_part(member: np.ndarray, combination: np.ndarray, block: CheckBlock, limit: float,
+                values: dict[str, object] | None = None) -> Part:
+    """One check's rows of the long table: its key columns and its values (the block's, or
+    `values` where given; text values as the dtype a frame built from them would give, pandas'
+    inference)."""
     reason = np.asarray(block.reason, dtype=object).copy()
     unexplained = np.isnan(block.utilisation) & (reason == "")
     reason[unexplained] = "could not be evaluated"
@@ -416,14 +462,19 @@ def _table_part(member: np.ndarray, combination: np.ndarray, block: CheckBlock, 
         "member": member, "combination": combination, "check": block.check,
         "clause": block.clause, "x_m": block.x, "utilisation": block.utilisation,
         "status": _status(block.utilisation, reason, limit), "reason": reason}
-    return (len(member), _inferred(keys), _inferred(dict(block.values)))
+    return (len(member), _inferred(keys),
+            _inferred(dict(block.values) if values is None else values))
 
 
 def _inferred(columns: dict[str, object]) -> dict[str, object]:
-    """Object columns as the dtype pandas infers for them (text: Arrow-backed strings)."""
+    """Object columns as the dtype pandas infers for them (text: Arrow-backed strings); a coded
+    column of text gets its distinct values so (their inferred dtype is the column's)."""
     out: dict[str, object] = {}
     for name, value in columns.items():
-        if isinstance(value, np.ndarray) and value.dtype == object:
+        if isinstance(value, Coded) and value.uniques.dtype == object:
+            series = pd.Series(value.uniques)
+            out[name] = value if series.dtype == object else Coded(value.codes, series.array)
+        elif isinstance(value, np.ndarray) and value.dtype == object:
             series = pd.Series(value)
             out[name] = series.to_numpy() if series.dtype == object else series
         else:

@@ -33,21 +33,21 @@ Digest = TypeVar("Digest")  # what a caller's `keep` makes of a chunk's blocks
 
 @overload
 def iter_checks(rows: MemberRows, families: list[CheckFamily], *,
-                overrides: pd.DataFrame | None = None, chunk_rows: int = CHUNK_ROWS,
+                overrides: pd.DataFrame | None = None, chunk_rows: int | None = None,
                 threads: int | None = None, timings: dict[str, float] | None = None,
                 keep: None = None) -> Iterator[tuple[MemberRows, list[CheckBlock]]]: ...
 
 
 @overload
 def iter_checks(rows: MemberRows, families: list[CheckFamily], *,
-                overrides: pd.DataFrame | None = None, chunk_rows: int = CHUNK_ROWS,
+                overrides: pd.DataFrame | None = None, chunk_rows: int | None = None,
                 threads: int | None = None, timings: dict[str, float] | None = None,
                 keep: Callable[[MemberRows, list[CheckBlock]], Digest]
                 ) -> Iterator[tuple[MemberRows, Digest]]: ...
 
 
 def iter_checks(rows: MemberRows, families: list[CheckFamily], *,
-                overrides: pd.DataFrame | None = None, chunk_rows: int = CHUNK_ROWS,
+                overrides: pd.DataFrame | None = None, chunk_rows: int | None = None,
                 threads: int | None = None, timings: dict[str, float] | None = None,
                 keep: Callable[[MemberRows, list[CheckBlock]], Any] | None = None
                 ) -> Iterator[tuple[MemberRows, Any]]:
@@ -68,6 +68,7 @@ def iter_checks(rows: MemberRows, families: list[CheckFamily], *,
         that keeps a digest never holds a chunk's full blocks on its own thread.
     """
     n = rows.n_rows
+    chunk_rows = chunk_rows or CHUNK_ROWS  # read at the call: a test may set a small one
     bounds = [(a, min(a + chunk_rows, n)) for a in range(0, n, chunk_rows)] or [(0, 0)]
     lock = threading.Lock()
 
@@ -110,7 +111,7 @@ def iter_checks(rows: MemberRows, families: list[CheckFamily], *,
 
 
 def run_checks(rows: MemberRows, families: list[CheckFamily], *,
-               overrides: pd.DataFrame | None = None, chunk_rows: int = CHUNK_ROWS,
+               overrides: pd.DataFrame | None = None, chunk_rows: int | None = None,
                threads: int | None = None) -> tuple[MemberRows, list[CheckBlock]]:
     """Section classes, member buckling values and every check family for all rows.
 

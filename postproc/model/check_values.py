@@ -23,10 +23,13 @@ from typing import Any, TypeAlias
 import numpy as np
 import pandas as pd
 
+from ..numerics.dictionary_coding import Coded, column_take
+
 __all__ = ["CheckValues", "Column"]
 
-# one part's value column: numbers or text objects (numpy), or Arrow-backed text (pandas)
-Column: TypeAlias = np.ndarray | pd.api.extensions.ExtensionArray
+# one part's value column: numbers or text objects (numpy), Arrow-backed text (pandas), or
+# either of them dictionary-coded (`numerics.dictionary_coding`: few distinct values)
+Column: TypeAlias = np.ndarray | pd.api.extensions.ExtensionArray | Coded
 
 
 @dataclass(frozen=True)
@@ -111,8 +114,10 @@ class CheckValues:
     def kinds_of(self, name: str) -> list[str]:
         """What the parts hold in object column `name` (pandas' inferred kinds, without empty
         parts), for deciding one Parquet type per column."""
-        return [pd.api.types.infer_dtype(part[name], skipna=True)
-                for part in self.parts if name in part]
+        # a coded column holds the same kinds of value as its distinct values
+        found = [part[name] for part in self.parts if name in part]
+        return [pd.api.types.infer_dtype(c.uniques if isinstance(c, Coded) else c, skipna=True)
+                for c in found]
 
 
 def _empty(dtype: Any, n: int) -> Column:
@@ -126,9 +131,7 @@ def _empty(dtype: Any, n: int) -> Column:
 
 
 def _take(values: Column, positions: np.ndarray) -> Column:
-    if isinstance(values, pd.api.extensions.ExtensionArray):
-        return values.take(positions)
-    return np.asarray(values)[positions]
+    return column_take(values, positions)
 
 
 def _joined(pieces: list[Column], dtype: Any, n: int) -> Column:
@@ -151,6 +154,8 @@ def _joined_dtypes(parts: list[tuple[int, dict[str, Column]]], rows_after: bool
     """The dtypes `pd.concat` of the parts' frames (sort=False) would give each column, in its
     column order, and then of rows without values below them when `rows_after`."""
     def first(value: Column) -> object:
+        if isinstance(value, Coded):
+            value = value.take(np.arange(min(1, len(value))))
         if isinstance(value, pd.api.extensions.ExtensionArray):
             return pd.Series(value[:1])
         return np.asarray(value)[:1]

@@ -87,3 +87,23 @@ def test_results_table_is_one_frame_per_check_concatenated() -> None:
     released = results_table(rows, blocks, release_values=True)
     pd.testing.assert_frame_equal(released, expected, check_exact=True)
     assert all(not block.values for block in blocks)
+
+
+def test_a_run_cut_into_small_chunks_and_coded_gives_the_same_table(monkeypatch) -> None:
+    """The checker keeps each check's rows chunk by chunk and dictionary-codes its values
+    (postproc/numerics/dictionary_coding.py): with chunks of 16 rows, and coding limits so low
+    that most columns fall back to plain arrays part-way, the table with its values is the same
+    as with one chunk."""
+    from pathlib import Path
+
+    from postproc import engine
+    from postproc.numerics import dictionary_coding
+    from postproc.run import run_project
+
+    project = Path(__file__).resolve().parents[2] / "examples" / "hillside_depot" / "project.toml"
+    whole = run_project(project).outcome.with_values()
+    monkeypatch.setattr(engine, "CHUNK_ROWS", 16)
+    monkeypatch.setattr(dictionary_coding, "PIECE_DISTINCT_MAX", 4)
+    monkeypatch.setattr(dictionary_coding, "DISTINCT_MAX", 9)
+    cut = run_project(project).outcome.with_values()
+    pd.testing.assert_frame_equal(cut, whole, check_exact=True)

@@ -1,0 +1,180 @@
+"""Columns with few distinct values kept as small codes into those values, built piece by piece.
+
+Most of a large run's check values repeat: a partial factor, a buckling curve, an imperfection
+factor, a section property shared by every combination of a member. A column of such values is
+kept as codes (one or two bytes a row) into its distinct values. The coding is exact: numbers are
+told apart by their bits (so -0.0 and 0.0, and every NaN, come back as they went in), text by its
+characters. A column with many distinct values is kept as it is; so is anything the coder does not
+know (it never changes a value).
+
+    >>> builder = ColumnBuilder()
+    >>> builder.add(np.array([0.5, 0.5, 1.0]))
+    >>> builder.add(np.array([1.0, 0.5]))
+    >>> column = builder.finish()
+    >>> column.codes.dtype, column.decoded().tolist()
+    (dtype('uint8'), [0.5, 0.5, 1.0, 1.0, 0.5])
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from typing import Any, TypeAlias
+
+import numpy as np
+import pandas as pd
+
+__all__ = ["PIECE_DISTINCT_MAX", "DISTINCT_MAX", "Coded", "ColumnBuilder", "Column",
+           "column_take"]
+
+# a piece with more distinct values than this is not coded (the column is then kept as it is):
+# looking codes up costs time per distinct value, and a column with that many gains little
+PIECE_DISTINCT_MAX = 1024
+DISTINCT_MAX = 4096  # distinct values of a whole coded column (two-byte codes at most)
+
+Column: TypeAlias = np.ndarray | pd.api.extensions.ExtensionArray
+
+
+@dataclass(frozen=True)
+class Coded:
+    """A column as codes into its distinct values: value i is uniques[codes[i]]."""
+
+    codes: np.ndarray
+    uniques: Column
+
+    def __len__(self) -> int:
+        return len(self.codes)
+
+    @property
+    def dtype(self) -> Any:
+        return self.uniques.dtype
+
+    @property
+    def nbytes(self) -> int:
+        return int(self.codes.nbytes + self.uniques.nbytes)
+
+    def take(self, positions: np.ndarray) -> Column:
+        """The values at `positions`."""
+        return column_take(self.uniques, self.codes[positions])
+
+    def decoded(self) -> Column:
+        return column_take(self.uniques, self.codes)
+
+
+def column_take(values: Column | Coded, positions: np.ndarray) -> Column:
+    """Values at `positions` of a numpy array, a pandas extension array or a coded column."""
+    if isinstance(values, Coded):
+        return values.take(positions)
+    if isinstance(values, pd.api.extensions.ExtensionArray):
+        return values.take(positions)
+    return np.asarray(values)[positions]
+
+
+def _bits(values: np.ndarray) -> np.ndarray | None:
+    """What two equal values share exactly: the bits of a number; None for anything else."""
+    if values.dtype.kind == "f" and values.dtype.itemsize == 8:
+        return values.view(np.int64)
+    if values.dtype.kind in "iu":
+        return values
+    return None
+
+
+class ColumnBuilder:
+    """One column filled piece by piece (numpy arrays of one dtype), coded while its values are
+    few and of a kind it codes (numbers; text, with missing values); otherwise the pieces are
+    kept as they are. `finish` joins them: a `Coded` column, or the pieces as `np.concatenate`
+    joins them."""
+
+    def __init__(self) -> None:
+        self._pieces: list[np.ndarray] = []   # codes while coding, else the values
+        self._coding = True
+        self._dtype: np.dtype | None = None
+        self._keys: list[Any] = []            # distinct values (bits of numbers; text)
+        self._index = pd.Index([])
+        self._missing = -1                    # code of a missing text value, once one is seen
+
+    def add(self, values: np.ndarray) -> None:
+        values = np.asarray(values)
+        if self._dtype is None:
+            self._dtype = values.dtype
+        elif values.dtype != self._dtype:
+            self._stop_coding()
+        if self._coding:
+            codes = self._codes(values)
+            if codes is not None:
+                self._pieces.append(codes)
+                return
+            self._stop_coding()
+        self._pieces.append(values)
+
+    def _codes(self, values: np.ndarray) -> np.ndarray | None:
+        """`values` as codes, new distinct values added; None where they cannot be coded."""
+        if not len(values):
+            return np.zeros(0, dtype=np.uint16)
+        text = values.dtype.kind == "O"
+        key = values if text else _bits(values)
+        if key is None:
+            return None
+        local, distinct = pd.factorize(key, use_na_sentinel=text)
+        if len(distinct) > PIECE_DISTINCT_MAX:
+            return None
+        if text:
+            if len(distinct) and pd.api.types.infer_dtype(distinct, skipna=False) != "string":
+                return None
+        known = self._index.get_indexer(distinct) if len(self._keys) else np.full(
+            len(distinct), -1)
+        new = known < 0
+        if new.any():
+            if len(self._keys) + int(new.sum()) > DISTINCT_MAX:
+                return None
+            known[new] = len(self._keys) + np.arange(int(new.sum()))
+            self._keys.extend(np.asarray(distinct, dtype=object)[new] if text
+                              else np.asarray(distinct)[new])
+            self._index = pd.Index(self._keys)
+        codes = known[local] if len(known) else np.zeros(len(local), dtype=np.int64)
+        if text and (local < 0).any():
+            if self._missing < 0:
+                self._missing = DISTINCT_MAX  # a code of its own, beyond every distinct value
+            codes = np.where(local < 0, self._missing, codes)
+        return codes.astype(np.uint16)
+
+    def _uniques(self) -> np.ndarray:
+        """The distinct values in code order (a missing text value last, as NaN)."""
+        if self._dtype is not None and self._dtype.kind == "O":
+            keys = list(self._keys) + ([np.nan] if self._missing >= 0 else [])
+            return np.array(keys, dtype=object)
+        bits = np.array(self._keys, dtype=np.int64 if self._dtype is None
+                        or self._dtype.kind == "f" else self._dtype)
+        if self._dtype is not None and self._dtype.kind == "f":
+            return bits.view(self._dtype)
+        return bits
+
+    def _stop_coding(self) -> None:
+        """Turn the codes so far back into values; every later piece is kept as it is."""
+        if not self._coding:
+            return
+        self._coding = False
+        uniques = self._remapped_uniques()
+        self._pieces = [uniques[codes] for codes in self._pieces]
+
+    def _remapped_uniques(self) -> np.ndarray:
+        """Distinct values indexed by code (the missing text code maps to NaN)."""
+        uniques = self._uniques()
+        if self._missing >= 0:
+            full = np.empty(DISTINCT_MAX + 1, dtype=object)
+            full[:len(self._keys)] = uniques[:len(self._keys)]
+            full[DISTINCT_MAX] = np.nan
+            return full
+        return uniques
+
+    def finish(self) -> Coded | np.ndarray:
+        if not self._coding:
+            if not self._pieces:
+                return np.zeros(0, dtype=self._dtype or np.float64)
+            return np.concatenate(self._pieces)
+        codes = (np.concatenate(self._pieces) if self._pieces
+                 else np.zeros(0, dtype=np.uint16))
+        uniques = self._uniques()
+        if self._missing >= 0:
+            codes = np.where(codes == self._missing, len(self._keys), codes)
+        small = np.uint8 if len(uniques) <= 256 else np.uint16
+        return Coded(codes=codes.astype(small), uniques=uniques)
