@@ -123,6 +123,10 @@ class CheckValues:
 def _empty(dtype: Any, n: int) -> Column:
     if dtype == np.dtype(np.float64):
         return np.full(n, np.nan)
+    if isinstance(dtype, pd.StringDtype) and dtype.storage == "pyarrow":
+        import pyarrow as pa
+
+        return pd.array(pa.nulls(n, pa.large_string()), dtype=dtype)  # no object per row
     if isinstance(dtype, pd.api.extensions.ExtensionDtype):
         return pd.array(np.full(n, None, dtype=object), dtype=dtype)
     cells = np.empty(n, dtype=object)

@@ -47,30 +47,38 @@ SHEET_ROW_COLUMNS = ["member", "combination", "check", "utilisation", "status", 
                      "class_part", "term_N", "term_M_y", "term_M_z"]
 
 
-def _by_member(table: pd.DataFrame) -> tuple[pd.DataFrame, dict[str, tuple[int, int]]]:
-    """The table stably sorted by member, and each member's (start, stop) rows in it."""
-    ordered = table.sort_values("member", kind="stable", key=lambda m: m.astype(str))
-    names = ordered["member"].astype(str).to_numpy()
-    bounds = np.flatnonzero(np.r_[True, names[1:] != names[:-1], True])
-    return ordered, {names[a]: (a, b) for a, b in zip(bounds[:-1], bounds[1:], strict=True)}
+def _member_spans(table: pd.DataFrame) -> tuple[np.ndarray, dict[str, tuple[int, int]]]:
+    """Positions that list the table's rows member by member (each member's rows in table
+    order), and each member's (start, stop) in them: integer codes and one stable argsort, no
+    sorted copy of the table and no text object per row."""
+    codes, names = pd.factorize(table["member"].astype(str))
+    order = np.argsort(codes, kind="stable")
+    bounds = np.concatenate([[0], np.cumsum(np.bincount(codes, minlength=len(names)))])
+    return order, {str(name): (int(bounds[k]), int(bounds[k + 1]))
+                   for k, name in enumerate(names)}
 
 
-def member_slices(table: pd.DataFrame):
-    """A function member -> that member's rows, from one stable sort by member (slices, not
-    lookups, so a large table is not copied once per member)."""
+def member_slices(table: pd.DataFrame, join: Callable[[pd.DataFrame], pd.DataFrame] | None = None):
+    """A function member -> that member's rows, in table order (`join` applied to them, e.g.
+    adding check values), taken from the table by position when asked: only positions are
+    kept per member, so a large table is neither copied nor sorted."""
     if table is None or not len(table) or "member" not in table:
         empty = table if table is not None else pd.DataFrame()
         return lambda member: empty.iloc[0:0] if len(empty) else empty
-    ordered, spans = _by_member(table)
-    return lambda member: ordered.iloc[slice(*spans.get(member, (0, 0)))]
+    order, spans = _member_spans(table)
+
+    def rows(member: str) -> pd.DataFrame:
+        picked = table.iloc[order[slice(*spans.get(member, (0, 0)))]]
+        return join(picked) if join is not None else picked
+    return rows
 
 
 def member_records(table: pd.DataFrame):
     """A function member -> that member's rows as a list of dicts (made once for the table)."""
     if not len(table):
         return lambda member: []
-    ordered, spans = _by_member(table)
-    records = ordered.to_dict("records")
+    order, spans = _member_spans(table)
+    records = table.take(order).to_dict("records")
     return lambda member: records[slice(*spans.get(member, (0, 0)))]
 
 
@@ -158,9 +166,9 @@ def _write_sheets(outcome: CheckOutcome, folder: Path, summary: pd.DataFrame,
     # the sheets read only a few columns of every row (the values come from `governing`), and
     # each member's rows as one contiguous slice of member-sorted tables: cheap on a wide table
     # (only the member-sorted copy is kept)
-    rows_of = member_slices(outcome.with_values(
+    rows_of = member_slices(
         outcome.table[[c for c in SHEET_ROW_COLUMNS if c in outcome.table.columns]],
-        columns=SHEET_ROW_COLUMNS))
+        join=lambda rows: outcome.with_values(rows, columns=SHEET_ROW_COLUMNS))
     governing_of = member_records(governing)
     lengths_of = member_slices(outcome.lengths)
     stations_of = member_slices(outcome.stations)

@@ -18,15 +18,16 @@ def governing_checks(table: pd.DataFrame, values: CheckValues | None = None) -> 
     each check's values joined from `values` (the table's row labels address them)."""
     if table.empty:
         return table.copy() if values is None else values.join(table.copy())
-    # ranked on the four key columns alone; only the chosen rows of the wide table are taken
-    ranked = pd.DataFrame({
-        "member": table["member"].reset_index(drop=True),
-        "check": table["check"].reset_index(drop=True),
-        "_evaluated": (table["status"] != NOT_EVALUATED).to_numpy(),
-        "_u": np.nan_to_num(table["utilisation"].to_numpy(float), nan=-1.0)})
-    ranked = ranked.sort_values(["member", "check", "_evaluated", "_u"],
-                                ascending=[True, True, False, False], kind="stable")
-    first = ranked.index[~ranked.duplicated(["member", "check"]).to_numpy()]
+    # ranked on integer codes of the key columns (member and check codes in text order), one
+    # stable lexsort: the order of a stable sort by member, check, evaluated first, largest
+    # utilisation first
+    member = pd.factorize(table["member"], sort=True)[0]
+    check = pd.factorize(table["check"], sort=True)[0]
+    evaluated = (table["status"] != NOT_EVALUATED).to_numpy()
+    u = np.nan_to_num(table["utilisation"].to_numpy(float), nan=-1.0)
+    ranked = np.lexsort((-u, ~evaluated, check, member))
+    pairs = member[ranked].astype(np.int64) * (int(check.max()) + 1) + check[ranked]
+    first = ranked[np.r_[True, pairs[1:] != pairs[:-1]]]
     chosen = table.take(first)
     if values is not None:
         chosen = values.join(chosen)

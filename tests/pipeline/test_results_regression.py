@@ -8,7 +8,7 @@ data layout or of how numpy reduces over stations changes no result.
 
 from __future__ import annotations
 
-import sys
+import importlib.util
 from pathlib import Path
 
 import numpy as np
@@ -16,8 +16,13 @@ import pandas as pd
 import pytest
 
 DATA = Path(__file__).resolve().parent / "data"
-sys.path.insert(0, str(DATA))
-from make_results_regression import KEYS, VALUES, regression_rows  # noqa: E402
+# the fixture's writer beside the data, loaded from its file (the data folder is no package)
+_SPEC = importlib.util.spec_from_file_location("make_results_regression",
+                                               DATA / "make_results_regression.py")
+assert _SPEC is not None and _SPEC.loader is not None
+_WRITER = importlib.util.module_from_spec(_SPEC)
+_SPEC.loader.exec_module(_WRITER)
+KEYS, VALUES, regression_rows = _WRITER.KEYS, _WRITER.VALUES, _WRITER.regression_rows
 
 RELATIVE = 1e-12  # the same arithmetic in a different order may differ in the last bits only
 
