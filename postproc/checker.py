@@ -33,7 +33,7 @@ from .model.positions import restraints_along as restraints_along_members
 from .model.results import Results
 from .model.rows import FAIL, NOT_EVALUATED, PASS, CheckBlock, MemberRows
 from .model.rules import member_settings, resolved_overrides
-from .numerics.dictionary_coding import Coded, ColumnBuilder
+from .numerics.dictionary_coding import Appender, Coded, ColumnBuilder
 from .report.progress import QUIET, Stages
 from .settings import DesignSettings, SwaySearch
 from .stability.given_alpha import given_alpha, given_critical_load_factors
@@ -374,11 +374,12 @@ def _checked_parts(rows: MemberRows, families: list[CheckFamily],
                                                   keep=keep):
         covered.append(chunk_covered)
         if not sinks:
-            sinks = [_CheckSink(block) for block in blocks]
+            sinks = [_CheckSink(block, rows.n_rows) for block in blocks]
         for sink, block in zip(sinks, blocks, strict=True):
             sink.add(start, block)
         start += len(chunk_covered)
         del blocks
+    release_free_memory()  # the workers' heaps of chunk temporaries, given back
     parts = []
     value_columns: dict[str, tuple[str, ...]] = {}
     for k, sink in enumerate(sinks):
@@ -396,13 +397,16 @@ class _CheckSink:
     dictionary-coded as they come (`numerics.dictionary_coding`: exact, one or two bytes a row
     where a column has few distinct values), so a large run never holds them as full arrays."""
 
-    def __init__(self, block: CheckBlock | None) -> None:
+    def __init__(self, block: CheckBlock | None, n_rows: int = 0) -> None:
+        """`n_rows`: the rows of the whole run (no check keeps more): each array's buffer is
+        that large from the start, and only the part that is filled takes memory."""
         self.check = block.check if block is not None else ""
         self.clause = block.clause if block is not None else ""
-        self.rows: list[np.ndarray] = []
-        self.utilisation: list[np.ndarray] = []
-        self.x: list[np.ndarray] = []
-        self.reason = ColumnBuilder()
+        self.capacity = n_rows
+        self.rows = Appender(np.int64, n_rows)
+        self.utilisation = Appender(np.float64, n_rows)
+        self.x = Appender(np.float64, n_rows)
+        self.reason = ColumnBuilder(n_rows)
         self.values: dict[str, ColumnBuilder] = {}
         self.n_rows = 0
 
@@ -412,16 +416,16 @@ class _CheckSink:
         applies = np.asarray(block.applies, bool)
         where = np.flatnonzero(applies)
         n = len(where)
-        self.rows.append(offset + where)
-        self.utilisation.append(np.asarray(block.utilisation)[applies])
-        self.x.append(np.asarray(block.x)[applies])
+        self.rows.add(offset + where)
+        self.utilisation.add(np.asarray(block.utilisation)[applies])
+        self.x.add(np.asarray(block.x)[applies])
         self.reason.add(np.asarray(block.reason, dtype=object)[applies])
         for name, builder in self.values.items():
             if name not in block.values:
                 builder.add(np.full(n, np.nan))
         for name, value in block.values.items():
             if name not in self.values:
-                self.values[name] = ColumnBuilder()
+                self.values[name] = ColumnBuilder(self.capacity)
                 if self.n_rows:
                     self.values[name].add(np.full(self.n_rows, np.nan))
             self.values[name].add(np.asarray(value)[applies])
@@ -429,11 +433,11 @@ class _CheckSink:
 
     def part(self, rows: MemberRows, limit: float) -> Part:
         """The check's rows of the long table (`_table_part`)."""
-        where = np.concatenate(self.rows)
+        where = self.rows.array()
         reason = self.reason.finish()
         block = CheckBlock(
             check=self.check, clause=self.clause,
-            utilisation=np.concatenate(self.utilisation), x=np.concatenate(self.x),
+            utilisation=self.utilisation.array(), x=self.x.array(),
             applies=np.ones(len(where), dtype=bool),
             reason=reason.decoded() if isinstance(reason, Coded) else reason)
         values: dict[str, object] = {name: builder.finish()

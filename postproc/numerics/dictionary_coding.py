@@ -23,7 +23,7 @@ from typing import Any, TypeAlias
 import numpy as np
 import pandas as pd
 
-__all__ = ["PIECE_DISTINCT_MAX", "DISTINCT_MAX", "Coded", "ColumnBuilder", "Column",
+__all__ = ["PIECE_DISTINCT_MAX", "DISTINCT_MAX", "Appender", "Coded", "ColumnBuilder", "Column",
            "column_take"]
 
 # a piece with more distinct values than this is not coded (the column is then kept as it is):
@@ -32,6 +32,32 @@ PIECE_DISTINCT_MAX = 1024
 DISTINCT_MAX = 4096  # distinct values of a whole coded column (two-byte codes at most)
 
 Column: TypeAlias = np.ndarray | pd.api.extensions.ExtensionArray
+
+
+class Appender:
+    """A numeric array filled piece by piece in one buffer (grown by doubling, or as large as a
+    given capacity from the start). One buffer instead of a list of pieces: a large buffer is
+    mapped memory of its own, so the small temporary arrays made between two pieces are not
+    left between pieces that stay, which would keep the heap from shrinking; and pages of the
+    buffer beyond what is filled are never touched, so they take no memory."""
+
+    def __init__(self, dtype: Any, capacity: int | None = None) -> None:
+        self.dtype = np.dtype(dtype)
+        self._buffer = np.empty(capacity or 0, dtype=self.dtype)
+        self.n = 0
+
+    def add(self, piece: np.ndarray) -> None:
+        need = self.n + len(piece)
+        if need > len(self._buffer):
+            grown = np.empty(max(need, 2 * len(self._buffer), 4096), dtype=self.dtype)
+            grown[:self.n] = self._buffer[:self.n]
+            self._buffer = grown
+        self._buffer[self.n:need] = piece
+        self.n = need
+
+    def array(self) -> np.ndarray:
+        """What was added, in order (a view of the buffer)."""
+        return self._buffer[:self.n]
 
 
 @dataclass(frozen=True)
@@ -84,8 +110,11 @@ class ColumnBuilder:
     kept as they are. `finish` joins them: a `Coded` column, or the pieces as `np.concatenate`
     joins them."""
 
-    def __init__(self) -> None:
-        self._pieces: list[np.ndarray] = []   # codes while coding, else the values
+    def __init__(self, capacity: int | None = None) -> None:
+        self._capacity = capacity             # rows the column can reach, if known
+        self._coded = Appender(np.uint16, capacity)  # codes, while coding
+        self._values: Appender | None = None  # the values once not coded (one numeric dtype)
+        self._pieces: list[np.ndarray] = []   # the values once not coded (anything else)
         self._coding = True
         self._dtype: np.dtype | None = None
         self._keys: list[Any] = []            # distinct values (bits of numbers; text)
@@ -101,9 +130,22 @@ class ColumnBuilder:
         if self._coding:
             codes = self._codes(values)
             if codes is not None:
-                self._pieces.append(codes)
+                self._coded.add(codes)
                 return
             self._stop_coding()
+        self._add_value(values)
+
+    def _add_value(self, values: np.ndarray) -> None:
+        if self._values is not None and values.dtype == self._values.dtype:
+            self._values.add(values)
+            return
+        if self._values is not None:  # another dtype: kept as pieces from here on
+            self._pieces.append(self._values.array())
+            self._values = None
+        if not self._pieces and values.dtype.kind in "biuf":
+            self._values = Appender(values.dtype, self._capacity)
+            self._values.add(values)
+            return
         self._pieces.append(values)
 
     def _codes(self, values: np.ndarray) -> np.ndarray | None:
@@ -153,8 +195,9 @@ class ColumnBuilder:
         if not self._coding:
             return
         self._coding = False
-        uniques = self._remapped_uniques()
-        self._pieces = [uniques[codes] for codes in self._pieces]
+        if self._coded.n:
+            self._add_value(self._remapped_uniques()[self._coded.array()])
+        self._coded = Appender(np.uint16)
 
     def _remapped_uniques(self) -> np.ndarray:
         """Distinct values indexed by code (the missing text code maps to NaN)."""
@@ -168,13 +211,15 @@ class ColumnBuilder:
 
     def finish(self) -> Coded | np.ndarray:
         if not self._coding:
-            if not self._pieces:
+            if self._values is not None and not self._pieces:
+                return self._values.array()
+            pieces = self._pieces + ([self._values.array()] if self._values is not None else [])
+            if not pieces:
                 return np.zeros(0, dtype=self._dtype or np.float64)
-            return np.concatenate(self._pieces)
-        codes = (np.concatenate(self._pieces) if self._pieces
-                 else np.zeros(0, dtype=np.uint16))
+            return np.concatenate(pieces)
+        codes = self._coded.array()
         uniques = self._uniques()
         if self._missing >= 0:
             codes = np.where(codes == self._missing, len(self._keys), codes)
         small = np.uint8 if len(uniques) <= 256 else np.uint16
-        return Coded(codes=codes.astype(small), uniques=uniques)
+        return Coded(codes=codes.astype(small, copy=False), uniques=uniques)
