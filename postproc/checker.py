@@ -110,12 +110,17 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
     parts, covered, value_columns = _checked_parts(
         rows, families or CHECK_FAMILIES, overrides, tension_only, settings.utilisation_limit)
     lap("checks")
+    # the rows' forces as the report's stations; of the rows (forces, section and member data
+    # per row) only the keys are needed from here on, so the rest is freed before the table
+    # is built
+    stations = station_forces(rows)
+    row_keys = (rows.member, rows.combination)
+    del rows
     table, value_parts = _long_table(parts)
     del parts
     release_free_memory()
-    stations = station_forces(rows)
     # members without forces first, so that a combination's frame path applies to them too
-    table = _mark_unchecked_members(table, members, rows, list(uls), covered)
+    table = _mark_unchecked_members(table, members, row_keys, list(uls), covered)
     table = _mark_unusable_combinations(table, per_combination, combos, members)
     table = _explain_missing_lengths(table, lengths)
     if "path" in per_combination and len(table):
@@ -240,10 +245,12 @@ def _mark_member_bows(table: pd.DataFrame, bows: pd.DataFrame, covered_by: str) 
 
 
 def _mark_unchecked_members(table: pd.DataFrame, members: Members,
-                            rows: MemberRows | None = None, combinations: list | None = None,
+                            row_keys: tuple[np.ndarray, np.ndarray] | None = None,
+                            combinations: list | None = None,
                             covered: np.ndarray | None = None) -> pd.DataFrame:
-    """Every (member, ULS combination) appears in the table with a status. `covered` (R,)
-    says which member rows have at least one check row in `table`.
+    """Every (member, ULS combination) appears in the table with a status. `row_keys`: the
+    member rows' (member, combination) arrays; `covered` (R,) says which member rows have at
+    least one check row in `table`.
 
     - a pair with member rows but no check row (its forces are zero at every station): a
       'no internal forces' row, utilisation 0, pass;
@@ -263,9 +270,9 @@ def _mark_unchecked_members(table: pd.DataFrame, members: Members,
     # (members, combinations) grids from the member rows: cheap next to hashing the long table
     has_rows = np.zeros((len(ids), len(names)), dtype=bool)
     has_check = np.zeros_like(has_rows)
-    if rows is not None and len(rows.member):
-        m = pd.Categorical(np.asarray(rows.member, dtype=object), categories=ids).codes
-        c = pd.Categorical(np.asarray(rows.combination, dtype=object), categories=names).codes
+    if row_keys is not None and len(row_keys[0]):
+        m = pd.Categorical(np.asarray(row_keys[0], dtype=object), categories=ids).codes
+        c = pd.Categorical(np.asarray(row_keys[1], dtype=object), categories=names).codes
         known = (m >= 0) & (c >= 0)
         has_rows[m[known], c[known]] = True
         checked = known & (covered if covered is not None else True)
