@@ -56,3 +56,14 @@ def test_what_cannot_be_coded_is_joined_as_numpy_joins_it(monkeypatch, pieces) -
     got = _values(column)
     assert got.dtype == expected.dtype
     assert [repr(v) for v in got] == [repr(v) for v in expected]
+
+
+def test_codes_widen_to_two_bytes_past_256_values() -> None:
+    pieces = [np.arange(200.0), np.arange(150.0, 350.0), np.array([np.nan, 0.0])]
+    column = _built(pieces)
+    assert isinstance(column, Coded) and column.codes.dtype == np.uint16
+    np.testing.assert_array_equal(_values(column).view(np.int64),
+                                  np.concatenate(pieces).view(np.int64))
+    text = _built([np.array([f"t{k}" for k in range(300)] + [None], dtype=object)])
+    assert isinstance(text, Coded) and text.codes.dtype == np.uint16
+    assert _values(text)[299] == "t299" and _values(text)[300] != _values(text)[300]

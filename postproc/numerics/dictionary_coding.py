@@ -112,7 +112,7 @@ class ColumnBuilder:
 
     def __init__(self, capacity: int | None = None) -> None:
         self._capacity = capacity             # rows the column can reach, if known
-        self._coded = Appender(np.uint16, capacity)  # codes, while coding
+        self._coded = Appender(np.uint8, capacity)  # codes, while coding (two bytes once needed)
         self._values: Appender | None = None  # the values once not coded (one numeric dtype)
         self._pieces: list[np.ndarray] = []   # the values once not coded (anything else)
         self._coding = True
@@ -130,6 +130,10 @@ class ColumnBuilder:
         if self._coding:
             codes = self._codes(values)
             if codes is not None:
+                if len(self._keys) > 256 and self._coded.dtype == np.uint8:
+                    wider = Appender(np.uint16, self._capacity)
+                    wider.add(self._coded.array())
+                    self._coded = wider
                 self._coded.add(codes)
                 return
             self._stop_coding()
@@ -151,7 +155,7 @@ class ColumnBuilder:
     def _codes(self, values: np.ndarray) -> np.ndarray | None:
         """`values` as codes, new distinct values added; None where they cannot be coded."""
         if not len(values):
-            return np.zeros(0, dtype=np.uint16)
+            return np.zeros(0, dtype=np.int64)
         text = values.dtype.kind == "O"
         key = values if text else _bits(values)
         if key is None:
@@ -174,16 +178,21 @@ class ColumnBuilder:
             self._index = pd.Index(self._keys)
         codes = known[local] if len(known) else np.zeros(len(local), dtype=np.int64)
         if text and (local < 0).any():
-            if self._missing < 0:
-                self._missing = DISTINCT_MAX  # a code of its own, beyond every distinct value
+            if self._missing < 0:  # a missing text value: a distinct value of its own (NaN)
+                if len(self._keys) + 1 > DISTINCT_MAX:
+                    return None
+                self._missing = len(self._keys)
+                self._keys.append(np.nan)
+                self._index = pd.Index(self._keys)
             codes = np.where(local < 0, self._missing, codes)
-        return codes.astype(np.uint16)
+        return codes
 
     def _uniques(self) -> np.ndarray:
-        """The distinct values in code order (a missing text value last, as NaN)."""
+        """The distinct values in code order (a missing text value as NaN)."""
         if self._dtype is not None and self._dtype.kind == "O":
-            keys = list(self._keys) + ([np.nan] if self._missing >= 0 else [])
-            return np.array(keys, dtype=object)
+            uniques = np.empty(len(self._keys), dtype=object)
+            uniques[:] = self._keys
+            return uniques
         bits = np.array(self._keys, dtype=np.int64 if self._dtype is None
                         or self._dtype.kind == "f" else self._dtype)
         if self._dtype is not None and self._dtype.kind == "f":
@@ -196,18 +205,8 @@ class ColumnBuilder:
             return
         self._coding = False
         if self._coded.n:
-            self._add_value(self._remapped_uniques()[self._coded.array()])
-        self._coded = Appender(np.uint16)
-
-    def _remapped_uniques(self) -> np.ndarray:
-        """Distinct values indexed by code (the missing text code maps to NaN)."""
-        uniques = self._uniques()
-        if self._missing >= 0:
-            full = np.empty(DISTINCT_MAX + 1, dtype=object)
-            full[:len(self._keys)] = uniques[:len(self._keys)]
-            full[DISTINCT_MAX] = np.nan
-            return full
-        return uniques
+            self._add_value(self._uniques()[self._coded.array()])
+        self._coded = Appender(np.uint8)
 
     def finish(self) -> Coded | np.ndarray:
         if not self._coding:
@@ -217,9 +216,4 @@ class ColumnBuilder:
             if not pieces:
                 return np.zeros(0, dtype=self._dtype or np.float64)
             return np.concatenate(pieces)
-        codes = self._coded.array()
-        uniques = self._uniques()
-        if self._missing >= 0:
-            codes = np.where(codes == self._missing, len(self._keys), codes)
-        small = np.uint8 if len(uniques) <= 256 else np.uint16
-        return Coded(codes=codes.astype(small, copy=False), uniques=uniques)
+        return Coded(codes=self._coded.array(), uniques=self._uniques())
