@@ -66,13 +66,6 @@ _ROW_TEXTS = np.concatenate([np.array(["not readable", "B.3 linear, -1 <= psi <=
                                        "no moment, C_m = 1.0"], dtype=object), _ROWS_S, _ROWS_H])
 
 
-
-
-
-
-
-
-
 def _codes(values: np.ndarray, table: np.ndarray) -> np.ndarray:
     """Integer codes of text values in `table`; -1 for anything else."""
     values = np.asarray(values, dtype=object)

@@ -35,8 +35,11 @@ def name_key(text: str) -> str:
     words = [tok for tok in tokens if not tok[0].isdigit() and tok != "X"]
     numbers = [f"{float(tok):g}" for tok in tokens if tok[0].isdigit()]
     family = "".join(words)  # 'HE 200 A' gives HEA like 'HEA 200'
-    if family in ("SHS", "RHS") and len(numbers) == 2:
-        numbers = [numbers[0], numbers[0], numbers[1]]  # 'SHS 100x5'
+    if family == "SHS" and len(numbers) == 2:
+        # 'SHS 100x5': side and thickness. Two numbers of an RHS are its sides, h x b, with
+        # the thickness left out ('RHS 200x100'): kept as given, so the suggestions compare
+        # the sides (read as a square they would suggest SHS 200x200x100)
+        numbers = [numbers[0], numbers[0], numbers[1]]
     if family == "RHS" and len(numbers) == 3 and numbers[0] == numbers[1]:
         family = "SHS"
     return family + " " + "x".join(numbers)

@@ -181,3 +181,15 @@ def test_values_given_as_text_like_a_csv_reader_leaves_them():
     assert t.loc["s", "A"] == pytest.approx(
         build_sections(spec(section="s", designation="IPE 300")).loc["s", "A"])
     assert t.loc["s", "given_class"] == 2.0
+
+
+def test_an_rhs_named_by_its_sides_only_is_offered_rhs_sizes():
+    """'RHS 200x100' gives the sides h x b without the thickness: the suggestions are the RHS
+    200x100 sizes of the catalogue, not a square section read from 'side x thickness' (which
+    is what two numbers of an SHS mean). Catalogue sizes: postproc/sections/data/rhs.csv."""
+    from postproc.sections.catalogue import name_key, suggestions
+
+    assert name_key("RHS 200x100") == "RHS 200x100"
+    assert name_key("SHS 100x5") == "SHS 100x100x5"
+    offered = suggestions("RHS 200x100")
+    assert offered and all(name.startswith("RHS 200x100x") for name in offered)
