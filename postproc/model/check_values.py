@@ -10,8 +10,11 @@ with exactly that block's value columns. A view that needs the values (the long 
 or CSV, the governing rows of the sheets and the workbook) joins them onto the rows it reads, by
 the table's row labels (the table keeps its RangeIndex 0..n-1).
 
-The joined columns and their dtypes are those of the one wide table the checker built before
-(the columns in order of first appearance, NaN where a row has no such value).
+The joined columns and their dtypes are those of one wide table of every check's values: the
+columns in order of first appearance, NaN where a row has no such value, the dtypes that
+concatenating one frame per check gives. A part's column may be dictionary-coded (`Coded`, from
+`numerics.dictionary_coding`: one or two bytes a row where a column has few distinct values);
+joining decodes it, so a view never sees the codes.
 """
 
 from __future__ import annotations
