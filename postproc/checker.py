@@ -13,7 +13,9 @@ family, 8. the long table.
 
 from __future__ import annotations
 
+from collections.abc import Iterable
 from dataclasses import replace
+from typing import Any
 
 import numpy as np
 import pandas as pd
@@ -28,7 +30,7 @@ from .model.check_values import CheckValues
 from .model.frame import Frame
 from .model.member_rows import build_member_rows
 from .model.members import Members, design_members
-from .model.outcome import KEY_COLUMNS, CheckOutcome
+from .model.outcome import CATEGORICAL_COLUMNS, KEY_COLUMNS, CheckOutcome
 from .model.positions import restraints_along as restraints_along_members
 from .model.results import Results
 from .model.rows import FAIL, NOT_EVALUATED, PASS, CheckBlock, MemberRows
@@ -74,8 +76,7 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
     forces = results.forces if usable.all() else results.forces[usable]
     uls_results = replace(results, forces=forces, combinations=combos.loc[uls])
     if forces.empty:  # nothing to check: every member is reported, none passes
-        table = _mark_unusable_combinations(pd.DataFrame(columns=KEY_COLUMNS), pd.DataFrame(),
-                                            combos, members)
+        table = _mark_unusable_combinations(_empty_table(), pd.DataFrame(), combos, members)
         return CheckOutcome(table=_mark_unchecked_members(table, members), members=members,
                             stability=_with_analysis_status(
                                 pd.DataFrame(index=pd.Index([], name="combination")), combos),
@@ -127,10 +128,11 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
         # the analysis path of 5.2.1/5.2.2 that each row's forces went through, and on the
         # amplified path which part of the forces was amplified
         position = list(table.columns).index("reason") + 1
+        combination, names = pd.factorize(table["combination"])
         for offset, (name, column) in enumerate((("analysis_path", "path"),
                                                  ("amplified_part", "amplified_part"))):
-            table.insert(position + offset, name,
-                         table["combination"].map(per_combination[column]).fillna("").to_numpy())
+            table.insert(position + offset, name, _per_combination(
+                combination, names, per_combination[column]))
         bows = stability.bow_imperfections_needed(frame, members, checked, alpha)
         table = _mark_member_bows(table, bows, settings.bow_imperfections)
     values = CheckValues.from_parts(value_parts, rows_after=len(table) > sum(
@@ -233,14 +235,17 @@ def _mark_member_bows(table: pd.DataFrame, bows: pd.DataFrame, covered_by: str) 
         wanted = m_needed[known].astype(np.int64) * len(combos_in_table) + c_needed[known]
         hit = np.isin(m.astype(np.int64) * len(combos_in_table) + c, wanted)
     position = list(table.columns).index("amplified_part") + 1
-    # text objects, not a fixed-width numpy text array (of about 100 characters per row)
-    notes = np.full(len(table), "", dtype=object)
-    notes[hit] = BOW_NOTES[covered_by]
-    table.insert(position, "bow_imperfection", notes)
+    # '' or the one note: code 1 ('' sorts first) where the bow is needed
+    notes = [""] + ([BOW_NOTES[covered_by]] if hit.any() else [])
+    table.insert(position, "bow_imperfection", _categorical(
+        hit.astype(_code_type(len(notes))), pd.Index(notes)))
     if covered_by == "not covered" and hit.any():
+        reason = ("5.3.2(6): the member's bow imperfection belongs in the frame analysis and is "
+                  "not covered")
+        _with_categories(table, "status", [NOT_EVALUATED])
+        _with_categories(table, "reason", [reason])
         table.loc[hit, "status"] = NOT_EVALUATED
-        table.loc[hit, "reason"] = ("5.3.2(6): the member's bow imperfection belongs in the frame "
-                                    "analysis and is not covered")
+        table.loc[hit, "reason"] = reason
     return table
 
 
@@ -294,7 +299,87 @@ def _mark_unchecked_members(table: pd.DataFrame, members: Members,
 def _append(table: pd.DataFrame, extra: pd.DataFrame) -> pd.DataFrame:
     if not len(extra):
         return table
-    return pd.concat([table, extra], ignore_index=True, sort=False) if len(table) else extra
+    return _stacked([table, extra]) if len(table) else _coded(extra)
+
+
+def _empty_table() -> pd.DataFrame:
+    """The long table without rows: KEY_COLUMNS, the text ones as (empty) categoricals."""
+    return _coded(pd.DataFrame(columns=KEY_COLUMNS))
+
+
+def _code_type(n: int) -> type[np.signedinteger]:
+    """The integer type pandas keeps the codes of `n` categories in (so none is copied)."""
+    for kind in (np.int8, np.int16, np.int32):
+        if n < np.iinfo(kind).max:
+            return kind
+    return np.int64
+
+
+def _sorted_categories(texts: Iterable[Any]) -> pd.Index:
+    """Distinct texts sorted as text: a sort by a column of these codes is a sort by its text."""
+    return pd.Index(sorted({t for t in texts if not pd.isna(t)}))
+
+
+def _categorical(codes: np.ndarray, categories: pd.Index) -> pd.Categorical:
+    return pd.Categorical.from_codes(codes, dtype=pd.CategoricalDtype(categories))
+
+
+def _onto(uniques: Iterable[object], categories: pd.Index) -> np.ndarray:
+    """Codes of `uniques` (a factorization's distinct values) in `categories`, and -1 last, so
+    that indexing it with the factorization's codes (-1 where missing) gives the new codes."""
+    return np.append(categories.get_indexer(pd.Index(list(uniques), dtype=object)),
+                     -1).astype(_code_type(len(categories)))
+
+
+def _coded(frame: pd.DataFrame) -> pd.DataFrame:
+    """The frame with its columns of CATEGORICAL_COLUMNS as categoricals (categories sorted)."""
+    coded = {}
+    for column in CATEGORICAL_COLUMNS:
+        if column in frame and not isinstance(frame[column].dtype, pd.CategoricalDtype):
+            coded[column] = _sorted_categorical(frame[column].to_numpy(dtype=object))
+    return frame.assign(**coded) if coded else frame
+
+
+def _sorted_categorical(values: np.ndarray) -> pd.Categorical:
+    """Texts as a categorical on the distinct ones, sorted (one or two bytes a row)."""
+    codes, uniques = pd.factorize(values)
+    categories = _sorted_categories(uniques)
+    return _categorical(_onto(uniques, categories)[codes], categories)
+
+
+def _stacked(frames: list[pd.DataFrame]) -> pd.DataFrame:
+    """The frames one under the other (`pd.concat`) with each categorical column kept one:
+    on the union of the categories, sorted (pandas would fall back to text objects)."""
+    frames = [_coded(f) for f in frames]
+    for column in CATEGORICAL_COLUMNS:
+        present = [f[column].cat.categories for f in frames if column in f]
+        if present:
+            dtype = pd.CategoricalDtype(_sorted_categories(t for c in present for t in c))
+            frames = [f.assign(**{column: f[column].astype(dtype)}) if column in f else f
+                      for f in frames]
+    return pd.concat(frames, ignore_index=True, sort=False)
+
+
+def _with_categories(table: pd.DataFrame, column: str, texts: Iterable[str]) -> None:
+    """Make `texts` categories of the table's categorical `column` (kept sorted), so that they
+    can be assigned into it."""
+    values = table[column]
+    new = set(texts).difference(values.cat.categories)
+    if new:
+        table[column] = values.cat.set_categories(
+            _sorted_categories([*values.cat.categories, *new]))
+
+
+def _per_combination(combination: np.ndarray, names: pd.Index, value: pd.Series
+                     ) -> pd.Categorical:
+    """A per-combination text on every row ('' where a combination has none), as codes: the
+    rows' combination codes (`pd.factorize`, -1 where missing) mapped to their value's code."""
+    texts = pd.Series(names).map(value).fillna("").tolist()
+    if (combination < 0).any():
+        texts.append("")  # the code -1 picks the last
+    categories = _sorted_categories(texts)
+    return _categorical(categories.get_indexer(pd.Index(texts, dtype=object)).astype(
+        _code_type(len(categories)))[combination], categories)
 
 
 MISSING_LENGTH_ORIGIN = {"L_cr,y not known": "origin_y", "L_cr,z not known": "origin_z",
@@ -306,17 +391,20 @@ def _explain_missing_lengths(table: pd.DataFrame, lengths: pd.DataFrame) -> pd.D
     (e.g. no restraint at a member end) so the user knows which override to give."""
     if not len(table) or lengths is None or not len(lengths):
         return table
-    reason = table["reason"].astype(str)
     for marker, origin in MISSING_LENGTH_ORIGIN.items():
-        hit = reason.str.contains(marker, regex=False).to_numpy()
+        # the rows whose reason is one of the categories with the marker
+        reason = table["reason"]
+        with_marker = reason.cat.categories.str.contains(marker, regex=False)
+        hit = np.isin(reason.cat.codes.to_numpy(), np.flatnonzero(with_marker))
         if not hit.any() or origin not in lengths:
             continue
         why = (table.loc[hit, ["member", "combination"]]
                .merge(lengths[["member", "combination", origin]], how="left",
                       on=["member", "combination"])[origin].fillna("").astype(str).to_numpy())
         extra = np.where(why != "", " (" + why + ")", "")
-        table.loc[hit, "reason"] = (reason[hit].to_numpy() + extra).astype(object)
-        reason = table["reason"].astype(str)
+        texts = (reason[hit].to_numpy(dtype=object) + extra).astype(object)
+        _with_categories(table, "reason", texts)
+        table.loc[hit, "reason"] = texts
     return table
 
 
@@ -472,17 +560,22 @@ def _table_part(member: np.ndarray, combination: np.ndarray, block: CheckBlock, 
     keys: dict[str, object] = {
         "member": member, "combination": combination, "check": block.check,
         "clause": block.clause, "x_m": block.x, "utilisation": block.utilisation,
-        "status": _status(block.utilisation, reason, limit), "reason": reason}
-    return (len(member), _inferred(keys),
+        "status": _status_codes(block.utilisation, reason, limit),
+        "reason": _sorted_categorical(reason)}
+    # the categorical columns stay as they are: `_joined_parts` codes them
+    return (len(member), _inferred(keys, keep=CATEGORICAL_COLUMNS),
             _inferred(dict(block.values) if values is None else values))
 
 
-def _inferred(columns: dict[str, object]) -> dict[str, object]:
-    """Object columns as the dtype pandas infers for them (text: Arrow-backed strings); a coded
-    column of text gets its distinct values so (their inferred dtype is the column's)."""
+def _inferred(columns: dict[str, object], keep: Iterable[str] = ()) -> dict[str, object]:
+    """Object columns (besides those of `keep`) as the dtype pandas infers for them (text:
+    Arrow-backed strings); a coded column of text gets its distinct values so (their inferred
+    dtype is the column's)."""
     out: dict[str, object] = {}
     for name, value in columns.items():
-        if isinstance(value, Coded) and value.uniques.dtype == object:
+        if name in keep:
+            out[name] = value
+        elif isinstance(value, Coded) and value.uniques.dtype == object:
             series = pd.Series(value.uniques)
             out[name] = value if series.dtype == object else Coded(value.codes, series.array)
         elif isinstance(value, np.ndarray) and value.dtype == object:
@@ -497,7 +590,7 @@ def _long_table(parts: list[Part]) -> tuple[pd.DataFrame, list[tuple[int, dict[s
     """The key columns of the parts one under the other (the long table), and each part's
     values (`CheckValues` once the table is complete)."""
     if not parts:
-        return pd.DataFrame(columns=KEY_COLUMNS), []
+        return _empty_table(), []
     values = [(size, {k: v.array if isinstance(v, pd.Series) else v
                       for k, v in part_values.items()}) for size, _, part_values in parts]
     keys = [(size, part_keys) for size, part_keys, _ in parts]
@@ -534,7 +627,7 @@ def _joined_parts(parts: list[tuple[int, dict[str, object]]]) -> pd.DataFrame:
     def first(value: object) -> object:
         if isinstance(value, pd.Series):
             return value.iloc[:1].reset_index(drop=True)
-        return value[:1] if isinstance(value, np.ndarray) else value
+        return value[:1] if isinstance(value, (np.ndarray, pd.Categorical)) else value
 
     # the result's columns and dtypes from one row of each part (they follow from the dtypes)
     head = pd.concat([pd.DataFrame({k: first(v) for k, v in data.items()}, index=[0])
@@ -555,6 +648,9 @@ def _joined_parts(parts: list[tuple[int, dict[str, object]]]) -> pd.DataFrame:
     for position, column in enumerate(head.columns):
         if column in table.columns:
             continue
+        if column in CATEGORICAL_COLUMNS:
+            table.insert(position, column, _categorical_text(parts, column, starts))
+            continue
         dtype = dtypes[column]
         text = _arrow_text(parts, column, dtype)
         if text is not None:
@@ -570,6 +666,32 @@ def _joined_parts(parts: list[tuple[int, dict[str, object]]]) -> pd.DataFrame:
         table.insert(position, column, pd.Series(cells, dtype=object)
                      if pd.api.types.is_object_dtype(dtype) else pd.array(cells, dtype=dtype))
     return table
+
+
+def _categorical_text(parts: list[tuple[int, dict[str, object]]], column: str,
+                      starts: np.ndarray) -> pd.Categorical:
+    """A text column of the parts as a categorical (categories sorted as text) built from each
+    part's codes: a part's one text is one code, its values are factorized and their codes
+    mapped onto the union of the categories (a missing part: -1); no full-size text column."""
+    pieces: list[tuple[np.ndarray | None, list[object]]] = []
+    for _, data in parts:
+        value = data.pop(column, None)
+        if value is None:
+            pieces.append((None, []))
+        elif isinstance(value, str):
+            pieces.append((None, [value]))
+        elif isinstance(value, pd.Categorical):
+            pieces.append((value.codes, list(value.categories)))
+        else:
+            codes, uniques = pd.factorize(value if isinstance(value, (np.ndarray, pd.Series))
+                                          else np.asarray(value, dtype=object))
+            pieces.append((codes, list(uniques)))
+    categories = _sorted_categories(t for _, uniques in pieces for t in uniques)
+    out = np.empty(int(starts[-1]), dtype=_code_type(len(categories)))
+    for (codes, uniques), a, b in zip(pieces, starts[:-1], starts[1:], strict=True):
+        onto = _onto(uniques, categories)
+        out[a:b] = onto[codes] if codes is not None else onto[0]
+    return _categorical(out, categories)
 
 
 def _arrow_text(parts: list[tuple[int, dict[str, object]]], column: str, dtype: object
@@ -595,10 +717,22 @@ def _arrow_text(parts: list[tuple[int, dict[str, object]]], column: str, dtype: 
     return pd.array(pa.chunked_array(pieces, type=kind).combine_chunks(), dtype=dtype)
 
 
-def _status(utilisation: np.ndarray, reason: np.ndarray, limit: float) -> np.ndarray:
+STATUSES = pd.Index(sorted([FAIL, NOT_EVALUATED, PASS]))
+
+
+def _status_codes(utilisation: np.ndarray, reason: np.ndarray, limit: float) -> pd.Categorical:
+    """Each row's status, as codes on the statuses that occur (no text object per row)."""
     evaluated = ~np.isnan(utilisation) & (reason == "")
     over = evaluated & (np.nan_to_num(utilisation, nan=0.0) > limit)
-    return np.where(~evaluated, NOT_EVALUATED, np.where(over, FAIL, PASS)).astype(object)
+    code = {s: np.int8(k) for k, s in enumerate(STATUSES)}
+    codes = np.where(~evaluated, code[NOT_EVALUATED],
+                     np.where(over, code[FAIL], code[PASS])).astype(np.int8)
+    return _categorical(codes, STATUSES).remove_unused_categories()
+
+
+def _status(utilisation: np.ndarray, reason: np.ndarray, limit: float) -> np.ndarray:
+    """Each row's status as text."""
+    return np.asarray(_status_codes(utilisation, reason, limit), dtype=object)
 
 
 def _mark_unusable_combinations(table: pd.DataFrame, per_combination: pd.DataFrame,
@@ -623,8 +757,10 @@ def _mark_unusable_combinations(table: pd.DataFrame, per_combination: pd.DataFra
         if len(bad):
             hit = table["combination"].isin(bad.index)
             reasons = table.loc[hit, "combination"].map(bad["reason"])
+            _with_categories(table, "status", [NOT_EVALUATED])
+            _with_categories(table, "reason", reasons.dropna().unique())
             table.loc[hit, "status"] = NOT_EVALUATED
             table.loc[hit, "reason"] = reasons.to_numpy()
     if extra:
-        table = pd.concat([table, *extra], ignore_index=True, sort=False)
+        table = _stacked([table, *extra])
     return table

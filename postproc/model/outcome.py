@@ -12,9 +12,15 @@ from .frame import Frame
 from .members import Members
 from .rows import FAIL, NOT_EVALUATED, PASS
 
-__all__ = ["FAIL", "KEY_COLUMNS", "NOT_EVALUATED", "PASS", "CheckOutcome"]
+__all__ = ["CATEGORICAL_COLUMNS", "FAIL", "KEY_COLUMNS", "NOT_EVALUATED", "PASS", "CheckOutcome"]
 
 KEY_COLUMNS = ["member", "combination", "check", "clause", "x_m", "utilisation", "status", "reason"]
+
+# the long table's text columns with few distinct values, held as pandas categoricals (one or two
+# bytes a row, not a text per row) whose categories are sorted as text, so that a sort by one of
+# them is a sort by its text; any other text column is Arrow-backed text
+CATEGORICAL_COLUMNS = ("check", "clause", "status", "reason", "analysis_path", "amplified_part",
+                       "bow_imperfection")
 
 
 @dataclass(frozen=True)
@@ -24,7 +30,8 @@ class CheckOutcome:
     Attributes:
         table: the long results table, one row per (member, combination, check): KEY_COLUMNS
             and what the checker marks beside them (analysis path, amplified part, member
-            bow), with a RangeIndex: row labels 0..n-1 address `values`.
+            bow), with a RangeIndex: row labels 0..n-1 address `values`; the columns of
+            CATEGORICAL_COLUMNS are categoricals (categories sorted as text).
         values: the intermediate values of each check (SI, names with unit suffixes), kept
             apart from the table (`postproc.model.check_values`); `with_values` joins them.
         members: the design members used.

@@ -23,6 +23,12 @@ def formula_safe_table(table: pd.DataFrame) -> pd.DataFrame:
     out = table.copy()
     for column in out.columns:
         values = out[column]
+        if isinstance(values.dtype, pd.CategoricalDtype):
+            # a risky category makes the column text (the apostrophe is no category)
+            if not any(isinstance(v, str) and v.startswith(FORMULA_STARTS)
+                       for v in values.cat.categories):
+                continue
+            values = values.astype(str)
         if values.dtype == object or pd.api.types.is_string_dtype(values):
             # look at each distinct value once: long tables repeat a few names many times
             risky = [v for v in pd.unique(values.to_numpy())

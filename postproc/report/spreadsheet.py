@@ -91,7 +91,7 @@ def write_parquet(table: pd.DataFrame, path: Path, values: CheckValues | None = 
     writer = None
     try:
         for a in range(0, max(len(table), 1), PARQUET_CHUNK_ROWS):
-            keys = table.iloc[a:a + PARQUET_CHUNK_ROWS]
+            keys = _as_text(table.iloc[a:a + PARQUET_CHUNK_ROWS])
             if key_kinds:
                 keys = keys.assign(**{c: _as_kind(keys[c], k) for c, k in key_kinds.items()})
             arrow = pa.Table.from_pandas(keys, preserve_index=False)
@@ -105,6 +105,13 @@ def write_parquet(table: pd.DataFrame, path: Path, values: CheckValues | None = 
     finally:
         if writer is not None:
             writer.close()
+
+
+def _as_text(keys: pd.DataFrame) -> pd.DataFrame:
+    """A slice with its categorical columns as text (the file holds text, not dictionaries,
+    and its pandas schema says so, as before the table held categoricals)."""
+    coded = [c for c in keys.columns if isinstance(keys[c].dtype, pd.CategoricalDtype)]
+    return keys.assign(**{c: keys[c].astype(str) for c in coded}) if coded else keys
 
 
 def _with_value_columns(arrow, keys: pd.DataFrame, values: CheckValues,

@@ -24,6 +24,8 @@ def member_summary(table: pd.DataFrame, members: pd.DataFrame) -> pd.DataFrame:
     governing = governing.set_index("member").rename(columns={
         "utilisation": "max_utilisation", "combination": "governing_combination",
         "check": "governing_check", "clause": "governing_clause", "x_m": "governing_x_m"})
+    # one row per member: its texts as text, not the long table's categoricals
+    governing = governing.astype({"governing_check": str, "governing_clause": str})
     counts = pd.crosstab(table["member"], table["status"])
     for status in (PASS, FAIL, NOT_EVALUATED):
         if status not in counts:
@@ -38,7 +40,8 @@ def member_summary(table: pd.DataFrame, members: pd.DataFrame) -> pd.DataFrame:
                                           NOT_EVALUATED, PASS))
     first_reason = (table.loc[(table["status"] == NOT_EVALUATED).to_numpy(), ["member", "reason"]]
                     .groupby("member")["reason"].first())
-    summary["not_evaluated_reason"] = first_reason.reindex(summary.index).fillna("")
+    # as text: '' is no category of a categorical reason column
+    summary["not_evaluated_reason"] = first_reason.astype(str).reindex(summary.index).fillna("")
     summary.index.name = "member"
     return summary.reset_index()
 
