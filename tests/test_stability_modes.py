@@ -253,12 +253,8 @@ def test_leaning_column_portal_against_opensees():
         assert ops.analyze(1) == 0
 
     lam = singular_load_factors(ops, build)
-    nodes = [("1", 0, 0, 0), ("2", 0, L, 0), ("3", 6, L, 0), ("4", 6, 0, 0), ("5", 12, 0, 0),
-             ("6", 12, L, 0)]
-    els = [("C1", "1", "2", "HEB 200", "", ""), ("R1", "2", "3", "STIFF", "", ""),
-           ("C2", "4", "3", "HEB 200", "", ""), ("K1", "3", "6", "STIFF", "My", "My"),
-           ("P1", "5", "6", "HEB 200", "My", "My")]
-    f = make_frame(nodes, els, [("1", *FIXED), ("4", *FIXED), ("5", *PINNED)])
+    f, P_c_frame, P_p_frame, _ = leaning_portal()  # the same portal and loads as built above
+    assert (P_c_frame, P_p_frame) == pytest.approx((P_c, P_p), rel=1e-15)
     _, _, alpha, _ = run(f, {"U1": {"C1": -P_c, "C2": -P_c, "P1": -P_p}})
     # the lowest OpenSees value is the leaning column's member mode
     assert alpha.at["U1", "alpha_cr_local"] == pytest.approx(lam[0], rel=0.02)

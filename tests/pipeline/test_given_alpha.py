@@ -114,7 +114,8 @@ def test_the_same_value_computed_or_given_gives_the_same_checks(tmp_path):
     assert b["status"].tolist() == a["status"].tolist()
 
 
-def test_only_combinations_without_a_value_go_to_the_eigen_analysis(tmp_path, monkeypatch):
+def _eigen_combinations(monkeypatch) -> list[list[str]]:
+    """Records, per call of the frame's eigen analysis, the combinations it is given."""
     seen: list[list[str]] = []
     real = stability.critical_load_factors
 
@@ -123,6 +124,11 @@ def test_only_combinations_without_a_value_go_to_the_eigen_analysis(tmp_path, mo
         return real(frame, results, members, **settings)
 
     monkeypatch.setattr(stability, "critical_load_factors", record)
+    return seen
+
+
+def test_only_combinations_without_a_value_go_to_the_eigen_analysis(tmp_path, monkeypatch):
+    seen = _eigen_combinations(monkeypatch)
     project = _per_combination(tmp_path, {"G": "15", "W": "20"})
     st = run_project(project).outcome.stability
     assert seen == [["Q", "S"]]
@@ -207,14 +213,7 @@ def test_the_openseespy_route_takes_alpha_cr_from_the_project_file(tmp_path, mon
     models = Path(__file__).resolve().parents[2] / "models"
     project.write_text(project.read_text().replace('"../../models/', f'"{models}/')
                        + f'\n[combinations.alpha_cr]\n"{first[0]}" = 15.0\n')
-    seen: list[list[str]] = []
-    real = stability.critical_load_factors
-
-    def record(frame, results, members, **settings):
-        seen.append(results.combinations.index.astype(str).tolist())
-        return real(frame, results, members, **settings)
-
-    monkeypatch.setattr(stability, "critical_load_factors", record)
+    seen = _eigen_combinations(monkeypatch)
     st = run_project(project).outcome.stability
     assert len(seen) == 1 and set(seen[0]) == set(first[1:])
     assert st.loc[first[0], "alpha_cr_given"] == 15.0
