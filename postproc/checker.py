@@ -33,7 +33,14 @@ from .model.members import Members, design_members
 from .model.outcome import CATEGORICAL_COLUMNS, KEY_COLUMNS, CheckOutcome
 from .model.positions import restraints_along as restraints_along_members
 from .model.results import Results
-from .model.rows import FAIL, NOT_EVALUATED, PASS, CheckBlock, MemberRows
+from .model.rows import (
+    NOT_EVALUATED,
+    PASS,
+    STATUSES,
+    CheckBlock,
+    MemberRows,
+    status_codes,
+)
 from .model.rules import member_settings, resolved_overrides
 from .numerics.dictionary_coding import Appender, Coded, ColumnBuilder
 from .report.progress import QUIET, Stages
@@ -377,9 +384,8 @@ def _per_combination(combination: np.ndarray, names: pd.Index, value: pd.Series
     texts = pd.Series(names).map(value).fillna("").tolist()
     if (combination < 0).any():
         texts.append("")  # the code -1 picks the last
-    categories = _sorted_categories(texts)
-    return _categorical(categories.get_indexer(pd.Index(texts, dtype=object)).astype(
-        _code_type(len(categories)))[combination], categories)
+    per_name = _sorted_categorical(np.array(texts, dtype=object))
+    return _categorical(per_name.codes[combination], per_name.categories)
 
 
 MISSING_LENGTH_ORIGIN = {"L_cr,y not known": "origin_y", "L_cr,z not known": "origin_z",
@@ -717,22 +723,11 @@ def _arrow_text(parts: list[tuple[int, dict[str, object]]], column: str, dtype: 
     return pd.array(pa.chunked_array(pieces, type=kind).combine_chunks(), dtype=dtype)
 
 
-STATUSES = pd.Index(sorted([FAIL, NOT_EVALUATED, PASS]))
-
-
 def _status_codes(utilisation: np.ndarray, reason: np.ndarray, limit: float) -> pd.Categorical:
-    """Each row's status, as codes on the statuses that occur (no text object per row)."""
-    evaluated = ~np.isnan(utilisation) & (reason == "")
-    over = evaluated & (np.nan_to_num(utilisation, nan=0.0) > limit)
-    code = {s: np.int8(k) for k, s in enumerate(STATUSES)}
-    codes = np.where(~evaluated, code[NOT_EVALUATED],
-                     np.where(over, code[FAIL], code[PASS])).astype(np.int8)
-    return _categorical(codes, STATUSES).remove_unused_categories()
-
-
-def _status(utilisation: np.ndarray, reason: np.ndarray, limit: float) -> np.ndarray:
-    """Each row's status as text."""
-    return np.asarray(_status_codes(utilisation, reason, limit), dtype=object)
+    """Each row's status (`status_codes`), as codes on the statuses that occur (no text object
+    per row)."""
+    return _categorical(status_codes(utilisation, reason, limit),
+                        pd.Index(STATUSES)).remove_unused_categories()
 
 
 def _mark_unusable_combinations(table: pd.DataFrame, per_combination: pd.DataFrame,

@@ -14,10 +14,20 @@ import numpy as np
 from ..settings import DesignSettings
 from .member_info import MemberInfo
 
-__all__ = ["CheckBlock", "FAIL", "MemberRows", "NOT_EVALUATED", "PASS", "at_station",
-           "block_concat", "governing", "no_reason", "rows_concat", "rows_slice"]
+__all__ = ["CheckBlock", "FAIL", "MemberRows", "NOT_EVALUATED", "PASS", "STATUSES", "at_station",
+           "block_concat", "governing", "no_reason", "rows_concat", "rows_slice", "status_codes"]
 
 PASS, FAIL, NOT_EVALUATED = "pass", "fail", "not evaluated"
+STATUSES = (FAIL, NOT_EVALUATED, PASS)  # sorted as text: `status_codes` index into it
+
+
+def status_codes(utilisation: np.ndarray, reason: np.ndarray, limit: float = 1.0) -> np.ndarray:
+    """(R,) each row's status as its index in STATUSES: not evaluated where the utilisation is
+    NaN or a reason is given (NaN never passes), fail above `limit`, else pass."""
+    evaluated = ~np.isnan(utilisation) & (np.asarray(reason, dtype=object) == "")
+    over = evaluated & (np.nan_to_num(utilisation, nan=0.0) > limit)
+    return np.where(~evaluated, STATUSES.index(NOT_EVALUATED),
+                    np.where(over, STATUSES.index(FAIL), STATUSES.index(PASS))).astype(np.int8)
 
 
 @dataclass(frozen=True)
@@ -112,11 +122,9 @@ class CheckBlock:
     values: dict[str, np.ndarray] = field(default_factory=dict)
 
     def status(self, limit: float = 1.0) -> np.ndarray:
-        """(R,) 'pass', 'fail' or 'not evaluated'. NaN never passes."""
-        evaluated = ~np.isnan(self.utilisation) & (self.reason == "")
-        over = evaluated & (np.nan_to_num(self.utilisation, nan=0.0) > limit)
-        return np.where(~evaluated, NOT_EVALUATED, np.where(over, FAIL, PASS)).astype(object)
-
+        """(R,) 'pass', 'fail' or 'not evaluated' (`status_codes`). NaN never passes."""
+        return np.array(STATUSES, dtype=object)[status_codes(self.utilisation, self.reason,
+                                                             limit)]
 
 
 def governing(utilisation: np.ndarray, x: np.ndarray) -> tuple[np.ndarray, np.ndarray, np.ndarray]:

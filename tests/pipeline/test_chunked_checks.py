@@ -66,7 +66,6 @@ def _as_text(table: pd.DataFrame) -> pd.DataFrame:
 def _one_frame_per_check(rows, blocks, limit: float = 1.0) -> pd.DataFrame:
     """The long table by its definition: one frame per check (the rows it applies to), one
     under the other (pandas concat: union of the columns, NaN where a check has no value)."""
-    from postproc.checker import _status
 
     parts = []
     for block in blocks:
@@ -78,7 +77,7 @@ def _one_frame_per_check(rows, blocks, limit: float = 1.0) -> pd.DataFrame:
         data = {"member": rows.member[keep], "combination": rows.combination[keep],
                 "check": block.check, "clause": block.clause, "x_m": block.x[keep],
                 "utilisation": block.utilisation[keep],
-                "status": _status(block.utilisation, reason, limit)[keep],
+                "status": block.status(limit)[keep],
                 "reason": reason[keep]}
         data.update({name: np.asarray(v)[keep] for name, v in block.values.items()})
         parts.append(pd.DataFrame(data))
