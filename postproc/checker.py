@@ -15,7 +15,6 @@ from __future__ import annotations
 
 from collections.abc import Iterable
 from dataclasses import replace
-from typing import Any
 
 import numpy as np
 import pandas as pd
@@ -42,6 +41,13 @@ from .model.rows import (
     status_codes,
 )
 from .model.rules import member_settings, resolved_overrides
+from .numerics.categories import (
+    categorical,
+    code_type,
+    codes_onto,
+    sorted_categorical,
+    sorted_categories,
+)
 from .numerics.dictionary_coding import Appender, Coded, ColumnBuilder
 from .report.progress import QUIET, Stages
 from .settings import DesignSettings, SwaySearch
@@ -198,13 +204,21 @@ def _with_given_column(per_combination: pd.DataFrame, combos: pd.DataFrame) -> p
 
 
 def station_forces(rows: MemberRows) -> pd.DataFrame:
-    """The forces of every row at its real stations as a plain long table (padding dropped)."""
+    """The forces of every row at its real stations as a plain long table (padding dropped);
+    member and combination as categoricals (a few thousand names over millions of stations:
+    codes, not a text per station)."""
     valid = rows.valid
     r, _ = np.nonzero(valid)
     return pd.DataFrame({
-        "member": rows.member[r], "combination": rows.combination[r], "x_m": rows.x[valid],
+        "member": _taken(sorted_categorical(rows.member), r),
+        "combination": _taken(sorted_categorical(rows.combination), r), "x_m": rows.x[valid],
         "N_N": rows.N[valid], "V_y_N": rows.Vy[valid], "V_z_N": rows.Vz[valid],
-        "T_Nm": rows.T[valid], "M_y_Nm": rows.My[valid], "M_z_Nm": rows.Mz[valid]})
+        "T_Nm": rows.T[valid], "M_y_Nm": rows.My[valid], "M_z_Nm": rows.Mz[valid]},
+        copy=False)  # each column its own new array already: not copied into one block
+
+
+def _taken(column: pd.Categorical, at: np.ndarray) -> pd.Categorical:
+    return categorical(column.codes[at], column.categories)
 
 
 def _with_analysis_status(per_combination: pd.DataFrame, combos: pd.DataFrame) -> pd.DataFrame:
@@ -244,8 +258,8 @@ def _mark_member_bows(table: pd.DataFrame, bows: pd.DataFrame, covered_by: str) 
     position = list(table.columns).index("amplified_part") + 1
     # '' or the one note: code 1 ('' sorts first) where the bow is needed
     notes = [""] + ([BOW_NOTES[covered_by]] if hit.any() else [])
-    table.insert(position, "bow_imperfection", _categorical(
-        hit.astype(_code_type(len(notes))), pd.Index(notes)))
+    table.insert(position, "bow_imperfection", categorical(
+        hit.astype(code_type(len(notes))), pd.Index(notes)))
     if covered_by == "not covered" and hit.any():
         reason = ("5.3.2(6): the member's bow imperfection belongs in the frame analysis and is "
                   "not covered")
@@ -314,44 +328,13 @@ def _empty_table() -> pd.DataFrame:
     return _coded(pd.DataFrame(columns=KEY_COLUMNS))
 
 
-def _code_type(n: int) -> type[np.signedinteger]:
-    """The integer type pandas keeps the codes of `n` categories in (so none is copied)."""
-    for kind in (np.int8, np.int16, np.int32):
-        if n < np.iinfo(kind).max:
-            return kind
-    return np.int64
-
-
-def _sorted_categories(texts: Iterable[Any]) -> pd.Index:
-    """Distinct texts sorted as text: a sort by a column of these codes is a sort by its text."""
-    return pd.Index(sorted({t for t in texts if not pd.isna(t)}))
-
-
-def _categorical(codes: np.ndarray, categories: pd.Index) -> pd.Categorical:
-    return pd.Categorical.from_codes(codes, dtype=pd.CategoricalDtype(categories))
-
-
-def _onto(uniques: Iterable[object], categories: pd.Index) -> np.ndarray:
-    """Codes of `uniques` (a factorization's distinct values) in `categories`, and -1 last, so
-    that indexing it with the factorization's codes (-1 where missing) gives the new codes."""
-    return np.append(categories.get_indexer(pd.Index(list(uniques), dtype=object)),
-                     -1).astype(_code_type(len(categories)))
-
-
 def _coded(frame: pd.DataFrame) -> pd.DataFrame:
     """The frame with its columns of CATEGORICAL_COLUMNS as categoricals (categories sorted)."""
     coded = {}
     for column in CATEGORICAL_COLUMNS:
         if column in frame and not isinstance(frame[column].dtype, pd.CategoricalDtype):
-            coded[column] = _sorted_categorical(frame[column].to_numpy(dtype=object))
+            coded[column] = sorted_categorical(frame[column].to_numpy(dtype=object))
     return frame.assign(**coded) if coded else frame
-
-
-def _sorted_categorical(values: np.ndarray) -> pd.Categorical:
-    """Texts as a categorical on the distinct ones, sorted (one or two bytes a row)."""
-    codes, uniques = pd.factorize(values)
-    categories = _sorted_categories(uniques)
-    return _categorical(_onto(uniques, categories)[codes], categories)
 
 
 def _stacked(frames: list[pd.DataFrame]) -> pd.DataFrame:
@@ -361,7 +344,7 @@ def _stacked(frames: list[pd.DataFrame]) -> pd.DataFrame:
     for column in CATEGORICAL_COLUMNS:
         present = [f[column].cat.categories for f in frames if column in f]
         if present:
-            dtype = pd.CategoricalDtype(_sorted_categories(t for c in present for t in c))
+            dtype = pd.CategoricalDtype(sorted_categories(t for c in present for t in c))
             frames = [f.assign(**{column: f[column].astype(dtype)}) if column in f else f
                       for f in frames]
     return pd.concat(frames, ignore_index=True, sort=False)
@@ -374,7 +357,7 @@ def _with_categories(table: pd.DataFrame, column: str, texts: Iterable[str]) -> 
     new = set(texts).difference(values.cat.categories)
     if new:
         table[column] = values.cat.set_categories(
-            _sorted_categories([*values.cat.categories, *new]))
+            sorted_categories([*values.cat.categories, *new]))
 
 
 def _per_combination(combination: np.ndarray, names: pd.Index, value: pd.Series
@@ -384,8 +367,8 @@ def _per_combination(combination: np.ndarray, names: pd.Index, value: pd.Series
     texts = pd.Series(names).map(value).fillna("").tolist()
     if (combination < 0).any():
         texts.append("")  # the code -1 picks the last
-    per_name = _sorted_categorical(np.array(texts, dtype=object))
-    return _categorical(per_name.codes[combination], per_name.categories)
+    per_name = sorted_categorical(np.array(texts, dtype=object))
+    return categorical(per_name.codes[combination], per_name.categories)
 
 
 MISSING_LENGTH_ORIGIN = {"L_cr,y not known": "origin_y", "L_cr,z not known": "origin_z",
@@ -406,7 +389,8 @@ def _explain_missing_lengths(table: pd.DataFrame, lengths: pd.DataFrame) -> pd.D
             continue
         why = (table.loc[hit, ["member", "combination"]]
                .merge(lengths[["member", "combination", origin]], how="left",
-                      on=["member", "combination"])[origin].fillna("").astype(str).to_numpy())
+                      on=["member", "combination"])[origin].astype(object).fillna("")
+               .astype(str).to_numpy())
         extra = np.where(why != "", " (" + why + ")", "")
         texts = (reason[hit].to_numpy(dtype=object) + extra).astype(object)
         _with_categories(table, "reason", texts)
@@ -567,7 +551,7 @@ def _table_part(member: np.ndarray, combination: np.ndarray, block: CheckBlock, 
         "member": member, "combination": combination, "check": block.check,
         "clause": block.clause, "x_m": block.x, "utilisation": block.utilisation,
         "status": _status_codes(block.utilisation, reason, limit),
-        "reason": _sorted_categorical(reason)}
+        "reason": sorted_categorical(reason)}
     # the categorical columns stay as they are: `_joined_parts` codes them
     return (len(member), _inferred(keys, keep=CATEGORICAL_COLUMNS),
             _inferred(dict(block.values) if values is None else values))
@@ -692,12 +676,12 @@ def _categorical_text(parts: list[tuple[int, dict[str, object]]], column: str,
             codes, uniques = pd.factorize(value if isinstance(value, (np.ndarray, pd.Series))
                                           else np.asarray(value, dtype=object))
             pieces.append((codes, list(uniques)))
-    categories = _sorted_categories(t for _, uniques in pieces for t in uniques)
-    out = np.empty(int(starts[-1]), dtype=_code_type(len(categories)))
+    categories = sorted_categories(t for _, uniques in pieces for t in uniques)
+    out = np.empty(int(starts[-1]), dtype=code_type(len(categories)))
     for (codes, uniques), a, b in zip(pieces, starts[:-1], starts[1:], strict=True):
-        onto = _onto(uniques, categories)
+        onto = codes_onto(uniques, categories)
         out[a:b] = onto[codes] if codes is not None else onto[0]
-    return _categorical(out, categories)
+    return categorical(out, categories)
 
 
 def _arrow_text(parts: list[tuple[int, dict[str, object]]], column: str, dtype: object
@@ -726,7 +710,7 @@ def _arrow_text(parts: list[tuple[int, dict[str, object]]], column: str, dtype: 
 def _status_codes(utilisation: np.ndarray, reason: np.ndarray, limit: float) -> pd.Categorical:
     """Each row's status (`status_codes`), as codes on the statuses that occur (no text object
     per row)."""
-    return _categorical(status_codes(utilisation, reason, limit),
+    return categorical(status_codes(utilisation, reason, limit),
                         pd.Index(STATUSES)).remove_unused_categories()
 
 

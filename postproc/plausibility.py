@@ -103,8 +103,9 @@ def _shear_against_moment(results: Results, outcome: CheckOutcome,
     forces = results.forces  # sorted by combination, element, x_m (postproc/model/results.py)
     if len(forces) < 2:
         return []
-    comb = forces["combination"].to_numpy()
-    element = forces["element"].to_numpy()
+    # integer codes, not a text object per station (millions of them on a large job)
+    comb = pd.factorize(forces["combination"])[0]
+    element, element_names = pd.factorize(forces["element"])
     x = forces["x_m"].to_numpy(float)
     same = (comb[1:] == comb[:-1]) & (element[1:] == element[:-1]) & (np.diff(x) > 1e-9)
     if not same.any():
@@ -126,7 +127,7 @@ def _shear_against_moment(results: Results, outcome: CheckOutcome,
     if bad.empty:
         return []
     element_member = _element_member(outcome)
-    members = sorted({element_member.get(str(e), str(e)) for e in bad.index})
+    members = sorted({element_member.get(str(e), str(e)) for e in element_names[bad.index]})
     return [(f"{forces_file}, member {m}", "the shear does not match the slope of the moment "
              "(dMy/dx = Vz, dMz/dx = -Vy) in most segments: are V and M from the same analysis, "
              "in the sign convention of docs/tables.md, with stations x from node_i?")

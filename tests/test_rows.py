@@ -27,8 +27,7 @@ def _rows(R: int = 5, S: int = 3) -> MemberRows:
         T=0 * force, My=force, Mz=0 * force, length=np.full(R, 4.0), section=section,
         f_y=np.full(R, 355e6), f_u=np.full(R, 490e6), E=np.full(R, 210e9), G=np.full(R, 81e9),
         lengths={k: np.full(R, 4.0) for k in ("L_cr_y", "L_cr_z", "L_cr_T", "L_LT")},
-        info=MemberInfo(section_class=np.ones((R, S), dtype=np.int8, order="F"),
-                        extra={"origin_y": np.array([f"o{i}" for i in range(R)], dtype=object)}),
+        info=MemberInfo(section_class=np.ones((R, S), dtype=np.int8, order="F")),
         settings=DesignSettings())
 
 
@@ -48,9 +47,11 @@ def test_slice_and_concat_cut_the_member_info_by_row() -> None:
     joined = joined_rows.info.buckling
     for name, value in whole.as_dict().items():
         np.testing.assert_array_equal(getattr(joined, name), value)
-    # the member information itself: stations per row, the lengths table's extra columns
+    # the member information itself (stations per row), and arrays held by name
     assert part.info.section_class.shape == (2, 3)
-    assert list(part.info.extra["origin_y"]) == ["o1", "o2"]
-    assert list(joined_rows.info.extra["origin_y"]) == [f"o{i}" for i in range(5)]
+    rows = replace(rows, section={**rows.section, "tag": np.arange(5.0)})
+    assert list(rows_slice(rows, 1, 3).section["tag"]) == [1.0, 2.0]
+    assert list(rows_concat([rows_slice(rows, 0, 2), rows_slice(rows, 2, 5)]).section["tag"]) \
+        == [0.0, 1.0, 2.0, 3.0, 4.0]
     np.testing.assert_array_equal(joined_rows.info.section_class, rows.info.section_class)
     assert part.info.z_g is None  # not given: stays not given

@@ -5,8 +5,7 @@ station, class 4 effective properties, buckling values)."""
 
 from __future__ import annotations
 
-from collections.abc import Mapping
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 
 import numpy as np
 
@@ -34,9 +33,6 @@ class MemberInfo:
             mode, False where not, None (or NaN) where not known (Annex B, Table B.3).
         L_LT_override: (R,) object, True where the project file gives L_LT (the segments are then
             equal parts of it).
-        extra: the other columns of the buckling-lengths table by name, (R,) object arrays
-            (the origin_y, origin_z, origin_LT, origin_T texts of `postproc.stability.lengths`);
-            no check reads them.
 
     Member overrides of the project file (`with_member_info`):
         ltb_restrained: (R,) bool, held against lateral-torsional buckling along its length.
@@ -74,7 +70,6 @@ class MemberInfo:
     class_part: np.ndarray | None = None
     effective: dict[str, np.ndarray] | None = None
     buckling: BucklingValues | None = None
-    extra: Mapping[str, np.ndarray] = field(default_factory=dict)
 
 
 def given(value: np.ndarray | None, default: np.ndarray) -> np.ndarray:

@@ -204,10 +204,10 @@ def build_member_rows(frame: Frame, forces: pd.DataFrame, members: Members,
         members: the design members.
         settings: design settings in force.
         lengths: one row per (member, combination) with L_cr_y_m, L_cr_z_m, L_cr_T_m, L_LT_m and
-            any other per-row columns: sway_y, sway_z and L_LT_override go into the fields
-            of `MemberInfo` of that name, the rest (origin_*) into `MemberInfo.extra`; rows
-            missing here get NaN lengths (None in info), so the checks that need them are
-            not evaluated.
+            sway_y, sway_z and L_LT_override, which go into the fields of `MemberInfo` of that
+            name; its other columns (the origin_* texts) are for the report and are not copied
+            per row (a million rows of text, which no check reads). Rows missing here get NaN
+            lengths (None in info), so the checks that need them are not evaluated.
 
     Besides those columns, info holds z_up, the grade of `member_properties` and ltb_points_m:
     the positions of the member's lateral ('y') restraint points (`restraint_positions`).
@@ -239,7 +239,7 @@ def build_member_rows(frame: Frame, forces: pd.DataFrame, members: Members,
         at = lookup[code * n_comb + keys["combination_code"].to_numpy()]
         found = at >= 0
         for column in lengths.columns:
-            if column in ("member", "combination"):
+            if not (column.endswith("_m") or column in LENGTHS_TABLE_INFO):
                 continue
             values = lengths[column].to_numpy()
             if column.endswith("_m"):
@@ -263,7 +263,7 @@ def build_member_rows(frame: Frame, forces: pd.DataFrame, members: Members,
     sway_y, sway_z, L_LT_override = (from_lengths.pop(key, None) for key in LENGTHS_TABLE_INFO)
     row_info = MemberInfo(grade=grade_m[code], z_up=z_up_m[code],
                           ltb_points_m=restraint_positions(members, "y")[code], sway_y=sway_y,
-                          sway_z=sway_z, L_LT_override=L_LT_override, extra=from_lengths)
+                          sway_z=sway_z, L_LT_override=L_LT_override)
     return MemberRows(
         member=keys["member"].to_numpy(), combination=keys["combination"].to_numpy(),
         x=arrays["x_m"], N=arrays["N_N"], Vy=arrays["Vy_N"], Vz=arrays["Vz_N"], T=arrays["T_Nm"],

@@ -51,7 +51,9 @@ def _member_spans(table: pd.DataFrame) -> tuple[np.ndarray, dict[str, tuple[int,
     """Positions that list the table's rows member by member (each member's rows in table
     order), and each member's (start, stop) in them: integer codes and one stable argsort, no
     sorted copy of the table and no text object per row."""
-    codes, names = pd.factorize(table["member"].astype(str))
+    member = table["member"]
+    codes, names = pd.factorize(member if isinstance(member.dtype, pd.CategoricalDtype)
+                                else member.astype(str))
     order = np.argsort(codes, kind="stable")
     bounds = np.concatenate([[0], np.cumsum(np.bincount(codes, minlength=len(names)))])
     return order, {str(name): (int(bounds[k]), int(bounds[k + 1]))

@@ -44,6 +44,7 @@ from ..errors import InputError
 from ..model.frame import NODE_COLUMNS, Frame, local_axes, released
 from ..model.members import Members, member_axes, moment_released
 from ..model.results import Results
+from ..numerics.categories import sorted_categorical
 
 __all__ = ["COLLINEAR_COS", "E_STEEL", "FAR_END_FACTOR", "FRAME_MODE_ORIGIN", "OVERRIDE_COLUMNS",
            "SHOWN_LENGTH_CAP", "SWAY_PATHS", "X_TOL_M", "buckling_lengths",
@@ -461,7 +462,9 @@ def buckling_lengths(frame: Frame, members: Members, results: Results, paths: pd
                                                    dtype=object)[:, None], C, axis=1)
     out = pd.DataFrame({"member": np.repeat(names, C), "combination": np.tile(combos, M)})
     for name, arr in cols.items():
-        out[name] = arr.ravel()
+        # the origin texts as categoricals: a few distinct texts over (members x combinations)
+        # rows, held as codes rather than a text per row
+        out[name] = sorted_categorical(arr.ravel()) if arr.dtype == object else arr.ravel()
     out["L_LT_override"] = False
     if overrides is not None and len(overrides):
         out = _apply_overrides(out, overrides, set(names))
@@ -515,7 +518,9 @@ def _apply_overrides(out: pd.DataFrame, overrides: pd.DataFrame, known: set[str]
             if col == "L_LT_m":  # the LTB check then keeps equal parts of L_LT, and says so
                 changed["L_LT_override"][sel] = True
     for col, values in changed.items():
-        out[col] = pd.array(values, dtype=out[col].dtype)
+        # an origin may now hold a new text (the override's): its categories made anew
+        out[col] = (sorted_categorical(values) if isinstance(out[col].dtype, pd.CategoricalDtype)
+                    else pd.array(values, dtype=out[col].dtype))
     return out
 
 
