@@ -16,20 +16,34 @@ def member_summary(table: pd.DataFrame, members: pd.DataFrame) -> pd.DataFrame:
     A member's status is 'fail' if any check fails, else 'not evaluated' if any check could not be
     evaluated (it is not a pass), else 'pass'.
     """
-    # the few columns needed, never a copy of the whole wide table
-    shown = ["member", "utilisation", "combination", "check", "clause", "x_m"]
-    evaluated = table.loc[(table["status"] != NOT_EVALUATED).to_numpy(), shown]
-    idx = evaluated.groupby("member")["utilisation"].idxmax()
-    governing = evaluated.loc[idx.dropna().astype(int), shown]
-    governing = governing.set_index("member").rename(columns={
+    # per member by integer codes: no copy of the table's columns and no text per row
+    member_codes, names = pd.factorize(table["member"])
+    status = pd.Categorical(table["status"])  # the table's own categorical: not copied
+    status_codes, statuses = status.codes, status.categories
+    utilisation = table["utilisation"].to_numpy(float)
+    not_evaluated = (status_codes == statuses.get_loc(NOT_EVALUATED)
+                     if NOT_EVALUATED in statuses else np.zeros(len(table), dtype=bool))
+    evaluated = np.flatnonzero(~not_evaluated & ~np.isnan(utilisation) & (member_codes >= 0))
+    # the governing row of each member: its largest utilisation, the first such row
+    largest = (pd.Series(utilisation[evaluated]).groupby(member_codes[evaluated]).max()
+               .reindex(range(len(names))).to_numpy(float))
+    at_largest = evaluated[utilisation[evaluated] == largest[member_codes[evaluated]]]
+    first_codes, first = np.unique(member_codes[at_largest], return_index=True)
+    shown = ["utilisation", "combination", "check", "clause", "x_m"]
+    governing = table.iloc[at_largest[first]][shown].set_axis(
+        pd.Index(np.asarray(names)[first_codes], name="member")).rename(columns={
         "utilisation": "max_utilisation", "combination": "governing_combination",
         "check": "governing_check", "clause": "governing_clause", "x_m": "governing_x_m"})
     # one row per member: its texts as text, not the long table's categoricals
     governing = governing.astype({"governing_check": str, "governing_clause": str})
-    counts = pd.crosstab(table["member"], table["status"])
-    for status in (PASS, FAIL, NOT_EVALUATED):
-        if status not in counts:
-            counts[status] = 0
+    valid = member_codes >= 0
+    tally = np.bincount(member_codes[valid] * len(statuses) + status_codes[valid],
+                        minlength=len(names) * len(statuses)).reshape(len(names), len(statuses))
+    counts = pd.DataFrame(tally, index=pd.Index(np.asarray(names), name="member"),
+                          columns=list(statuses))
+    for status_name in (PASS, FAIL, NOT_EVALUATED):
+        if status_name not in counts:
+            counts[status_name] = 0
     summary = members[["section", "grade", "kind", "length_m"]].join(governing, how="left")
     summary["checks"] = counts[[PASS, FAIL, NOT_EVALUATED]].sum(axis=1).reindex(summary.index)
     summary["failed"] = counts[FAIL].reindex(summary.index).fillna(0).astype(int)
