@@ -467,10 +467,12 @@ def _checked_parts(rows: MemberRows, families: list[CheckFamily],
     release_free_memory()  # the workers' heaps of chunk temporaries, given back
     parts = []
     value_columns: dict[str, tuple[str, ...]] = {}
+    # the rows' member and combination as codes, taken per check (no text per table row)
+    keys = (sorted_categorical(rows.member), sorted_categorical(rows.combination))
     for k, sink in enumerate(sinks):
         value_columns.setdefault(sink.check, tuple(sink.values))
         if sink.n_rows:
-            parts.append(sink.part(rows, limit))
+            parts.append(sink.part(keys, limit))
         sinks[k] = _CheckSink(None)  # each check's pieces freed once joined
     return (parts, np.concatenate(covered) if covered else np.zeros(0, dtype=bool),
             value_columns)
@@ -516,7 +518,7 @@ class _CheckSink:
             self.values[name].add(np.asarray(value)[applies])
         self.n_rows += n
 
-    def part(self, rows: MemberRows, limit: float) -> Part:
+    def part(self, keys: tuple[pd.Categorical, pd.Categorical], limit: float) -> Part:
         """The check's rows of the long table (`_table_part`)."""
         where = self.rows.array()
         reason = self.reason.finish()
@@ -527,7 +529,7 @@ class _CheckSink:
             reason=reason.decoded() if isinstance(reason, Coded) else reason)
         values: dict[str, object] = {name: builder.finish()
                                      for name, builder in self.values.items()}
-        return _table_part(rows.member[where], rows.combination[where], block, limit, values)
+        return _table_part(_taken(keys[0], where), _taken(keys[1], where), block, limit, values)
 
 
 def _applying(block: CheckBlock, applies: np.ndarray) -> CheckBlock:
@@ -539,7 +541,8 @@ def _applying(block: CheckBlock, applies: np.ndarray) -> CheckBlock:
                       values={k: np.asarray(v)[applies] for k, v in block.values.items()})
 
 
-def _table_part(member: np.ndarray, combination: np.ndarray, block: CheckBlock, limit: float,
+def _table_part(member: np.ndarray | pd.Categorical, combination: np.ndarray | pd.Categorical,
+                block: CheckBlock, limit: float,
                 values: dict[str, object] | None = None) -> Part:
     """One check's rows of the long table: its key columns and its values (the block's, or
     `values` where given; text values as the dtype a frame built from them would give, pandas'

@@ -16,11 +16,12 @@ __all__ = ["CATEGORICAL_COLUMNS", "FAIL", "KEY_COLUMNS", "NOT_EVALUATED", "PASS"
 
 KEY_COLUMNS = ["member", "combination", "check", "clause", "x_m", "utilisation", "status", "reason"]
 
-# the long table's text columns with few distinct values, held as pandas categoricals (one or two
-# bytes a row, not a text per row) whose categories are sorted as text, so that a sort by one of
-# them is a sort by its text; any other text column is Arrow-backed text
-CATEGORICAL_COLUMNS = ("check", "clause", "status", "reason", "analysis_path", "amplified_part",
-                       "bow_imperfection")
+# the long table's text columns with few distinct values (a member's name repeats on every row of
+# its checks and combinations), held as pandas categoricals (one to four bytes a row, not a text
+# per row) whose categories are sorted as text, so that a sort by one of them is a sort by its
+# text; any other text column is Arrow-backed text
+CATEGORICAL_COLUMNS = ("member", "combination", "check", "clause", "status", "reason",
+                       "analysis_path", "amplified_part", "bow_imperfection")
 
 
 @dataclass(frozen=True)
