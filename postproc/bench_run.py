@@ -9,7 +9,9 @@ reading the same forces.csv, then runs `framesweep run` on the project in a chil
 times it from start to exit: reading and validating the tables, members, buckling lengths, member
 rows, every check, the results table, summaries and writing every output. Prints both times,
 their ratio (target at most 3), the run's peak memory (max resident set of the child; target under
-4 GiB) and what the run printed, with its stage times (`--stage-times`).
+4 GiB) and what the run printed, with its stage times (`--stage-times`). Then, for scale, the
+time pyarrow alone takes to write the run's long table (utilisation.parquet) again from memory:
+the least that one output costs (docs/speed.md).
 
 alpha_cr is given in combinations.csv (`ALPHA_CR`, at least 10: the first-order path of
 5.2.1(3)) so that the run skips the frame's eigen analysis and goes through every stage. The
@@ -90,6 +92,25 @@ def csv_read_seconds(path: Path) -> float:
     return seconds
 
 
+def parquet_write_seconds(path: Path, scratch: Path) -> float:
+    """Seconds pyarrow alone takes to write the run's long table `path` again, row group by row
+    group from memory (reading is not timed): the least that writing this file costs, whatever
+    the run does before it."""
+    import pyarrow.parquet as pq
+
+    source = pq.ParquetFile(path)
+    seconds = 0.0
+    with pq.ParquetWriter(scratch, source.schema_arrow) as writer:
+        for k in range(source.num_row_groups):
+            group = source.read_row_group(k)
+            t0 = time.perf_counter()
+            writer.write_table(group)
+            seconds += time.perf_counter() - t0
+            del group
+    scratch.unlink()
+    return seconds
+
+
 def main(argv: list[str] | None = None) -> None:
     parser = argparse.ArgumentParser(description=__doc__.splitlines()[0])
     parser.add_argument("--rows", type=int, default=1_000_000, help="member-combinations")
@@ -136,6 +157,11 @@ def main(argv: list[str] | None = None) -> None:
         print(f"framesweep run, end to end: {t_run:.2f} s, exit code {child.returncode}, "
               f"ratio to the CSV read {t_run / t_read:.2f} (target <= 3)")
         print(f"peak memory of the run (max resident set): {peak:.2f} GiB (target < 4)")
+        long_table = folder / "out" / "utilisation.parquet"
+        if long_table.exists():
+            t_write = parquet_write_seconds(long_table, folder / "rewritten.parquet")
+            print(f"pyarrow alone writing utilisation.parquet again: {t_write:.2f} s, "
+                  f"{t_write / t_read:.2f} x the CSV read (the least the file costs)")
 
 
 def _watch(child: subprocess.Popen, max_gib: float) -> bool:

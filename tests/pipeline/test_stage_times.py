@@ -11,7 +11,7 @@ from pathlib import Path
 import pandas as pd
 import pytest
 
-from postproc.bench_run import ALPHA_CR, write_job
+from postproc.bench_run import ALPHA_CR, parquet_write_seconds, write_job
 from postproc.cli import main
 from postproc.report.progress import Stages
 
@@ -62,3 +62,8 @@ def test_the_benchmark_job_runs_every_stage_with_its_checks_evaluated(tmp_path: 
     stability = pd.read_csv(tmp_path / "out" / "stability.csv")
     assert (stability["path"] == "first-order").all()
     assert (stability["alpha_cr_given"] == ALPHA_CR).all()
+    # the least the long table costs to write: pyarrow alone rewrites the run's file, and the
+    # scratch copy is removed
+    long_table = tmp_path / "out" / "utilisation.parquet"
+    assert parquet_write_seconds(long_table, tmp_path / "again.parquet") > 0
+    assert not (tmp_path / "again.parquet").exists()
