@@ -15,6 +15,7 @@ from __future__ import annotations
 
 from collections.abc import Iterable
 from dataclasses import replace
+from typing import TypeAlias
 
 import numpy as np
 import pandas as pd
@@ -121,20 +122,22 @@ def check_frame(frame: Frame, results: Results, settings: DesignSettings, *,
 
     rows = build_member_rows(frame, checked.forces, members, settings, lengths)
     lap("member rows")
+    keys = _coded_keys(rows)
     parts, covered, value_columns = _checked_parts(
-        rows, families or CHECK_FAMILIES, overrides, tension_only, settings.utilisation_limit)
+        rows, keys, families or CHECK_FAMILIES, overrides, tension_only,
+        settings.utilisation_limit)
     lap("checks")
     # the rows' forces as the report's stations; of the rows (forces, section and member data
     # per row) only the keys are needed from here on, so the rest is freed before the table
     # is built
-    stations = station_forces(rows)
-    row_keys = (rows.member, rows.combination)
+    stations = station_forces(rows, keys)
+    names = (rows.member, rows.combination)
     del rows
     table, value_parts = _long_table(parts)
     del parts
     release_free_memory()
     # members without forces first, so that a combination's frame path applies to them too
-    table = _mark_unchecked_members(table, members, row_keys, list(uls), covered)
+    table = _mark_unchecked_members(table, members, names, list(uls), covered)
     table = _mark_unusable_combinations(table, per_combination, combos, members)
     table = _explain_missing_lengths(table, lengths)
     if "path" in per_combination and len(table):
@@ -203,21 +206,31 @@ def _with_given_column(per_combination: pd.DataFrame, combos: pd.DataFrame) -> p
     return out
 
 
-def station_forces(rows: MemberRows) -> pd.DataFrame:
+def station_forces(rows: MemberRows, keys: RowKeys | None = None) -> pd.DataFrame:
     """The forces of every row at its real stations as a plain long table (padding dropped);
     member and combination as categoricals (a few thousand names over millions of stations:
-    codes, not a text per station)."""
+    codes, not a text per station). `keys`: the rows' `_coded_keys`, where already made."""
+    member, combination = keys or _coded_keys(rows)
     valid = rows.valid
     r, _ = np.nonzero(valid)
     return pd.DataFrame({
-        "member": _taken(sorted_categorical(rows.member), r),
-        "combination": _taken(sorted_categorical(rows.combination), r), "x_m": rows.x[valid],
+        "member": _taken(member, r), "combination": _taken(combination, r), "x_m": rows.x[valid],
         "N_N": rows.N[valid], "V_y_N": rows.Vy[valid], "V_z_N": rows.Vz[valid],
         "T_Nm": rows.T[valid], "M_y_Nm": rows.My[valid], "M_z_Nm": rows.Mz[valid]},
         copy=False)  # each column its own new array already: not copied into one block
 
 
+RowKeys: TypeAlias = tuple[pd.Categorical, pd.Categorical]
+
+
+def _coded_keys(rows: MemberRows) -> RowKeys:
+    """The rows' member and combination as categoricals (categories sorted as text), coded
+    once for the run and taken per table row or station (`_taken`)."""
+    return sorted_categorical(rows.member), sorted_categorical(rows.combination)
+
+
 def _taken(column: pd.Categorical, at: np.ndarray) -> pd.Categorical:
+    """`column[at]` on the same categories (-1 in `at` takes the last row)."""
     return categorical(column.codes[at], column.categories)
 
 
@@ -367,8 +380,7 @@ def _per_combination(combination: np.ndarray, names: pd.Index, value: pd.Series
     texts = pd.Series(names).map(value).fillna("").tolist()
     if (combination < 0).any():
         texts.append("")  # the code -1 picks the last
-    per_name = sorted_categorical(np.array(texts, dtype=object))
-    return categorical(per_name.codes[combination], per_name.categories)
+    return _taken(sorted_categorical(np.array(texts, dtype=object)), combination)
 
 
 MISSING_LENGTH_ORIGIN = {"L_cr,y not known": "origin_y", "L_cr,z not known": "origin_z",
@@ -431,7 +443,7 @@ def _length_overrides(overrides: pd.DataFrame | None) -> pd.DataFrame | None:
 Part = tuple[int, dict[str, object], dict[str, object]]  # rows, key columns, value columns
 
 
-def _checked_parts(rows: MemberRows, families: list[CheckFamily],
+def _checked_parts(rows: MemberRows, keys: RowKeys, families: list[CheckFamily],
                    overrides: pd.DataFrame | None, tension_only: list[str], limit: float
                    ) -> tuple[list[Part], np.ndarray, dict[str, tuple[str, ...]]]:
     """Every check family over the rows, chunk by chunk on the engine's threads; of each
@@ -467,8 +479,6 @@ def _checked_parts(rows: MemberRows, families: list[CheckFamily],
     release_free_memory()  # the workers' heaps of chunk temporaries, given back
     parts = []
     value_columns: dict[str, tuple[str, ...]] = {}
-    # the rows' member and combination as codes, taken per check (no text per table row)
-    keys = (sorted_categorical(rows.member), sorted_categorical(rows.combination))
     for k, sink in enumerate(sinks):
         value_columns.setdefault(sink.check, tuple(sink.values))
         if sink.n_rows:

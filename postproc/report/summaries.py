@@ -18,7 +18,7 @@ def member_summary(table: pd.DataFrame, members: pd.DataFrame) -> pd.DataFrame:
     """
     # per member by integer codes: no copy of the table's columns and no text per row
     member_codes, names = pd.factorize(table["member"])
-    status = pd.Categorical(table["status"])  # the table's own categorical: not copied
+    status = pd.Categorical(table["status"])  # the table's categorical (codes, not texts)
     status_codes, statuses = status.codes, status.categories
     utilisation = table["utilisation"].to_numpy(float)
     not_evaluated = (status_codes == statuses.get_loc(NOT_EVALUATED)
