@@ -49,21 +49,8 @@ _SHAPES = np.array([LINEAR, SPAN_SMALLER, SPAN_LARGER, NO_MOMENT, INVALID], dtyp
 _LOADS = np.array([NONE, DISTRIBUTED, CONCENTRATED, UNDETERMINED], dtype=object)
 _S_LINEAR, _S_SMALLER, _S_LARGER, _S_NO_MOMENT, _S_INVALID = range(5)
 _L_NONE, _L_DISTRIBUTED, _L_CONCENTRATED, _L_UNDETERMINED = range(4)
-_PSI_TEXT = ("", ", 0 <= psi <= 1", ", -1 <= psi < 0")
-_COLUMN_TEXT = ("concentrated", "distributed", "distributed (load type undetermined)")
-
-
-def _row_texts(ratio: str, sign: str) -> np.ndarray:
-    """Table B.3 row texts by code (sign * 3 + psi) * 3 + column, for alpha_s or alpha_h."""
-    return np.array([f"B.3 {ratio}, {s_txt}{p_txt}, {c_txt}"
-                     for s_txt in (f"0 <= {sign} <= 1", f"-1 <= {sign} < 0")
-                     for p_txt in _PSI_TEXT for c_txt in _COLUMN_TEXT], dtype=object)
-
-
-_ROWS_S = _row_texts("alpha_s = M_s/M_h", "alpha_s")
-_ROWS_H = _row_texts("alpha_h = M_h/M_s", "alpha_h")
-_ROW_TEXTS = np.concatenate([np.array(["not readable", "B.3 linear, -1 <= psi <= 1",
-                                       "no moment, C_m = 1.0"], dtype=object), _ROWS_S, _ROWS_H])
+# Table B.3's load columns: an undetermined load reads the distributed one (the larger factor)
+_COLUMNS = ("concentrated", "distributed", "distributed (load type undetermined)")
 
 
 def _codes(values: np.ndarray, table: np.ndarray) -> np.ndarray:
@@ -259,20 +246,42 @@ def _table_b3(psi: np.ndarray, alpha_s: np.ndarray, alpha_h: np.ndarray, shape: 
                       [lin, s_pos, s_neg, h, np.ones_like(psi)], default=np.nan)
         lower_bounded = is_linear | is_smaller
         C = np.where(lower_bounded, np.maximum(C, 0.4), C)  # the '>= 0.4' of the table
+    row = _table_b3_row(psi, a_s, a_h, shape, load)
+    row[np.isnan(C)] = "not readable"  # no factor, no row
+    return C, row
 
-    # row texts by code (see _ROW_TEXTS): alpha_s and alpha_h rows by
-    # (sign of alpha * 3 + psi text) * 3 + load column
-    column = np.where(point, 0, np.where(load == _L_UNDETERMINED, 2, 1))
-    psi_code = np.where(psi >= 0, 1, 2)
+
+def _table_b3_row(psi: np.ndarray, a_s: np.ndarray, a_h: np.ndarray, shape: np.ndarray,
+                  load: np.ndarray) -> np.ndarray:
+    """The row and load column of Table B.3 that each diagram is read from, as text."""
+    smaller, larger = shape == _S_SMALLER, shape == _S_LARGER
     with np.errstate(invalid="ignore"):
-        code_s = (np.where(a_s >= 0, 0, 1) * 3 + np.where(a_s < 0, psi_code, 0)) * 3 + column
-        code_h = (np.where(a_h >= 0, 0, 1) * 3 + np.where(a_h < 0, psi_code, 0)) * 3 + column
-    code = np.zeros(psi.shape, dtype=np.int16)  # 0: not readable
-    code[is_linear] = 1
-    code[no_moment] = 2
-    code[is_smaller] = 3 + code_s[is_smaller]
-    code[is_larger] = 3 + _ROWS_S.size + code_h[is_larger]
-    return C, _ROW_TEXTS[code]
+        # each row where the factor above takes its formula (a NaN psi falls as it does there)
+        rows = [  # (where, the row's text), in the order of the table
+            (shape == _S_LINEAR, "B.3 linear, -1 <= psi <= 1"),
+            (shape == _S_NO_MOMENT, "no moment, C_m = 1.0"),
+        ]
+        span_rows = [  # the rows with a span moment, which name their load column
+            (smaller & (a_s >= 0), "B.3 alpha_s = M_s/M_h, 0 <= alpha_s <= 1"),
+            (smaller & (a_s < 0) & (psi >= 0),
+             "B.3 alpha_s = M_s/M_h, -1 <= alpha_s < 0, 0 <= psi <= 1"),
+            (smaller & (a_s < 0) & ~(psi >= 0),
+             "B.3 alpha_s = M_s/M_h, -1 <= alpha_s < 0, -1 <= psi < 0"),
+            (larger & (a_h >= 0), "B.3 alpha_h = M_h/M_s, 0 <= alpha_h <= 1"),
+            (larger & (a_h < 0) & ~(psi < 0),
+             "B.3 alpha_h = M_h/M_s, -1 <= alpha_h < 0, 0 <= psi <= 1"),
+            (larger & (a_h < 0) & (psi < 0),
+             "B.3 alpha_h = M_h/M_s, -1 <= alpha_h < 0, -1 <= psi < 0"),
+        ]
+    every = rows + span_rows
+    row = np.select([where for where, _ in every], range(1, len(every) + 1), default=0)
+    column = np.where(load == _L_CONCENTRATED, 0, np.where(load == _L_UNDETERMINED, 2, 1))
+    # every (row, column) text made once, then looked up per diagram (0: not readable)
+    texts = np.array([["not readable"] * len(_COLUMNS)]
+                     + [[text] * len(_COLUMNS) for _, text in rows]
+                     + [[f"{text}, {c}" for c in _COLUMNS] for _, text in span_rows],
+                     dtype=object)
+    return texts[row, column]
 
 
 def sway_flags(sway: np.ndarray | None, n: int) -> tuple[np.ndarray, np.ndarray]:

@@ -293,3 +293,23 @@ def test_chord_deflection_closed_forms() -> None:
     x, M = end_moments(M0, -M0, n=201)
     assert mf.chord_deflection(x, M, EI)[0] == pytest.approx(
         np.sqrt(3) / 108 * M0 * L ** 2 / EI[0], rel=1e-4)
+
+
+def test_the_row_named_is_the_row_whose_formula_gave_the_factor() -> None:
+    # Table B.3 rows by alpha and psi range, load column last; the two diagrams of the tests
+    # above (alpha_h = -1/3 with psi = 1, alpha_h = -0.246 with psi = -1, uniform load).
+    r = b3(*with_udl(-50e3, -50e3, 200e3))
+    assert r["C_m_row"][0] == ("B.3 alpha_h = M_h/M_s, -1 <= alpha_h < 0, 0 <= psi <= 1, "
+                               "distributed")
+    r = b3(*with_udl(-50e3, 50e3, 200e3, n=161))
+    assert r["C_m_row"][0] == ("B.3 alpha_h = M_h/M_s, -1 <= alpha_h < 0, -1 <= psi < 0, "
+                               "distributed")
+    # given directly: a factor read with psi unknown takes the formula of 0 <= psi <= 1 and says
+    # so; no factor (alpha unknown) names no row
+    larger, smaller = "span moment larger than end moment", "span moment smaller than end moment"
+    C, row = mf.C_m_table_b3(np.array([np.nan, 0.5]), np.array([np.nan, np.nan]),
+                             np.array([-0.5, np.nan]), np.array([larger, smaller], dtype=object),
+                             np.array(["concentrated", "distributed"], dtype=object))
+    assert C[0] == pytest.approx(0.90 + 0.10 * -0.5, abs=EXACT) and np.isnan(C[1])
+    assert row.tolist() == ["B.3 alpha_h = M_h/M_s, -1 <= alpha_h < 0, 0 <= psi <= 1, "
+                            "concentrated", "not readable"]
