@@ -111,7 +111,20 @@ def _as_text(keys: pd.DataFrame) -> pd.DataFrame:
     """A slice with its categorical columns as text (the file holds text, not dictionaries,
     and its pandas schema says so, as before the table held categoricals)."""
     coded = [c for c in keys.columns if isinstance(keys[c].dtype, pd.CategoricalDtype)]
-    return keys.assign(**{c: keys[c].astype(str) for c in coded}) if coded else keys
+    return keys.assign(**{c: _categorical_text(keys[c]) for c in coded}) if coded else keys
+
+
+def _categorical_text(column: pd.Series) -> pd.api.extensions.ExtensionArray:
+    """`column.astype(str)` of a categorical column of text, made in Arrow from its codes (no
+    text object per row): the same values, missing where the code is -1, and the same dtype."""
+    import pyarrow as pa
+    import pyarrow.compute as pc
+
+    codes = column.cat.codes.to_numpy()
+    categories = pa.array(np.asarray(column.cat.categories.astype(str), dtype=object),
+                          type=pa.large_string())
+    return pd.array(pc.take(categories, pa.array(codes, mask=codes < 0)),
+                    dtype=pd.Series([""], dtype=str).dtype)
 
 
 def _with_value_columns(arrow, keys: pd.DataFrame, values: CheckValues,
