@@ -52,7 +52,7 @@ def member_summary(table: pd.DataFrame, members: pd.DataFrame) -> pd.DataFrame:
     summary["status"] = np.where(summary["failed"] > 0, FAIL,
                                  np.where((summary["not_evaluated"] > 0) | (summary["checks"] == 0),
                                           NOT_EVALUATED, PASS))
-    first_reason = (table.loc[(table["status"] == NOT_EVALUATED).to_numpy(), ["member", "reason"]]
+    first_reason = (table.loc[not_evaluated, ["member", "reason"]]
                     .groupby("member")["reason"].first())
     # as text: '' is no category of a categorical reason column
     summary["not_evaluated_reason"] = first_reason.astype(str).reindex(summary.index).fillna("")
